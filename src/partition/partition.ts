@@ -6,6 +6,7 @@
  */
 import type { Shape } from '../config/model.js';
 import { positionCount } from '../config/model.js';
+import { closest } from '../text/suggest.js';
 
 export type PartitionKind =
   | 'start-end'
@@ -160,33 +161,4 @@ function parseRange(part: string): readonly [number, number] | undefined {
   const m = /^\s*(\d+)\s*-\s*(\d+)\s*$/.exec(part);
   if (!m) return undefined;
   return [Number(m[1]), Number(m[2])];
-}
-
-/** Levenshtein distance, for "did you mean" hints. */
-export function editDistance(a: string, b: string): number {
-  const prev = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0]!;
-    prev[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const up = prev[j]!;
-      prev[j] = Math.min(up + 1, prev[j - 1]! + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = up;
-    }
-  }
-  return prev[b.length]!;
-}
-
-/** The candidate nearest to `word` when it is close enough to be a likely typo. */
-export function closest(word: string, candidates: readonly string[]): string | undefined {
-  let best: string | undefined;
-  let bestD = Infinity;
-  for (const c of candidates) {
-    const d = editDistance(word.toLowerCase(), c.toLowerCase());
-    if (d < bestD) {
-      bestD = d;
-      best = c;
-    }
-  }
-  return bestD <= Math.max(2, Math.floor(word.length / 3)) ? best : undefined;
 }

@@ -1,0 +1,137 @@
+/**
+ * Upper bounds by polynomial degree, for networks that reuse inputs or states (overlapping
+ * windows, deep recurrence). There the min-cut of the duplicated tree can be very loose, and the
+ * input-side cap M^|A| is not even valid: one reused input can carry more than M functions.
+ *
+ * Take a frontier F of nodes that depend on side-A inputs only, such that every path from an A
+ * input to the output passes through F. The output is then a polynomial in the values of F (with
+ * coefficients depending on x_B), of degree at most d_v in node v, where d_v counts the paths from
+ * v to the output that leave the pure region at once. The functions of x_A that can appear are
+ * spanned by monomials, so the separation rank is at most Π_v C(D_v + d_v, d_v), or
+ * Π_v C(D_v + d_v − 1, d_v) when the function is homogeneous in each v (no sums). The frontier is
+ * swept over every down-closed prefix of the pure nodes in topological order; the best is kept.
+ */
+import { OP_CONST, OP_INPUT, type Circuit } from '../network/circuit.js';
+
+export interface DegreeBound {
+  readonly rank: bigint;
+  /** The frontier: tag → node dim → number of frontier nodes. */
+  readonly counts: Map<number, Map<number, number>>;
+}
+
+const SAFE = 2 ** 52;
+
+export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
+  const n = c.size;
+  const dep = new Uint8Array(n);
+  const { op, childStart, childList } = c;
+  for (let v = 0; v < n; v++) {
+    if (op[v] === OP_INPUT) dep[v] = side[c.position[v]!] === 1 ? 1 : 2;
+    else if (op[v] !== OP_CONST) {
+      let m = 0;
+      for (let i = childStart[v]!; i < childStart[v + 1]!; i++) m |= dep[childList[i]!]!;
+      dep[v] = m;
+    }
+  }
+  const paths = new Float64Array(n);
+  paths[c.top] = 1;
+  for (let v = n - 1; v >= 0; v--) {
+    const p = paths[v]!;
+    if (p === 0) continue;
+    if (p > SAFE) return null;
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
+      const ch = childList[i]!;
+      paths[ch] = paths[ch]! + p;
+    }
+  }
+  let best: { step: number; mask: number; log: number } | null = null;
+  for (const mask of [1, 2]) {
+    const found = sweep(c, dep, paths, mask, -1);
+    if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
+  }
+  if (!best) return null;
+  const frontier = sweep(c, dep, paths, best.mask, best.step);
+  if (!frontier || !frontier.degrees) return null;
+  let rank = 1n;
+  const counts = new Map<number, Map<number, number>>();
+  for (const [v, d] of frontier.degrees) {
+    rank *= binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d);
+    const tag = c.tag[v]!;
+    let byDim = counts.get(tag);
+    if (!byDim) counts.set(tag, (byDim = new Map()));
+    byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + 1);
+  }
+  return { rank, counts };
+}
+
+interface SweepResult {
+  step: number;
+  log: number;
+  degrees?: Map<number, number>;
+}
+
+/**
+ * Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound.
+ * With stopAt < 0 returns the best step; with stopAt ≥ 0 returns the frontier after that step.
+ */
+function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, stopAt: number): SweepResult | null {
+  const { op, childStart, childList, dim } = c;
+  const d = new Float64Array(c.size);
+  const h = c.homogeneous ? 1 : 0;
+  const term = (v: number): number => log2Binomial(dim[v]! + d[v]! - h, d[v]!);
+  let inputsLeft = 0;
+  for (let v = 0; v < c.size; v++) if (op[v] === OP_INPUT && dep[v] === mask && paths[v]! > 0) inputsLeft++;
+  if (inputsLeft === 0) return null;
+  let total = 0;
+  let best: SweepResult | null = null;
+  for (let v = 0; v < c.size; v++) {
+    if (dep[v] !== mask || paths[v] === 0) continue;
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
+      const ch = childList[i]!;
+      if (d[ch]! > 0) {
+        total -= term(ch);
+        d[ch] = d[ch]! - paths[v]!;
+        if (d[ch]! > 0) total += term(ch);
+      }
+    }
+    d[v] = paths[v]!;
+    total += term(v);
+    if (op[v] === OP_INPUT) inputsLeft--;
+    if (stopAt === v) {
+      const degrees = new Map<number, number>();
+      for (let u = 0; u <= v; u++) if (d[u]! > 0) degrees.set(u, d[u]!);
+      return { step: v, log: total, degrees };
+    }
+    if (inputsLeft === 0 && (!best || total < best.log - 1e-9)) best = { step: v, log: total };
+  }
+  return best;
+}
+
+/** log2 C(n, k) through log-gamma; only used to choose a frontier, never as the reported value. */
+export function log2Binomial(n: number, k: number): number {
+  if (k <= 0 || k >= n) return 0;
+  return (logGamma(n + 1) - logGamma(k + 1) - logGamma(n - k + 1)) / Math.LN2;
+}
+
+/** Exact C(n, k) for non-negative integers. */
+export function binomial(n: number, k: number): bigint {
+  if (k < 0 || k > n) return 0n;
+  const kk = Math.min(k, n - k);
+  let r = 1n;
+  for (let i = 1; i <= kk; i++) r = (r * BigInt(n - kk + i)) / BigInt(i);
+  return r;
+}
+
+const LANCZOS = [
+  676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905,
+  -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
+];
+
+function logGamma(x: number): number {
+  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - logGamma(1 - x);
+  const z = x - 1;
+  let a = 0.99999999999980993;
+  for (let i = 0; i < LANCZOS.length; i++) a += LANCZOS[i]! / (z + i + 1);
+  const t = z + LANCZOS.length - 0.5;
+  return 0.5 * Math.log(2 * Math.PI) + (z + 0.5) * Math.log(t) - t + Math.log(a);
+}
