@@ -9,15 +9,13 @@ import type { ExplicitModel } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { minHyperCut, type Hyperedge } from './hypergraph-cut.js';
 import { log2Big, type Bound, type CutEntry } from './types.js';
+import { floorLog, powerCandidates } from './power-rounding.js';
 
 export interface ExplicitBounds {
   readonly upper: Bound;
   /** null when no rule proves a lower bound for this network. */
   readonly lower: Bound | null;
 }
-
-/** Candidate bases for power rounding; each costs one max-flow. */
-const MAX_CANDIDATES = 64;
 
 interface Edge {
   readonly members: number[];
@@ -57,7 +55,7 @@ export function explicitBounds(model: ExplicitModel, partition: Partition): Expl
   // by Levine, Yakira, Cohen, Shashua, "Deep learning and quantum entanglement: fundamental
   // connections with implications to network design" (ICLR 2018).
   let lower: Bound | null = null;
-  for (const q of candidateBases(net.edges.map((e) => e.dim))) {
+  for (const q of powerCandidates(net.edges.map((e) => e.dim))) {
     const exps = net.edges.map((e) => floorLog(e.dim, q));
     const found = cut(net, exps);
     const c = found.reduce((s, i) => s + exps[i]!, 0);
@@ -168,43 +166,4 @@ function entries(cutEdges: readonly { edge: Edge; dim: number }[]): CutEntry[] {
   return [...groups.values()].sort(
     (a, b) => a.line - b.line || (a.layer < b.layer ? -1 : a.layer > b.layer ? 1 : 0) || a.dim - b.dim,
   );
-}
-
-/** ⌊log_q d⌋ by repeated multiplication in bigints, so no float logarithm can round it wrong. */
-function floorLog(d: number, q: number): number {
-  const big = BigInt(d);
-  const base = BigInt(q);
-  let e = 0;
-  for (let p = base; p <= big; p *= base) e++;
-  return e;
-}
-
-/** ⌊d^(1/k)⌋ exactly: a float guess corrected by bigint powers. */
-function integerRoot(d: number, k: number): number {
-  const big = BigInt(d);
-  const kk = BigInt(k);
-  let r = Math.max(1, Math.floor(Math.pow(d, 1 / k)));
-  while (BigInt(r + 1) ** kk <= big) r++;
-  while (r > 1 && BigInt(r) ** kk > big) r--;
-  return r;
-}
-
-/**
- * 2, then the k-th roots of every dimension for k = 1, 2, ...: a base that is a dimension (or
- * one of its roots) keeps that dimension unrounded. Capped so that huge networks with many
- * distinct dimensions stay cheap.
- */
-function candidateBases(dims: readonly number[]): number[] {
-  const distinct = [...new Set(dims)].filter((d) => d >= 2).sort((a, b) => b - a);
-  const out = new Set<number>([2]);
-  const maxK = distinct.length === 0 ? 0 : Math.floor(Math.log2(distinct[0]!)) + 1;
-  for (let k = 1; k <= maxK && out.size < MAX_CANDIDATES; k++) {
-    for (const d of distinct) {
-      if (out.size >= MAX_CANDIDATES) break;
-      if (2 ** k > d) continue;
-      const r = integerRoot(d, k);
-      if (r >= 2) out.add(r);
-    }
-  }
-  return [...out];
 }
