@@ -1,0 +1,37 @@
+/**
+ * The JSON form of `rankfloor bounds`: one document, ranks as decimal strings (they exceed 2^53),
+ * log2 rounded to 6 decimals, keys in a fixed order so that the same input gives the same bytes.
+ */
+import type { Bound, BoundsResult, CutEntry } from '../cut/types.js';
+
+export interface BoundJson {
+  rank: string;
+  log2: number;
+}
+
+export function boundJson(b: Bound): BoundJson {
+  return { rank: b.rank.toString(), log2: roundLog(b.log2) };
+}
+
+export function cutJson(cut: readonly CutEntry[]): { layer: number | string; line: number; dim: number; count: number }[] {
+  return cut.map((c) => ({ layer: c.layer, line: c.line, dim: c.dim, count: c.count }));
+}
+
+export function roundLog(x: number): number {
+  return Math.round(x * 1e6) / 1e6;
+}
+
+export function boundsJson(result: BoundsResult): string {
+  const doc = {
+    file: result.file,
+    surrogate: result.surrogate,
+    partitions: result.partitions.map((p) => ({
+      partition: p.partition,
+      upper: boundJson(p.upper),
+      lower: p.lower ? boundJson(p.lower) : null,
+      status: p.status,
+      cut: cutJson(p.upper.cut),
+    })),
+  };
+  return JSON.stringify(doc, null, 2) + '\n';
+}
