@@ -1,0 +1,39 @@
+/**
+ * Collects the diagnostics of one load so that the loader can report every problem it finds,
+ * not just the first, and hands them back in a fixed order (by source offset) so that output and
+ * tests are stable.
+ */
+import type { Diagnostic, Span } from '../diagnostic.js';
+
+export class DiagnosticSink {
+  private readonly items: Diagnostic[] = [];
+  private readonly seen = new Set<string>();
+
+  constructor(readonly file: string) {}
+
+  error(code: string, message: string, span?: Span): void {
+    const key = `${code}\u0000${span?.offset ?? -1}\u0000${message}`;
+    if (this.seen.has(key)) return;
+    this.seen.add(key);
+    this.items.push(span ? { code, message, file: this.file, span, severity: 'error' } : { code, message, file: this.file, severity: 'error' });
+  }
+
+  get count(): number {
+    return this.items.length;
+  }
+
+  /** Sorted by offset (position-less ones first), then by end, code and message. */
+  sorted(): Diagnostic[] {
+    return [...this.items].sort(
+      (a, b) =>
+        (a.span?.offset ?? -1) - (b.span?.offset ?? -1) ||
+        (a.span?.endOffset ?? -1) - (b.span?.endOffset ?? -1) ||
+        compare(a.code, b.code) ||
+        compare(a.message, b.message),
+    );
+  }
+}
+
+function compare(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}

@@ -1,0 +1,56 @@
+/**
+ * Renames alias fields (`out_channels`, `kernel_size`, ...) to their canonical names before the
+ * schema sees the model. Only the key is renamed: the value keeps its YAML node, so spans and
+ * messages still point at what the user wrote. Giving an alias together with its canonical name
+ * (or two aliases of one field) is an error, reported at every spelling after the first.
+ */
+import type { DiagnosticSink } from './diagnostic-sink.js';
+import { displayPath, fieldOf, type Located, type LocatedEntry, type LocatedMap } from './located-value.js';
+import { FIELD_ALIASES, isLayerKind } from './layer-vocabulary.js';
+
+export function normaliseFieldAliases(root: Located, sink: DiagnosticSink): void {
+  if (root.kind !== 'map') return;
+  visitLayerList(fieldOf(root, 'layers'), sink);
+}
+
+function visitLayerList(list: Located | undefined, sink: DiagnosticSink): void {
+  if (list?.kind !== 'seq') return;
+  for (const item of list.items) {
+    if (item.kind !== 'map') continue;
+    for (const entry of item.entries) {
+      if (!isLayerKind(entry.key) || entry.value.kind !== 'map') continue;
+      normaliseBody(entry.value, FIELD_ALIASES.get(entry.key) ?? new Map(), sink);
+      if (entry.key === 'repeat') visitLayerList(fieldOf(entry.value, 'layers'), sink);
+    }
+  }
+}
+
+function normaliseBody(body: LocatedMap, aliases: ReadonlyMap<string, string>, sink: DiagnosticSink): void {
+  const byCanonical = new Map<string, LocatedEntry[]>();
+  for (const entry of body.entries) {
+    const canonical = aliases.get(entry.key) ?? entry.key;
+    const group = byCanonical.get(canonical) ?? [];
+    group.push(entry);
+    byCanonical.set(canonical, group);
+  }
+  const dropped = new Set<LocatedEntry>();
+  for (const [canonical, group] of byCanonical) {
+    const first = group[0];
+    if (!first) continue;
+    first.key = canonical;
+    for (const extra of group.slice(1)) {
+      dropped.add(extra);
+      const spellings = group.map((e) => `'${e.writtenKey}'`);
+      const listed = spellings.length === 2 ? `${spellings.join(' and ')}, which both mean` : `${spellings.join(', ')}, which all mean`;
+      sink.error(
+        'config/alias-conflict',
+        `${displayPath(body)} gives ${listed} '${canonical}'; keep only one of them`,
+        extra.keySpan,
+      );
+    }
+  }
+  if (dropped.size > 0) {
+    const kept = body.entries.filter((e) => !dropped.has(e));
+    body.entries.splice(0, body.entries.length, ...kept);
+  }
+}
