@@ -154,7 +154,8 @@ function perDimension(body: LocatedMap, field: string, ctx: Context): number[] |
   const scalar = positiveIntegerOf(node);
   if (scalar !== undefined) return new Array<number>(ctx.dims).fill(scalar);
   const list = positiveIntegerListOf(node);
-  if (!list) return undefined;
+  // Lists of other lengths than 1 or 2 are already reported by the schema.
+  if (!list || list.length < 1 || list.length > 2) return undefined;
   if (list.length !== ctx.dims) {
     const form = ctx.dims === 1 ? '[n]' : '[height, width]';
     ctx.sink.error(

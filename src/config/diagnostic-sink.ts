@@ -12,7 +12,9 @@ export class DiagnosticSink {
   constructor(readonly file: string) {}
 
   error(code: string, message: string, span?: Span): void {
-    const key = `${code}\u0000${span?.offset ?? -1}\u0000${message}`;
+    // One problem at one place is reported once, even when a YAML alias makes the validator see
+    // it at several paths.
+    const key = span ? `${code}\u0000${span.offset}\u0000${span.endOffset}` : `${code}\u0000${message}`;
     if (this.seen.has(key)) return;
     this.seen.add(key);
     this.items.push(span ? { code, message, file: this.file, span, severity: 'error' } : { code, message, file: this.file, severity: 'error' });
