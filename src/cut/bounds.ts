@@ -7,7 +7,7 @@ import type { Diagnostic } from '../diagnostic.js';
 import type { LayeredModel, Model } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
-import type { Circuit } from '../network/circuit.js';
+import { OP_INPUT, type Circuit } from '../network/circuit.js';
 import { buildCircuit } from '../network/build-circuit.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial } from './degree-bound.js';
@@ -91,7 +91,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     }
     const lowers: Bound[] = [];
     if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
-    else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit));
+    else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit, p.side));
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
     let lower: Bound | null = null;
@@ -171,13 +171,24 @@ function roundingLower(c: Circuit, side: Uint8Array, plan: RoundingPlan): Bound 
 
 /**
  * Derived here: with every map a partial identity of width q (the smallest dimension in the
- * network) and learned initial states all-ones, the function is Σ_k w_k Π_p x_{p,k}^{c_p}, whose
- * rank across any partition with both sides non-empty is q. Valid with shared weights.
+ * network's reachable part) and learned initial states all-ones, the function is
+ * Σ_k w_k Π_p x_{p,k}^{c_p} over the inputs p that reach the output (c_p ≥ 1 paths), whose rank is
+ * q when both sides hold such an input. Valid with shared weights.
  */
-function diagonalLower(c: Circuit): Bound {
+function diagonalLower(c: Circuit, side: Uint8Array): Bound {
+  // Only inputs that reach the output count (a stride larger than its kernel can drop some):
+  // when one side has none, the function does not depend on it and the rank is 1.
+  const reached = new Uint8Array(c.size);
+  reached[c.top] = 1;
   let q = Infinity;
-  for (let v = 0; v < c.size; v++) q = Math.min(q, c.dim[v]!);
-  const rank = BigInt(q);
+  let sides = 0;
+  for (let v = c.size - 1; v >= 0; v--) {
+    if (!reached[v]) continue;
+    q = Math.min(q, c.dim[v]!);
+    if (c.op[v] === OP_INPUT) sides |= side[c.position[v]!] === 1 ? 1 : 2;
+    for (let i = c.childStart[v]!; i < c.childStart[v + 1]!; i++) reached[c.childList[i]!] = 1;
+  }
+  const rank = sides === 3 ? BigInt(q) : 1n;
   return { rank, log2: log2Big(rank), method: 'diagonal', cut: [] };
 }
 

@@ -129,8 +129,9 @@ function applyLayer(
           message: `${where}: dense needs a single remaining position, but the grid is [${grid.shape.join(', ')}] here; add 'pool: {global: true}' before it`,
         };
       }
-      grid.nodes = [b.add(OP_LINEAR, layer.units, tag, grid.nodes)];
-      grid.dim = layer.units;
+      // One class score is a linear functional of the last state whatever the head's widths
+      // (w^T W_k … W_1 is an arbitrary vector), so dense layers are part of the head vector.
+      notes.add('dense layers come after the last pooling, so they are part of the head: one class score is a linear functional of the last state');
       return undefined;
     }
     case 'recurrent': {

@@ -46,6 +46,14 @@ export function shortRank(r: bigint, log2: number): string {
 
 export function describeCut(cut: readonly CutEntry[], method: string): string {
   if (cut.length === 0) return method;
-  const parts = cut.map((c) => `${c.layer === 'input' ? 'input legs' : `layer ${c.layer}`} (line ${c.line}): ${c.count} × ${c.dim}`);
+  const parts = cut.map((c) => `${cutLabel(c.layer)} (line ${c.line}): ${c.count} × ${c.dim}`);
   return method === 'min-cut' ? parts.join('; ') : `${method}: ${parts.join('; ')}`;
+}
+
+/** How a cut group is named: input legs, an explicit network's legs or bond, or a layer. */
+export function cutLabel(layer: number | string): string {
+  if (layer === 'input') return 'input legs';
+  if (layer === 'legs') return 'open legs';
+  if (typeof layer === 'string' && layer.startsWith('bond ')) return layer;
+  return `layer ${layer}`;
 }
