@@ -99,14 +99,16 @@ export function tree1d(rng: Rng, shared: boolean): LayeredCase {
   while (len > 1) {
     const r = rng.pick(CHANNELS);
     const ds = divisorsAbove1(len);
-    const kernel = [rng.int(1, 3)];
+    const kernel = [rng.int(1, Math.min(3, len))];
+    // The tree surrogate ignores kernel and padding; both vary so that the engine must too.
+    const padding = rng.chance(0.3) ? 'valid' : 'same';
     if (rng.chance(0.25)) {
       const s = rng.pick(ds);
-      layers.push(conv(r, { kernel, stride: [s] }));
+      layers.push(conv(r, { kernel, stride: [s], padding }));
       len /= s;
       continue;
     }
-    layers.push(conv(r, { kernel }));
+    layers.push(conv(r, { kernel, padding }));
     if (rng.chance(0.15)) {
       layers.push(globalPool());
       len = 1;
@@ -150,12 +152,13 @@ export function tree2d(rng: Rng, shared: boolean): LayeredCase {
   let w = w0;
   while (h * w > 1) {
     const r = rng.pick(CHANNELS);
-    const kernel = [rng.int(1, 3), rng.int(1, 3)];
+    const kernel = [rng.int(1, Math.min(3, h)), rng.int(1, Math.min(3, w))];
+    const padding = rng.chance(0.3) ? 'valid' : 'same';
     const win = window2d(rng, h, w);
     if (rng.chance(0.25)) {
-      layers.push(conv(r, { kernel, stride: win }));
+      layers.push(conv(r, { kernel, stride: win, padding }));
     } else {
-      layers.push(conv(r, { kernel, dims: 2 }));
+      layers.push(conv(r, { kernel, padding }));
       if (rng.chance(0.1)) {
         layers.push(globalPool());
         h = 1;
@@ -181,11 +184,14 @@ export function overlap1d(rng: Rng): LayeredCase {
   for (let b = 0; b < blocks && len > 1; b++) {
     const r = rng.pick([1, 2, 2]);
     const k = rng.int(1, Math.min(3, len));
-    const s = rng.chance(0.2) ? 2 : 1;
+    const s = rng.chance(0.2) ? rng.pick([2, 2, 3]) : 1;
     const padding = rng.chance(0.3) ? 'valid' : 'same';
     layers.push(conv(r, { kernel: [k], stride: [s], padding }));
     len = axisGeometry(len, k, s, padding).out;
-    if (len > 1 && rng.chance(0.7)) {
+    if (len > 1 && rng.chance(0.1)) {
+      layers.push(globalPool());
+      len = 1;
+    } else if (len > 1 && rng.chance(0.7)) {
       const w = rng.pick(divisorsAbove1(len));
       layers.push(pool([w]));
       len /= w;
