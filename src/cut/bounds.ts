@@ -13,6 +13,7 @@ import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial } from './degree-bound.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds } from './explicit-bounds.js';
+import { topWindowLower } from './top-window-lower.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
 import { log2Big } from './types.js';
 
@@ -92,6 +93,10 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     const lowers: Bound[] = [];
     if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
     else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit, p.side));
+    if (lowerCircuit && model.weightSharing && !hasRecurrent) {
+      const top = topWindowLower(lowerCircuit, p.side);
+      if (top !== undefined) lowers.push({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] });
+    }
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
     let lower: Bound | null = null;
