@@ -1,0 +1,31 @@
+/**
+ * One thing a reviewer must see, independent of where it is shown: a GitHub annotation, a SARIF
+ * result, a line of the job summary. `check` turns its results into findings once, and every
+ * output format renders the same list, so they never disagree about what failed where.
+ */
+
+export type FindingRule =
+  /** A requirement whose upper bound is below its minimum (or unproven, counted as failing). */
+  | 'requirement-failed'
+  /** A requirement neither proven nor refuted, counted as a warning. */
+  | 'requirement-unproven'
+  /** A drop against the base revision larger than the policy's max_drop_bits. */
+  | 'capacity-drop'
+  /** The head revision changed a policy; the base policy was used. */
+  | 'policy-changed'
+  /** A config or policy that could not be read. */
+  | 'input-error';
+
+export interface Finding {
+  readonly rule: FindingRule;
+  readonly level: 'error' | 'warning' | 'notice';
+  /** One-line title and the full explanation. */
+  readonly title: string;
+  readonly message: string;
+  /** Path relative to the repository root, forward slashes. */
+  readonly file: string;
+  readonly line: number;
+  readonly column: number;
+  /** Stable across runs and unrelated edits: rule, file, policy and partition, never a line. */
+  readonly fingerprint: string;
+}
