@@ -6,12 +6,13 @@
 
 export type PathSegment = string | number;
 
-export function formatFieldPath(segments: readonly PathSegment[]): string {
+/** `whole` names the root itself, for messages about the document as a whole. */
+export function formatFieldPath(segments: readonly PathSegment[], whole = 'the model'): string {
   let out = '';
   for (const s of segments) {
     if (typeof s === 'number') out += `[${s}]`;
     else if (/^[A-Za-z_][A-Za-z0-9_-]*$/.test(s)) out += out === '' ? s : `.${s}`;
     else out += `[${JSON.stringify(s)}]`;
   }
-  return out === '' ? 'the model' : out;
+  return out === '' ? whole : out;
 }

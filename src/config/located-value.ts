@@ -19,6 +19,8 @@ interface LocatedCommon {
   readonly segment: PathSegment | undefined;
   /** On the root only: the segments of the model path that lead to it. */
   readonly base?: readonly PathSegment[];
+  /** On the root only: how messages name the tree as a whole, when not "the model". */
+  readonly rootName?: string;
 }
 
 export interface LocatedEntry {
@@ -65,7 +67,9 @@ export function pathOf(node: Located): PathSegment[] {
 
 /** `model.layers[2].conv.channels`. */
 export function displayPath(node: Located, ...more: PathSegment[]): string {
-  return formatFieldPath([...pathOf(node), ...more]);
+  let root: Located = node;
+  while (root.parent) root = root.parent;
+  return formatFieldPath([...pathOf(node), ...more], root.rootName);
 }
 
 /** `/model/layers/2/conv/channels`. */
@@ -130,8 +134,18 @@ export function describeScalar(value: unknown): string {
   return String(value);
 }
 
+/** How messages speak of the converted tree; the defaults are the config loader's wording. */
+export interface ConvertNaming {
+  /** The tree as a whole, e.g. "the policy". */
+  readonly rootName?: string;
+  /** What the tree describes, e.g. "policy" (as in "no policy needs that"). */
+  readonly subject?: string;
+}
+
 interface ConvertState {
   readonly doc: Document;
+  readonly rootName: string;
+  readonly subject: string;
   readonly lines: LineCounter;
   readonly sink: DiagnosticSink;
   expansions: number;
@@ -154,9 +168,21 @@ export function convertNode(
   node: unknown,
   base: readonly PathSegment[],
   fallback: Span,
+  naming: ConvertNaming = {},
 ): Located | undefined {
-  const state: ConvertState = { doc, lines, sink, expansions: 0, active: new Set(), failed: false, reportedBudget: false, reportedDepth: false };
-  const root = convert(state, node, undefined, undefined, fallback, 0, base);
+  const state: ConvertState = {
+    doc,
+    rootName: naming.rootName ?? 'the model',
+    subject: naming.subject ?? 'architecture',
+    lines,
+    sink,
+    expansions: 0,
+    active: new Set(),
+    failed: false,
+    reportedBudget: false,
+    reportedDepth: false,
+  };
+  const root = convert(state, node, undefined, undefined, fallback, 0, base, undefined, naming.rootName);
   return state.failed ? undefined : root;
 }
 
@@ -169,17 +195,19 @@ function convert(
   depth: number,
   base?: readonly PathSegment[],
   aliasSpan?: Span,
+  rootName?: string,
 ): Located | undefined {
   const common = (own: Span | undefined) => ({
     span: aliasSpan ?? own ?? fallback,
     parent,
     segment,
     ...(base ? { base } : {}),
+    ...(rootName !== undefined ? { rootName } : {}),
   });
   if (depth > MAX_NESTING_DEPTH) {
     if (!st.reportedDepth) {
       st.reportedDepth = true;
-      st.sink.error('config/too-deep', `the model is nested more than ${MAX_NESTING_DEPTH} levels deep here; no architecture needs that`, aliasSpan ?? fallback);
+      st.sink.error('config/too-deep', `${st.rootName} is nested more than ${MAX_NESTING_DEPTH} levels deep here; no ${st.subject} needs that`, aliasSpan ?? fallback);
     }
     st.failed = true;
     return undefined;
@@ -195,7 +223,7 @@ function convert(
         st.reportedBudget = true;
         st.sink.error(
           'config/alias-limit',
-          `too many alias expansions: the model expands more than ${MAX_ALIAS_EXPANSIONS} aliases (*${node.source}); a document that multiplies itself through aliases is refused`,
+          `too many alias expansions: ${st.rootName} expands more than ${MAX_ALIAS_EXPANSIONS} aliases (*${node.source}); a document that multiplies itself through aliases is refused`,
           own,
         );
       }
@@ -215,7 +243,7 @@ function convert(
     }
     st.active.add(target);
     try {
-      return convert(st, target, parent, segment, own, depth + 1, base, aliasSpan ?? own);
+      return convert(st, target, parent, segment, own, depth + 1, base, aliasSpan ?? own, rootName);
     } finally {
       st.active.delete(target);
     }
@@ -248,14 +276,14 @@ function convert(
       const keySpan =
         (isAlias(pair.key) || isScalar(pair.key) || isMap(pair.key) || isSeq(pair.key) ? spanOfRange(st.lines, pair.key.range) : undefined) ?? map.span;
       if (!isScalar(keyNode) || (keyNode.value !== null && typeof keyNode.value === 'object')) {
-        st.sink.error('config/key-type', `${formatFieldPath(pathOf(map))} has a key that is not a plain name; keys must be strings such as 'layers'`, keySpan);
+        st.sink.error('config/key-type', `${formatFieldPath(pathOf(map), st.rootName)} has a key that is not a plain name; keys must be strings such as 'layers'`, keySpan);
         st.failed = true;
         continue;
       }
       const key = String(keyNode.value);
       const earlier = firstAt.get(key);
       if (earlier) {
-        st.sink.error('config/duplicate-key', `${formatFieldPath([...pathOf(map), key])} is given twice (first on line ${earlier.line}); keep one`, keySpan);
+        st.sink.error('config/duplicate-key', `${formatFieldPath([...pathOf(map), key], st.rootName)} is given twice (first on line ${earlier.line}); keep one`, keySpan);
         st.failed = true;
         continue;
       }

@@ -92,11 +92,12 @@ function reportOne(e: ErrorObject, root: Located, locations: ReadonlyMap<object,
     case 'maximum':
     case 'exclusiveMaximum': {
       const limit = Number(params['limit']);
+      const noun = typeIncludes(parent, 'integer') ? 'integer' : 'number';
       const what =
-        e.keyword === 'minimum' && limit === 1
+        e.keyword === 'minimum' && limit === 1 && noun === 'integer'
           ? 'a positive integer'
           : e.keyword === 'minimum' && limit === 0
-            ? 'a non-negative integer'
+            ? `a non-negative ${noun}`
             : `${params['comparison'] ?? ''} ${limit}`.trim();
       sink.error('config/invalid-number', `${path} must be ${what}, got ${describeScalar(e.data)}`, at);
       return;
