@@ -1,0 +1,158 @@
+/**
+ * The smallest change that restores a failing requirement: for each width field on or next to the
+ * minimal cut, the smallest value of that one field with which the requirement no longer fails,
+ * found by search on the engine itself (so it is exact for the surrogate). Bounds never decrease
+ * when a width grows, so a doubling probe followed by bisection finds the smallest value.
+ */
+import type { Layer, LayeredModel } from '../config/model.js';
+import { layerLabel } from '../config/model.js';
+import type { Span } from '../diagnostic.js';
+import type { Partition } from '../partition/partition.js';
+import { analyseLayered } from '../cut/bounds.js';
+import type { PartitionBounds, Surrogate } from '../cut/types.js';
+import { parameterCount } from './parameters.js';
+import type { UnprovenMode } from './policy.js';
+
+export interface Fix {
+  /** Layer label (name or index), or `input`. */
+  readonly layer: number | string;
+  /** Canonical field name: `channels`, `hidden`, `depth`, `features`. */
+  readonly field: string;
+  readonly line: number;
+  readonly column: number;
+  readonly from: number;
+  readonly to: number;
+  readonly addedParameters: bigint;
+  /** The requirement's verdict with the fix applied. */
+  readonly verdict: 'pass' | 'unproven';
+}
+
+/** Whether bounds meet a minimum under a policy's handling of unproven requirements. */
+export function restores(b: PartitionBounds, minRank: bigint, unproven: UnprovenMode): boolean {
+  if (b.upper.rank < minRank) return false;
+  return unproven === 'warn' || (b.lower !== null && b.lower.rank >= minRank);
+}
+
+interface Candidate {
+  readonly layer: number | string;
+  readonly field: string;
+  readonly span: Span;
+  readonly from: number;
+  readonly max: number;
+  readonly apply: (model: LayeredModel, value: number) => LayeredModel;
+}
+
+const MAX_WIDTH = 1 << 16;
+const MAX_DEPTH = 64;
+
+export function searchFixes(
+  model: LayeredModel,
+  partition: Partition,
+  minRank: bigint,
+  unproven: UnprovenMode,
+  surrogate: Surrogate,
+  cutLayers: ReadonlySet<number | string>,
+): Fix[] {
+  const judge = (m: LayeredModel): PartitionBounds | undefined => {
+    const a = analyseLayered(m, { surrogate });
+    if (!a.ok) return undefined;
+    const b = a.bounds(partition);
+    return 'diagnostic' in b ? undefined : b;
+  };
+  const baseParams = parameterCount(model);
+  const fixes: Fix[] = [];
+  for (const cand of candidates(model, cutLayers)) {
+    const at = (v: number): PartitionBounds | undefined => judge(cand.apply(model, v));
+    let lo = cand.from;
+    let hi = Math.min(cand.max, Math.max(cand.from + 1, cand.from * 2));
+    let found: PartitionBounds | undefined;
+    for (;;) {
+      const b = at(hi);
+      if (b && restores(b, minRank, unproven)) {
+        found = b;
+        break;
+      }
+      if (hi >= cand.max) break;
+      lo = hi;
+      hi = Math.min(cand.max, hi * 2);
+    }
+    if (!found) continue;
+    while (hi - lo > 1) {
+      const mid = Math.floor((lo + hi) / 2);
+      const b = at(mid);
+      if (b && restores(b, minRank, unproven)) {
+        hi = mid;
+        found = b;
+      } else lo = mid;
+    }
+    const fixed = cand.apply(model, hi);
+    fixes.push({
+      layer: cand.layer,
+      field: cand.field,
+      line: cand.span.line,
+      column: cand.span.column,
+      from: cand.from,
+      to: hi,
+      addedParameters: parameterCount(fixed) - baseParams,
+      verdict: found.lower !== null && found.lower.rank >= minRank ? 'pass' : 'unproven',
+    });
+  }
+  return fixes.sort((a, b) => (a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line));
+}
+
+/** Width fields of the layers the cut crosses and of their neighbours; input features if its legs are cut. */
+function candidates(model: LayeredModel, cutLayers: ReadonlySet<number | string>): Candidate[] {
+  const near = new Set<number>();
+  model.layers.forEach((l, i) => {
+    if (cutLayers.has(layerLabel(l))) for (const j of [i - 1, i, i + 1]) if (j >= 0 && j < model.layers.length) near.add(j);
+  });
+  const seen = new Set<string>();
+  const out: Candidate[] = [];
+  for (const i of [...near].sort((a, b) => a - b)) {
+    const layer = model.layers[i]!;
+    for (const field of widthFields(layer)) {
+      // Layers expanded from one `repeat` entry share their YAML: a fix edits every copy.
+      const key = `${layer.path}#${field}`;
+      if (seen.has(key)) continue;
+      seen.add(key);
+      out.push({
+        layer: layerLabel(layer),
+        field,
+        span: layer.fieldSpans[field] ?? layer.span,
+        from: fieldValue(layer, field),
+        max: field === 'depth' ? MAX_DEPTH : MAX_WIDTH,
+        apply: (m, v) => ({ ...m, layers: m.layers.map((l) => (l.path === layer.path ? withField(l, field, v) : l)) }),
+      });
+    }
+  }
+  if (cutLayers.has('input')) {
+    out.push({
+      layer: 'input',
+      field: 'features',
+      span: model.input.fieldSpans['features'] ?? model.input.span,
+      from: model.input.features,
+      max: MAX_WIDTH,
+      apply: (m, v) => ({ ...m, input: { ...m.input, features: v } }),
+    });
+  }
+  return out;
+}
+
+function widthFields(layer: Layer): string[] {
+  switch (layer.kind) {
+    case 'conv':
+      return ['channels'];
+    case 'recurrent':
+      return ['hidden', 'depth'];
+    default:
+      return [];
+  }
+}
+
+function fieldValue(layer: Layer, field: string): number {
+  return (layer as unknown as Record<string, number>)[field]!;
+}
+
+function withField(layer: Layer, field: string, value: number): Layer {
+  return { ...layer, [field]: value } as Layer;
+}
