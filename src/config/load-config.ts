@@ -18,6 +18,7 @@ import { MAX_DOCUMENT_BYTES } from './limits.js';
 import { convertNode, entryOf, toPlain } from './located-value.js';
 import { compiledModelSchema, validateAgainstSchema } from './model-schema.js';
 import { resolveModelNode } from './model-pointer.js';
+import { checkLayerEntryCount } from './repeat-expansion.js';
 import { reportSchemaErrors } from './schema-errors.js';
 import { reportYamlErrors } from './yaml-errors.js';
 
@@ -72,6 +73,7 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
   if (!root) return fail();
 
   normaliseFieldAliases(root, sink);
+  if (!checkLayerEntryCount(root, sink)) return fail();
   const schema = compiledModelSchema();
   reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
 

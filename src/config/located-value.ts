@@ -6,6 +6,7 @@
  */
 import { isAlias, isMap, isScalar, isSeq, type Document, type LineCounter, type Node } from 'yaml';
 import type { Span } from '../diagnostic.js';
+import { AnchorIndex } from './anchor-index.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { formatFieldPath, type PathSegment } from './field-path.js';
 import { formatPointer } from './json-pointer.js';
@@ -143,7 +144,7 @@ export interface ConvertNaming {
 }
 
 interface ConvertState {
-  readonly doc: Document;
+  readonly anchors: AnchorIndex;
   readonly rootName: string;
   readonly subject: string;
   readonly lines: LineCounter;
@@ -171,7 +172,7 @@ export function convertNode(
   naming: ConvertNaming = {},
 ): Located | undefined {
   const state: ConvertState = {
-    doc,
+    anchors: new AnchorIndex(doc),
     rootName: naming.rootName ?? 'the model',
     subject: naming.subject ?? 'architecture',
     lines,
@@ -230,7 +231,7 @@ function convert(
       st.failed = true;
       return undefined;
     }
-    const target = node.resolve(st.doc);
+    const target = st.anchors.resolve(node);
     if (!target) {
       st.sink.error('config/yaml', `the alias *${node.source} refers to no anchor &${node.source} before it`, own);
       st.failed = true;
@@ -272,7 +273,7 @@ function convert(
     const map: LocatedMap = { kind: 'map', entries: [], ...common(own) };
     const firstAt = new Map<string, Span>();
     for (const pair of node.items) {
-      const keyNode: unknown = isAlias(pair.key) ? pair.key.resolve(st.doc) : pair.key;
+      const keyNode: unknown = isAlias(pair.key) ? st.anchors.resolve(pair.key) : pair.key;
       const keySpan =
         (isAlias(pair.key) || isScalar(pair.key) || isMap(pair.key) || isSeq(pair.key) ? spanOfRange(st.lines, pair.key.range) : undefined) ?? map.span;
       if (!isScalar(keyNode) || (keyNode.value !== null && typeof keyNode.value === 'object')) {

@@ -4,6 +4,7 @@
  * resolve, the diagnostic points at the deepest node that does exist and lists what is there.
  */
 import { isAlias, isMap, isScalar, isSeq, type Document, type LineCounter } from 'yaml';
+import { AnchorIndex } from './anchor-index.js';
 import type { Span } from '../diagnostic.js';
 import { closest } from '../text/suggest.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
@@ -27,6 +28,7 @@ export function resolveModelNode(
   pointer: string,
   segments: readonly string[],
 ): ResolvedModelNode | undefined {
+  const anchors = new AnchorIndex(doc);
   const docSpan = spanFromOffsets(lines, 0, 0);
   let cur: unknown = doc.contents;
   let curSpan = spanOfRange(lines, rangeOf(cur)) ?? docSpan;
@@ -44,7 +46,7 @@ export function resolveModelNode(
   for (let i = 0; i < segments.length; i++) {
     const seg = segments[i]!;
     // A path step through an alias follows it (an alias never points at another alias).
-    if (isAlias(cur)) cur = cur.resolve(doc);
+    if (isAlias(cur)) cur = anchors.resolve(cur);
     if (isMap(cur)) {
       const keys: string[] = [];
       let found: { value: unknown; keyRange: [number, number, number] | undefined } | undefined;

@@ -7,6 +7,7 @@ import type { Span } from '../diagnostic.js';
 import type { Layer } from './model.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { MAX_EXPANDED_LAYERS } from './limits.js';
+import { displayPath, fieldOf, type Located } from './located-value.js';
 
 /** A layer before expansion: it gets its flattened index and repeat iteration when expanded. */
 export type LayerTemplate =
@@ -65,4 +66,34 @@ export function expandTemplates(
   };
   expand(templates, undefined);
   return out;
+}
+
+/**
+ * Refuses, before validation, a model whose YAML already lists more layer entries than can ever
+ * expand to an allowed model (each entry becomes at least one layer). This keeps the validator's
+ * work bounded on huge documents.
+ */
+export function checkLayerEntryCount(root: Located, sink: DiagnosticSink): boolean {
+  if (root.kind !== 'map') return true;
+  const layers = fieldOf(root, 'layers');
+  if (layers?.kind !== 'seq') return true;
+  const count = countEntries(layers);
+  if (count <= MAX_EXPANDED_LAYERS) return true;
+  sink.error(
+    'config/too-many-layers',
+    `${displayPath(layers)} lists ${count} layers (counting those inside repeat blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
+    layers.span,
+  );
+  return false;
+}
+
+function countEntries(list: Located): number {
+  if (list.kind !== 'seq') return 0;
+  let n = 0;
+  for (const item of list.items) {
+    const body = item.kind === 'map' && item.entries.length === 1 && item.entries[0]!.key === 'repeat' ? item.entries[0]!.value : undefined;
+    if (body?.kind === 'map') n += countEntries(fieldOf(body, 'layers') ?? body);
+    else n += 1;
+  }
+  return n;
 }

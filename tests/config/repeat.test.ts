@@ -117,4 +117,12 @@ describe('the expansion cap', () => {
     const text = layered('    - repeat: {times: 3000, layers: [{dense: {units: 1}}]}\n    - repeat: {times: 4000, layers: [{dense: {units: 1}}, {dense: {units: 1}}]}\n');
     expect(codesAt(text)).toEqual(['config/too-many-layers@7:23']);
   });
+
+  test('a YAML list of more than the cap is refused at the list, before validation', () => {
+    const entries = '    - dense: {units: 0}\n'.repeat(MAX_EXPANDED_LAYERS - 1);
+    const inRepeat = '    - repeat: {times: 1, layers: [{dense: {units: 0}}, {dense: {units: 0}}]}\n';
+    const d = diagnostics(layered(entries + inRepeat));
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/too-many-layers@6:5']);
+    expect(d[0]!.message).toContain('lists 10001 layers');
+  });
 });

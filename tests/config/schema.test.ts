@@ -36,7 +36,7 @@ describe('the shipped schema', () => {
 
   test('every definition has a description', () => {
     const defs = schema['definitions'] as Record<string, Record<string, unknown>>;
-    expect(Object.keys(defs).sort()).toEqual(['bond', 'conv', 'dense', 'input', 'layer', 'layerList', 'leg', 'network', 'pool', 'recurrent', 'repeat', 'tensor']);
+    expect(Object.keys(defs).sort()).toEqual(['bond', 'conv', 'dense', 'input', 'layer', 'layerList', 'network', 'pool', 'recurrent', 'repeat', 'tensor']);
     for (const d of Object.values(defs)) expect(typeof d['description']).toBe('string');
   });
 
