@@ -178,6 +178,10 @@ function reportUnknownKey(
   const entry = node.kind === 'map' ? entryOf(node, key) : undefined;
   const at = entry?.keySpan ?? node.span;
   const path = displayPath(node);
+  if (key === '<<') {
+    sink.error('config/unknown-field', `${path} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, at);
+    return;
+  }
   if (loc === LAYER) {
     const guess = closest(key, LAYER_KINDS);
     const isField = [...LAYER_FIELDS.values()].some((fields) => fields.includes(key));

@@ -155,6 +155,13 @@ describe('never throws for user input', () => {
     expect(codesAt(layered('    - conv: {channels: 1, __proto__: {x: 1}}\n'))).toEqual(['config/unknown-field@6:27']);
   });
 
+  test('a YAML merge key is an unknown field with its own explanation', () => {
+    const text = 'defaults: &d {kernel: 3}\nmodel:\n  input: {shape: [4], features: 2}\n  layers:\n    - conv: {<<: *d, channels: 4}\n';
+    const d = diagnostics(text);
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/unknown-field@5:14']);
+    expect(d[0]!.message).toContain("merge key ('<<')");
+  });
+
   test('a non-string key is config/key-type', () => {
     expect(codesAt('model:\n  ? [a, b]\n  : 1\n')).toEqual(['config/key-type@2:5']);
   });
