@@ -5,5 +5,6 @@ import { run } from './run.js';
 const code = await run(process.argv.slice(2), {
   stdout: (t) => process.stdout.write(t),
   stderr: (t) => process.stderr.write(t),
+  color: process.stdout.isTTY === true && !process.env['NO_COLOR'],
 });
 process.exitCode = code;

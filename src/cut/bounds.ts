@@ -30,7 +30,8 @@ export const MAX_RANK_BITS = 4_000_000;
 export function computeBounds(model: Model, partitions: readonly Partition[], options: BoundsOptions): BoundsOutcome {
   if (model.kind === 'explicit') {
     const results = partitions.map((p) => finish(p.label, explicitBounds(model, p)));
-    return { ok: true, result: { file: model.file, surrogate: options.surrogate, notes: [], partitions: results } };
+    const notes = ['an explicit tensor network is analysed as given: the surrogate setting does not apply to it'];
+    return { ok: true, result: { file: model.file, surrogate: options.surrogate, notes, partitions: results } };
   }
   const analysis = analyseLayered(model, options);
   if (!analysis.ok) return analysis;

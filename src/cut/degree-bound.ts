@@ -56,7 +56,7 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
   const counts = new Map<number, Map<number, number>>();
   for (const [v, d] of frontier.degrees) {
     rank *= binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d);
-    const tag = c.tag[v]!;
+    const tag = c.bondTag[v]!;
     let byDim = counts.get(tag);
     if (!byDim) counts.set(tag, (byDim = new Map()));
     byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + 1);

@@ -99,7 +99,7 @@ function recoverCut(
   const freeCnt = new Float64Array(n);
   const counts: CutCounts = new Map();
   const addCut = (v: number, k: number): void => {
-    const tag = c.tag[v]!;
+    const tag = c.bondTag[v]!;
     let byDim = counts.get(tag);
     if (!byDim) counts.set(tag, (byDim = new Map()));
     byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + k);

@@ -38,8 +38,14 @@ export interface Circuit {
   readonly dim: Int32Array;
   /** Input position of input nodes, -1 elsewhere. */
   readonly position: Int32Array;
-  /** Index into `tags`. */
+  /** Index into `tags`: the layer that built the node. */
   readonly tag: Int32Array;
+  /**
+   * Index into `tags` of the layer that set the node's output dimension: its own for tensors;
+   * for a copy tensor, the layer that produced its children (a pool passes channels through), so
+   * that a cut names the layer whose width a reviewer would change.
+   */
+  readonly bondTag: Int32Array;
   /** Children of node v: childList[childStart[v] .. childStart[v+1]). */
   readonly childStart: Int32Array;
   readonly childList: Int32Array;
@@ -112,7 +118,12 @@ export class CircuitBuilder {
   }
 
   finish(top: number): Circuit {
+    const bondTag = this.tag.slice(0, this.n);
+    for (let v = 0; v < this.n; v++) {
+      if (this.op[v] === OP_PRODUCT && this.childStart[v + 1]! > this.childStart[v]!) bondTag[v] = bondTag[this.childList[this.childStart[v]!]!]!;
+    }
     return {
+      bondTag,
       size: this.n,
       op: this.op.slice(0, this.n),
       dim: this.dim.slice(0, this.n),

@@ -59,7 +59,7 @@ describe('rankfloor bounds', () => {
     const r = runCli(['bounds', 'examples/renal-pair-net-trimmed.yaml', '--partition', 'left-right']);
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('surrogate: tree');
-    expect(r.stdout).toMatch(/left-right\s+4\.00\s+16\s+4\.00\s+exact\s+layer 8 \(line 18\): 1 × 16/);
+    expect(r.stdout).toMatch(/left-right\s+4\.00\s+16\s+4\.00\s+exact\s+layer 8 \(line 17\): 1 × 16/);
   });
 
   test('a schema error: exit 2, file:line:col on stderr, nothing on stdout', () => {

@@ -1,0 +1,44 @@
+/**
+ * What every command shares: the I/O seam that tests replace, exit codes, usage errors, and the
+ * printing of diagnostics with source excerpts.
+ */
+import { readFileSync } from 'node:fs';
+import type { Diagnostic } from '../diagnostic.js';
+import { renderDiagnostic } from '../report/diagnostics.js';
+
+export interface Io {
+  readonly stdout: (text: string) => void;
+  readonly stderr: (text: string) => void;
+  /** Colour the text report (only when standard output is a terminal). */
+  readonly color?: boolean;
+}
+
+export const EXIT_OK = 0;
+export const EXIT_FAIL = 1;
+export const EXIT_INPUT = 2;
+
+export class UsageError extends Error {
+  override readonly name = 'UsageError';
+}
+
+export function oneOf(value: string, allowed: readonly string[], option: string): string {
+  if (!allowed.includes(value)) throw new UsageError(`${option} must be one of ${allowed.join(', ')} (got '${value}')`);
+  return value;
+}
+
+/** Prints diagnostics (with the offending source line where it can be read) on stderr. */
+export function printDiagnostics(diagnostics: readonly Diagnostic[], io: Io): void {
+  const sources = new Map<string, string | undefined>();
+  for (const d of diagnostics) {
+    if (!sources.has(d.file)) {
+      let text: string | undefined;
+      try {
+        text = readFileSync(d.file, 'utf8');
+      } catch {
+        text = undefined;
+      }
+      sources.set(d.file, text);
+    }
+    io.stderr(renderDiagnostic(d, sources.get(d.file)) + '\n');
+  }
+}
