@@ -1,0 +1,204 @@
+/**
+ * The JUnit XML form of `rankfloor check`, for CI systems that know nothing about capacity but do
+ * know test reports: each requirement is a test case, grouped into one suite per (config,
+ * policy), so a failing requirement shows up in the same place as a failing unit test, with the
+ * explanation as the failure text. Input errors are test errors in a suite of their own, so a
+ * broken config is not mistaken for a passing one. Output is deterministic (no times, no host
+ * names) so that two runs on the same tree give the same file.
+ */
+import { formatDiagnosticLine, type Diagnostic } from '../diagnostic.js';
+import { log2Big } from '../cut/types.js';
+import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
+import { bits, cutLabel, shortRank } from './bounds-text.js';
+
+export function junitXml(results: readonly PolicyResult[], errors: readonly Diagnostic[]): string {
+  const suites = groupSuites(results).map(policySuite);
+  const inputErrors = errors.filter((e) => e.severity === 'error');
+  if (inputErrors.length > 0) suites.push(errorSuite(inputErrors));
+  const tests = sum(suites, (s) => s.tests);
+  const failures = sum(suites, (s) => s.failures);
+  const errorCount = sum(suites, (s) => s.errors);
+  const out = [
+    '<?xml version="1.0" encoding="UTF-8"?>',
+    `<testsuites${attrs({ name: 'rankfloor', tests, failures, errors: errorCount })}>`,
+  ];
+  for (const s of suites) out.push(...s.lines);
+  out.push('</testsuites>');
+  return out.join('\n') + '\n';
+}
+
+interface Suite {
+  readonly tests: number;
+  readonly failures: number;
+  readonly errors: number;
+  readonly lines: string[];
+}
+
+interface Group {
+  readonly file: string;
+  readonly policy: string;
+  readonly requirements: RequirementResult[];
+}
+
+/**
+ * One suite per (config file, policy id), in code-unit order of both, so the report does not
+ * depend on the order in which configs were discovered on disk.
+ */
+function groupSuites(results: readonly PolicyResult[]): Group[] {
+  const groups = new Map<string, Group>();
+  for (const r of results) {
+    const key = JSON.stringify([r.file, r.policy.id]);
+    let g = groups.get(key);
+    if (!g) {
+      g = { file: r.file, policy: r.policy.id, requirements: [] };
+      groups.set(key, g);
+    }
+    g.requirements.push(...r.requirements);
+  }
+  return [...groups.values()].sort((a, b) => cmp(a.file, b.file) || cmp(a.policy, b.policy));
+}
+
+function policySuite(g: Group): Suite {
+  const classname = dotted(g.file);
+  const names = new UniqueNames();
+  const cases: string[] = [];
+  let failures = 0;
+  for (const q of g.requirements) {
+    const name = names.take(`${g.policy}: ${q.requirement.partition}`);
+    const head = `    <testcase${attrs({ classname, name, file: g.file })}`;
+    if (q.failing) {
+      failures++;
+      cases.push(`${head}>`);
+      cases.push(`      <failure${attrs({ message: failureMessage(q), type: 'requirement-failed' })}>${text(explanation(q))}</failure>`);
+      cases.push('    </testcase>');
+    } else if (q.verdict === 'unproven') {
+      // Counted as a warning by the policy: visible in the report, but not a failure.
+      cases.push(`${head}>`);
+      cases.push(`      <system-out>${text(`warning: ${failureMessage(q)}; not proven to reach the minimum (counted as a warning by the policy)`)}</system-out>`);
+      cases.push('    </testcase>');
+    } else {
+      cases.push(`${head}/>`);
+    }
+  }
+  const tests = g.requirements.length;
+  const lines = [
+    `  <testsuite${attrs({ name: `${g.file}: ${g.policy}`, tests, failures, errors: 0, skipped: 0 })}>`,
+    ...cases,
+    '  </testsuite>',
+  ];
+  return { tests, failures, errors: 0, lines };
+}
+
+function errorSuite(errors: readonly Diagnostic[]): Suite {
+  const names = new UniqueNames();
+  const cases: string[] = [];
+  for (const e of errors) {
+    const where = e.span ? `${e.file}:${e.span.line}:${e.span.column}` : e.file;
+    const line = `${where}: ${e.message}`;
+    cases.push(`    <testcase${attrs({ classname: dotted(e.file), name: names.take(`${where} ${e.code}`), file: e.file })}>`);
+    cases.push(`      <error${attrs({ message: line, type: e.code })}>${text(formatDiagnosticLine(e))}</error>`);
+    cases.push('    </testcase>');
+  }
+  const lines = [
+    `  <testsuite${attrs({ name: 'input errors', tests: errors.length, failures: 0, errors: errors.length, skipped: 0 })}>`,
+    ...cases,
+    '  </testsuite>',
+  ];
+  return { tests: errors.length, failures: 0, errors: errors.length, lines };
+}
+
+/** Test names must be unique within a suite; repeats get ` #2`, ` #3`, ... in order of appearance. */
+class UniqueNames {
+  private readonly used = new Set<string>();
+  take(base: string): string {
+    let name = base;
+    for (let n = 2; this.used.has(name); n++) name = `${base} #${n}`;
+    this.used.add(name);
+    return name;
+  }
+}
+
+function needs(q: RequirementResult): string {
+  const min = q.requirement.minRank;
+  return `rank ≥ ${shortRank(min, log2Big(min))} (${bits(log2Big(min))} bits)`;
+}
+
+function allows(q: RequirementResult): string {
+  const b = q.bounds;
+  const upper = `${shortRank(b.upper.rank, b.upper.log2)} (${bits(b.upper.log2)} bits)`;
+  if (b.status === 'exact') return `exactly ${upper}`;
+  if (!b.lower) return `at most ${upper}, no lower bound proven`;
+  return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
+}
+
+function failureMessage(q: RequirementResult): string {
+  return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${allows(q)}`;
+}
+
+function explanation(q: RequirementResult): string {
+  const req = q.requirement;
+  const b = q.bounds;
+  const lines = [`${req.partition} — ${q.partition.description}`];
+  lines.push(`needs ${needs(q)} [${req.written}, ${req.file}:${req.span.line}]`);
+  if (q.verdict === 'fail') {
+    lines.push(`allows ${allows(q)}: provably short by ${bits(log2Big(req.minRank) - b.upper.log2)} bits`);
+  } else {
+    lines.push(`allows ${allows(q)}: not proven to reach the minimum, and this policy counts unproven as failing`);
+  }
+  if (b.upper.cut.length > 0) {
+    const crossing = b.upper.cut.map((c) => `${c.count} bond${c.count === 1 ? '' : 's'} of dimension ${c.dim} from ${cutLabel(c.layer)} (line ${c.line})`);
+    lines.push(`bottleneck (${b.upper.method}): ${crossing.join('; ')}`);
+  } else {
+    lines.push(`bottleneck: ${b.upper.method}`);
+  }
+  if (q.fixes.length === 0) {
+    lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
+  } else {
+    lines.push('fix (smallest change of one field, cheapest first):');
+    for (const f of q.fixes) {
+      const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
+      const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
+      lines.push(`  line ${f.line}:${f.column} ${who} ${f.field}: ${f.from} → ${f.to} (+${f.addedParameters.toString()} parameters; ${proof})`);
+    }
+  }
+  return lines.join('\n');
+}
+
+function dotted(file: string): string {
+  return file.replace(/\\/g, '/').replace(/\//g, '.');
+}
+
+function sum(suites: readonly Suite[], f: (s: Suite) => number): number {
+  return suites.reduce((n, s) => n + f(s), 0);
+}
+
+function cmp(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+function attrs(values: Readonly<Record<string, string | number>>): string {
+  return Object.entries(values)
+    .map(([k, v]) => ` ${k}="${attribute(String(v))}"`)
+    .join('');
+}
+
+// XML 1.0 allows only these characters, even as references: anything else (most C0 controls,
+// lone surrogates, U+FFFE, U+FFFF) makes the whole document unreadable, so it is dropped.
+const NOT_XML_CHAR = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu;
+
+export function xmlText(s: string): string {
+  return s
+    .replace(NOT_XML_CHAR, '')
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/'/g, '&apos;');
+}
+
+const text = xmlText;
+
+/** In attributes a parser folds raw tabs and newlines into spaces; references keep them. */
+function attribute(s: string): string {
+  return xmlText(s).replace(/\t/g, '&#9;').replace(/\n/g, '&#10;').replace(/\r/g, '&#13;');
+}
