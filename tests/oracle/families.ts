@@ -253,6 +253,10 @@ export function recurrentCase(rng: Rng, depth: number): LayeredCase {
     }
   }
   layers.push(recurrent(rng.pick(SMALL), depth));
+  // Rarely: layers on the single remaining position (a per-position conv, a second recurrence
+  // over a length-1 sequence).
+  if (rng.chance(0.08)) layers.push(conv(rng.pick(SMALL)));
+  if (rng.chance(0.05)) layers.push(recurrent(rng.pick(SMALL), rng.int(1, 2)));
   if (rng.chance(0.2)) layers.push(dense(rng.pick(SMALL)));
   return { model: layered([t], m, rng.chance(0.5), layers), surrogate, partitions: partitionsFor(rng, [t], 2) };
 }
