@@ -41,7 +41,8 @@ describe('rankfloor bounds', () => {
     expect(cb.upper).toEqual({ rank: '16', log2: 4 });
     expect(cb.lower).toEqual({ rank: '16', log2: 4 });
     expect(cb.status).toBe('exact');
-    expect(cb.cut).toEqual([{ layer: 1, line: 6, dim: 2, count: 4 }]);
+    // the four level-1 copy tensors carry the 2 channels of the first conv (layer 0, line 5)
+    expect(cb.cut).toEqual([{ layer: 0, line: 5, dim: 2, count: 4 }]);
     expect(lr.upper.rank).toBe('2');
     expect(lr.status).toBe('exact');
   });
@@ -89,7 +90,7 @@ describe('rankfloor bounds', () => {
 
   test('usage errors exit 2: unknown option, unknown partition, bad surrogate, missing file', () => {
     expect(runCli(['bounds', 'examples/gait-sequence.yaml', '--bogus']).code).toBe(2);
-    const p = runCli(['bounds', 'examples/gait-sequence.yaml', '--partition', 'left-rigth']);
+    const p = runCli(['bounds', 'examples/gait-sequence.yaml', '--partition', 'left-right']);
     expect(p.code).toBe(2);
     expect(p.stderr).toContain('needs a 2D input');
     const q = runCli(['bounds', 'examples/gait-sequence.yaml', '--partition', 'strat-end']);
