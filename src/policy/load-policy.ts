@@ -1,0 +1,168 @@
+/**
+ * The policy loader: a team's policy file (or a directory of them) → `Policy` values with the
+ * extends chain resolved, or diagnostics for every problem found, in the extending file and in
+ * the files it extends. Problems in users' files never throw; a missing schema file (a broken
+ * installation) does.
+ */
+import { readdirSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import type { Diagnostic, Span } from '../diagnostic.js';
+import { DiagnosticSink } from '../config/diagnostic-sink.js';
+import { readPolicyDocument } from './policy-document.js';
+import { finalisePolicy, mergePolicy, type PolicyDraft } from './policy-merge.js';
+import { MAX_EXTENDS_DEPTH } from './policy-limits.js';
+import { checkPartitionReferences } from './requirements.js';
+import { readPolicyFromDisk, realpathOrSelf, resolveExtendsTarget, TooLargeError, type ReadFile } from './extends-target.js';
+import type { Policy } from './policy.js';
+
+export { policyApplies } from './applies-to.js';
+
+export interface PolicyLoadOptions {
+  /** Absolute path of the repository root; `extends` targets must lie inside it. */
+  repoRoot: string;
+}
+
+export type PolicyLoadResult = { ok: true; policy: Policy } | { ok: false; diagnostics: Diagnostic[] };
+
+export function loadPolicyFile(path: string, options: PolicyLoadOptions): PolicyLoadResult {
+  const loaded = loadFromDisk(path, options);
+  return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
+}
+
+/** `readFile` reads the files that `extends` names (default: the file system). */
+export function loadPolicyText(text: string, file: string, options: PolicyLoadOptions, readFile?: (path: string) => string): PolicyLoadResult {
+  const loaded = loadChain(text, file, realpathOrSelf(resolve(file)), options, readFile, []);
+  return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
+}
+
+/**
+ * Every `*.yaml` and `*.yml` file directly in `dir`, in name order. A file that fails to load
+ * contributes diagnostics and the others still load; two policies with the same id are an error
+ * at the second. A problem in a shared parent is reported once, not once per child.
+ */
+export function loadPolicyDirectory(dir: string, options: PolicyLoadOptions): { policies: Policy[]; diagnostics: Diagnostic[] } {
+  let names: string[];
+  try {
+    names = readdirSync(dir).filter((n) => /\.ya?ml$/.test(n) && isFile(join(dir, n)));
+  } catch (err) {
+    const reason = err instanceof Error ? err.message : String(err);
+    return { policies: [], diagnostics: [{ code: 'policy/unreadable', message: `cannot read the policy directory: ${reason}`, file: dir, severity: 'error' }] };
+  }
+  names.sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+  const policies: Policy[] = [];
+  const diagnostics: Diagnostic[] = [];
+  const seen = new Set<string>();
+  const report = (d: Diagnostic) => {
+    const key = `${d.file}\u0000${d.span?.offset ?? -1}\u0000${d.code}\u0000${d.message}`;
+    if (seen.has(key)) return;
+    seen.add(key);
+    diagnostics.push(d);
+  };
+  const firstById = new Map<string, Policy>();
+  for (const name of names) {
+    const file = join(dir, name);
+    const loaded = loadFromDisk(file, options);
+    loaded.diagnostics.forEach(report);
+    if (!loaded.draft) continue;
+    const policy = finalisePolicy(loaded.draft);
+    const earlier = firstById.get(policy.id);
+    if (earlier) {
+      report({
+        code: 'policy/duplicate-id',
+        message: `the policy id '${policy.id}' is already used by ${earlier.file}; ids must be unique among the policies of a directory`,
+        file,
+        ...(loaded.idSpan ? { span: loaded.idSpan } : {}),
+        severity: 'error',
+      });
+      continue;
+    }
+    firstById.set(policy.id, policy);
+    policies.push(policy);
+  }
+  return { policies, diagnostics };
+}
+
+interface Loaded {
+  readonly draft?: PolicyDraft;
+  readonly idSpan?: Span;
+  readonly diagnostics: Diagnostic[];
+}
+
+/** A file of the extends chain being loaded, for cycle reports. */
+interface ChainLink {
+  readonly real: string;
+  readonly display: string;
+}
+
+function loadFromDisk(path: string, options: PolicyLoadOptions): Loaded {
+  let text: string;
+  try {
+    text = readPolicyFromDisk(path);
+  } catch (err) {
+    const tooLarge = err instanceof TooLargeError;
+    const reason = err instanceof Error ? err.message : String(err);
+    const d: Diagnostic = {
+      code: tooLarge ? 'policy/too-large' : 'policy/unreadable',
+      message: tooLarge ? reason : `cannot read the policy file: ${reason}`,
+      file: path,
+      severity: 'error',
+    };
+    return { diagnostics: [d] };
+  }
+  return loadChain(text, path, realpathOrSelf(resolve(path)), options, undefined, []);
+}
+
+/**
+ * Loads one file and, through `extends`, its ancestors. `stack` holds the files that extend this
+ * one, outermost first. The file's own problems come first in the result, then its parent's.
+ */
+function loadChain(
+  text: string,
+  file: string,
+  real: string,
+  options: PolicyLoadOptions,
+  readFile: ReadFile | undefined,
+  stack: readonly ChainLink[],
+): Loaded {
+  const sink = new DiagnosticSink(file);
+  const doc = readPolicyDocument(text, file, sink);
+  const inherited: Diagnostic[] = [];
+  let parent: PolicyDraft | undefined;
+  if (doc?.extends) {
+    const at = doc.extends.span;
+    const chain = [...stack, { real, display: file }];
+    const target = resolveExtendsTarget(doc.extends.path, file, options.repoRoot, readFile);
+    if (!target.ok) {
+      sink.error(target.code, target.message, at);
+    } else if (chain.some((link) => link.real === target.real)) {
+      const from = chain.findIndex((link) => link.real === target.real);
+      const cycle = [...chain.slice(from).map((link) => link.display), target.display].join(' → ');
+      sink.error('policy/extends-cycle', `extends '${doc.extends.path}' closes a cycle: ${cycle}; a policy cannot extend itself, directly or through others`, at);
+    } else if (chain.length >= MAX_EXTENDS_DEPTH) {
+      sink.error('policy/extends-too-deep', `extends '${doc.extends.path}' makes the extends chain longer than ${MAX_EXTENDS_DEPTH} files`, at);
+    } else {
+      const loaded = loadChain(target.text, target.display, target.real, options, readFile, chain);
+      inherited.push(...loaded.diagnostics);
+      if (loaded.draft) parent = loaded.draft;
+      else sink.error('policy/extends-failed', `extends '${doc.extends.path}': ${target.display} did not load (its problems are listed with it)`, at);
+    }
+  }
+  if (doc) {
+    const visible = new Set([...(parent?.partitions.keys() ?? []), ...doc.declaredPartitions]);
+    checkPartitionReferences(doc.references, visible, sink);
+  }
+  if (!doc || sink.count > 0 || doc.id === undefined || doc.description === undefined) {
+    if (sink.count === 0) throw new Error(`policy loader: no policy and no diagnostic for ${file} (a loader bug)`);
+    return { diagnostics: [...sink.sorted(), ...inherited] };
+  }
+  const draft = mergePolicy({ ...doc, id: doc.id, description: doc.description }, parent);
+  return { draft, ...(doc.idSpan ? { idSpan: doc.idSpan } : {}), diagnostics: inherited };
+}
+
+function isFile(path: string): boolean {
+  try {
+    return statSync(path).isFile();
+  } catch {
+    return false;
+  }
+}
