@@ -49,7 +49,7 @@ function diff(repo: Repo, side: 'worktree' | 'index' | 'trees', ids: readonly st
   return [...files].map(([path, status]) => ({ path, status })).sort(byPath);
 }
 
-/** `--name-status -z` output as path → status; an unmerged path may be listed twice. */
+/** `--name-status -z` output as path → status; a path listed twice with different letters counts as modified. */
 export function parseNameStatus(out: string): Map<string, ChangedFile['status']> {
   const fields = out.split('\0');
   if (fields.at(-1) === '') fields.pop();
