@@ -1,49 +1,66 @@
 /**
  * The JSON form of `rankfloor check`: one document with a version, the overall verdict, one
- * result per (config, policy) and every input error with its position. Ranks are decimal strings.
+ * result per (config, policy), the policy notices and every input error with its position.
+ * Ranks are decimal strings. Comparison fields appear only when a base was compared.
  */
-import type { Diagnostic } from '../diagnostic.js';
-import type { PolicyResult } from '../policy/evaluate.js';
+import type { CheckOutcome } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
 import { boundJson, cutJson, roundLog } from './bounds-json.js';
 
 export type OverallVerdict = 'pass' | 'fail' | 'error';
 
-export function overallVerdict(results: readonly PolicyResult[], errors: readonly Diagnostic[]): OverallVerdict {
-  if (errors.some((e) => e.severity === 'error')) return 'error';
-  return results.some((r) => r.verdict === 'fail') ? 'fail' : 'pass';
+export function overallVerdict(outcome: CheckOutcome): OverallVerdict {
+  if (outcome.errors.some((e) => e.severity === 'error')) return 'error';
+  return outcome.checked.some((c) => c.failing) ? 'fail' : 'pass';
 }
 
-export function checkJson(results: readonly PolicyResult[], errors: readonly Diagnostic[]): string {
+export function checkJson(outcome: CheckOutcome): string {
   const doc = {
     version: 1,
-    verdict: overallVerdict(results, errors),
-    results: results.map((r) => ({
-      file: r.file,
-      policy: r.policy.id,
-      surrogate: r.surrogate,
-      verdict: r.verdict,
-      requirements: r.requirements.map((q) => ({
-        partition: q.requirement.partition,
-        required: { rank: q.requirement.minRank.toString(), log2: roundLog(log2Big(q.requirement.minRank)) },
-        upper: boundJson(q.bounds.upper),
-        lower: q.bounds.lower ? boundJson(q.bounds.lower) : null,
-        status: q.bounds.status,
-        verdict: q.verdict,
-        cut: cutJson(q.bounds.upper.cut),
-        fix: q.fixes.map((f) => ({
-          layer: f.layer,
-          field: f.field,
-          line: f.line,
-          column: f.column,
-          from: f.from,
-          to: f.to,
-          added_parameters: f.addedParameters.toString(),
-          verdict: f.verdict,
-        })),
-      })),
-    })),
-    errors: errors
+    verdict: overallVerdict(outcome),
+    results: outcome.checked.map((c) => {
+      const r = c.result;
+      return {
+        file: c.file,
+        policy: c.policy.id,
+        surrogate: c.policy.surrogate,
+        verdict: c.failing ? 'fail' : 'pass',
+        ...(c.comparison === 'none' ? {} : { comparison: c.comparison }),
+        requirements: (r?.requirements ?? []).map((q, i) => {
+          const d = c.deltas?.[i];
+          return {
+            partition: q.requirement.partition,
+            required: { rank: q.requirement.minRank.toString(), log2: roundLog(log2Big(q.requirement.minRank)) },
+            upper: boundJson(q.bounds.upper),
+            lower: q.bounds.lower ? boundJson(q.bounds.lower) : null,
+            status: q.bounds.status,
+            verdict: q.verdict,
+            cut: cutJson(q.bounds.upper.cut),
+            fix: q.fixes.map((f) => ({
+              layer: f.layer,
+              field: f.field,
+              line: f.line,
+              column: f.column,
+              from: f.from,
+              to: f.to,
+              added_parameters: f.addedParameters.toString(),
+              verdict: f.verdict,
+            })),
+            ...(d
+              ? {
+                  base: d.base ? { upper: boundJson(d.base.upper), lower: d.base.lower ? boundJson(d.base.lower) : null } : null,
+                  change_bits: d.changeBits === null ? null : roundLog(d.changeBits),
+                  max_drop_bits: d.maxDropBits ?? null,
+                  drop_fails: d.dropFails,
+                  attributed: d.attributed.map((a) => ({ layer: a.layer, field: a.field, from: a.from, to: a.to, line: a.span.line, column: a.span.column })),
+                }
+              : {}),
+          };
+        }),
+      };
+    }),
+    ...(outcome.notices.length > 0 ? { notices: outcome.notices.map((n) => ({ file: n.file, line: n.line, message: n.message })) } : {}),
+    errors: outcome.errors
       .filter((e) => e.severity === 'error')
       .map((e) => ({ file: e.file, line: e.span?.line ?? null, column: e.span?.column ?? null, message: e.message })),
   };

@@ -1,11 +1,13 @@
 /**
  * The terminal form of `rankfloor check`, written for the reviewer of a pull request: for each
  * failing requirement, the partition in words, what the policy needs and what the config allows,
- * the layers that form the bottleneck (with their YAML lines), and the smallest single-field
- * changes that would restore it. Passing and unproven requirements get one line each.
+ * the layers that form the bottleneck (with their YAML lines), the change of the pull request that
+ * lies on the cut, and the smallest single-field changes that would restore it. Passing and
+ * unproven requirements get one line each.
  */
+import type { CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
-import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
+import type { RequirementResult } from '../policy/evaluate.js';
 import { bits, cutLabel, shortRank } from './bounds-text.js';
 
 export interface TextOptions {
@@ -19,35 +21,44 @@ const SURROGATE_WORDS = {
   overlap: 'overlap surrogate (linear maps over kernel windows, product pooling)',
 } as const;
 
-export function checkText(results: readonly PolicyResult[], options: TextOptions): string {
+export function checkText(outcome: CheckOutcome, options: TextOptions): string {
   const paint = (code: string, s: string): string => (options.color ? `\u001b[${code}m${s}\u001b[0m` : s);
   const out: string[] = [];
   let fails = 0;
   let unproven = 0;
   let passes = 0;
-  for (const r of results) {
-    const shown = r.requirements.filter((q) => !options.quiet || q.failing);
-    for (const q of r.requirements) {
-      if (q.failing) fails++;
+  for (const n of outcome.notices) out.push(`${paint('36', 'notice')}  ${n.file}:${n.line}: ${n.message}`, '');
+  for (const c of outcome.checked) {
+    if (!c.result) {
+      if (!options.quiet) out.push(`${c.file} — policy ${c.policy.id}: deleted by this change, nothing to check`, '');
+      continue;
+    }
+    const r = c.result;
+    const shown = r.requirements.map((q, i) => ({ q, d: c.deltas?.[i] })).filter(({ q, d }) => !options.quiet || q.failing || d?.dropFails);
+    for (const { q, d } of r.requirements.map((q, i) => ({ q, d: c.deltas?.[i] }))) {
+      if (q.failing || d?.dropFails) fails++;
       else if (q.verdict === 'unproven') unproven++;
       else passes++;
     }
     if (shown.length === 0) continue;
-    out.push(`${r.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}`);
-    for (const q of shown) {
-      if (q.failing) out.push(...failureBlock(q, paint));
-      else out.push(`  ${label(q, paint)}  ${oneLine(q)}`);
+    const against = c.comparison === 'new' ? ', new config (no base to compare)' : '';
+    out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${against}`);
+    for (const { q, d } of shown) {
+      if (q.failing || d?.dropFails) {
+        const [first, ...rest] = explainRequirement(q, d);
+        out.push(`  ${label(q, d, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
+      } else out.push(`  ${label(q, d, paint)}  ${oneLine(q)}${d ? `; ${change(d)}` : ''}`);
     }
     if (!options.quiet) for (const n of r.notes) out.push(`  note: ${n}`);
     out.push('');
   }
-  const parts = [`${fails} failing`, `${unproven} unproven (warnings)`, `${passes} passing`];
-  out.push(`${results.length} config × policy checks: ${parts.join(', ')}`);
+  out.push(`${outcome.checked.length} config × policy checks: ${fails} failing, ${unproven} unproven (warnings), ${passes} passing`);
   return out.join('\n') + '\n';
 }
 
-function label(q: RequirementResult, paint: (c: string, s: string) => string): string {
+function label(q: RequirementResult, d: RequirementDelta | undefined, paint: (c: string, s: string) => string): string {
   if (q.failing) return paint('1;31', q.verdict === 'fail' ? 'FAIL    ' : 'UNPROVEN');
+  if (d?.dropFails) return paint('1;31', 'DROP    ');
   if (q.verdict === 'unproven') return paint('33', 'UNPROVEN');
   return paint('32', 'PASS    ');
 }
@@ -69,31 +80,52 @@ function oneLine(q: RequirementResult): string {
   return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${range(q)}`;
 }
 
-function failureBlock(q: RequirementResult, paint: (c: string, s: string) => string): string[] {
+function change(d: RequirementDelta): string {
+  if (!d.base || d.changeBits === null) return 'no base requirement to compare';
+  const sign = d.changeBits > 0 ? '+' : '';
+  return `base ${bits(d.base.upper.log2)} bits → head ${bits(d.base.upper.log2 + d.changeBits)} bits (${sign}${bits(d.changeBits)})`;
+}
+
+/**
+ * The explanation of a failing requirement, plain text, first line a title. Shared by the text
+ * report, annotations, SARIF and JUnit so that they all say the same.
+ */
+export function explainRequirement(q: RequirementResult, d?: RequirementDelta): string[] {
   const req = q.requirement;
   const b = q.bounds;
-  const lines = [`  ${label(q, paint)}  ${req.partition} — ${q.partition.description}`];
-  lines.push(`            needs   ${needs(q)}  [${req.written}, ${req.file}:${req.span.line}]`);
+  const lines = [`${req.partition} — ${q.partition.description}`];
+  lines.push(`needs   ${needs(q)}  [${req.written}, ${req.file}:${req.span.line}]`);
   if (q.verdict === 'fail') {
-    const short = log2Big(req.minRank) - b.upper.log2;
-    lines.push(`            allows  ${range(q)} — provably short by ${bits(short)} bits`);
+    lines.push(`allows  ${range(q)} — provably short by ${bits(log2Big(req.minRank) - b.upper.log2)} bits`);
+  } else if (q.failing) {
+    lines.push(`allows  ${range(q)} — not proven to reach the minimum, and this policy counts unproven as failing`);
   } else {
-    lines.push(`            allows  ${range(q)} — not proven to reach the minimum, and this policy counts unproven as failing`);
+    lines.push(`allows  ${range(q)}`);
+  }
+  if (d) {
+    lines.push(`change  ${change(d)}`);
+    if (d.dropFails) lines.push(`        a drop of more than max_drop_bits = ${d.maxDropBits} fails even though the minimum may still hold`);
+    for (const a of d.attributed) {
+      const who = typeof a.layer === 'number' ? `layer ${a.layer}` : a.layer === 'input' ? 'input' : `layer ${a.layer}`;
+      lines.push(`        this change on the cut: line ${a.span.line}:${a.span.column} ${who} ${a.field}: ${a.from} → ${a.to}`);
+    }
   }
   if (b.upper.cut.length > 0) {
     const crossing = b.upper.cut.map((c) => `${c.count} bond${c.count === 1 ? '' : 's'} of dimension ${c.dim} from ${cutLabel(c.layer)} (line ${c.line})`);
-    lines.push(`            bottleneck (${b.upper.method}): ${crossing.join('; ')}`);
+    lines.push(`bottleneck (${b.upper.method}): ${crossing.join('; ')}`);
   } else {
-    lines.push(`            bottleneck: ${b.upper.method}`);
+    lines.push(`bottleneck: ${b.upper.method}`);
   }
-  if (q.fixes.length === 0) {
-    lines.push('            fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
-  } else {
-    lines.push('            fix (smallest change of one field, cheapest first):');
-    for (const f of q.fixes) {
-      const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
-      const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
-      lines.push(`              line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);
+  if (q.failing) {
+    if (q.fixes.length === 0) {
+      lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
+    } else {
+      lines.push('fix (smallest change of one field, cheapest first):');
+      for (const f of q.fixes) {
+        const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
+        const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
+        lines.push(`  line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);
+      }
     }
   }
   return lines;

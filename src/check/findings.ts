@@ -1,0 +1,69 @@
+/**
+ * The check outcome as findings: what failed, where a reviewer should look, in one list that
+ * annotations, SARIF and the job summary all render. A failing requirement points at the changed
+ * field that lies on the minimal cut when the comparison found one (the line of the pull request
+ * that shrank it), else at the bottleneck layer.
+ */
+import { resolve } from 'node:path';
+import type { Diagnostic } from '../diagnostic.js';
+import type { Finding } from '../report/finding.js';
+import { explainRequirement } from '../report/check-text.js';
+import type { CheckOutcome } from './run-check.js';
+import { toRootRelative } from './repo-files.js';
+
+export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
+  const out: Finding[] = [];
+  for (const n of outcome.notices) {
+    out.push({
+      rule: 'policy-changed',
+      level: 'notice',
+      title: 'policy changed by this pull request',
+      message: n.message,
+      file: n.path,
+      line: n.line,
+      column: 1,
+      fingerprint: `policy-changed|${n.path}`,
+    });
+  }
+  for (const c of outcome.checked) {
+    if (!c.result) continue;
+    c.result.requirements.forEach((q, i) => {
+      const d = c.deltas?.[i];
+      const failing = q.failing || d?.dropFails === true;
+      if (!failing && q.verdict !== 'unproven') return;
+      const attributed = d?.attributed[0];
+      const cut = q.bounds.upper.cut.find((e) => e.layer !== 'input') ?? q.bounds.upper.cut[0];
+      const line = attributed?.span.line ?? cut?.line ?? 1;
+      const column = attributed?.span.column ?? 1;
+      const rule = q.failing ? 'requirement-failed' : failing ? 'capacity-drop' : 'requirement-unproven';
+      const what = rule === 'capacity-drop' ? 'capacity dropped more than allowed' : rule === 'requirement-failed' ? 'capacity below the policy minimum' : 'capacity not proven';
+      const [, ...body] = explainRequirement(q, d);
+      out.push({
+        rule,
+        level: failing ? 'error' : 'warning',
+        title: `${q.requirement.partition}: ${what} (policy ${c.policy.id})`,
+        message: body.join('\n'),
+        file: c.path,
+        line,
+        column,
+        fingerprint: `${rule}|${c.path}|${c.policy.id}|${q.requirement.partition}`,
+      });
+    });
+  }
+  for (const e of outcome.errors) out.push(errorFinding(e, outcome.root, cwd));
+  return out;
+}
+
+function errorFinding(e: Diagnostic, root: string, cwd: string): Finding {
+  const path = toRootRelative(root, resolve(cwd, e.file));
+  return {
+    rule: 'input-error',
+    level: 'error',
+    title: `cannot check ${e.file}`,
+    message: `${e.message} [${e.code}]`,
+    file: path,
+    line: e.span?.line ?? 1,
+    column: e.span?.column ?? 1,
+    fingerprint: `input-error|${path}|${e.code}|${e.span?.offset ?? 0}`,
+  };
+}
