@@ -33,6 +33,8 @@ export interface CheckRequest {
   /** Judge the staged version of each staged config against HEAD. */
   readonly staged?: boolean;
   readonly policyFrom?: 'base' | 'head';
+  /** Count every unproven requirement as failing, whatever the policies say. */
+  readonly unprovenFails?: boolean;
 }
 
 export interface RequirementDelta {
@@ -102,7 +104,10 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   const errors: Diagnostic[] = [];
   const notices: PolicyNotice[] = [];
   const policyRel = toRootRelative(root, resolve(req.cwd, req.policy));
-  const policies = loadPolicies(req, root, policyRel, sources, display, errors, notices);
+  const loadedPolicies = loadPolicies(req, root, policyRel, sources, display, errors, notices);
+  const policies = req.unprovenFails
+    ? loadedPolicies.map((p) => ({ ...p, unproven: 'fail' as const, requirements: p.requirements.map((r) => ({ ...r, unproven: 'fail' as const })) }))
+    : loadedPolicies;
 
   // Which (config, policy) pairs to check.
   const singleFile = !isDirectoryAnywhere(root, policyRel, sources);
