@@ -1,3 +1,7 @@
+/**
+ * `extends`: how settings, partitions and requirements merge over several levels, and the
+ * errors at the extends value (cycles, escapes from the repository root, missing targets).
+ */
 import { symlinkSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterEach, beforeEach, describe, expect, test } from 'vitest';
@@ -136,10 +140,12 @@ describe('extends errors, at the extends value', () => {
     expect(ds[1]!.message).toContain(`${a} → ${b} → ${a}`);
   });
 
-  test('a policy that extends itself', () => {
-    const a = repo.write('a.yaml', 'id: a\ndescription: d\nextends: ../' + relative(join(repo.root, '..'), repo.path('a.yaml')) + '\n');
-    const ds = failed(loadPolicyFile(a, { repoRoot: repo.root }));
-    expect(ds.map(where)).toEqual(['policy/extends-cycle@3:10']);
+  test('a policy that extends itself, by its name or by a detour', () => {
+    const a = repo.write('a.yaml', 'id: a\ndescription: d\nextends: a.yaml\n');
+    expect(failed(loadPolicyFile(a, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-cycle@3:10']);
+    const detour = `../${relative(join(repo.root, '..'), repo.path('sub'))}/../b.yaml`;
+    const b = repo.write('b.yaml', `id: b\ndescription: d\nextends: ${detour}\n`);
+    expect(failed(loadPolicyFile(b, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-cycle@3:10']);
   });
 
   test('a target that does not exist', () => {

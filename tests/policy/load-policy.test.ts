@@ -1,3 +1,7 @@
+/**
+ * The policy loader on single files: a policy that uses every field loads to exact values, and
+ * each kind of mistake gives its diagnostic code at the exact line and column.
+ */
 import { afterEach, beforeEach, describe, expect, test } from 'vitest';
 import { loadPolicyFile, loadPolicyText } from '../../src/policy/load-policy.js';
 import { codesOf, failed, HEAD, policyOf, range, tempRepo, where, type TempRepo } from './helpers.js';
