@@ -46,8 +46,11 @@ export function resolveExtendsTarget(value: string, fromFile: string, repoRoot: 
     real = lexical;
   }
   if (!inside(real, root)) return outside(inside(lexical, root) ? 'leads, through a symbolic link, outside' : 'points outside');
+  // A stand-in reader gets the path below the root as the caller spelt it, which it can map to
+  // its own store (a git revision, say) even when the root itself is reached through a link.
+  const readPath = readFile ? join(resolve(repoRoot), relative(root, real)) : real;
   try {
-    return { ok: true, display, real, text: (readFile ?? readPolicyFromDisk)(real) };
+    return { ok: true, display, real, text: (readFile ?? readPolicyFromDisk)(readPath) };
   } catch (err) {
     if (isNotFound(err)) return missing(value, real);
     if (err instanceof TooLargeError) return { ok: false, code: 'policy/too-large', message: `extends '${value}': ${err.message}` };

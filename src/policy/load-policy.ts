@@ -29,7 +29,11 @@ export function loadPolicyFile(path: string, options: PolicyLoadOptions): Policy
   return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
 }
 
-/** `readFile` reads the files that `extends` names (default: the file system). */
+/**
+ * `readFile` reads the files that `extends` names (default: the file system). It receives
+ * absolute paths below `options.repoRoot` as given, and signals a missing file by throwing an
+ * error whose `code` is `ENOENT`.
+ */
 export function loadPolicyText(text: string, file: string, options: PolicyLoadOptions, readFile?: (path: string) => string): PolicyLoadResult {
   const loaded = loadChain(text, file, realpathOrSelf(resolve(file)), options, readFile, []);
   return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };

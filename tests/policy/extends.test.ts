@@ -128,6 +128,19 @@ describe('three levels: override, inherit, merge', () => {
   });
 });
 
+test('an injected reader gets paths below the root as given, also when the root is a link', () => {
+  repo.write('real/org.yaml', ORG);
+  symlinkSync(repo.path('real'), repo.path('alias'));
+  const asked: string[] = [];
+  const readFile = (path: string) => {
+    asked.push(path);
+    return ORG;
+  };
+  const r = loadPolicyText('id: c\ndescription: d\nextends: org.yaml\n', repo.path('alias/c.yaml'), { repoRoot: repo.path('alias') }, readFile);
+  expect(r.ok).toBe(true);
+  expect(asked).toEqual([repo.path('alias/org.yaml')]);
+});
+
 describe('extends errors, at the extends value', () => {
   test('a cycle a → b → a is reported where it closes, and the start fails with it', () => {
     const a = repo.write('a.yaml', 'id: a\ndescription: d\nextends: b.yaml\n');
