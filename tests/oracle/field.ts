@@ -12,10 +12,10 @@
  * Why 2^26 is enough. A k×k minor of a probe matrix is a polynomial in the weights and the probe
  * inputs of degree at most k·d, where d is the total degree of the network function: d is below
  * ~50 for the convolutional nets tested here, and below ~500 for the deepest recurrences (depth 3,
- * T = 8: the degree of h^l_t grows like t^l/l!), with k ≤ 308. By the Schwartz–Zippel lemma
+ * T = 8: the degree of h^l_t grows like t^l/l!), with k ≤ 408. By the Schwartz–Zippel lemma
  * (Schwartz, "Fast probabilistic algorithms for verification of polynomial identities"; Zippel,
  * "Probabilistic algorithms for sparse polynomials") a non-zero such polynomial vanishes at a
- * uniform random point with probability at most k·d/P: below 2.5·10^-3 in the very worst case,
+ * uniform random point with probability at most k·d/P: below 3.5·10^-3 in the very worst case,
  * below 10^-5 for a typical case (k, d ≈ 20), and the lemma is a crude worst-case bound. Failure only ever
  * makes the oracle read too LOW (a non-zero minor mod P is a non-zero integer polynomial, so the
  * rank mod P never exceeds the generic rank): it can never hide an upper bound that is too small.

@@ -8,9 +8,9 @@
 import { describe, expect, it } from 'vitest';
 import type { LayeredModel } from '../../src/config/model.js';
 import { P, Rng, inv, mul, mulAdd, randomVector, rank } from './field.js';
-import { compile, probeRank, probeRankWith, WeightStore, type SurrogateKind } from './surrogate.js';
+import { compile, probeInputs, probeMatrixNaive, probeRank, probeRankWith, WeightStore, type SurrogateKind } from './surrogate.js';
 import { explicitRank, treeTensorRank } from './contract.js';
-import { recurrentCase, tree1d, tree2d } from './families.js';
+import { overlap1d, overlap2d, recurrentCase, tree1d, tree2d } from './families.js';
 import { conv, explicit, globalPool, layered, partition, pool, recurrent, type LayerDraft } from './models.js';
 
 /** Probe rank with K = expected + 8 (K must exceed the rank for the reading to be the rank). */
@@ -73,6 +73,28 @@ describe('field arithmetic and rank', () => {
 });
 
 describe('the two oracle methods agree', () => {
+  it('the cached probe matrix equals entry-by-entry evaluation, for every family', () => {
+    // The fast path computes side-only units once per row or column; it must not change a value.
+    const master = new Rng(31337);
+    for (let i = 0; i < 120; i++) {
+      const seed = master.fork();
+      const rng = new Rng(seed);
+      const gens = [
+        () => tree1d(rng, rng.chance(0.5)),
+        () => tree2d(rng, rng.chance(0.5)),
+        () => overlap1d(rng),
+        () => overlap2d(rng),
+        () => recurrentCase(rng, rng.int(1, 3)),
+      ];
+      const c = gens[i % gens.length]!();
+      const ev = compile(c.model, c.surrogate, new WeightStore(new Rng(seed)));
+      for (const p of c.partitions) {
+        const { xa, xb } = probeInputs(ev, p.side, 6, new Rng(seed + 1));
+        expect(Array.from(ev.probeMatrix(p.side, xa, xb)), `seed ${seed} ${p.label}`).toEqual(Array.from(probeMatrixNaive(ev, p.side, xa, xb)));
+      }
+    }
+  });
+
   it('probe rank equals coefficient-tensor rank on random small trees (shared weights draw)', () => {
     const master = new Rng(2024);
     let compared = 0;

@@ -14,7 +14,13 @@
  * window; the product window for strides belongs to the `tree` surrogate only.
  */
 import type { ConvLayer, LayeredModel, RecurrentLayer } from '../../src/config/model.js';
-import { mul, mulAdd, randomVector, rankInPlace, type Rng } from './field.js';
+import { mul as fieldMul, mulAdd as fieldMulAdd, randomVector, rankInPlace, type Rng } from './field.js';
+
+// Local bindings of the hot arithmetic: under the test runner's module transform every call
+// through an imported binding is a property load on a module object, which V8 does not inline
+// (measured: about a third slower).
+const mul = fieldMul;
+const mulAdd = fieldMulAdd;
 
 export type SurrogateKind = 'tree' | 'overlap';
 
@@ -77,7 +83,39 @@ function matVecAdd(w: Float64Array, rows: number, cols: number, v: Float64Array,
   }
 }
 
-type Step = (input: Float64Array) => Float64Array;
+/**
+ * The compiled circuit is a list of stages; a stage is a list of units, each unit a vector at one
+ * grid position (or a recurrent state) computed from units of the previous stage. Stage 0 holds
+ * the inputs, one unit of M values per position. Knowing which inputs every unit depends on lets
+ * the probe compute each side-only unit once per row or column instead of once per matrix entry;
+ * `evaluate` runs every unit and is the plain reference the fast path is tested against.
+ */
+interface Unit {
+  readonly offset: number;
+  readonly length: number;
+  /** Units of the previous stage that this one reads. */
+  readonly deps: readonly number[];
+  /** Writes out[offset .. offset+length) from the previous stage's buffer. */
+  readonly compute: (input: Float64Array, out: Float64Array) => void;
+}
+
+interface Stage {
+  readonly units: Unit[];
+  readonly size: number;
+}
+
+class StageBuilder {
+  readonly units: Unit[] = [];
+  private size = 0;
+  add(length: number, deps: readonly number[], compute: (input: Float64Array, out: Float64Array, offset: number) => void): void {
+    const offset = this.size;
+    this.units.push({ offset, length, deps, compute: (input, out) => compute(input, out, offset) });
+    this.size += length;
+  }
+  done(): Stage {
+    return { units: this.units, size: this.size };
+  }
+}
 
 interface Grid {
   dims: number[];
@@ -120,21 +158,19 @@ export function tiles(dims: readonly number[], window: readonly number[]): { dim
   return { dims: newDims, groups };
 }
 
-function productStep(groups: number[][], dim: number): Step {
-  const out = new Float64Array(groups.length * dim);
-  const flat = groups.map((g) => Int32Array.from(g, (c) => c * dim));
-  return (input) => {
-    for (let q = 0; q < flat.length; q++) {
-      const g = flat[q] as Int32Array;
-      const oo = q * dim;
+function productStage(prev: Stage, groups: number[][], dim: number): Stage {
+  const b = new StageBuilder();
+  for (const g of groups) {
+    const offs = Int32Array.from(g, (c) => (prev.units[c] as Unit).offset);
+    b.add(dim, g, (input, out, oo) => {
       for (let k = 0; k < dim; k++) {
         let acc = 1;
-        for (let c = 0; c < g.length; c++) acc = mul(acc, input[(g[c] as number) + k] as number);
+        for (let c = 0; c < offs.length; c++) acc = mul(acc, input[(offs[c] as number) + k] as number);
         out[oo + k] = acc;
       }
-    }
-    return out;
-  };
+    });
+  }
+  return b.done();
 }
 
 /** Output length and left padding of one axis of an overlapping convolution. */
@@ -148,7 +184,7 @@ export function axisGeometry(n: number, k: number, s: number, padding: 'same' | 
   return { out: Math.floor((n - k) / s) + 1, left: 0 };
 }
 
-function overlapConv(layer: ConvLayer, grid: Grid, shared: boolean, weights: WeightStore, steps: Step[]): Grid {
+function overlapConv(layer: ConvLayer, grid: Grid, shared: boolean, weights: WeightStore, stages: Stage[]): Grid {
   const dims = grid.dims;
   if (layer.kernel.length !== dims.length || layer.stride.length !== dims.length) {
     throw new Error(`conv ${layer.index}: kernel/stride rank does not match grid [${dims.join(',')}]`);
@@ -157,13 +193,15 @@ function overlapConv(layer: ConvLayer, grid: Grid, shared: boolean, weights: Wei
   const outDims = geo.map((g) => g.out);
   const r = layer.channels;
   const d = grid.dim;
-  // For every output position: the (source position, tap) pairs that are in range.
-  const plan: { src: number; w: Float64Array }[][] = [];
+  const prev = stages[stages.length - 1] as Stage;
   const nOut = count(outDims);
   const taps = count(layer.kernel);
+  const b = new StageBuilder();
   for (let o = 0; o < nOut; o++) {
     const oIdx = dims.length === 1 ? [o] : [Math.floor(o / (outDims[1] as number)), o % (outDims[1] as number)];
-    const list: { src: number; w: Float64Array }[] = [];
+    // The (source position, tap weights) pairs that are in range.
+    const srcs: number[] = [];
+    const ws: Float64Array[] = [];
     for (let t = 0; t < taps; t++) {
       const tIdx = dims.length === 1 ? [t] : [Math.floor(t / (layer.kernel[1] as number)), t % (layer.kernel[1] as number)];
       let src = 0;
@@ -175,92 +213,119 @@ function overlapConv(layer: ConvLayer, grid: Grid, shared: boolean, weights: Wei
       }
       // Weights are drawn for every tap, in range or not, so that the draw does not depend on padding.
       const w = weights.get(tapKey(layer.index, o, t, shared), r * d);
-      if (inRange) list.push({ src, w });
+      if (inRange) {
+        srcs.push(src);
+        ws.push(w);
+      }
     }
-    plan.push(list);
-  }
-  const out = new Float64Array(nOut * r);
-  steps.push((input) => {
-    out.fill(0);
-    plan.forEach((list, o) => {
-      for (const { src, w } of list) matVecAdd(w, r, d, input, src * d, out, o * r);
+    const offs = srcs.map((src) => (prev.units[src] as Unit).offset);
+    b.add(r, srcs, (input, out, oo) => {
+      out.fill(0, oo, oo + r);
+      for (let i = 0; i < offs.length; i++) matVecAdd(ws[i] as Float64Array, r, d, input, offs[i] as number, out, oo);
     });
-    return out;
-  });
+  }
+  stages.push(b.done());
   return { dims: outDims, dim: r };
 }
 
-function recurrentStep(layer: RecurrentLayer, grid: Grid, weights: WeightStore, steps: Step[]): Grid {
+/**
+ * A recurrence over T steps becomes T stages: stage t holds the states of all levels after step t
+ * (one unit of L·R values) and passes the inputs not yet read through unchanged; a last stage
+ * extracts h^L_T.
+ */
+function recurrentStages(layer: RecurrentLayer, grid: Grid, weights: WeightStore, stages: Stage[]): Grid {
   if (grid.dims.length !== 1) throw new Error(`recurrent ${layer.index} needs a 1D grid, got [${grid.dims.join(',')}]`);
   const T = grid.dims[0] as number;
   const R = layer.hidden;
   const L = layer.depth;
+  const d0 = grid.dim;
   const wh: Float64Array[] = [];
   const wi: Float64Array[] = [];
-  const h0: Float64Array[] = [];
+  const h0 = new Float64Array(L * R);
   for (let l = 1; l <= L; l++) {
     const keys = recurrentKeys(layer.index, l);
     wh.push(weights.get(keys.h, R * R));
-    wi.push(weights.get(keys.i, R * (l === 1 ? grid.dim : R)));
-    h0.push(weights.get(keys.h0, R));
+    wi.push(weights.get(keys.i, R * (l === 1 ? d0 : R)));
+    h0.set(weights.get(keys.h0, R), (l - 1) * R);
   }
-  const d0 = grid.dim;
-  const state = new Float64Array(L * R);
   const a = new Float64Array(R);
-  const b = new Float64Array(R);
-  const out = new Float64Array(R);
-  steps.push((input) => {
-    for (let l = 0; l < L; l++) state.set(h0[l] as Float64Array, l * R);
-    for (let t = 0; t < T; t++) {
-      for (let l = 0; l < L; l++) {
-        // a = W_H h^l_{t-1}; b = W_I h^{l-1}_t (h^0_t = the input at t; h^{l-1}_t is already updated).
-        matVec(wh[l] as Float64Array, R, R, state, l * R, a, 0);
-        if (l === 0) matVec(wi[0] as Float64Array, R, d0, input, t * d0, b, 0);
-        else matVec(wi[l] as Float64Array, R, R, state, (l - 1) * R, b, 0);
-        for (let k = 0; k < R; k++) state[l * R + k] = mul(a[k] as number, b[k] as number);
-      }
+  const bv = new Float64Array(R);
+  // One step: states (at input[so], or h0 when so < 0) and input x_t (at input[xo]) → out[oo].
+  const step = (input: Float64Array, so: number, xo: number, out: Float64Array, oo: number): void => {
+    for (let l = 0; l < L; l++) {
+      // a = W_H h^l_{t-1}; b = W_I h^{l-1}_t (h^0_t = x_t; h^{l-1}_t is already in out).
+      if (so < 0) matVec(wh[l] as Float64Array, R, R, h0, l * R, a, 0);
+      else matVec(wh[l] as Float64Array, R, R, input, so + l * R, a, 0);
+      if (l === 0) matVec(wi[0] as Float64Array, R, d0, input, xo, bv, 0);
+      else matVec(wi[l] as Float64Array, R, R, out, oo + (l - 1) * R, bv, 0);
+      for (let k = 0; k < R; k++) out[oo + l * R + k] = mul(a[k] as number, bv[k] as number);
     }
-    out.set(state.subarray((L - 1) * R, L * R));
-    return out;
+  };
+  for (let t = 0; t < T; t++) {
+    const prev = stages[stages.length - 1] as Stage;
+    const b = new StageBuilder();
+    // Previous stage: t = 0: the T positions; t > 0: [state, x_t, …, x_{T−1}].
+    const stateUnit = t === 0 ? -1 : 0;
+    const xUnit = t === 0 ? 0 : 1;
+    const so = stateUnit < 0 ? -1 : (prev.units[stateUnit] as Unit).offset;
+    const xo = (prev.units[xUnit] as Unit).offset;
+    b.add(L * R, stateUnit < 0 ? [xUnit] : [stateUnit, xUnit], (input, out, oo) => step(input, so, xo, out, oo));
+    for (let u = xUnit + 1; u < prev.units.length; u++) {
+      const src = prev.units[u] as Unit;
+      b.add(src.length, [u], (input, out, oo) => {
+        for (let k = 0; k < src.length; k++) out[oo + k] = input[src.offset + k] as number;
+      });
+    }
+    stages.push(b.done());
+  }
+  const last = new StageBuilder();
+  last.add(R, [0], (input, out, oo) => {
+    for (let k = 0; k < R; k++) out[oo + k] = input[(L - 1) * R + k] as number;
   });
+  stages.push(last.done());
   return { dims: [1], dim: R };
 }
 
 export interface Evaluator {
   readonly positions: number;
   readonly features: number;
-  /** h(x) mod P; x holds the M features of every position, position-major. */
+  /** h(x) mod P by running every unit; x holds the M features of every position, position-major. */
   evaluate(x: Float64Array): number;
+  /** The k×k probe matrix F[i][j] = h(xA_i, xB_j), computing side-only units once per row/column. */
+  probeMatrix(side: Uint8Array, xa: readonly Float64Array[], xb: readonly Float64Array[]): Float64Array;
 }
 
 /** Compiles a layered model under a surrogate into a numeric evaluator over the given weights. */
 export function compile(model: LayeredModel, surrogate: SurrogateKind, weights: WeightStore): Evaluator {
   const shared = model.weightSharing;
-  let grid: Grid = { dims: [...model.input.shape], dim: model.input.features };
-  const steps: Step[] = [];
+  const m = model.input.features;
+  let grid: Grid = { dims: [...model.input.shape], dim: m };
+  const n = count(grid.dims);
+  const input = new StageBuilder();
+  for (let p = 0; p < n; p++) input.add(m, [], () => undefined);
+  const stages: Stage[] = [input.done()];
   const linear = (layerIndex: number, r: number, sharedHere: boolean): void => {
-    const n = count(grid.dims);
+    const prev = stages[stages.length - 1] as Stage;
     const d = grid.dim;
-    const ws: Float64Array[] = [];
-    for (let q = 0; q < n; q++) ws.push(weights.get(linearKey(layerIndex, q, sharedHere), r * d));
-    const out = new Float64Array(n * r);
-    steps.push((input) => {
-      for (let q = 0; q < n; q++) matVec(ws[q] as Float64Array, r, d, input, q * d, out, q * r);
-      return out;
+    const b = new StageBuilder();
+    prev.units.forEach((u, q) => {
+      const w = weights.get(linearKey(layerIndex, q, sharedHere), r * d);
+      b.add(r, [q], (inp, out, oo) => matVec(w, r, d, inp, u.offset, out, oo));
     });
+    stages.push(b.done());
     grid = { dims: grid.dims, dim: r };
   };
   const product = (window: readonly number[] | 'global'): void => {
     const w = window === 'global' ? grid.dims : window;
     const t = tiles(grid.dims, w);
-    steps.push(productStep(t.groups, grid.dim));
+    stages.push(productStage(stages[stages.length - 1] as Stage, t.groups, grid.dim));
     grid = { dims: t.dims, dim: grid.dim };
   };
   for (const layer of model.layers) {
     switch (layer.kind) {
       case 'conv':
         if (surrogate === 'overlap') {
-          grid = overlapConv(layer, grid, shared, weights, steps);
+          grid = overlapConv(layer, grid, shared, weights, stages);
         } else {
           linear(layer.index, layer.channels, shared);
           if (layer.stride.some((s) => s > 1)) product(layer.stride);
@@ -274,54 +339,157 @@ export function compile(model: LayeredModel, surrogate: SurrogateKind, weights: 
         linear(layer.index, layer.units, true);
         break;
       case 'recurrent':
-        grid = recurrentStep(layer, grid, weights, steps);
+        grid = recurrentStages(layer, grid, weights, stages);
         break;
     }
   }
   if (count(grid.dims) > 1) product('global');
   const head = weights.get('head', grid.dim);
   const dim = grid.dim;
-  return {
-    positions: count(model.input.shape),
-    features: model.input.features,
-    evaluate(x: Float64Array): number {
-      let v = x;
-      for (const s of steps) v = s(v);
-      let acc = 0;
-      for (let k = 0; k < dim; k++) acc = mulAdd(head[k] as number, v[k] as number, acc);
-      return acc;
-    },
+  const headStage = new StageBuilder();
+  headStage.add(1, [0], (inp, out, oo) => {
+    let acc = 0;
+    for (let k = 0; k < dim; k++) acc = mulAdd(head[k] as number, inp[k] as number, acc);
+    out[oo] = acc;
+  });
+  stages.push(headStage.done());
+  const buffers = stages.map((s) => new Float64Array(s.size));
+
+  const evaluate = (x: Float64Array): number => {
+    buffers[0]!.set(x);
+    for (let s = 1; s < stages.length; s++) {
+      const inp = buffers[s - 1] as Float64Array;
+      const out = buffers[s] as Float64Array;
+      for (const u of (stages[s] as Stage).units) u.compute(inp, out);
+    }
+    return (buffers[buffers.length - 1] as Float64Array)[0] as number;
   };
+
+  const probeMatrix = (side: Uint8Array, xa: readonly Float64Array[], xb: readonly Float64Array[]): Float64Array => {
+    // Class of every unit: bit 1 = depends on side A, bit 2 = on side B (3: both; 0: constant).
+    const cls: Uint8Array[] = stages.map((s) => new Uint8Array(s.units.length));
+    for (let p = 0; p < n; p++) cls[0]![p] = (side[p] ?? 0) === 1 ? 1 : 2;
+    for (let s = 1; s < stages.length; s++) {
+      (stages[s] as Stage).units.forEach((u, q) => {
+        let c = 0;
+        for (const d of u.deps) c |= cls[s - 1]![d] as number;
+        cls[s]![q] = c;
+      });
+    }
+    // Units of class c in stage s; the B-only units that a mixed unit (or the output) reads.
+    const ofClass = (s: number, c: number): Unit[] => (stages[s] as Stage).units.filter((_, q) => cls[s]![q] === c);
+    const frontier: { s: number; offset: number; length: number }[] = [];
+    for (let s = 0; s < stages.length; s++) {
+      const needed = new Set<number>();
+      if (s + 1 < stages.length) {
+        (stages[s + 1] as Stage).units.forEach((u, q) => {
+          if (cls[s + 1]![q] === 3) for (const d of u.deps) if (cls[s]![d] === 2) needed.add(d);
+        });
+      } else if (cls[s]![0] === 2) {
+        needed.add(0);
+      }
+      for (const q of needed) {
+        const u = (stages[s] as Stage).units[q] as Unit;
+        frontier.push({ s, offset: u.offset, length: u.length });
+      }
+    }
+    const frontierSize = frontier.reduce((a, f) => a + f.length, 0);
+    const posA: number[] = [];
+    const posB: number[] = [];
+    for (let p = 0; p < n; p++) ((side[p] ?? 0) === 1 ? posA : posB).push(p);
+    const scatter = (src: Float64Array, where: readonly number[]): void => {
+      const x = buffers[0] as Float64Array;
+      for (let i = 0; i < where.length; i++) {
+        const xo = (where[i] as number) * m;
+        for (let c = 0; c < m; c++) x[xo + c] = src[i * m + c] as number;
+      }
+    };
+    // Precomputed unit lists per class, so that the inner loop does no filtering.
+    const lists = [0, 1, 2, 3].map((c) => stages.map((_, s) => (s === 0 ? [] : ofClass(s, c))));
+    const runList = (c: number): void => {
+      const ls = lists[c] as Unit[][];
+      for (let s = 1; s < stages.length; s++) {
+        const inp = buffers[s - 1] as Float64Array;
+        const out = buffers[s] as Float64Array;
+        for (const u of ls[s] as Unit[]) u.compute(inp, out);
+      }
+    };
+    runList(0);
+    // Side-B units once per column; keep the ones mixed units read.
+    const cache = xb.map((vb) => {
+      scatter(vb, posB);
+      runList(2);
+      const saved = new Float64Array(frontierSize);
+      let o = 0;
+      for (const f of frontier) {
+        saved.set((buffers[f.s] as Float64Array).subarray(f.offset, f.offset + f.length), o);
+        o += f.length;
+      }
+      return saved;
+    });
+    const k = xa.length;
+    const kb = xb.length;
+    const last = buffers[buffers.length - 1] as Float64Array;
+    const f = new Float64Array(k * kb);
+    for (let i = 0; i < k; i++) {
+      scatter(xa[i] as Float64Array, posA);
+      runList(1);
+      for (let j = 0; j < kb; j++) {
+        const saved = cache[j] as Float64Array;
+        let o = 0;
+        for (const fr of frontier) {
+          const buf = buffers[fr.s] as Float64Array;
+          for (let t = 0; t < fr.length; t++) buf[fr.offset + t] = saved[o + t] as number;
+          o += fr.length;
+        }
+        runList(3);
+        f[i * kb + j] = last[0] as number;
+      }
+    }
+    return f;
+  };
+
+  return { positions: n, features: m, evaluate, probeMatrix };
+}
+
+/** Probe inputs: k random assignments of each side's inputs. */
+export function probeInputs(ev: Evaluator, side: Uint8Array, k: number, rng: Rng): { xa: Float64Array[]; xb: Float64Array[] } {
+  let a = 0;
+  for (let p = 0; p < ev.positions; p++) if ((side[p] ?? 0) === 1) a++;
+  const b = ev.positions - a;
+  const xa = Array.from({ length: k }, () => randomVector(rng, a * ev.features));
+  const xb = Array.from({ length: k }, () => randomVector(rng, b * ev.features));
+  return { xa, xb };
+}
+
+/** The probe matrix by plain evaluation of every entry (the reference for `probeMatrix`). */
+export function probeMatrixNaive(ev: Evaluator, side: Uint8Array, xa: readonly Float64Array[], xb: readonly Float64Array[]): Float64Array {
+  const m = ev.features;
+  const posA: number[] = [];
+  const posB: number[] = [];
+  for (let p = 0; p < ev.positions; p++) ((side[p] ?? 0) === 1 ? posA : posB).push(p);
+  const x = new Float64Array(ev.positions * m);
+  const scatter = (src: Float64Array, where: readonly number[]): void => {
+    for (let i = 0; i < where.length; i++) for (let c = 0; c < m; c++) x[(where[i] as number) * m + c] = src[i * m + c] as number;
+  };
+  const f = new Float64Array(xa.length * xb.length);
+  xa.forEach((va, i) => {
+    scatter(va, posA);
+    xb.forEach((vb, j) => {
+      scatter(vb, posB);
+      f[i * xb.length + j] = ev.evaluate(x);
+    });
+  });
+  return f;
 }
 
 /**
- * The probe matrix rank for one partition. `side[p] = 1` puts position p on side A. Weights come
- * from `weights` (drawn on demand); the probe inputs from `rng`.
+ * The probe matrix rank for one partition. `side[p] = 1` puts position p on side A. The probe
+ * inputs come from `rng`.
  */
 export function probeRankWith(ev: Evaluator, side: Uint8Array, k: number, rng: Rng): number {
-  const m = ev.features;
-  const a: number[] = [];
-  const b: number[] = [];
-  for (let p = 0; p < ev.positions; p++) ((side[p] ?? 0) === 1 ? a : b).push(p);
-  const xa = Array.from({ length: k }, () => randomVector(rng, a.length * m));
-  const xb = Array.from({ length: k }, () => randomVector(rng, b.length * m));
-  const x = new Float64Array(ev.positions * m);
-  const f = new Float64Array(k * k);
-  const scatter = (src: Float64Array, where: readonly number[]): void => {
-    for (let s = 0; s < where.length; s++) {
-      const xo = (where[s] as number) * m;
-      const so = s * m;
-      for (let c = 0; c < m; c++) x[xo + c] = src[so + c] as number;
-    }
-  };
-  for (let i = 0; i < k; i++) {
-    scatter(xa[i] as Float64Array, a);
-    for (let j = 0; j < k; j++) {
-      scatter(xb[j] as Float64Array, b);
-      f[i * k + j] = ev.evaluate(x);
-    }
-  }
-  return rankInPlace(f, k, k);
+  const { xa, xb } = probeInputs(ev, side, k, rng);
+  return rankInPlace(ev.probeMatrix(side, xa, xb), k, k);
 }
 
 /** Probe rank of a model under a surrogate with fresh weights drawn from `rng`. */
