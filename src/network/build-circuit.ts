@@ -53,12 +53,12 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
   const notes = new Set<string>();
   const b = new CircuitBuilder(positions, limit);
   try {
-    const inputTag = b.addTag({ label: 'input', line: model.input.span.line, layerIndex: -1 });
+    const inputTag = b.addTag({ label: 'input', line: model.input.span.line, span: model.input.span, layerIndex: -1 });
     const grid: Grid = { shape: [...model.input.shape], nodes: [], dim: model.input.features };
     for (let p = 0; p < positions; p++) grid.nodes.push(b.add(OP_INPUT, grid.dim, inputTag, [], p));
 
     for (const layer of model.layers) {
-      const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, layerIndex: layer.index });
+      const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
       const problem = applyLayer(b, grid, layer, tag, options.surrogate, notes);
       if (problem) return fail(problem.span, problem.code, problem.message);
     }
@@ -67,7 +67,7 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
       notes.add(
         `the ${grid.nodes.length} positions left after the last layer are joined by a global product pool before the head`,
       );
-      const tag = b.addTag({ label: layerLabel(last), line: last.span.line, layerIndex: last.index });
+      const tag = b.addTag({ label: layerLabel(last), line: last.span.line, span: last.span, layerIndex: last.index });
       grid.nodes = [b.add(OP_PRODUCT, grid.dim, tag, grid.nodes)];
     }
     return { ok: true, circuit: b.finish(grid.nodes[0]!), notes: [...notes] };

@@ -13,6 +13,7 @@
  * every use has its own copy (Levine, Sharir, Cohen, Shashua, "Quantum entanglement in deep
  * learning architectures", PRL 2019), and every algorithm here works on that duplicated tree.
  */
+import type { Span } from '../diagnostic.js';
 
 export const OP_INPUT = 0;
 export const OP_CONST = 1;
@@ -27,6 +28,8 @@ export const OP_NAMES = ['input', 'const', 'linear', 'product', 'sum'] as const;
 export interface LayerTag {
   readonly label: number | string;
   readonly line: number;
+  /** The YAML span of the layer (or of `input`). */
+  readonly span: Span;
   /** Index of the model layer, or -1 for the input legs and the head. */
   readonly layerIndex: number;
 }
