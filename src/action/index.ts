@@ -1,0 +1,7 @@
+/**
+ * The entry point that the runner starts (bundled into dist/action.js). It only starts the action;
+ * everything else lives in main.ts, which can be imported without running anything.
+ */
+import { run } from './main.js';
+
+await run();

@@ -1,0 +1,142 @@
+/**
+ * The GitHub Action: the same check job as `rankfloor check`, driven by the action's inputs and
+ * the pull request event, reported the way GitHub shows things — annotations on the changed
+ * lines, a job summary, step outputs, and the step's status. This is the only module that talks
+ * to the Actions toolkit; everything it renders is computed by pure modules beside it.
+ *
+ * Exit codes follow the CLI: 1 when a requirement fails, 2 when an input or the request itself is
+ * wrong, and nothing can hide a 2.
+ */
+import { randomUUID } from 'node:crypto';
+import { existsSync, renameSync, writeFileSync } from 'node:fs';
+import { EOL, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import * as core from '@actions/core';
+import { findingsOf } from '../check/findings.js';
+import { findRepoRoot } from '../check/repo-files.js';
+import { CheckRequestError, runCheck, type CheckOutcome } from '../check/run-check.js';
+import { formatDiagnosticLine } from '../diagnostic.js';
+import { GitError, openRepo } from '../git/git.js';
+import { checkJson, overallVerdict } from '../report/check-json.js';
+import { checkText } from '../report/check-text.js';
+import { sarifText } from '../report/sarif.js';
+import { TOOL_VERSION } from '../version.js';
+import { planAnnotations } from './annotations.js';
+import { ActionInputError, readInputs, readWorkflowEvent, type ActionInputs } from './inputs.js';
+import { tallyRequirements } from './requirement-tally.js';
+import { selectConfigs } from './select-configs.js';
+import { writeJobSummary } from './job-summary.js';
+
+const EXIT_INPUT = 2;
+const REPORT_NAME = 'rankfloor-report.json';
+
+export async function run(): Promise<void> {
+  try {
+    await check();
+  } catch (e) {
+    if (e instanceof ActionInputError || e instanceof CheckRequestError || e instanceof GitError) {
+      failWithInputError(e.message);
+      return;
+    }
+    failWithInputError(`internal error (please report it with the config that caused it): ${e instanceof Error ? (e.stack ?? e.message) : String(e)}`);
+  }
+}
+
+async function check(): Promise<void> {
+  // Paths in inputs, annotations and the report are relative to the checked-out repository.
+  process.chdir(process.env['GITHUB_WORKSPACE'] || process.cwd());
+  const cwd = process.cwd();
+  const inputs = readInputs(
+    { get: (name) => core.getInput(name), getBoolean: (name) => core.getBooleanInput(name) },
+    readWorkflowEvent(process.env),
+  );
+  if (inputs.changedOnly && inputs.base === undefined && inputs.changedOnlyGiven) {
+    core.warning('changed-only needs a base commit (the `base` input, or a pull_request event); every governed config is checked');
+  }
+  const outcome = checkConfigs(cwd, inputs);
+  const verdict = overallVerdict(outcome);
+  const findings = findingsOf(outcome, cwd);
+  const plan = planAnnotations(findings);
+
+  core.startGroup('rankfloor check');
+  logPlainText([checkText(outcome, { color: false, quiet: false }), ...outcome.errors.map(formatDiagnosticLine)].join('\n'));
+  core.endGroup();
+  for (const a of plan.shown) core[a.kind](a.message, a.properties);
+
+  const reportPath = resolve(process.env['RUNNER_TEMP'] || tmpdir(), REPORT_NAME);
+  writeWhole(reportPath, checkJson(outcome));
+  if (inputs.sarif) writeWhole(resolve(cwd, inputs.sarif), sarifText(findings, { version: TOOL_VERSION }));
+  const tally = tallyRequirements(outcome);
+  core.setOutput('verdict', verdict);
+  core.setOutput('failed', tally.failing);
+  core.setOutput('report', reportPath);
+
+  if (process.env['GITHUB_STEP_SUMMARY']) {
+    writeJobSummary(core.summary, outcome, verdict, plan.overflow);
+    await core.summary.write();
+  }
+
+  const inputErrors = outcome.errors.filter((e) => e.severity === 'error');
+  if (inputErrors.length > 0) {
+    const first = formatDiagnosticLine(inputErrors[0]!);
+    const more = inputErrors.length > 1 ? ` (and ${inputErrors.length - 1} more)` : '';
+    core.setFailed(`rankfloor: cannot check every config: ${first}${more}`);
+    process.exitCode = EXIT_INPUT;
+  } else if (tally.failing > 0) {
+    const configs = outcome.checked.filter((c) => c.failing).length;
+    core.setFailed(
+      `rankfloor: ${tally.failing} failing requirement${tally.failing === 1 ? '' : 's'} in ${configs} config${configs === 1 ? '' : 's'}; see the annotations and the job summary`,
+    );
+  }
+}
+
+function checkConfigs(cwd: string, inputs: ActionInputs): CheckOutcome {
+  let configs: string[] = [];
+  if (inputs.configGlobs.length > 0) {
+    const root = openRepo(cwd)?.root ?? findRepoRoot(cwd);
+    configs = selectConfigs(root, inputs.configGlobs).map((p) => join(root, p));
+    // An empty list would mean "every governed config" to the check, the opposite of what the
+    // globs asked for.
+    if (configs.length === 0) {
+      if (inputs.base === undefined && !existsSync(resolve(cwd, inputs.policy))) {
+        throw new ActionInputError(`the input \`policy\`: ${inputs.policy}: no such file or directory`);
+      }
+      core.info('the `configs` globs match no YAML file in the workspace: nothing to check');
+      return { root, checked: [], notices: [], errors: [] };
+    }
+  }
+  return runCheck({
+    cwd,
+    policy: inputs.policy,
+    configs,
+    ...(inputs.base !== undefined ? { base: inputs.base } : {}),
+    changed: inputs.changedOnly && inputs.base !== undefined,
+    unprovenFails: inputs.unprovenFails,
+  });
+}
+
+function failWithInputError(message: string): void {
+  core.setOutput('verdict', 'error');
+  core.setOutput('failed', 0);
+  core.setFailed(`rankfloor: ${message}`);
+  process.exitCode = EXIT_INPUT;
+}
+
+/**
+ * The runner reads a log line that starts with `::` as a workflow command, and file names and
+ * messages in the report come from the pull request, so the report is logged with command
+ * processing stopped; the token that restarts it is random, so the logged text cannot contain it.
+ */
+function logPlainText(text: string): void {
+  const token = `rankfloor-${randomUUID()}`;
+  process.stdout.write(`::stop-commands::${token}${EOL}`);
+  core.info(text);
+  process.stdout.write(`::${token}::${EOL}`);
+}
+
+/** Through a temporary file and a rename, so that a later step never reads half a report. */
+function writeWhole(path: string, text: string): void {
+  const tmp = `${path}.tmp-${process.pid}`;
+  writeFileSync(tmp, text);
+  renameSync(tmp, path);
+}
