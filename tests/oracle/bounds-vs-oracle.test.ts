@@ -13,6 +13,7 @@ import {
   checkExplicit,
   checkLayered,
   knownReport,
+  methodReport,
   newStats,
   runFamily,
   tightnessTable,
@@ -82,6 +83,7 @@ describe('regressions found by the oracle', () => {
 
 afterAll(() => {
   console.log(`tightness of the bounds against the oracle (cap ${CAP}):\n${tightnessTable(all)}`);
+  console.log(`rules behind the bounds (attained = equal to the oracle):\n${methodReport(all)}`);
   const known = knownReport(all);
   if (known) console.log(`failures matched by reported product bugs (not failed on):\n${known}`);
 });

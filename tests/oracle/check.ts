@@ -27,6 +27,8 @@ export interface FamilyStats {
   /** Cases by oracle rank: 1, 2–3, 4–15, 16–63, ≥ 64. */
   readonly buckets: number[];
   readonly failures: string[];
+  /** How often each rule gave the upper / the lower bound, and how often that bound was attained. */
+  readonly methods: Map<string, { used: number; tight: number }>;
   /** Failures matched by a documented, reported product bug: id → count and first example. */
   readonly known: Map<string, { count: number; example: string }>;
   ms: number;
@@ -56,6 +58,7 @@ export function newStats(family: string, knownBugs: readonly KnownBug[] = []): F
     buckets: [0, 0, 0, 0, 0],
     failures: [],
     known: new Map(),
+    methods: new Map(),
     ms: 0,
     knownBugs,
   };
@@ -103,6 +106,14 @@ function judge(
   if (pb.status === 'exact' && (lower !== upper || oracle !== upper)) fail('status exact but lower/upper/oracle differ');
   if (pb.status === 'bounded' && (lower === null || lower >= upper)) fail('status bounded inconsistent with the bounds');
   if (pb.status === 'upper-only' && lower !== null) fail('status upper-only with a lower bound');
+  const count = (key: string, tight: boolean): void => {
+    const m = stats.methods.get(key) ?? { used: 0, tight: 0 };
+    m.used++;
+    if (tight) m.tight++;
+    stats.methods.set(key, m);
+  };
+  count(`upper ${pb.upper.method}`, oracle === upper);
+  if (pb.lower) count(`lower ${pb.lower.method}`, oracle === lower);
   if (oracle === upper) stats.upperTight++;
   if (lower !== null) {
     stats.lowerPresent++;
@@ -225,4 +236,16 @@ export function knownReport(all: readonly FamilyStats[]): string {
   const lines: string[] = [];
   for (const s of all) for (const [id, k] of s.known) lines.push(`${s.family}: known bug ${id}: ${k.count} case(s), e.g. ${k.example}`);
   return lines.join('\n');
+}
+
+/** Per family: which rule gave each bound, how often, and how often it equalled the oracle. */
+export function methodReport(all: readonly FamilyStats[]): string {
+  return all
+    .map((s) => {
+      const parts = [...s.methods.entries()]
+        .sort((a, b) => a[0].localeCompare(b[0]))
+        .map(([k, m]) => `${k}: ${m.tight}/${m.used} attained`);
+      return `${s.family.padEnd(18)} ${parts.join('; ')}`;
+    })
+    .join('\n');
 }
