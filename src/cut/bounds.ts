@@ -75,7 +75,10 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights);
-    if (cut.value > MAX_RANK_BITS) {
+    const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
+    // Choose by log2 first: the loser may have millions of digits and is never written out.
+    const useDegree = deg !== null && deg.log2 < cut.value - 1e-9;
+    if (Math.min(cut.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
       return {
         diagnostic: {
           code: 'network/rank-too-large',
@@ -86,10 +89,11 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
         },
       };
     }
-    let upper = makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment);
-    if (circuit.reuse) {
-      const deg = degreeBound(circuit, p.side);
-      if (deg && deg.rank < upper.rank) upper = makeBound(deg.rank, 'degree', circuit, deg.counts, 0);
+    let upper = useDegree ? makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) : makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment);
+    if (deg && !useDegree && cut.value - deg.log2 < 1) {
+      // Close call in log2 (log-gamma is approximate): compare the exact values.
+      const exact = deg.rank();
+      if (exact < upper.rank) upper = makeBound(exact, 'degree', circuit, deg.counts, 0);
     }
     const lowers: Bound[] = [];
     if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));

@@ -14,7 +14,10 @@
 import { OP_CONST, OP_INPUT, type Circuit } from '../network/circuit.js';
 
 export interface DegreeBound {
-  readonly rank: bigint;
+  /** log2 of the bound, approximate (log-gamma): for choosing between bounds before writing one out. */
+  readonly log2: number;
+  /** The exact bound; computed on demand since it can have millions of digits. */
+  readonly rank: () => bigint;
   /** The frontier: tag → node dim → number of frontier nodes. */
   readonly counts: Map<number, Map<number, number>>;
 }
@@ -52,16 +55,20 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
   if (!best) return null;
   const frontier = sweep(c, dep, paths, best.mask, best.step);
   if (!frontier || !frontier.degrees) return null;
-  let rank = 1n;
+  const degrees = frontier.degrees;
+  const rank = (): bigint => {
+    let r = 1n;
+    for (const [v, d] of degrees) r *= binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d);
+    return r;
+  };
   const counts = new Map<number, Map<number, number>>();
-  for (const [v, d] of frontier.degrees) {
-    rank *= binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d);
+  for (const [v] of degrees) {
     const tag = c.bondTag[v]!;
     let byDim = counts.get(tag);
     if (!byDim) counts.set(tag, (byDim = new Map()));
     byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + 1);
   }
-  return { rank, counts };
+  return { log2: frontier.log, rank, counts };
 }
 
 interface SweepResult {
