@@ -35166,9 +35166,9 @@ var require_picomatch2 = __commonJS({
 
 // src/action/main.ts
 import { randomUUID as randomUUID2 } from "node:crypto";
-import { existsSync as existsSync4, renameSync, writeFileSync } from "node:fs";
+import { existsSync as existsSync4, mkdirSync, renameSync, writeFileSync } from "node:fs";
 import { EOL as EOL6, tmpdir } from "node:os";
-import { join as join7, resolve as resolve8 } from "node:path";
+import { dirname as dirname5, join as join7, resolve as resolve8 } from "node:path";
 
 // node_modules/@actions/core/lib/core.js
 var core_exports = {};
@@ -40316,16 +40316,20 @@ function degreeBound(c, side) {
   if (!best) return null;
   const frontier = sweep(c, dep, paths, best.mask, best.step);
   if (!frontier || !frontier.degrees) return null;
-  let rank = 1n;
+  const degrees = frontier.degrees;
+  const rank = () => {
+    let r = 1n;
+    for (const [v, d] of degrees) r *= binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d);
+    return r;
+  };
   const counts = /* @__PURE__ */ new Map();
-  for (const [v, d] of frontier.degrees) {
-    rank *= binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d);
+  for (const [v] of degrees) {
     const tag = c.bondTag[v];
     let byDim = counts.get(tag);
     if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
     byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
   }
-  return { rank, counts };
+  return { log2: frontier.log, rank, counts };
 }
 function sweep(c, dep, paths, mask, stopAt) {
   const { op, childStart, childList, dim } = c;
@@ -40871,7 +40875,9 @@ function analyseLayered(model, options) {
   const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : void 0;
   const bounds = (p) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights);
-    if (cut2.value > MAX_RANK_BITS) {
+    const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
+    const useDegree = deg !== null && deg.log2 < cut2.value - 1e-9;
+    if (Math.min(cut2.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
       return {
         diagnostic: {
           code: "network/rank-too-large",
@@ -40882,10 +40888,10 @@ function analyseLayered(model, options) {
         }
       };
     }
-    let upper = makeBound(productOf(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment);
-    if (circuit.reuse) {
-      const deg = degreeBound(circuit, p.side);
-      if (deg && deg.rank < upper.rank) upper = makeBound(deg.rank, "degree", circuit, deg.counts, 0);
+    let upper = useDegree ? makeBound(deg.rank(), "degree", circuit, deg.counts, 0) : makeBound(productOf(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment);
+    if (deg && !useDegree && cut2.value - deg.log2 < 1) {
+      const exact = deg.rank();
+      if (exact < upper.rank) upper = makeBound(exact, "degree", circuit, deg.counts, 0);
     }
     const lowers = [];
     if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
@@ -42206,7 +42212,11 @@ async function check() {
   setOutput("report", reportPath);
   if (process.env["GITHUB_STEP_SUMMARY"]) {
     writeJobSummary(summary, outcome, verdict, plan.overflow);
-    await summary.write();
+    try {
+      await summary.write();
+    } catch (e) {
+      warning(`could not write the job summary: ${e.message}`);
+    }
   }
   const inputErrors = outcome.errors.filter((e) => e.severity === "error");
   if (inputErrors.length > 0) {
@@ -42256,6 +42266,7 @@ function logPlainText(text) {
   process.stdout.write(`::${token}::${EOL6}`);
 }
 function writeWhole(path6, text) {
+  mkdirSync(dirname5(path6), { recursive: true });
   const tmp = `${path6}.tmp-${process.pid}`;
   writeFileSync(tmp, text);
   renameSync(tmp, path6);

@@ -8,9 +8,9 @@
  * wrong, and nothing can hide a 2.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync, renameSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { EOL, tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { dirname, join, resolve } from 'node:path';
 import * as core from '@actions/core';
 import { findingsOf } from '../check/findings.js';
 import { findRepoRoot } from '../check/repo-files.js';
@@ -73,7 +73,13 @@ async function check(): Promise<void> {
 
   if (process.env['GITHUB_STEP_SUMMARY']) {
     writeJobSummary(core.summary, outcome, verdict, plan.overflow);
-    await core.summary.write();
+    try {
+      await core.summary.write();
+    } catch (e) {
+      // The verdict is already out in annotations and outputs; a summary file the runner did not
+      // provide must not turn it into an error.
+      core.warning(`could not write the job summary: ${(e as Error).message}`);
+    }
   }
 
   const inputErrors = outcome.errors.filter((e) => e.severity === 'error');
@@ -136,6 +142,7 @@ function logPlainText(text: string): void {
 
 /** Through a temporary file and a rename, so that a later step never reads half a report. */
 function writeWhole(path: string, text: string): void {
+  mkdirSync(dirname(path), { recursive: true });
   const tmp = `${path}.tmp-${process.pid}`;
   writeFileSync(tmp, text);
   renameSync(tmp, path);

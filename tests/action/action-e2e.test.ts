@@ -160,3 +160,47 @@ test('a missing policy input or a base that does not exist exits 2 without check
     '::error::rankfloor: --base no-such-branch: no such commit in this repository; check out with full history (for example fetch-depth: 0)',
   ]);
 });
+
+describe('outside a pull request', () => {
+  test('configs globs choose what is checked; the SARIF log lands where asked', () => {
+    const { repo } = baseRepo();
+    repo.write(CONFIG_PATH, SHRUNK_CONFIG_TEXT);
+    repo.write('models/old-renal-net.yaml', SHRUNK_CONFIG_TEXT);
+    repo.commit('trim the last convolution');
+    const r = runAction({
+      workspace: repo.dir,
+      inputs: { policy: POLICY_PATH, configs: 'models/*.yaml\n!models/old-*.yaml\n', sarif: 'reports/rankfloor.sarif' },
+      event: { name: 'push', payload: {} },
+    });
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(1);
+    // No base: the annotation points at the bottleneck layer's line, not at a change.
+    expect(commandLines(r.stdout, 'error')).toEqual([
+      `::error title=organ-pair%3A capacity below the policy minimum (policy paired-organs),file=models/renal-pair-net.yaml,line=18,col=1::` +
+        [
+          'needs   rank ≥ 64 (6.00 bits)  [min_rank: 64, policies/paired-organs.yaml:8]',
+          'allows  exactly 16 (4.00 bits) — provably short by 2.00 bits',
+          'bottleneck (min-cut): 1 bond of dimension 16 from layer 8 (line 18)',
+          'fix (smallest change of one field, cheapest first):',
+          '  line 18:24  layer 8 channels: 16 → 64  (+110,784 parameters; then proven)',
+        ].join('%0A'),
+      FAILED_STEP,
+    ]);
+    expect(r.summary).toContain('<tr><td>organ-pair</td><td>6.00</td><td>—</td><td>4.00</td><td>—</td><td>fail</td></tr>');
+    const sarif = JSON.parse(repo.read('reports/rankfloor.sarif'));
+    expect(sarif.runs[0].results.map((x: { locations: { physicalLocation: { artifactLocation: { uri: string }; region: unknown } }[] }) => x.locations[0]!.physicalLocation)).toEqual([
+      { artifactLocation: { uri: 'models/renal-pair-net.yaml', uriBaseId: '%SRCROOT%' }, region: { startLine: 18, startColumn: 1 } },
+    ]);
+  });
+
+  test('globs that match no file check nothing, rather than everything', () => {
+    const { repo } = baseRepo();
+    repo.write(CONFIG_PATH, SHRUNK_CONFIG_TEXT);
+    repo.commit('trim the last convolution');
+    const r = runAction({ workspace: repo.dir, inputs: { policy: 'policies', configs: 'experiments/**/*.yaml' } });
+    expect(r.code).toBe(0);
+    expect(commandLines(r.stdout, 'error')).toEqual([]);
+    expect(r.outputs['verdict']).toBe('pass');
+    expect(r.outputs['failed']).toBe('0');
+  });
+});
