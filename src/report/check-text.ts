@@ -47,7 +47,7 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
       if (q.failing || d?.dropFails) {
         const [first, ...rest] = explainRequirement(q, d);
         out.push(`  ${label(q, d, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
-      } else out.push(`  ${label(q, d, paint)}  ${oneLine(q)}${d ? `; ${change(d)}` : ''}`);
+      } else out.push(`  ${label(q, d, paint)}  ${requirementSummary(q)}${d ? `; ${change(d)}` : ''}`);
     }
     if (!options.quiet) for (const n of r.notes) out.push(`  note: ${n}`);
     out.push('');
@@ -76,7 +76,8 @@ function range(q: RequirementResult): string {
   return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
 }
 
-function oneLine(q: RequirementResult): string {
+/** One line: what the requirement needs and what the config allows. */
+export function requirementSummary(q: RequirementResult): string {
   return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${range(q)}`;
 }
 

@@ -7,9 +7,8 @@
  * names) so that two runs on the same tree give the same file.
  */
 import { formatDiagnosticLine, type Diagnostic } from '../diagnostic.js';
-import { log2Big } from '../cut/types.js';
 import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
-import { bits, cutLabel, shortRank } from './bounds-text.js';
+import { explainRequirement, requirementSummary } from './check-text.js';
 
 export function junitXml(results: readonly PolicyResult[], errors: readonly Diagnostic[]): string {
   const suites = groupSuites(results).map(policySuite);
@@ -69,12 +68,12 @@ function policySuite(g: Group): Suite {
     if (q.failing) {
       failures++;
       cases.push(`${head}>`);
-      cases.push(`      <failure${attrs({ message: failureMessage(q), type: 'requirement-failed' })}>${text(explanation(q))}</failure>`);
+      cases.push(`      <failure${attrs({ message: requirementSummary(q), type: 'requirement-failed' })}>${text(explainRequirement(q).join('\n'))}</failure>`);
       cases.push('    </testcase>');
     } else if (q.verdict === 'unproven') {
       // Counted as a warning by the policy: visible in the report, but not a failure.
       cases.push(`${head}>`);
-      cases.push(`      <system-out>${text(`warning: ${failureMessage(q)}; not proven to reach the minimum (counted as a warning by the policy)`)}</system-out>`);
+      cases.push(`      <system-out>${text(`warning: ${requirementSummary(q)}; not proven to reach the minimum (counted as a warning by the policy)`)}</system-out>`);
       cases.push('    </testcase>');
     } else {
       cases.push(`${head}/>`);
@@ -116,52 +115,6 @@ class UniqueNames {
     this.used.add(name);
     return name;
   }
-}
-
-function needs(q: RequirementResult): string {
-  const min = q.requirement.minRank;
-  return `rank ≥ ${shortRank(min, log2Big(min))} (${bits(log2Big(min))} bits)`;
-}
-
-function allows(q: RequirementResult): string {
-  const b = q.bounds;
-  const upper = `${shortRank(b.upper.rank, b.upper.log2)} (${bits(b.upper.log2)} bits)`;
-  if (b.status === 'exact') return `exactly ${upper}`;
-  if (!b.lower) return `at most ${upper}, no lower bound proven`;
-  return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
-}
-
-function failureMessage(q: RequirementResult): string {
-  return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${allows(q)}`;
-}
-
-function explanation(q: RequirementResult): string {
-  const req = q.requirement;
-  const b = q.bounds;
-  const lines = [`${req.partition} — ${q.partition.description}`];
-  lines.push(`needs ${needs(q)} [${req.written}, ${req.file}:${req.span.line}]`);
-  if (q.verdict === 'fail') {
-    lines.push(`allows ${allows(q)}: provably short by ${bits(log2Big(req.minRank) - b.upper.log2)} bits`);
-  } else {
-    lines.push(`allows ${allows(q)}: not proven to reach the minimum, and this policy counts unproven as failing`);
-  }
-  if (b.upper.cut.length > 0) {
-    const crossing = b.upper.cut.map((c) => `${c.count} bond${c.count === 1 ? '' : 's'} of dimension ${c.dim} from ${cutLabel(c.layer)} (line ${c.line})`);
-    lines.push(`bottleneck (${b.upper.method}): ${crossing.join('; ')}`);
-  } else {
-    lines.push(`bottleneck: ${b.upper.method}`);
-  }
-  if (q.fixes.length === 0) {
-    lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
-  } else {
-    lines.push('fix (smallest change of one field, cheapest first):');
-    for (const f of q.fixes) {
-      const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
-      const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
-      lines.push(`  line ${f.line}:${f.column} ${who} ${f.field}: ${f.from} → ${f.to} (+${f.addedParameters.toString()} parameters; ${proof})`);
-    }
-  }
-  return lines.join('\n');
 }
 
 function dotted(file: string): string {

@@ -10,17 +10,9 @@ import type { ExplicitBond, ExplicitModel, ExplicitTensor } from '../../src/conf
 import type { Partition } from '../../src/partition/partition.js';
 import { NO_SPAN, type Span } from '../../src/diagnostic.js';
 import { explicitBounds } from '../../src/cut/explicit-bounds.js';
+import { mulberry32 } from '../helpers/models.js';
 
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = mulberry32;
 const int = (r: () => number, lo: number, hi: number): number => lo + Math.floor(r() * (hi - lo + 1));
 const pick = <T,>(r: () => number, xs: readonly T[]): T => xs[int(r, 0, xs.length - 1)]!;
 

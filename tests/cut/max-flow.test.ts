@@ -8,21 +8,12 @@ import { describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
 import { FlowNetwork } from '../../src/cut/max-flow.js';
 import { minHyperCut, type Hyperedge } from '../../src/cut/hypergraph-cut.js';
+import { mulberry32 } from '../helpers/models.js';
 
 // The package is CommonJS with `export =` typings; require keeps its real shape under NodeNext.
 const jsgraphs = createRequire(import.meta.url)('js-graph-algorithms') as typeof import('js-graph-algorithms');
 
-/** mulberry32: small, fast, deterministic. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const rng = mulberry32;
 const int = (r: () => number, lo: number, hi: number): number => lo + Math.floor(r() * (hi - lo + 1));
 
 interface Arc {

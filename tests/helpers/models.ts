@@ -42,16 +42,20 @@ export function layered(shape: number[], features: number, bodies: LayerBody[], 
   };
 }
 
-/** Mulberry32: small, fast, deterministic. */
-export function prng(seed: number): { int: (n: number) => number; pick: <T>(xs: readonly T[]) => T } {
+/** Mulberry32: small, fast, deterministic; uniform in [0, 1). */
+export function mulberry32(seed: number): () => number {
   let a = seed >>> 0;
-  const next = (): number => {
+  return () => {
     a = (a + 0x6d2b79f5) >>> 0;
     let t = a;
     t = Math.imul(t ^ (t >>> 15), t | 1);
     t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
+}
+
+export function prng(seed: number): { int: (n: number) => number; pick: <T>(xs: readonly T[]) => T } {
+  const next = mulberry32(seed);
   const int = (n: number): number => Math.floor(next() * n);
   return { int, pick: (xs) => xs[int(xs.length)]! };
 }

@@ -328,7 +328,7 @@ describe('junitXml', () => {
     expect(failure.attrs['message']).toBe('top-bottom: needs rank ≥ 1048576 (20.00 bits); the config allows between 256 (8.00 bits) and 4096 (12.00 bits)');
     expect(failure.text).toContain('provably short by 8.00 bits');
     expect(failure.text).toContain('bottleneck (min-cut): 4 bonds of dimension 8 from layer 2 (line 9)');
-    expect(failure.text).toContain('line 9:15 layer 2 channels: 8 → 1024 (+123456 parameters; then proven)');
+    expect(failure.text).toContain('line 9:15  layer 2 channels: 8 → 1024  (+123,456 parameters; then proven)');
     expect(failure.text).toContain('[min_bits: 20, policies/team.yaml:7]');
   });
 
