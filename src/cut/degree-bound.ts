@@ -84,8 +84,10 @@ interface SweepResult {
 function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, stopAt: number): SweepResult | null {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
+  // The current log2 term of each frontier node, kept so that removing it costs no log-gamma.
+  const held = new Float64Array(c.size);
   const h = c.homogeneous ? 1 : 0;
-  const term = (v: number): number => log2Binomial(dim[v]! + d[v]! - h, d[v]!);
+  const term = (v: number): number => (held[v] = log2Binomial(dim[v]! + d[v]! - h, d[v]!));
   let inputsLeft = 0;
   for (let v = 0; v < c.size; v++) if (op[v] === OP_INPUT && dep[v] === mask && paths[v]! > 0) inputsLeft++;
   if (inputsLeft === 0) return null;
@@ -96,7 +98,7 @@ function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, s
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
       const ch = childList[i]!;
       if (d[ch]! > 0) {
-        total -= term(ch);
+        total -= held[ch]!;
         d[ch] = d[ch]! - paths[v]!;
         if (d[ch]! > 0) total += term(ch);
       }
