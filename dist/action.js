@@ -37501,7 +37501,7 @@ function checkText(outcome, options) {
       if (q.failing || d?.dropFails) {
         const [first, ...rest] = explainRequirement(q, d);
         out.push(`  ${label(q, d, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
-      } else out.push(`  ${label(q, d, paint)}  ${oneLine(q)}${d ? `; ${change(d)}` : ""}`);
+      } else out.push(`  ${label(q, d, paint)}  ${requirementSummary(q)}${d ? `; ${change(d)}` : ""}`);
     }
     if (!options.quiet) for (const n of r.notes) out.push(`  note: ${n}`);
     out.push("");
@@ -37526,7 +37526,7 @@ function range(q) {
   if (!b.lower) return `at most ${upper}; no lower bound proven`;
   return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
 }
-function oneLine(q) {
+function requirementSummary(q) {
   return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${range(q)}`;
 }
 function change(d) {
@@ -42186,7 +42186,12 @@ async function run() {
   }
 }
 async function check() {
-  process.chdir(process.env["GITHUB_WORKSPACE"] || process.cwd());
+  const workspace = process.env["GITHUB_WORKSPACE"] || process.cwd();
+  try {
+    process.chdir(workspace);
+  } catch (e) {
+    throw new ActionInputError(`cannot enter the workspace ${workspace} (GITHUB_WORKSPACE): ${e.message}; check out the repository first (actions/checkout)`);
+  }
   const cwd = process.cwd();
   const inputs = readInputs(
     { get: (name) => getInput(name), getBoolean: (name) => getBooleanInput(name) },

@@ -44,7 +44,12 @@ export async function run(): Promise<void> {
 
 async function check(): Promise<void> {
   // Paths in inputs, annotations and the report are relative to the checked-out repository.
-  process.chdir(process.env['GITHUB_WORKSPACE'] || process.cwd());
+  const workspace = process.env['GITHUB_WORKSPACE'] || process.cwd();
+  try {
+    process.chdir(workspace);
+  } catch (e) {
+    throw new ActionInputError(`cannot enter the workspace ${workspace} (GITHUB_WORKSPACE): ${(e as Error).message}; check out the repository first (actions/checkout)`);
+  }
   const cwd = process.cwd();
   const inputs = readInputs(
     { get: (name) => core.getInput(name), getBoolean: (name) => core.getBooleanInput(name) },

@@ -145,7 +145,7 @@ test('a malformed head config is annotated at its position and exits 2', () => {
   expect(r.summary).toContain('<h3>Input errors</h3>');
 });
 
-test('a missing policy input or a base that does not exist exits 2 without checking', () => {
+test('a missing policy input or a base that cannot be found exits 2 without checking', () => {
   const { repo } = baseRepo();
   const none = runAction({ workspace: repo.dir, inputs: {} });
   expect(none.code).toBe(2);
@@ -159,6 +159,15 @@ test('a missing policy input or a base that does not exist exits 2 without check
   expect(commandLines(missing.stdout, 'error')).toEqual([
     '::error::rankfloor: --base no-such-branch: no such commit in this repository; check out with full history (for example fetch-depth: 0)',
   ]);
+
+  // A full commit id is fetched once from origin; with no origin the request cannot be met.
+  const unreachable = runAction({ workspace: repo.dir, inputs: { policy: 'policies' }, event: pullRequestEvent('0'.repeat(40)) });
+  expect(unreachable.code).toBe(2);
+  expect(commandLines(unreachable.stdout, 'error')).toEqual([
+    `::error::rankfloor: commit ${'0'.repeat(40)} is not in this clone, and there is no remote named origin to fetch it from. ` +
+      'Check out the repository with full history (for GitHub Actions: `fetch-depth: 0` in actions/checkout; elsewhere `git fetch --unshallow origin`).',
+  ]);
+  expect(unreachable.outputs).toEqual({ verdict: 'error', failed: '0' });
 });
 
 describe('outside a pull request', () => {
