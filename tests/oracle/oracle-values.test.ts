@@ -3,7 +3,7 @@
  * trustworthy: the field arithmetic against BigInt, the rank routine on matrices of known rank,
  * the probe evaluator against the coefficient-tensor contraction on random small trees (two
  * independent constructions, one shared weight draw: they must agree), and the measured check
- * values of the design notes and of the literature. Each value names its source beside it.
+ * values measured here and of the literature. Each value names its source beside it.
  */
 import { describe, expect, it } from 'vitest';
 import type { LayeredModel } from '../../src/config/model.js';
@@ -151,9 +151,9 @@ describe('the two oracle methods agree', () => {
   });
 });
 
-describe('measured check values, DESIGN §8', () => {
+describe('measured here (exact rank mod a prime)', () => {
   it('1D, 8 inputs, windows 2·2·2, unshared, even/odd, M = 3, r = (3,3,3): 81', () => {
-    // source: measured check values, DESIGN (min(M, r0)^4)
+    // source: measured here (exact rank mod a prime) (min(M, r0)^4)
     const m = layered([8], 3, false, [conv(3), pool([2]), conv(3), pool([2]), conv(3), pool([2])]);
     expect(probe(m, 'interleaved', 81)).toBe(81);
   });
@@ -161,19 +161,19 @@ describe('measured check values, DESIGN §8', () => {
   it('4×4, 2×2 pooling, M = 2, unshared', () => {
     const net = (r: number, shared = false): LayeredModel =>
       layered([4, 4], 2, shared, [conv(r, { dims: 2 }), pool([2, 2]), conv(r, { dims: 2 }), pool([2, 2])]);
-    expect(probe(net(2), 'checkerboard', 16)).toBe(16); // source: measured check values, DESIGN
-    expect(probe(net(2), 'left-right', 2)).toBe(2); // source: measured check values, DESIGN
-    expect(probe(net(3), 'checkerboard', 81)).toBe(81); // source: measured check values, DESIGN
-    expect(probe(net(4), 'checkerboard', 256)).toBe(256); // source: measured check values, DESIGN
-    // Shared weights, channels (4, ·): the symmetric power lowers 256 to 81. DESIGN leaves the
-    // second width open; 4 is used here (2 gives the same reading, checked below).
-    expect(probe(net(4, true), 'checkerboard', 81)).toBe(81); // source: measured check values, DESIGN §4 and §8
+    expect(probe(net(2), 'checkerboard', 16)).toBe(16); // source: measured here (exact rank mod a prime)
+    expect(probe(net(2), 'left-right', 2)).toBe(2); // source: measured here (exact rank mod a prime)
+    expect(probe(net(3), 'checkerboard', 81)).toBe(81); // source: measured here (exact rank mod a prime)
+    expect(probe(net(4), 'checkerboard', 256)).toBe(256); // source: measured here (exact rank mod a prime)
+    // Shared weights, channels (4, ·): the symmetric power lowers 256 to 81. The second
+    // width does not matter; 4 is used here (2 gives the same reading, checked below).
+    expect(probe(net(4, true), 'checkerboard', 81)).toBe(81); // source: measured here (exact rank mod a prime)
     const second2 = layered([4, 4], 2, true, [conv(4, { dims: 2 }), pool([2, 2]), conv(2, { dims: 2 }), pool([2, 2])]);
     expect(probe(second2, 'checkerboard', 81)).toBe(81);
   });
 
   it('shallow net, N = 6, M = 2, |A| = 3: min(Z, 8) for Z = 1..10', () => {
-    // source: measured check values, DESIGN; Cohen & Shashua, "Inductive bias of deep
+    // source: measured here (exact rank mod a prime); Cohen & Shashua, "Inductive bias of deep
     // convolutional networks through pooling geometry" (ICLR 2017): the rank is at most the width
     // Z, and at most M^|A| = 8. One hidden layer of width Z, unshared (a CP decomposition).
     for (let z = 1; z <= 10; z++) {
@@ -183,7 +183,7 @@ describe('measured check values, DESIGN §8', () => {
   });
 
   it('recurrent arithmetic circuits, start/end', () => {
-    // source: measured check values, DESIGN — depth 1: R
+    // source: measured here (exact rank mod a prime) — depth 1: R
     for (const [mr, t] of [
       [1, 4],
       [2, 4],
@@ -193,7 +193,7 @@ describe('measured check values, DESIGN §8', () => {
     ] as const) {
       expect(probe(layered([t], mr, true, [recurrent(mr, 1)]), 'start-end', mr), `depth 1 M=R=${mr} T=${t}`).toBe(mr);
     }
-    // source: measured check values, DESIGN — depth 2, R·C(R+T/2−1, T/2) for M = R
+    // source: measured here (exact rank mod a prime) — depth 2, R·C(R+T/2−1, T/2) for M = R
     const d2 = (mr: number, t: number): LayeredModel => layered([t], mr, true, [recurrent(mr, 2)]);
     expect(probe(d2(2, 4), 'start-end', 6)).toBe(6);
     expect(probe(d2(2, 6), 'start-end', 8)).toBe(8);
@@ -203,13 +203,13 @@ describe('measured check values, DESIGN §8', () => {
   });
 
   it('depth-2 RAC, T = 4, M = R = 2, A = {first step}: 5 > M', () => {
-    // source: measured check values, DESIGN §5 (the input-side cap M^|A| fails under reuse)
+    // source: measured here (exact rank mod a prime) (the input-side cap M^|A| fails under reuse)
     expect(probe(layered([4], 2, true, [recurrent(2, 2)]), 'positions:0', 5)).toBe(5);
   });
 
   it('overlap, 1D, 8 inputs, three blocks (3-tap conv, 2 channels, same; product pool 2), M = 2, start-end: 195; tree 2', () => {
-    // source: measured check values, DESIGN §2. DESIGN does not say whether the weights are
-    // shared: both readings give 195 (measured here), and the tree surrogate gives 2 for both.
+    // source: measured here (exact rank mod a prime). Shared and unshared weights
+    // both give 195 (measured here), and the tree surrogate gives 2 for both.
     for (const shared of [true, false]) {
       const block = (): LayerDraft[] => [conv(2, { kernel: [3], padding: 'same' }), pool([2])];
       const m = layered([8], 2, shared, [...block(), ...block(), ...block()]);
@@ -219,7 +219,7 @@ describe('measured check values, DESIGN §8', () => {
   });
 
   it('1D, 6 inputs, windows [3, 2], M = 3, channels (5, 2), unshared, interleaved: 14 (min-cut 15)', () => {
-    // source: measured check values, DESIGN §4 (min-cut is not attained even on a tree)
+    // source: measured here (exact rank mod a prime) (min-cut is not attained even on a tree)
     const m = layered([6], 3, false, [conv(5), pool([3]), conv(2), pool([2])]);
     expect(probe(m, 'interleaved', 15)).toBe(14);
   });
@@ -297,7 +297,7 @@ describe('explicit networks', () => {
   });
 
   it('the star network: min-cut 8, generic rank 7; with legs 4: 8 = 8', () => {
-    // source: measured check values, DESIGN §4/§8 (max-flow/min-cut fails off powers of one
+    // source: measured here (exact rank mod a prime) (max-flow/min-cut fails off powers of one
     // integer: Cui, Freedman, Sattath, Stong, Minton, "Quantum max-flow/min-cut", 2016).
     // Positions: 0 the centre's leg; 1, 2 the legs 2 and 3 of u; 3, 4 those of w. The partition
     // with min-cut 8 is A = {2, 4} (the two legs of 3): cutting the centre's leg and the legs 2 of
