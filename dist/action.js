@@ -40334,8 +40334,9 @@ function degreeBound(c, side) {
 function sweep(c, dep, paths, mask, stopAt) {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
+  const held = new Float64Array(c.size);
   const h = c.homogeneous ? 1 : 0;
-  const term = (v) => log2Binomial(dim[v] + d[v] - h, d[v]);
+  const term = (v) => held[v] = log2Binomial(dim[v] + d[v] - h, d[v]);
   let inputsLeft = 0;
   for (let v = 0; v < c.size; v++) if (op[v] === OP_INPUT && dep[v] === mask && paths[v] > 0) inputsLeft++;
   if (inputsLeft === 0) return null;
@@ -40346,7 +40347,7 @@ function sweep(c, dep, paths, mask, stopAt) {
     for (let i = childStart[v]; i < childStart[v + 1]; i++) {
       const ch = childList[i];
       if (d[ch] > 0) {
-        total -= term(ch);
+        total -= held[ch];
         d[ch] = d[ch] - paths[v];
         if (d[ch] > 0) total += term(ch);
       }
