@@ -56,11 +56,7 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
   const frontier = sweep(c, dep, paths, best.mask, best.step);
   if (!frontier || !frontier.degrees) return null;
   const degrees = frontier.degrees;
-  const rank = (): bigint => {
-    let r = 1n;
-    for (const [v, d] of degrees) r *= binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d);
-    return r;
-  };
+  const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d)));
   const counts = new Map<number, Map<number, number>>();
   for (const [v] of degrees) {
     const tag = c.bondTag[v]!;
@@ -116,10 +112,36 @@ function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, s
   return best;
 }
 
-/** log2 C(n, k) through log-gamma; only used to choose a frontier, never as the reported value. */
+/** log2 C(n, k) through log-factorials; only used to choose a frontier, never as the reported value. */
 export function log2Binomial(n: number, k: number): number {
   if (k <= 0 || k >= n) return 0;
-  return (logGamma(n + 1) - logGamma(k + 1) - logGamma(n - k + 1)) / Math.LN2;
+  return (lnFactorial(n) - lnFactorial(k) - lnFactorial(n - k)) / Math.LN2;
+}
+
+const TABLE_SIZE = 4096;
+const LN_FACTORIAL = (() => {
+  const t = new Float64Array(TABLE_SIZE);
+  for (let i = 2; i < TABLE_SIZE; i++) t[i] = t[i - 1]! + Math.log(i);
+  return t;
+})();
+
+/** ln n!: a table below 4096, Stirling's series above (error below 1e-15 relative there). */
+function lnFactorial(n: number): number {
+  if (n < TABLE_SIZE) return LN_FACTORIAL[n]!;
+  const x = n + 1;
+  return (x - 0.5) * Math.log(x) - x + 0.9189385332046728 + 1 / (12 * x) - 1 / (360 * x * x * x);
+}
+
+/** Product of many integers, multiplied pairwise so that the operands stay balanced. */
+export function productTree(xs: bigint[]): bigint {
+  if (xs.length === 0) return 1n;
+  let level = xs;
+  while (level.length > 1) {
+    const next: bigint[] = [];
+    for (let i = 0; i < level.length; i += 2) next.push(i + 1 < level.length ? level[i]! * level[i + 1]! : level[i]!);
+    level = next;
+  }
+  return level[0]!;
 }
 
 /** Exact C(n, k) for non-negative integers. */
@@ -129,18 +151,4 @@ export function binomial(n: number, k: number): bigint {
   let r = 1n;
   for (let i = 1; i <= kk; i++) r = (r * BigInt(n - kk + i)) / BigInt(i);
   return r;
-}
-
-const LANCZOS = [
-  676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905,
-  -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
-];
-
-function logGamma(x: number): number {
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - logGamma(1 - x);
-  const z = x - 1;
-  let a = 0.99999999999980993;
-  for (let i = 0; i < LANCZOS.length; i++) a += LANCZOS[i]! / (z + i + 1);
-  const t = z + LANCZOS.length - 0.5;
-  return 0.5 * Math.log(2 * Math.PI) + (z + 0.5) * Math.log(t) - t + Math.log(a);
 }
