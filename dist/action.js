@@ -40317,11 +40317,7 @@ function degreeBound(c, side) {
   const frontier = sweep(c, dep, paths, best.mask, best.step);
   if (!frontier || !frontier.degrees) return null;
   const degrees = frontier.degrees;
-  const rank = () => {
-    let r = 1n;
-    for (const [v, d] of degrees) r *= binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d);
-    return r;
-  };
+  const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d)));
   const counts = /* @__PURE__ */ new Map();
   for (const [v] of degrees) {
     const tag = c.bondTag[v];
@@ -40366,7 +40362,28 @@ function sweep(c, dep, paths, mask, stopAt) {
 }
 function log2Binomial(n, k) {
   if (k <= 0 || k >= n) return 0;
-  return (logGamma(n + 1) - logGamma(k + 1) - logGamma(n - k + 1)) / Math.LN2;
+  return (lnFactorial(n) - lnFactorial(k) - lnFactorial(n - k)) / Math.LN2;
+}
+var TABLE_SIZE = 4096;
+var LN_FACTORIAL = (() => {
+  const t = new Float64Array(TABLE_SIZE);
+  for (let i = 2; i < TABLE_SIZE; i++) t[i] = t[i - 1] + Math.log(i);
+  return t;
+})();
+function lnFactorial(n) {
+  if (n < TABLE_SIZE) return LN_FACTORIAL[n];
+  const x = n + 1;
+  return (x - 0.5) * Math.log(x) - x + 0.9189385332046728 + 1 / (12 * x) - 1 / (360 * x * x * x);
+}
+function productTree(xs) {
+  if (xs.length === 0) return 1n;
+  let level = xs;
+  while (level.length > 1) {
+    const next = [];
+    for (let i = 0; i < level.length; i += 2) next.push(i + 1 < level.length ? level[i] * level[i + 1] : level[i]);
+    level = next;
+  }
+  return level[0];
 }
 function binomial(n, k) {
   if (k < 0 || k > n) return 0n;
@@ -40374,24 +40391,6 @@ function binomial(n, k) {
   let r = 1n;
   for (let i = 1; i <= kk; i++) r = r * BigInt(n - kk + i) / BigInt(i);
   return r;
-}
-var LANCZOS = [
-  676.5203681218851,
-  -1259.1392167224028,
-  771.3234287776531,
-  -176.6150291621406,
-  12.507343278686905,
-  -0.13857109526572012,
-  9984369578019572e-21,
-  15056327351493116e-23
-];
-function logGamma(x) {
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - logGamma(1 - x);
-  const z = x - 1;
-  let a = 0.9999999999998099;
-  for (let i = 0; i < LANCZOS.length; i++) a += LANCZOS[i] / (z + i + 1);
-  const t = z + LANCZOS.length - 0.5;
-  return 0.5 * Math.log(2 * Math.PI) + (z + 0.5) * Math.log(t) - t + Math.log(a);
 }
 
 // src/cut/power-rounding.ts
