@@ -176,6 +176,9 @@ function loadPolicies(
   notices: PolicyNotice[],
 ): Policy[] {
   const policyPath = resolve(req.cwd, req.policy);
+  // The loaders resolve paths against the process's working directory and report them as given:
+  // short relative paths when that is the request's cwd, absolute ones otherwise.
+  const loaderPath = (rel: string): string => (resolve(req.cwd) === process.cwd() ? display(rel) : resolve(root, rel));
   const fromBase = s.base !== undefined && (req.policyFrom ?? 'base') === 'base';
   if (!s.base) {
     let isDir: boolean;
@@ -185,11 +188,11 @@ function loadPolicies(
       throw new CheckRequestError(`--policy ${req.policy}: no such file or directory`);
     }
     if (isDir) {
-      const loaded = loadPolicyDirectory(display(policyRel), { repoRoot: root });
+      const loaded = loadPolicyDirectory(loaderPath(policyRel), { repoRoot: root });
       errors.push(...loaded.diagnostics);
       return loaded.policies;
     }
-    const loaded = loadPolicyFile(display(policyRel), { repoRoot: root });
+    const loaded = loadPolicyFile(loaderPath(policyRel), { repoRoot: root });
     if (!loaded.ok) errors.push(...loaded.diagnostics);
     return loaded.ok ? [loaded.policy] : [];
   }
@@ -231,7 +234,7 @@ function loadPolicies(
       if (t === null) throw Object.assign(new Error(`${rel} does not exist`), { code: 'ENOENT' });
       return t;
     };
-    const loaded = loadPolicyText(text, display(f), { repoRoot: root }, readAt);
+    const loaded = loadPolicyText(text, loaderPath(f), { repoRoot: root }, readAt);
     if (!loaded.ok) {
       errors.push(...loaded.diagnostics);
       continue;
