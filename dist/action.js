@@ -41612,6 +41612,7 @@ function isDirectoryAnywhere(root, policyRel, s) {
 }
 function loadPolicies(req, root, policyRel, s, display, errors, notices) {
   const policyPath = resolve7(req.cwd, req.policy);
+  const loaderPath = (rel) => resolve7(req.cwd) === process.cwd() ? display(rel) : resolve7(root, rel);
   const fromBase = s.base !== void 0 && (req.policyFrom ?? "base") === "base";
   if (!s.base) {
     let isDir2;
@@ -41621,11 +41622,11 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
       throw new CheckRequestError(`--policy ${req.policy}: no such file or directory`);
     }
     if (isDir2) {
-      const loaded2 = loadPolicyDirectory(display(policyRel), { repoRoot: root });
+      const loaded2 = loadPolicyDirectory(loaderPath(policyRel), { repoRoot: root });
       errors.push(...loaded2.diagnostics);
       return loaded2.policies;
     }
-    const loaded = loadPolicyFile(display(policyRel), { repoRoot: root });
+    const loaded = loadPolicyFile(loaderPath(policyRel), { repoRoot: root });
     if (!loaded.ok) errors.push(...loaded.diagnostics);
     return loaded.ok ? [loaded.policy] : [];
   }
@@ -41665,7 +41666,7 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
       if (t === null) throw Object.assign(new Error(`${rel} does not exist`), { code: "ENOENT" });
       return t;
     };
-    const loaded = loadPolicyText(text, display(f), { repoRoot: root }, readAt);
+    const loaded = loadPolicyText(text, loaderPath(f), { repoRoot: root }, readAt);
     if (!loaded.ok) {
       errors.push(...loaded.diagnostics);
       continue;
