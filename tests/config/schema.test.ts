@@ -1,21 +1,10 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, test } from 'vitest';
 import { compiledModelSchema, modelSchemaPath } from '../../src/config/model-schema.js';
+import { properties } from '../helpers/schema-properties.js';
 
 const schema = JSON.parse(readFileSync(new URL('../../schema/model.schema.json', import.meta.url), 'utf8')) as Record<string, unknown>;
 
-/** Every named property anywhere in the schema, as `location: schema`. */
-function properties(node: unknown, at = ''): [string, Record<string, unknown>][] {
-  if (node === null || typeof node !== 'object') return [];
-  const out: [string, Record<string, unknown>][] = [];
-  for (const [k, v] of Object.entries(node)) {
-    if (k === 'properties' && v && typeof v === 'object') {
-      for (const [name, prop] of Object.entries(v)) out.push([`${at}/properties/${name}`, prop as Record<string, unknown>]);
-    }
-    out.push(...properties(v, `${at}/${k}`));
-  }
-  return out;
-}
 
 describe('the shipped schema', () => {
   test('is draft-07 and compiles in strict mode', () => {

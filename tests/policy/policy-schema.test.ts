@@ -7,22 +7,11 @@ import { describe, expect, test } from 'vitest';
 import { compiledSchemaFile } from '../../src/config/model-schema.js';
 import { BUILTIN_KINDS } from '../../src/partition/partition.js';
 import { policySchemaPath } from '../../src/policy/policy-schema.js';
+import { properties } from '../helpers/schema-properties.js';
 
 const schema = JSON.parse(readFileSync(new URL('../../schema/policy.schema.json', import.meta.url), 'utf8')) as Record<string, unknown>;
 const defs = schema['definitions'] as Record<string, Record<string, unknown>>;
 
-/** Every named property anywhere in the schema, as `location: schema`. */
-function properties(node: unknown, at = ''): [string, Record<string, unknown>][] {
-  if (node === null || typeof node !== 'object') return [];
-  const out: [string, Record<string, unknown>][] = [];
-  for (const [k, v] of Object.entries(node)) {
-    if (k === 'properties' && v && typeof v === 'object') {
-      for (const [name, prop] of Object.entries(v)) out.push([`${at}/properties/${name}`, prop as Record<string, unknown>]);
-    }
-    out.push(...properties(v, `${at}/${k}`));
-  }
-  return out;
-}
 
 describe('the shipped policy schema', () => {
   test('is draft-07, like the model schema, and compiles in strict mode', () => {
