@@ -37481,6 +37481,7 @@ function checkText(outcome, options) {
   let fails = 0;
   let unproven = 0;
   let passes = 0;
+  if (outcome.base) out.push(`compared with base ${outcome.base.slice(0, 12)}`, "");
   for (const n of outcome.notices) out.push(`${paint("36", "notice")}  ${n.file}:${n.line}: ${n.message}`, "");
   for (const c of outcome.checked) {
     if (!c.result) {
