@@ -2,8 +2,9 @@
  * A lower bound for networks with shared weights (derived here), where the power-rounding rule
  * does not apply: sharing makes sibling subtrees compute the same function, which can lower the
  * rank below the min-cut. The rule looks at the last product window, h = Σ_k w_k Π_j c_{j,k}.
- * When each child c_j lies wholly on one side, h = L·diag(w)·Rᵀ with L[x_A, k] = Π_{j∈A} c_{j,k},
- * so by Sylvester's inequality rank ≥ rank L + rank R − D.
+ * With the children that lie wholly on one side kept and the others fixed at generic inputs,
+ * h = L·diag(w')·Rᵀ with L[x_A, k] = Π_{j∈A} c_{j,k}, so by Sylvester's inequality
+ * rank ≥ rank L + rank R − D.
  *
  * rank L is the dimension of the span of Π_{j∈A} f_k(y_j), k ≤ D, where f is the function every
  * child computes on its own inputs. If f = W·g with W generic (the child is a linear map) and g
@@ -16,7 +17,7 @@
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, type Circuit } from '../network/circuit.js';
 import { binomial } from './degree-bound.js';
 
-/** Lower bound from the top window, or undefined when the partition splits one of its children. */
+/** Lower bound from the top window, or undefined when one side holds none of its children whole. */
 export function topWindowLower(c: Circuit, side: Uint8Array): bigint | undefined {
   let top = c.top;
   while (c.op[top] === OP_LINEAR) top = c.childList[c.childStart[top]!]!;
@@ -27,10 +28,12 @@ export function topWindowLower(c: Circuit, side: Uint8Array): bigint | undefined
   const dep = dependence(c, side);
   let a = 0;
   let b = 0;
+  // A child that reads both sides is fixed at generic inputs: it becomes a constant vector with
+  // non-zero components, which only rescales w. Fixing inputs restricts the function, so the
+  // restricted rank is a lower bound.
   for (const ch of children) {
     if (dep[ch] === 1) a++;
     else if (dep[ch] === 2) b++;
-    else if (dep[ch] !== 0) return undefined;
   }
   if (a === 0 || b === 0) return undefined;
   const span = spans(c);
