@@ -40775,7 +40775,6 @@ function topWindowLower(c, side) {
   for (const ch of children) {
     if (dep[ch] === 1) a++;
     else if (dep[ch] === 2) b++;
-    else if (dep[ch] !== 0) return void 0;
   }
   if (a === 0 || b === 0) return void 0;
   const span = spans(c);
