@@ -72,9 +72,11 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   for (let v = 0; v < circuit.size; v++) upperWeights[v] = Math.log2(circuit.dim[v]! + augment);
   const hasRecurrent = model.layers.some((l) => l.kind === 'recurrent');
   const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : undefined;
+  // Sibling subtrees compute the same function only with shared weights in a uniform tree.
+  const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
-    const cut = treeMinCut(circuit, p.side, upperWeights);
+    const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
     // Choose by log2 first: the loser may have millions of digits and is never written out.
     const useDegree = deg !== null && deg.log2 < cut.value - 1e-9;

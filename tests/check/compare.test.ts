@@ -71,28 +71,30 @@ describe('check --base', () => {
     const q = doc.results[0].requirements[0];
     expect(doc.results[0].comparison).toBe('compared');
     expect(q.verdict).toBe('fail');
-    expect(q.base.upper).toEqual({ rank: '64', log2: 6 });
+    // shared weights: the two left children of the top window pass only Sym^2 of their 8
+    // channels, C(8 + 1, 2) = 36 (derived here), below the last layer's 64
+    expect(q.base.upper).toEqual({ rank: '36', log2: 5.169925 });
     expect(q.upper).toEqual({ rank: '8', log2: 3 });
-    expect(q.change_bits).toBe(-3);
+    expect(q.change_bits).toBe(-2.169925);
     expect(q.drop_fails).toBe(true);
     // line 8 of the head config: `- conv: {channels: 8, name: last}`, the channels value at column 24
     expect(q.attributed).toEqual([{ layer: 'last', field: 'channels', from: '64', to: '8', line: 8, column: 24 }]);
     const text = runCli(['check', '--policy', 'policies', '--base', base], root);
-    expect(text.stdout).toContain('change  base 6.00 bits → head 3.00 bits (-3.00)');
+    expect(text.stdout).toContain('change  base 5.17 bits → head 3.00 bits (-2.17)');
     expect(text.stdout).toContain('this change on the cut: line 8:24 layer last channels: 64 → 8');
     rmSync(root, { recursive: true, force: true });
   });
 
   test('a drop within max_drop_bits passes; a larger one fails although the minimum holds', () => {
-    // left-right capacity of this pyramid is min(last width, 8^2): 64 (6 bits) at the base
+    // left-right capacity of this pyramid is min(last width, C(8 + 1, 2) = 36) at the base
     const policy = POLICY.replace('min_rank: 16', 'min_rank: 4');
     const { root, base } = repo({ 'policies/pairs.yaml': policy, 'configs/a.yaml': config(64) });
-    write(root, 'configs/a.yaml', config(16)); // 6 → 4 bits: a drop of exactly 2
+    write(root, 'configs/a.yaml', config(16)); // 36 → 16: a drop of 1.17 bits
     expect(json(root, '--base', base).code).toBe(0);
-    write(root, 'configs/a.yaml', config(8)); // 6 → 3 bits: 3 > 2, minimum 4 still met
+    write(root, 'configs/a.yaml', config(8)); // 36 → 8: 2.17 > 2 bits (36 > 8·2^2), minimum 4 still met
     const { code, doc } = json(root, '--base', base);
     expect(code).toBe(1);
-    expect(doc.results[0].requirements[0]).toMatchObject({ verdict: 'pass', drop_fails: true, change_bits: -3 });
+    expect(doc.results[0].requirements[0]).toMatchObject({ verdict: 'pass', drop_fails: true, change_bits: -2.169925 });
   });
 
   test('a pull request cannot loosen its own gate: the base policy judges, with a notice', () => {
