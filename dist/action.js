@@ -40152,138 +40152,6 @@ function convOverlap(b, grid, layer, tag) {
   return void 0;
 }
 
-// src/cut/tree-min-cut.ts
-var A = 0;
-var B = 1;
-function treeMinCut(c, side, weight) {
-  const n = c.size;
-  const fa = new Float64Array(n);
-  const fb = new Float64Array(n);
-  const free = new Float64Array(n);
-  const { op, childStart, childList } = c;
-  const link = (v, s) => {
-    if (op[v] === OP_PRODUCT) return Math.min(s === A ? fa[v] : fb[v], weight[v] + free[v]);
-    return s === A ? Math.min(fa[v], fb[v] + weight[v]) : Math.min(fb[v], fa[v] + weight[v]);
-  };
-  for (let v = 0; v < n; v++) {
-    const kind = op[v];
-    if (kind === OP_INPUT) {
-      const onA = side[c.position[v]] === 1;
-      fa[v] = onA ? 0 : Infinity;
-      fb[v] = onA ? Infinity : 0;
-      continue;
-    }
-    if (kind === OP_CONST) continue;
-    let sa = 0;
-    let sb = 0;
-    let sf = 0;
-    const end = childStart[v + 1];
-    if (kind === OP_PRODUCT) {
-      for (let i = childStart[v]; i < end; i++) {
-        const ch = childList[i];
-        sa += fa[ch];
-        sb += fb[ch];
-        sf += op[ch] === OP_PRODUCT ? free[ch] : Math.min(fa[ch], fb[ch]);
-      }
-      free[v] = sf;
-    } else {
-      for (let i = childStart[v]; i < end; i++) {
-        const ch = childList[i];
-        sa += link(ch, A);
-        sb += link(ch, B);
-      }
-    }
-    fa[v] = sa;
-    fb[v] = sb;
-  }
-  const top = c.top;
-  const headA = link(top, A);
-  const headB = link(top, B);
-  const value = Math.min(headA, headB);
-  if (!Number.isFinite(value)) throw new Error("tree min-cut: no finite cut (a bug in the circuit)");
-  return { value, counts: recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B) };
-}
-function recoverCut(c, weight, fa, fb, free, headSide) {
-  const n = c.size;
-  const { op, childStart, childList } = c;
-  const linkA = new Float64Array(n);
-  const linkB = new Float64Array(n);
-  const tenA = new Float64Array(n);
-  const tenB = new Float64Array(n);
-  const freeCnt = new Float64Array(n);
-  const counts = /* @__PURE__ */ new Map();
-  const addCut = (v, k) => {
-    const tag = c.bondTag[v];
-    let byDim = counts.get(tag);
-    if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
-    byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + k);
-  };
-  (headSide === A ? linkA : linkB)[c.top] = 1;
-  for (let v = n - 1; v >= 0; v--) {
-    const kind = op[v];
-    const la = linkA[v];
-    const lb = linkB[v];
-    if (kind === OP_PRODUCT) {
-      let onA = tenA[v];
-      let onB = tenB[v];
-      let fr = freeCnt[v];
-      const cutCost = weight[v] + free[v];
-      if (la > 0) {
-        if (fa[v] <= cutCost) onA += la;
-        else {
-          addCut(v, la);
-          fr += la;
-        }
-      }
-      if (lb > 0) {
-        if (fb[v] <= cutCost) onB += lb;
-        else {
-          addCut(v, lb);
-          fr += lb;
-        }
-      }
-      if (onA === 0 && onB === 0 && fr === 0) continue;
-      const end2 = childStart[v + 1];
-      for (let i = childStart[v]; i < end2; i++) {
-        const ch = childList[i];
-        tenA[ch] = tenA[ch] + onA;
-        tenB[ch] = tenB[ch] + onB;
-        if (fr > 0) {
-          if (op[ch] === OP_PRODUCT) freeCnt[ch] = freeCnt[ch] + fr;
-          else if (fa[ch] <= fb[ch]) tenA[ch] = tenA[ch] + fr;
-          else tenB[ch] = tenB[ch] + fr;
-        }
-      }
-      continue;
-    }
-    let ta = tenA[v];
-    let tb = tenB[v];
-    const w = weight[v];
-    if (la > 0) {
-      if (fa[v] <= fb[v] + w) ta += la;
-      else {
-        tb += la;
-        addCut(v, la);
-      }
-    }
-    if (lb > 0) {
-      if (fb[v] <= fa[v] + w) tb += lb;
-      else {
-        ta += lb;
-        addCut(v, lb);
-      }
-    }
-    if (kind === OP_INPUT || kind === OP_CONST) continue;
-    const end = childStart[v + 1];
-    for (let i = childStart[v]; i < end; i++) {
-      const ch = childList[i];
-      linkA[ch] = linkA[ch] + ta;
-      linkB[ch] = linkB[ch] + tb;
-    }
-  }
-  return counts;
-}
-
 // src/cut/degree-bound.ts
 var SAFE = 2 ** 52;
 function degreeBound(c, side) {
@@ -40392,6 +40260,222 @@ function binomial(n, k) {
   let r = 1n;
   for (let i = 1; i <= kk; i++) r = r * BigInt(n - kk + i) / BigInt(i);
   return r;
+}
+
+// src/cut/tree-min-cut.ts
+var A = 0;
+var B = 1;
+function treeMinCut(c, side, weight, options = {}) {
+  const n = c.size;
+  const sym = options.symmetric ? new SymmetricGroups(c, side) : void 0;
+  const fa = new Float64Array(n);
+  const fb = new Float64Array(n);
+  const free = new Float64Array(n);
+  const { op, childStart, childList } = c;
+  const link = (v, s) => {
+    if (op[v] === OP_PRODUCT) return Math.min(s === A ? fa[v] : fb[v], weight[v] + free[v]);
+    return s === A ? Math.min(fa[v], fb[v] + weight[v]) : Math.min(fb[v], fa[v] + weight[v]);
+  };
+  for (let v = 0; v < n; v++) {
+    const kind = op[v];
+    if (kind === OP_INPUT) {
+      const onA = side[c.position[v]] === 1;
+      fa[v] = onA ? 0 : Infinity;
+      fb[v] = onA ? Infinity : 0;
+      continue;
+    }
+    if (kind === OP_CONST) continue;
+    let sa = 0;
+    let sb = 0;
+    let sf = 0;
+    const end = childStart[v + 1];
+    if (kind === OP_PRODUCT) {
+      for (let i = childStart[v]; i < end; i++) {
+        const ch = childList[i];
+        sa += fa[ch];
+        sb += fb[ch];
+        sf += op[ch] === OP_PRODUCT ? free[ch] : Math.min(fa[ch], fb[ch]);
+      }
+      free[v] = sf;
+      if (sym) {
+        sa = sym.choose(v, A, sa, fa);
+        sb = sym.choose(v, B, sb, fb);
+      }
+    } else {
+      for (let i = childStart[v]; i < end; i++) {
+        const ch = childList[i];
+        sa += link(ch, A);
+        sb += link(ch, B);
+      }
+    }
+    fa[v] = sa;
+    fb[v] = sb;
+  }
+  const top = c.top;
+  const headA = link(top, A);
+  const headB = link(top, B);
+  const value = Math.min(headA, headB);
+  if (!Number.isFinite(value)) throw new Error("tree min-cut: no finite cut (a bug in the circuit)");
+  return { value, counts: recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B, sym) };
+}
+function symmetricGroupDim(d, a) {
+  const r = binomial(d + a - 1, a);
+  return r <= BigInt(Number.MAX_SAFE_INTEGER) ? Number(r) : void 0;
+}
+var SymmetricGroups = class {
+  constructor(c, side) {
+    this.c = c;
+    this.dep = new Uint8Array(c.size);
+    for (let v = 0; v < c.size; v++) {
+      if (c.op[v] === OP_INPUT) this.dep[v] = side[c.position[v]] === 1 ? 1 : 2;
+      else for (let i = c.childStart[v]; i < c.childStart[v + 1]; i++) this.dep[v] = this.dep[v] | this.dep[c.childList[i]];
+    }
+    this.used = [new Uint8Array(c.size), new Uint8Array(c.size)];
+    this.groupDim = [new Float64Array(c.size), new Float64Array(c.size)];
+  }
+  c;
+  dep;
+  /** used[s][v]: with members on side s, window v cut its far-side group symmetrically. */
+  used;
+  /** groupDim[v]: the dimension of the symmetric index of window v's far-side group (per side). */
+  groupDim;
+  /** Children of window v that are pure on the side opposite to s and alike, or undefined. */
+  group(v, s) {
+    const far = s === A ? 2 : 1;
+    const c = this.c;
+    const members = [];
+    for (let i = c.childStart[v]; i < c.childStart[v + 1]; i++) {
+      const ch = c.childList[i];
+      if (this.dep[ch] !== far || c.op[ch] === OP_PRODUCT) continue;
+      const first = members[0];
+      if (first !== void 0 && (c.op[ch] !== c.op[first] || c.tag[ch] !== c.tag[first] || c.dim[ch] !== c.dim[first])) return void 0;
+      members.push(ch);
+    }
+    return members.length >= 2 ? members : void 0;
+  }
+  /**
+   * The node of narrowest output along the chain of single-input linear maps below a child: the
+   * child's function factors through it, f = L·g, so the group factors through Sym^a of g's space.
+   */
+  narrowest(child2) {
+    const c = this.c;
+    let best = child2;
+    let v = child2;
+    while (c.op[v] === OP_LINEAR && c.childStart[v + 1] - c.childStart[v] === 1) {
+      v = c.childList[c.childStart[v]];
+      if (c.dim[v] < c.dim[best]) best = v;
+    }
+    return best;
+  }
+  /** The cost of window v with its members on side s: the plain sum, or the group cut if cheaper. */
+  choose(v, s, plain, f) {
+    const g = this.group(v, s);
+    if (!g) return plain;
+    const dim = symmetricGroupDim(this.c.dim[this.narrowest(g[0])], g.length);
+    if (dim === void 0) return plain;
+    let groupOnS = 0;
+    for (const ch of g) groupOnS += f[ch];
+    const alt = plain - groupOnS + Math.log2(dim);
+    if (alt < plain - 1e-9) {
+      this.used[s][v] = 1;
+      this.groupDim[s][v] = dim;
+      return alt;
+    }
+    return plain;
+  }
+};
+function recoverCut(c, weight, fa, fb, free, headSide, sym) {
+  const n = c.size;
+  const { op, childStart, childList } = c;
+  const linkA = new Float64Array(n);
+  const linkB = new Float64Array(n);
+  const tenA = new Float64Array(n);
+  const tenB = new Float64Array(n);
+  const freeCnt = new Float64Array(n);
+  const counts = /* @__PURE__ */ new Map();
+  const addCut = (v, k) => {
+    const tag = c.bondTag[v];
+    let byDim = counts.get(tag);
+    if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
+    byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + k);
+  };
+  const addGroup = (members, dim, k) => {
+    const first = members.values().next().value;
+    const tag = c.bondTag[sym.narrowest(first)];
+    let byDim = counts.get(tag);
+    if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
+    byDim.set(dim, (byDim.get(dim) ?? 0) + k);
+  };
+  (headSide === A ? linkA : linkB)[c.top] = 1;
+  for (let v = n - 1; v >= 0; v--) {
+    const kind = op[v];
+    const la = linkA[v];
+    const lb = linkB[v];
+    if (kind === OP_PRODUCT) {
+      let onA = tenA[v];
+      let onB = tenB[v];
+      let fr = freeCnt[v];
+      const cutCost = weight[v] + free[v];
+      if (la > 0) {
+        if (fa[v] <= cutCost) onA += la;
+        else {
+          addCut(v, la);
+          fr += la;
+        }
+      }
+      if (lb > 0) {
+        if (fb[v] <= cutCost) onB += lb;
+        else {
+          addCut(v, lb);
+          fr += lb;
+        }
+      }
+      if (onA === 0 && onB === 0 && fr === 0) continue;
+      const groupA = onA > 0 && sym?.used[A][v] ? new Set(sym.group(v, A)) : void 0;
+      const groupB = onB > 0 && sym?.used[B][v] ? new Set(sym.group(v, B)) : void 0;
+      if (groupA) addGroup(groupA, sym.groupDim[A][v], onA);
+      if (groupB) addGroup(groupB, sym.groupDim[B][v], onB);
+      const end2 = childStart[v + 1];
+      for (let i = childStart[v]; i < end2; i++) {
+        const ch = childList[i];
+        if (groupA?.has(ch)) tenB[ch] = tenB[ch] + onA;
+        else tenA[ch] = tenA[ch] + onA;
+        if (groupB?.has(ch)) tenA[ch] = tenA[ch] + onB;
+        else tenB[ch] = tenB[ch] + onB;
+        if (fr > 0) {
+          if (op[ch] === OP_PRODUCT) freeCnt[ch] = freeCnt[ch] + fr;
+          else if (fa[ch] <= fb[ch]) tenA[ch] = tenA[ch] + fr;
+          else tenB[ch] = tenB[ch] + fr;
+        }
+      }
+      continue;
+    }
+    let ta = tenA[v];
+    let tb = tenB[v];
+    const w = weight[v];
+    if (la > 0) {
+      if (fa[v] <= fb[v] + w) ta += la;
+      else {
+        tb += la;
+        addCut(v, la);
+      }
+    }
+    if (lb > 0) {
+      if (fb[v] <= fa[v] + w) tb += lb;
+      else {
+        ta += lb;
+        addCut(v, lb);
+      }
+    }
+    if (kind === OP_INPUT || kind === OP_CONST) continue;
+    const end = childStart[v + 1];
+    for (let i = childStart[v]; i < end; i++) {
+      const ch = childList[i];
+      linkA[ch] = linkA[ch] + ta;
+      linkB[ch] = linkB[ch] + tb;
+    }
+  }
+  return counts;
 }
 
 // src/cut/power-rounding.ts
@@ -40873,8 +40957,9 @@ function analyseLayered(model, options) {
   for (let v = 0; v < circuit.size; v++) upperWeights[v] = Math.log2(circuit.dim[v] + augment);
   const hasRecurrent = model.layers.some((l) => l.kind === "recurrent");
   const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : void 0;
+  const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
   const bounds = (p) => {
-    const cut2 = treeMinCut(circuit, p.side, upperWeights);
+    const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
     const useDegree = deg !== null && deg.log2 < cut2.value - 1e-9;
     if (Math.min(cut2.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
