@@ -7,15 +7,9 @@ import { mkdirSync, rmSync, symlinkSync, unlinkSync, writeFileSync } from 'node:
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { changedFiles, GitError, mergeBase, openRepo, stagedFiles, type Repo } from '../../src/git/git.js';
-import { git, makeRepo, removeTempDirs, type TempRepo } from './git-fixture.js';
+import { git, makeRepo, repoOf as open, removeTempDirs, type TempRepo } from './git-fixture.js';
 
 afterAll(removeTempDirs);
-
-function open(t: TempRepo): Repo {
-  const repo = openRepo(t.dir);
-  if (repo === undefined) throw new Error(`expected ${t.dir} to be a repository`);
-  return repo;
-}
 
 describe('changedFiles', () => {
   const t = makeRepo({

@@ -8,6 +8,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, realpathSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
+import { openRepo, type Repo } from '../../src/git/git.js';
 
 const TMP = realpathSync(tmpdir());
 const HOME = mkdtempSync(join(TMP, 'rankfloor-git-home-'));
@@ -68,5 +69,12 @@ export function makeRepo(files: Record<string, string> = {}): TempRepo {
   git(dir, 'init', '-q', '-b', 'main');
   const repo = openTempRepo(dir);
   for (const [path, text] of Object.entries(files)) repo.write(path, text);
+  return repo;
+}
+
+/** The Repo of a temporary repository; a test that expects one fails clearly without it. */
+export function repoOf(t: TempRepo): Repo {
+  const repo = openRepo(t.dir);
+  if (repo === undefined) throw new Error(`expected ${t.dir} to be a repository`);
   return repo;
 }

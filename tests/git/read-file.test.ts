@@ -6,17 +6,11 @@
 import { symlinkSync, unlinkSync } from 'node:fs';
 import { afterAll, describe, expect, test } from 'vitest';
 import { GitError, openRepo, readAtRevision, readStaged, resolveCommit, type Repo } from '../../src/git/git.js';
-import { makeRepo, removeTempDirs, type TempRepo } from './git-fixture.js';
+import { makeRepo, repoOf as open, removeTempDirs, type TempRepo } from './git-fixture.js';
 
 afterAll(removeTempDirs);
 
 const MiB = 1024 * 1024;
-
-function open(t: TempRepo): Repo {
-  const repo = openRepo(t.dir);
-  if (repo === undefined) throw new Error(`expected ${t.dir} to be a repository`);
-  return repo;
-}
 
 describe('readAtRevision', () => {
   const t = makeRepo({
