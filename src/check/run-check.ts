@@ -13,6 +13,7 @@ import { diffModels, type FieldChange } from '../config/model-diff.js';
 import { loadPolicyDirectory, loadPolicyFile, loadPolicyText, policyApplies } from '../policy/load-policy.js';
 import type { Policy, Requirement } from '../policy/policy.js';
 import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
+import { searchFixes, type Fix } from '../policy/fix-search.js';
 import type { Bound } from '../cut/types.js';
 import { changedFiles, ensureCommit, GitError, openRepo, readAtRevision, readStaged, resolveCommit, stagedFiles, type Repo } from '../git/git.js';
 import { listFilesAtRevision } from '../git/list-tree.js';
@@ -46,6 +47,8 @@ export interface RequirementDelta {
   readonly dropFails: boolean;
   /** Changed fields of the pull request that lie on the head's minimal cut. */
   readonly attributed: readonly FieldChange[];
+  /** For a drop that fails on its own: the single-field changes that bring it within the limit. */
+  readonly fixes: readonly Fix[];
 }
 
 export interface CheckedConfig {
@@ -302,24 +305,29 @@ function checkOne(path: string, file: string, policy: Policy, s: Sources, errors
   const baseEval = baseModel ? evaluatePolicy(baseModel, policy, { fixes: false }) : undefined;
   if (!baseModel || !baseEval || !baseEval.ok) return { file, path, policy, result, comparison: 'new', changes: [], failing: result.verdict === 'fail' };
   const changes = diffModels(baseModel, head);
-  const deltas = result.requirements.map((q) => delta(q, baseEval.result, policy, changes));
+  const deltas = result.requirements.map((q) => delta(q, baseEval.result, policy, changes, head));
   const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
   return { file, path, policy, result, comparison: 'compared', deltas, changes, failing };
 }
 
-function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[]): RequirementDelta {
+function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model): RequirementDelta {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
   const maxDropBits = maxDrop(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
   const attributed = changes.filter((c) => cutLayers.has(c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed };
+  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed, fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
   // Exact: a drop of more than k bits means base > head · 2^k; fractional limits compare in log2.
   const limit = maxDropBits;
   const dropFails =
     limit !== undefined &&
     (Number.isInteger(limit) ? b.bounds.upper.rank > q.bounds.upper.rank << BigInt(limit) : -changeBits > limit + 1e-9);
-  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed };
+  // A drop within k bits needs head ≥ ⌈base / 2^k⌉; the fix search finds the widths that reach it.
+  const fixes =
+    dropFails && !q.failing && head.kind === 'layered' && limit !== undefined && Number.isInteger(limit)
+      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), 'warn', policy.surrogate, cutLayers)
+      : [];
+  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed, fixes };
 }
 
 function maxDrop(r: Requirement, p: Policy): number | undefined {

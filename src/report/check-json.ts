@@ -36,7 +36,7 @@ export function checkJson(outcome: CheckOutcome): string {
             status: q.bounds.status,
             verdict: q.verdict,
             cut: cutJson(q.bounds.upper.cut),
-            fix: q.fixes.map((f) => ({
+            fix: (q.failing ? q.fixes : d?.dropFails ? d.fixes : []).map((f) => ({
               layer: f.layer,
               field: f.field,
               line: f.line,

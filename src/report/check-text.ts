@@ -118,12 +118,13 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta): 
   } else {
     lines.push(`bottleneck: ${b.upper.method}`);
   }
-  if (q.failing) {
-    if (q.fixes.length === 0) {
+  const fixes = q.failing ? q.fixes : (d?.dropFails ? d.fixes : undefined);
+  if (fixes) {
+    if (fixes.length === 0) {
       lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
     } else {
       lines.push('fix (smallest change of one field, cheapest first):');
-      for (const f of q.fixes) {
+      for (const f of fixes) {
         const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
         const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
         lines.push(`  line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);

@@ -95,6 +95,10 @@ describe('check --base', () => {
     const { code, doc } = json(root, '--base', base);
     expect(code).toBe(1);
     expect(doc.results[0].requirements[0]).toMatchObject({ verdict: 'pass', drop_fails: true, change_bits: -2.169925 });
+    // within 2 bits of 36 needs ⌈36 / 4⌉ = 9: the last conv's 8 channels → 9
+    expect(doc.results[0].requirements[0].fix).toEqual([
+      { layer: 'last', field: 'channels', line: 8, column: 24, from: 8, to: 9, added_parameters: '9', verdict: 'pass' },
+    ]);
   });
 
   test('a pull request cannot loosen its own gate: the base policy judges, with a notice', () => {
