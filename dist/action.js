@@ -37561,12 +37561,13 @@ function explainRequirement(q, d) {
   } else {
     lines.push(`bottleneck: ${b.upper.method}`);
   }
-  if (q.failing) {
-    if (q.fixes.length === 0) {
+  const fixes = q.failing ? q.fixes : d?.dropFails ? d.fixes : void 0;
+  if (fixes) {
+    if (fixes.length === 0) {
       lines.push("fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change");
     } else {
       lines.push("fix (smallest change of one field, cheapest first):");
-      for (const f of q.fixes) {
+      for (const f of fixes) {
         const who = f.layer === "input" ? "input" : `layer ${f.layer}`;
         const proof = f.verdict === "pass" ? "then proven" : "then no longer provably short";
         lines.push(`  line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString("en-US")} parameters; ${proof})`);
@@ -41814,20 +41815,21 @@ function checkOne(path6, file, policy, s, errors) {
   const baseEval = baseModel ? evaluatePolicy(baseModel, policy, { fixes: false }) : void 0;
   if (!baseModel || !baseEval || !baseEval.ok) return { file, path: path6, policy, result: result2, comparison: "new", changes: [], failing: result2.verdict === "fail" };
   const changes = diffModels(baseModel, head);
-  const deltas = result2.requirements.map((q) => delta(q, baseEval.result, policy, changes));
+  const deltas = result2.requirements.map((q) => delta(q, baseEval.result, policy, changes, head));
   const failing = result2.verdict === "fail" || deltas.some((d) => d.dropFails);
   return { file, path: path6, policy, result: result2, comparison: "compared", deltas, changes, failing };
 }
-function delta(q, base, policy, changes) {
+function delta(q, base, policy, changes, head) {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
   const maxDropBits = maxDrop(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
   const attributed = changes.filter((c) => cutLayers.has(c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed };
+  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed, fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
   const limit = maxDropBits;
   const dropFails = limit !== void 0 && (Number.isInteger(limit) ? b.bounds.upper.rank > q.bounds.upper.rank << BigInt(limit) : -changeBits > limit + 1e-9);
-  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed };
+  const fixes = dropFails && !q.failing && head.kind === "layered" && limit !== void 0 && Number.isInteger(limit) ? searchFixes(head, q.partition, b.bounds.upper.rank + (1n << BigInt(limit)) - 1n >> BigInt(limit), "warn", policy.surrogate, cutLayers) : [];
+  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed, fixes };
 }
 function maxDrop(r, p) {
   return r.maxDropBits ?? p.maxDropBits;
@@ -41886,7 +41888,7 @@ function checkJson(outcome) {
             status: q.bounds.status,
             verdict: q.verdict,
             cut: cutJson(q.bounds.upper.cut),
-            fix: q.fixes.map((f) => ({
+            fix: (q.failing ? q.fixes : d?.dropFails ? d.fixes : []).map((f) => ({
               layer: f.layer,
               field: f.field,
               line: f.line,
