@@ -106,6 +106,8 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     }
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
+    const shallow = shallowRecurrentLower(model, p);
+    if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
     return finish(p.label, { upper, lower });
@@ -221,6 +223,32 @@ function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | und
   const m = Math.min(model.input.features, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: 'published depth-2 recurrent', cut: [] };
+}
+
+/**
+ * Derived here: a depth-1 recurrent arithmetic circuit over the raw inputs with W_H = I computes
+ * Σ_r c_r Π_t ⟨a_r, x_t⟩ (a_r the rows of W_I, c_r = w_r·(h_0)_r). Across (A, B) that is
+ * L·diag(c)·Rᵀ with L[x_A, r] = Π_{t∈A} ⟨a_r, x_t⟩ = ⟨a_r^{⊗|A|}, ⊗_t x_t⟩: for generic rows these
+ * span min(R, C(M + |A| − 1, |A|)) dimensions (the Veronese variety spans the symmetric power), so
+ * by Sylvester's inequality rank ≥ ρ_A + ρ_B − R. One weight choice suffices for a lower bound.
+ */
+function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
+  const [first, ...rest] = model.layers;
+  if (!first || first.kind !== 'recurrent' || first.depth !== 1) return undefined;
+  if (rest.some((l) => l.kind !== 'dense')) return undefined;
+  let a = 0;
+  for (const x of p.side) a += x;
+  const b = p.side.length - a;
+  if (a === 0 || b === 0) return undefined;
+  const r = BigInt(first.hidden);
+  const m = model.input.features;
+  const span = (count: number): bigint => {
+    const sym = binomial(m + count - 1, count);
+    return sym < r ? sym : r;
+  };
+  const bound = span(a) + span(b) - r;
+  if (bound <= 1n) return undefined;
+  return { rank: bound, log2: log2Big(bound), method: 'shallow recurrent span', cut: [] };
 }
 
 function sameMask(a: Uint8Array, b: Uint8Array): boolean {
