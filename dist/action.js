@@ -40988,6 +40988,8 @@ function analyseLayered(model, options) {
     }
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
+    const shallow = shallowRecurrentLower(model, p);
+    if (shallow) lowers.push(shallow);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
     return finish(p.label, { upper, lower });
@@ -41077,6 +41079,24 @@ function publishedRecurrentLower(model, p) {
   const m = Math.min(model.input.features, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: "published depth-2 recurrent", cut: [] };
+}
+function shallowRecurrentLower(model, p) {
+  const [first, ...rest] = model.layers;
+  if (!first || first.kind !== "recurrent" || first.depth !== 1) return void 0;
+  if (rest.some((l) => l.kind !== "dense")) return void 0;
+  let a = 0;
+  for (const x of p.side) a += x;
+  const b = p.side.length - a;
+  if (a === 0 || b === 0) return void 0;
+  const r = BigInt(first.hidden);
+  const m = model.input.features;
+  const span = (count) => {
+    const sym = binomial(m + count - 1, count);
+    return sym < r ? sym : r;
+  };
+  const bound = span(a) + span(b) - r;
+  if (bound <= 1n) return void 0;
+  return { rank: bound, log2: log2Big(bound), method: "shallow recurrent span", cut: [] };
 }
 function sameMask(a, b) {
   if (a.length !== b.length) return false;
