@@ -39,3 +39,17 @@ export function formatDiagnosticLine(d: Diagnostic): string {
 }
 
 export const NO_SPAN: Span = { offset: 0, endOffset: 0, line: 1, column: 1, endLine: 1, endColumn: 1 };
+
+/**
+ * The same problem reached twice (a shared parent policy, a config governed by two policies) is
+ * reported once; the first occurrence keeps its place.
+ */
+export function dedupeDiagnostics(diagnostics: readonly Diagnostic[]): Diagnostic[] {
+  const seen = new Set<string>();
+  return diagnostics.filter((d) => {
+    const key = `${d.file}\u0000${d.span?.offset ?? -1}\u0000${d.code}\u0000${d.message}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}

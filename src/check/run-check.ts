@@ -6,11 +6,11 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { relative, resolve, sep } from 'node:path';
-import type { Diagnostic } from '../diagnostic.js';
+import { dedupeDiagnostics, type Diagnostic } from '../diagnostic.js';
 import { loadConfigText } from '../config/load-config.js';
 import type { Model } from '../config/model.js';
 import { diffModels, type FieldChange } from '../config/model-diff.js';
-import { loadPolicyDirectory, loadPolicyFile, loadPolicyText, policyApplies } from '../policy/load-policy.js';
+import { duplicateIdDiagnostic, loadPolicyDirectory, loadPolicyFile, loadPolicyText, policyApplies } from '../policy/load-policy.js';
 import type { Policy, Requirement } from '../policy/policy.js';
 import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
 import { searchFixes, type Fix } from '../policy/fix-search.js';
@@ -136,7 +136,7 @@ export function runCheck(req: CheckRequest): CheckOutcome {
       if (one) checked.push(one);
     }
   }
-  return { root, ...(base ? { base } : {}), checked, notices, errors: dedupe(errors) };
+  return { root, ...(base ? { base } : {}), checked, notices, errors: dedupeDiagnostics(errors) };
 }
 
 function resolveBase(repo: Repo, req: CheckRequest): string | undefined {
@@ -213,7 +213,7 @@ function loadPolicies(
     }
   } else files.add(policyRel);
   const policies: Policy[] = [];
-  const ids = new Set<string>();
+  const ids = new Map<string, string>();
   for (const f of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
     const headText = s.head(f) ?? readWorkTree(root, f);
     const baseText = readAtRevision(repo, base, f);
@@ -242,11 +242,12 @@ function loadPolicies(
       errors.push(...loaded.diagnostics);
       continue;
     }
-    if (ids.has(loaded.policy.id)) {
-      errors.push({ code: 'policy/duplicate-id', message: `a second policy with id '${loaded.policy.id}'`, file: display(f), span: loaded.policy.span, severity: 'error' });
+    const earlier = ids.get(loaded.policy.id);
+    if (earlier !== undefined) {
+      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f), loaded.policy.span));
       continue;
     }
-    ids.add(loaded.policy.id);
+    ids.set(loaded.policy.id, display(f));
     policies.push(loaded.policy);
   }
   return policies;
@@ -332,14 +333,4 @@ function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes
 
 function maxDrop(r: Requirement, p: Policy): number | undefined {
   return r.maxDropBits ?? p.maxDropBits;
-}
-
-function dedupe(diagnostics: readonly Diagnostic[]): Diagnostic[] {
-  const seen = new Set<string>();
-  return diagnostics.filter((d) => {
-    const key = `${d.file}:${d.span?.offset ?? -1}:${d.code}:${d.message}`;
-    if (seen.has(key)) return false;
-    seen.add(key);
-    return true;
-  });
 }

@@ -6,7 +6,7 @@
  */
 import { readdirSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import type { Diagnostic, Span } from '../diagnostic.js';
+import { dedupeDiagnostics, type Diagnostic, type Span } from '../diagnostic.js';
 import { DiagnosticSink } from '../config/diagnostic-sink.js';
 import { readPolicyDocument } from './policy-document.js';
 import { finalisePolicy, mergePolicy, type PolicyDraft } from './policy-merge.js';
@@ -55,13 +55,7 @@ export function loadPolicyDirectory(dir: string, options: PolicyLoadOptions): { 
   names.sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
   const policies: Policy[] = [];
   const diagnostics: Diagnostic[] = [];
-  const seen = new Set<string>();
-  const report = (d: Diagnostic) => {
-    const key = `${d.file}\u0000${d.span?.offset ?? -1}\u0000${d.code}\u0000${d.message}`;
-    if (seen.has(key)) return;
-    seen.add(key);
-    diagnostics.push(d);
-  };
+  const report = (d: Diagnostic) => diagnostics.push(d);
   const firstById = new Map<string, Policy>();
   for (const name of names) {
     const file = join(dir, name);
@@ -71,19 +65,24 @@ export function loadPolicyDirectory(dir: string, options: PolicyLoadOptions): { 
     const policy = finalisePolicy(loaded.draft);
     const earlier = firstById.get(policy.id);
     if (earlier) {
-      report({
-        code: 'policy/duplicate-id',
-        message: `the policy id '${policy.id}' is already used by ${earlier.file}; ids must be unique among the policies of a directory`,
-        file,
-        ...(loaded.idSpan ? { span: loaded.idSpan } : {}),
-        severity: 'error',
-      });
+      report(duplicateIdDiagnostic(policy.id, earlier.file, file, loaded.idSpan));
       continue;
     }
     firstById.set(policy.id, policy);
     policies.push(policy);
   }
-  return { policies, diagnostics };
+  return { policies, diagnostics: dedupeDiagnostics(diagnostics) };
+}
+
+/** Two policies of one directory share an id: reported at the second. */
+export function duplicateIdDiagnostic(id: string, earlierFile: string, file: string, span: Span | undefined): Diagnostic {
+  return {
+    code: 'policy/duplicate-id',
+    message: `the policy id '${id}' is already used by ${earlierFile}; ids must be unique among the policies of a directory`,
+    file,
+    ...(span ? { span } : {}),
+    severity: 'error',
+  };
 }
 
 interface Loaded {
