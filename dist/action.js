@@ -37669,6 +37669,21 @@ function errorFinding(e, root, cwd) {
 import { readFileSync as readFileSync3, statSync as statSync4 } from "node:fs";
 import { relative as relative4, resolve as resolve7, sep as sep5 } from "node:path";
 
+// src/diagnostic.ts
+function formatDiagnosticLine(d) {
+  const where2 = d.span ? `${d.file}:${d.span.line}:${d.span.column}` : d.file;
+  return `${where2}: ${d.severity}: ${d.message} [${d.code}]`;
+}
+function dedupeDiagnostics(diagnostics) {
+  const seen = /* @__PURE__ */ new Set();
+  return diagnostics.filter((d) => {
+    const key = `${d.file}\0${d.span?.offset ?? -1}\0${d.code}\0${d.message}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}
+
 // src/config/load-config.ts
 var import_yaml5 = __toESM(require_dist(), 1);
 
@@ -39772,13 +39787,7 @@ function loadPolicyDirectory(dir, options) {
   names.sort((a, b) => a < b ? -1 : a > b ? 1 : 0);
   const policies = [];
   const diagnostics = [];
-  const seen = /* @__PURE__ */ new Set();
-  const report = (d) => {
-    const key = `${d.file}\0${d.span?.offset ?? -1}\0${d.code}\0${d.message}`;
-    if (seen.has(key)) return;
-    seen.add(key);
-    diagnostics.push(d);
-  };
+  const report = (d) => diagnostics.push(d);
   const firstById = /* @__PURE__ */ new Map();
   for (const name of names) {
     const file = join5(dir, name);
@@ -39788,19 +39797,22 @@ function loadPolicyDirectory(dir, options) {
     const policy = finalisePolicy(loaded.draft);
     const earlier = firstById.get(policy.id);
     if (earlier) {
-      report({
-        code: "policy/duplicate-id",
-        message: `the policy id '${policy.id}' is already used by ${earlier.file}; ids must be unique among the policies of a directory`,
-        file,
-        ...loaded.idSpan ? { span: loaded.idSpan } : {},
-        severity: "error"
-      });
+      report(duplicateIdDiagnostic(policy.id, earlier.file, file, loaded.idSpan));
       continue;
     }
     firstById.set(policy.id, policy);
     policies.push(policy);
   }
-  return { policies, diagnostics };
+  return { policies, diagnostics: dedupeDiagnostics(diagnostics) };
+}
+function duplicateIdDiagnostic(id, earlierFile, file, span) {
+  return {
+    code: "policy/duplicate-id",
+    message: `the policy id '${id}' is already used by ${earlierFile}; ids must be unique among the policies of a directory`,
+    file,
+    ...span ? { span } : {},
+    severity: "error"
+  };
 }
 function loadFromDisk(path6, options) {
   let text;
@@ -41688,7 +41700,7 @@ function runCheck(req) {
       if (one) checked.push(one);
     }
   }
-  return { root, ...base ? { base } : {}, checked, notices, errors: dedupe(errors) };
+  return { root, ...base ? { base } : {}, checked, notices, errors: dedupeDiagnostics(errors) };
 }
 function resolveBase(repo, req) {
   if (req.staged && req.base === void 0) return resolveCommit(repo, "HEAD");
@@ -41748,7 +41760,7 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
     }
   } else files.add(policyRel);
   const policies = [];
-  const ids = /* @__PURE__ */ new Set();
+  const ids = /* @__PURE__ */ new Map();
   for (const f of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
     const headText = s.head(f) ?? readWorkTree(root, f);
     const baseText = readAtRevision(repo, base, f);
@@ -41777,11 +41789,12 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
       errors.push(...loaded.diagnostics);
       continue;
     }
-    if (ids.has(loaded.policy.id)) {
-      errors.push({ code: "policy/duplicate-id", message: `a second policy with id '${loaded.policy.id}'`, file: display(f), span: loaded.policy.span, severity: "error" });
+    const earlier = ids.get(loaded.policy.id);
+    if (earlier !== void 0) {
+      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f), loaded.policy.span));
       continue;
     }
-    ids.add(loaded.policy.id);
+    ids.set(loaded.policy.id, display(f));
     policies.push(loaded.policy);
   }
   return policies;
@@ -41853,21 +41866,6 @@ function delta(q, base, policy, changes, head) {
 }
 function maxDrop(r, p) {
   return r.maxDropBits ?? p.maxDropBits;
-}
-function dedupe(diagnostics) {
-  const seen = /* @__PURE__ */ new Set();
-  return diagnostics.filter((d) => {
-    const key = `${d.file}:${d.span?.offset ?? -1}:${d.code}:${d.message}`;
-    if (seen.has(key)) return false;
-    seen.add(key);
-    return true;
-  });
-}
-
-// src/diagnostic.ts
-function formatDiagnosticLine(d) {
-  const where2 = d.span ? `${d.file}:${d.span.line}:${d.span.column}` : d.file;
-  return `${where2}: ${d.severity}: ${d.message} [${d.code}]`;
 }
 
 // src/report/bounds-json.ts
