@@ -8,11 +8,12 @@
  * wrong, and nothing can hide a 2.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync, mkdirSync, renameSync, writeFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { EOL, tmpdir } from 'node:os';
-import { dirname, join, resolve } from 'node:path';
+import { join, resolve } from 'node:path';
 import * as core from '@actions/core';
 import { findingsOf } from '../check/findings.js';
+import { writeWhole } from '../check/write-whole.js';
 import { findRepoRoot } from '../check/repo-files.js';
 import { CheckRequestError, runCheck, type CheckOutcome } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
@@ -143,12 +144,4 @@ function logPlainText(text: string): void {
   process.stdout.write(`::stop-commands::${token}${EOL}`);
   core.info(text);
   process.stdout.write(`::${token}::${EOL}`);
-}
-
-/** Through a temporary file and a rename, so that a later step never reads half a report. */
-function writeWhole(path: string, text: string): void {
-  mkdirSync(dirname(path), { recursive: true });
-  const tmp = `${path}.tmp-${process.pid}`;
-  writeFileSync(tmp, text);
-  renameSync(tmp, path);
 }

@@ -3,10 +3,10 @@
  * input error occurred (the other files are still reported), else 1 if a requirement failed,
  * else 0. `--sarif` and `--junit` files are written whole, after the check, never partially.
  */
-import { renameSync, writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { CheckRequestError, runCheck } from '../check/run-check.js';
 import { findingsOf } from '../check/findings.js';
+import { writeWhole } from '../check/write-whole.js';
 import { checkJson } from '../report/check-json.js';
 import { checkText } from '../report/check-text.js';
 import { sarifText } from '../report/sarif.js';
@@ -65,11 +65,4 @@ export function checkCommand(args: readonly string[], io: Io): number {
   if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);
   if (outcome.errors.some((d) => d.severity === 'error')) return EXIT_INPUT;
   return outcome.checked.some((c) => c.failing) ? EXIT_FAIL : EXIT_OK;
-}
-
-/** Writes through a temporary file and a rename, so a reader never sees half a report. */
-function writeWhole(path: string, text: string): void {
-  const tmp = `${path}.tmp-${process.pid}`;
-  writeFileSync(tmp, text);
-  renameSync(tmp, path);
 }
