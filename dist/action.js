@@ -35166,9 +35166,9 @@ var require_picomatch2 = __commonJS({
 
 // src/action/main.ts
 import { randomUUID as randomUUID2 } from "node:crypto";
-import { existsSync as existsSync4, mkdirSync, renameSync, writeFileSync } from "node:fs";
+import { existsSync as existsSync4 } from "node:fs";
 import { EOL as EOL6, tmpdir } from "node:os";
-import { dirname as dirname5, join as join7, resolve as resolve8 } from "node:path";
+import { join as join7, resolve as resolve8 } from "node:path";
 
 // node_modules/@actions/core/lib/core.js
 var core_exports = {};
@@ -37665,6 +37665,16 @@ function errorFinding(e, root, cwd) {
   };
 }
 
+// src/check/write-whole.ts
+import { mkdirSync, renameSync, writeFileSync } from "node:fs";
+import { dirname as dirname4 } from "node:path";
+function writeWhole(path6, text) {
+  mkdirSync(dirname4(path6), { recursive: true });
+  const tmp = `${path6}.tmp-${process.pid}`;
+  writeFileSync(tmp, text);
+  renameSync(tmp, path6);
+}
+
 // src/check/run-check.ts
 import { readFileSync as readFileSync3, statSync as statSync4 } from "node:fs";
 import { relative as relative4, resolve as resolve7, sep as sep5 } from "node:path";
@@ -39709,10 +39719,10 @@ function finalisePolicy(draft) {
 
 // src/policy/extends-target.ts
 import { readFileSync as readFileSync2, realpathSync, statSync } from "node:fs";
-import { dirname as dirname4, isAbsolute, join as join4, normalize, relative as relative3, resolve as resolve4, sep as sep4 } from "node:path";
+import { dirname as dirname5, isAbsolute, join as join4, normalize, relative as relative3, resolve as resolve4, sep as sep4 } from "node:path";
 function resolveExtendsTarget(value, fromFile, repoRoot, readFile) {
-  const display = isAbsolute(value) ? normalize(value) : join4(dirname4(fromFile), value);
-  const fromDir = dirname4(resolve4(fromFile));
+  const display = isAbsolute(value) ? normalize(value) : join4(dirname5(fromFile), value);
+  const fromDir = dirname5(resolve4(fromFile));
   const lexical = resolve4(realpathOrSelf(fromDir), value);
   const root = realpathOrSelf(resolve4(repoRoot));
   const outside = (why) => ({
@@ -42375,12 +42385,6 @@ function logPlainText(text) {
   process.stdout.write(`::stop-commands::${token}${EOL6}`);
   info(text);
   process.stdout.write(`::${token}::${EOL6}`);
-}
-function writeWhole(path6, text) {
-  mkdirSync(dirname5(path6), { recursive: true });
-  const tmp = `${path6}.tmp-${process.pid}`;
-  writeFileSync(tmp, text);
-  renameSync(tmp, path6);
 }
 
 // src/action/index.ts
