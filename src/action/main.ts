@@ -13,7 +13,7 @@ import { EOL, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import * as core from '@actions/core';
 import { findingsOf } from '../check/findings.js';
-import { writeWhole } from '../check/write-whole.js';
+import { ReportWriteError, writeReport } from '../check/write-report.js';
 import { findRepoRoot } from '../check/repo-files.js';
 import { CheckRequestError, runCheck, type CheckOutcome } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
@@ -35,7 +35,7 @@ export async function run(): Promise<void> {
   try {
     await check();
   } catch (e) {
-    if (e instanceof ActionInputError || e instanceof CheckRequestError || e instanceof GitError) {
+    if (e instanceof ActionInputError || e instanceof CheckRequestError || e instanceof GitError || e instanceof ReportWriteError) {
       failWithInputError(e.message);
       return;
     }
@@ -70,8 +70,8 @@ async function check(): Promise<void> {
   for (const a of plan.shown) core[a.kind](a.message, a.properties);
 
   const reportPath = resolve(process.env['RUNNER_TEMP'] || tmpdir(), REPORT_NAME);
-  writeWhole(reportPath, checkJson(outcome));
-  if (inputs.sarif) writeWhole(resolve(cwd, inputs.sarif), sarifText(findings, { version: TOOL_VERSION }));
+  writeReport(reportPath, checkJson(outcome));
+  if (inputs.sarif) writeReport(resolve(cwd, inputs.sarif), sarifText(findings, { version: TOOL_VERSION }), { inside: cwd });
   const tally = tallyRequirements(outcome);
   core.setOutput('verdict', verdict);
   core.setOutput('failed', tally.failing);

@@ -6,7 +6,7 @@
 import { parseArgs } from 'node:util';
 import { CheckRequestError, runCheck } from '../check/run-check.js';
 import { findingsOf } from '../check/findings.js';
-import { writeWhole } from '../check/write-whole.js';
+import { ReportWriteError, writeReport } from '../check/write-report.js';
 import { checkJson } from '../report/check-json.js';
 import { checkText } from '../report/check-text.js';
 import { sarifText } from '../report/sarif.js';
@@ -60,8 +60,15 @@ export function checkCommand(args: readonly string[], io: Io): number {
     if (outcome.checked.length === 0 && outcome.errors.length === 0) io.stdout('nothing to check: no config matched\n');
   }
   const findings = findingsOf(outcome, cwd);
-  if (values.sarif) writeWhole(values.sarif, sarifText(findings, { version: TOOL_VERSION }));
-  if (values.junit) writeWhole(values.junit, junitXml(outcome.checked.flatMap((c) => (c.result ? [c.result] : [])), outcome.errors));
+  try {
+    if (values.sarif) writeReport(values.sarif, sarifText(findings, { version: TOOL_VERSION }));
+    if (values.junit) writeReport(values.junit, junitXml(outcome.checked.flatMap((c) => (c.result ? [c.result] : [])), outcome.errors));
+  } catch (e) {
+    if (!(e instanceof ReportWriteError)) throw e;
+    if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);
+    io.stderr(`rankfloor: ${e.message}\n`);
+    return EXIT_INPUT;
+  }
   if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);
   if (outcome.errors.some((d) => d.severity === 'error')) return EXIT_INPUT;
   return outcome.checked.some((c) => c.failing) ? EXIT_FAIL : EXIT_OK;
