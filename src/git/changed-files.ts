@@ -1,8 +1,9 @@
 /**
  * Which files differ from a base commit: in the work tree (a local run), at HEAD (a pull request
  * in CI) or in the index (a pre-commit hook). Output is read with `-z` so that names with spaces,
- * quotes, newlines or non-ASCII letters arrive exactly as git stores them, and renames are off so
- * that every entry is one path with one of three statuses the checker understands.
+ * quotes, newlines or non-ASCII letters arrive exactly as git stores them. Every entry is one path
+ * with one of three statuses the checker understands; git's rename detection pairs a deleted path
+ * with the added path it became, so that a moved config can be compared with its old self.
  */
 import { GitError } from './git-error.js';
 import { checkRevision } from './git-input.js';
@@ -17,16 +18,33 @@ export interface ChangedFile {
 
 export type ChangedAgainst = 'worktree' | 'head' | 'staged';
 
-const DIFF_OPTIONS = ['--name-status', '-z', '--no-renames', '--no-color', '--no-ext-diff'];
+export interface Changes {
+  readonly files: readonly ChangedFile[];
+  /** Old path → new path, for the deletions and additions git's rename detection paired up. */
+  readonly renames: ReadonlyMap<string, string>;
+}
+
+// -M turns on rename detection whatever the user's diff.renames says; the pairs' paths are still
+// listed as a deletion and an addition in `files`.
+const DIFF_OPTIONS = ['--name-status', '-z', '-M', '--no-color', '--no-ext-diff'];
 
 /** Files that differ between `base` and the work tree (default), HEAD, or the index. */
 export function changedFiles(repo: Repo, base: string, options: { against?: ChangedAgainst } = {}): ChangedFile[] {
+  return [...changesSince(repo, base, options).files];
+}
+
+/**
+ * The changed files and the renames among them, from one diff. Against the work tree, untracked
+ * files count as added; a move that git does not track yet (`mv` without `git add`) therefore
+ * shows as a deletion and an addition, not as a rename.
+ */
+export function changesSince(repo: Repo, base: string, options: { against?: ChangedAgainst } = {}): Changes {
   checkRevision(base);
   const against = options.against ?? 'worktree';
   switch (against) {
     case 'worktree': {
-      const files = diff(repo, 'worktree', [requireCommit(repo, base)]);
-      return addUntracked(files, untrackedFiles(repo));
+      const changes = diff(repo, 'worktree', [requireCommit(repo, base)]);
+      return { files: addUntracked(changes.files, untrackedFiles(repo)), renames: changes.renames };
     }
     case 'head':
       return diff(repo, 'trees', [requireCommit(repo, base), requireCommit(repo, 'HEAD')]);
@@ -39,18 +57,27 @@ export function changedFiles(repo: Repo, base: string, options: { against?: Chan
 
 /** What the next commit would change; before the first commit everything staged is added. */
 export function stagedFiles(repo: Repo): ChangedFile[] {
+  return [...stagedChanges(repo).files];
+}
+
+/** stagedFiles with the renames among them. */
+export function stagedChanges(repo: Repo): Changes {
   return diff(repo, 'index', [resolveCommit(repo, 'HEAD') ?? emptyTree(repo)]);
 }
 
 /** `ids` are full hex ids (never user spelling), followed by `--` so no path can be taken for one. */
-function diff(repo: Repo, side: 'worktree' | 'index' | 'trees', ids: readonly string[]): ChangedFile[] {
+function diff(repo: Repo, side: 'worktree' | 'index' | 'trees', ids: readonly string[]): Changes {
   const args = ['diff', ...(side === 'index' ? ['--cached'] : []), ...DIFF_OPTIONS, ...ids, '--'];
-  const files = parseNameStatus(runGitOk(repo.root, args).toString('utf8'));
-  return [...files].map(([path, status]) => ({ path, status })).sort(byPath);
+  const renames = new Map<string, string>();
+  const files = parseNameStatus(runGitOk(repo.root, args).toString('utf8'), renames);
+  return { files: [...files].map(([path, status]) => ({ path, status })).sort(byPath), renames };
 }
 
-/** `--name-status -z` output as path → status; a path listed twice with different letters counts as modified. */
-export function parseNameStatus(out: string): Map<string, ChangedFile['status']> {
+/**
+ * `--name-status -z` output as path → status; a path listed twice with different letters counts
+ * as modified. Renames are recorded in `renames` (old → new) when it is given.
+ */
+export function parseNameStatus(out: string, renames?: Map<string, string>): Map<string, ChangedFile['status']> {
   const fields = out.split('\0');
   if (fields.at(-1) === '') fields.pop();
   const files = new Map<string, ChangedFile['status']>();
@@ -63,10 +90,12 @@ export function parseNameStatus(out: string): Map<string, ChangedFile['status']>
     const code = fields[i++] ?? '';
     const letter = code.charAt(0);
     if (letter === 'R' || letter === 'C') {
-      // Not produced with --no-renames; kept so a future option cannot misalign the fields.
       const from = fields[i++];
       const to = fields[i++];
-      if (letter === 'R') add(from, 'D');
+      if (letter === 'R') {
+        add(from, 'D');
+        if (from !== undefined && to !== undefined) renames?.set(from, to);
+      }
       add(to, 'A');
     } else {
       add(fields[i++], letter === 'A' ? 'A' : letter === 'D' ? 'D' : 'M');

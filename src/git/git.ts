@@ -7,5 +7,6 @@ export { GitError } from './git-error.js';
 export { openRepo, resolveCommit, isShallow, mergeBase, type Repo } from './repo.js';
 export { ensureCommit, type EnsureResult } from './ensure-commit.js';
 export { readAtRevision, readStaged } from './read-file.js';
-export { changedFiles, stagedFiles, type ChangedFile, type ChangedAgainst } from './changed-files.js';
+export { changedFiles, changesSince, stagedChanges, stagedFiles, type Changes, type ChangedFile, type ChangedAgainst } from './changed-files.js';
+export { RevisionFiles, type TreeEntry } from './revision-files.js';
 export { MAX_FILE_BYTES } from './run-git.js';

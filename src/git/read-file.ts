@@ -15,6 +15,8 @@ interface Entry {
   readonly type: string;
   readonly id: string;
   readonly size?: number;
+  /** `ls-tree -l` could not find the object to measure it: missing from the object store. */
+  readonly missing?: boolean;
 }
 
 /** Contents of `rootRelativePath` at commit `rev`; null when the path does not exist there. */
@@ -49,6 +51,7 @@ function readEntry(repo: Repo, entry: Entry, what: string): string {
   if (entry.mode === '160000' || entry.type === 'commit') throw new GitError(`${what} is a submodule, not a file`, '');
   // A link's blob is its target path; following it inside a commit is not supported.
   if (entry.mode === '120000') throw new GitError(`${what} is a symbolic link; point the check at the file it links to`, '');
+  if (entry.missing) throw new GitError(`${what} (object ${entry.id.slice(0, 12)}) is missing from this clone's object store`, '');
   const tooLarge = (): GitError =>
     new GitError(`${what} is larger than ${MAX_FILE_BYTES / (1024 * 1024)} MiB; refusing to read it`, '');
   if (entry.size !== undefined && entry.size > MAX_FILE_BYTES) throw tooLarge();
@@ -70,11 +73,12 @@ function findEntry<E extends Entry & { path: string }>(
   return undefined;
 }
 
-/** `<mode> SP <type> SP <id> SP+ <size>TAB<path>` (size is `-` for trees and submodules). */
+/** `<mode> SP <type> SP <id> SP+ <size>TAB<path>` (size is `-` for trees and submodules, `BAD` for a missing object). */
 function parseTreeLine(record: string): (Entry & { path: string }) | undefined {
-  const m = /^(\d{6}) (\w+) ([0-9a-f]+) +(\d+|-)\t([\s\S]*)$/.exec(record);
+  const m = /^(\d{6}) (\w+) ([0-9a-f]+) +(\d+|-|BAD)\t([\s\S]*)$/.exec(record);
   if (!m) return undefined;
   const [, mode = '', type = '', id = '', size = '-', path = ''] = m;
+  if (size === 'BAD') return { mode, type, id, path, missing: true };
   return { mode, type, id, path, ...(size === '-' ? {} : { size: Number(size) }) };
 }
 

@@ -28,6 +28,8 @@ export interface RunOptions {
   readonly timeoutMs?: number;
   /** Builds the error for output beyond `maxBuffer`, so callers can name the file and the limit. */
   readonly tooLarge?: () => GitError;
+  /** Written to git's standard input (the requests of a `cat-file --batch` session). */
+  readonly input?: string;
 }
 
 export function gitEnv(): NodeJS.ProcessEnv {
@@ -39,6 +41,9 @@ export function gitEnv(): NodeJS.ProcessEnv {
     GIT_OPTIONAL_LOCKS: '0',
     // Paths are given to git literally: a config named `*.yaml` means that one file.
     GIT_LITERAL_PATHSPECS: '1',
+    // In a partial clone a missing object would be fetched from the remote on demand; the tool
+    // never reaches the network behind the user's back, so a missing object is reported instead.
+    GIT_NO_LAZY_FETCH: '1',
   };
 }
 
@@ -103,7 +108,8 @@ export function runGit(cwd: string, args: readonly string[], options: RunOptions
     env: gitEnv(),
     shell: false,
     windowsHide: true,
-    stdio: ['ignore', 'pipe', 'pipe'],
+    stdio: [options.input === undefined ? 'ignore' : 'pipe', 'pipe', 'pipe'],
+    ...(options.input === undefined ? {} : { input: options.input }),
     maxBuffer: options.maxBuffer ?? MAX_LISTING_BYTES,
     timeout: options.timeoutMs ?? LOCAL_TIMEOUT_MS,
   });
