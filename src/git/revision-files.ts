@@ -6,7 +6,7 @@
  * the listing, so "not there" is an exact answer; entries that are not plain files (symbolic
  * links, submodules, conflicts) and objects missing from the store are refusals, never "absent".
  */
-import { refused, type FileRead } from '../file-read.js';
+import { refused, type FileRead } from '../files/file-read.js';
 import { checkRootRelativePath } from './git-input.js';
 import { type Repo } from './repo.js';
 import { MAX_FILE_BYTES, runGitOk } from './run-git.js';
@@ -73,7 +73,14 @@ export class RevisionFiles {
   }
 
   isDirectory(path: string): boolean {
-    return this.dirs.has(path.replace(/\/+$/, ''));
+    const dir = path.replace(/\/+$/, '');
+    return dir === '' || this.dirs.has(dir);
+  }
+
+  /** Root-relative paths of the entries directly in `dir` ('' for the root), sorted; not subdirectories. */
+  children(dir: string): string[] {
+    const prefix = dir === '' ? '' : `${dir.replace(/\/+$/, '')}/`;
+    return this.paths().filter((p) => p.startsWith(prefix) && !p.slice(prefix.length).includes('/'));
   }
 
   /** Reads the plain files among `paths` in one batch; later `read` calls are answered from it. */

@@ -1,91 +1,80 @@
 /**
  * Finds and reads the file an `extends` names. The path is relative to the extending file's
- * directory and must stay inside the repository root, judged after `..` and symbolic links are
- * resolved: a policy comes from the repository under review, and a pull request must not make CI
- * read (and echo in messages) files elsewhere on the machine, such as `/etc/passwd` or a
- * symlinked home directory.
+ * directory and must stay inside the repository root. It is resolved by its spelling alone (`..`
+ * folded, links never resolved) and handed to a reader: the working tree by default, which refuses
+ * symbolic links anywhere on the path, or a stand-in such as the base revision's git tree. A pull
+ * request therefore can neither make CI read files elsewhere on the machine (`/etc/passwd`, a
+ * linked home directory) nor swap the file a base policy extends for another through a link.
  */
-import { readFileSync, realpathSync, statSync } from 'node:fs';
-import { dirname, isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
-import { MAX_DOCUMENT_BYTES } from '../config/limits.js';
+import { isAbsolute, join, normalize, relative, resolve, sep } from 'node:path';
+import { dirname } from 'node:path';
+import type { RefusalCode } from '../files/file-read.js';
+import { readWorkTree } from '../files/work-tree.js';
 
 export type ExtendsTarget =
   | {
       readonly ok: true;
       /** The target as diagnostics and `chain` name it: relative to the working directory when the extending file's path was. */
       readonly display: string;
-      /** The absolute path the cycle check compares (symlinks resolved when the file exists on disk). */
+      /** The absolute path the cycle check compares (spelling resolved, links never followed). */
       readonly real: string;
       readonly text: string;
     }
   | { readonly ok: false; readonly code: string; readonly message: string };
 
-/** Reads a file; throwing means it cannot be read (an error with code ENOENT: it does not exist). */
+/**
+ * Reads a file given by its absolute path below the repository root. Throwing means it cannot be
+ * read: an error whose `code` is ENOENT means it does not exist, a ReadRefusedError says why the
+ * file is not read (a symbolic link, a directory, too large).
+ */
 export type ReadFile = (path: string) => string;
 
-/**
- * `readFile`, when given, stands in for the file system (tests, editors with unsaved buffers): a
- * target then need not exist on disk, and a path that does not is checked without resolving links.
- */
+export class ReadRefusedError extends Error {
+  override readonly name = 'ReadRefusedError';
+  constructor(
+    message: string,
+    readonly reason: RefusalCode,
+  ) {
+    super(message);
+  }
+}
+
 export function resolveExtendsTarget(value: string, fromFile: string, repoRoot: string, readFile: ReadFile | undefined): ExtendsTarget {
   const display = isAbsolute(value) ? normalize(value) : join(dirname(fromFile), value);
-  const fromDir = dirname(resolve(fromFile));
-  const lexical = resolve(realpathOrSelf(fromDir), value);
-  const root = realpathOrSelf(resolve(repoRoot));
-  const outside = (why: string): ExtendsTarget => ({
-    ok: false,
-    code: 'policy/extends-outside-root',
-    message: `extends '${value}' ${why} the repository root ${root}; a policy may only extend policies inside the repository`,
-  });
-  let real: string;
-  try {
-    real = realpathSync(lexical);
-  } catch {
-    if (!inside(lexical, root)) return outside('points outside');
-    if (!readFile) return missing(value, lexical);
-    real = lexical;
+  const root = resolve(repoRoot);
+  const target = resolve(dirname(resolve(fromFile)), value);
+  if (!inside(target, root)) {
+    return {
+      ok: false,
+      code: 'policy/extends-outside-root',
+      message: `extends '${value}' points outside the repository root ${root}; a policy may only extend policies inside the repository`,
+    };
   }
-  if (!inside(real, root)) return outside(inside(lexical, root) ? 'leads, through a symbolic link, outside' : 'points outside');
-  // A stand-in reader gets the path below the root as the caller spelt it, which it can map to
-  // its own store (a git revision, say) even when the root itself is reached through a link.
-  const readPath = readFile ? join(resolve(repoRoot), relative(root, real)) : real;
   try {
-    return { ok: true, display, real, text: (readFile ?? readPolicyFromDisk)(readPath) };
+    return { ok: true, display, real: target, text: (readFile ?? workTreeReader(root))(target) };
   } catch (err) {
-    if (isNotFound(err)) return missing(value, real);
-    if (err instanceof TooLargeError) return { ok: false, code: 'policy/too-large', message: `extends '${value}': ${err.message}` };
+    if (isNotFound(err)) return { ok: false, code: 'policy/extends-missing', message: `extends '${value}': there is no file ${target}` };
+    if (err instanceof ReadRefusedError) {
+      const code = err.reason === 'too-large' ? 'policy/too-large' : err.reason === 'symlink' ? 'policy/extends-symlink' : 'policy/extends-unreadable';
+      return { ok: false, code, message: `extends '${value}': ${err.message}` };
+    }
     const reason = err instanceof Error ? err.message : String(err);
-    return { ok: false, code: 'policy/extends-unreadable', message: `extends '${value}': cannot read ${real}: ${reason}` };
+    return { ok: false, code: 'policy/extends-unreadable', message: `extends '${value}': cannot read ${target}: ${reason}` };
   }
 }
 
-export class TooLargeError extends Error {
-  override readonly name = 'TooLargeError';
+/** Reads files of the working tree below `root`, refusing links (see files/work-tree.ts). */
+export function workTreeReader(root: string): ReadFile {
+  return (path) => {
+    const rel = relative(root, path).split(sep).join('/');
+    const read = readWorkTree(root, rel);
+    if (read.kind === 'file') return read.text;
+    if (read.kind === 'absent') throw Object.assign(new Error(`${path} does not exist`), { code: 'ENOENT' });
+    throw new ReadRefusedError(read.message, read.code);
+  };
 }
 
-/** Reads a policy file from disk, refusing files over the size cap before reading them. */
-export function readPolicyFromDisk(path: string): string {
-  const size = statSync(path).size;
-  if (size > MAX_DOCUMENT_BYTES) {
-    throw new TooLargeError(`the policy file is ${size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
-  }
-  return readFileSync(path, 'utf8');
-}
-
-/** The real path of an existing file or directory, else the path itself. */
-export function realpathOrSelf(path: string): string {
-  try {
-    return realpathSync(path);
-  } catch {
-    return path;
-  }
-}
-
-function missing(value: string, path: string): ExtendsTarget {
-  return { ok: false, code: 'policy/extends-missing', message: `extends '${value}': there is no file ${path}` };
-}
-
-function inside(path: string, root: string): boolean {
+export function inside(path: string, root: string): boolean {
   const rel = relative(root, path);
   return rel === '' || (rel !== '..' && !rel.startsWith(`..${sep}`) && !isAbsolute(rel));
 }

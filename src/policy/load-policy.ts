@@ -4,15 +4,17 @@
  * the files it extends. Problems in users' files never throw; a missing schema file (a broken
  * installation) does.
  */
-import { readdirSync, statSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { lstatSync, readdirSync, readFileSync } from 'node:fs';
+import { join, relative, resolve, sep } from 'node:path';
 import { dedupeDiagnostics, type Diagnostic, type Span } from '../diagnostic.js';
 import { DiagnosticSink } from '../config/diagnostic-sink.js';
 import { readPolicyDocument } from './policy-document.js';
 import { finalisePolicy, mergePolicy, type PolicyDraft } from './policy-merge.js';
 import { MAX_EXTENDS_DEPTH } from './policy-limits.js';
 import { checkPartitionReferences } from './requirements.js';
-import { readPolicyFromDisk, realpathOrSelf, resolveExtendsTarget, TooLargeError, type ReadFile } from './extends-target.js';
+import { MAX_DOCUMENT_BYTES } from '../config/limits.js';
+import { inspectWorkTree, symlinkMessage } from '../files/work-tree.js';
+import { inside, ReadRefusedError, resolveExtendsTarget, workTreeReader, type ReadFile } from './extends-target.js';
 import type { Policy } from './policy.js';
 
 export { policyApplies } from './applies-to.js';
@@ -30,12 +32,12 @@ export function loadPolicyFile(path: string, options: PolicyLoadOptions): Policy
 }
 
 /**
- * `readFile` reads the files that `extends` names (default: the file system). It receives
- * absolute paths below `options.repoRoot` as given, and signals a missing file by throwing an
- * error whose `code` is `ENOENT`.
+ * `readFile` reads the files that `extends` names (default: the working tree, links refused). It
+ * receives absolute paths below `options.repoRoot`, spelt from the root as given, and signals a
+ * missing file by throwing an error whose `code` is `ENOENT` (see extends-target.ts).
  */
-export function loadPolicyText(text: string, file: string, options: PolicyLoadOptions, readFile?: (path: string) => string): PolicyLoadResult {
-  const loaded = loadChain(text, file, realpathOrSelf(resolve(file)), options, readFile, []);
+export function loadPolicyText(text: string, file: string, options: PolicyLoadOptions, readFile?: ReadFile): PolicyLoadResult {
+  const loaded = loadChain(text, file, resolve(file), options, readFile, []);
   return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
 }
 
@@ -47,7 +49,14 @@ export function loadPolicyText(text: string, file: string, options: PolicyLoadOp
 export function loadPolicyDirectory(dir: string, options: PolicyLoadOptions): { policies: Policy[]; diagnostics: Diagnostic[] } {
   let names: string[];
   try {
-    names = readdirSync(dir).filter((n) => /\.ya?ml$/.test(n) && isFile(join(dir, n)));
+    const link = linkOnTheWay(dir, options.repoRoot);
+    if (link !== undefined) {
+      return { policies: [], diagnostics: [{ code: 'policy/symlink', message: symlinkMessage(dir, link), file: dir, severity: 'error' }] };
+    }
+    // Links among the files are listed, so that loading them reports them.
+    names = readdirSync(dir, { withFileTypes: true })
+      .filter((e) => /\.ya?ml$/.test(e.name) && (e.isFile() || e.isSymbolicLink()))
+      .map((e) => e.name);
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
     return { policies: [], diagnostics: [{ code: 'policy/unreadable', message: `cannot read the policy directory: ${reason}`, file: dir, severity: 'error' }] };
@@ -100,19 +109,44 @@ interface ChainLink {
 function loadFromDisk(path: string, options: PolicyLoadOptions): Loaded {
   let text: string;
   try {
-    text = readPolicyFromDisk(path);
+    text = readTopFile(path, options.repoRoot);
   } catch (err) {
-    const tooLarge = err instanceof TooLargeError;
+    const refusal = err instanceof ReadRefusedError ? err.reason : undefined;
     const reason = err instanceof Error ? err.message : String(err);
     const d: Diagnostic = {
-      code: tooLarge ? 'policy/too-large' : 'policy/unreadable',
-      message: tooLarge ? reason : `cannot read the policy file: ${reason}`,
+      code: refusal === 'too-large' ? 'policy/too-large' : refusal === 'symlink' ? 'policy/symlink' : 'policy/unreadable',
+      message: refusal === 'too-large' || refusal === 'symlink' ? reason : `cannot read the policy file: ${reason}`,
       file: path,
       severity: 'error',
     };
     return { diagnostics: [d] };
   }
-  return loadChain(text, path, realpathOrSelf(resolve(path)), options, undefined, []);
+  return loadChain(text, path, resolve(path), options, undefined, []);
+}
+
+/**
+ * The file named on the command line or found in a directory: below the repository root it is
+ * read like every other file there (links refused on the whole way); elsewhere the file itself
+ * must not be a link.
+ */
+function readTopFile(path: string, repoRoot: string): string {
+  const root = resolve(repoRoot);
+  const abs = resolve(path);
+  if (inside(abs, root)) return workTreeReader(root)(abs);
+  if (lstatSync(abs).isSymbolicLink()) throw new ReadRefusedError(symlinkMessage(path, path), 'symlink');
+  const text = readFileSync(abs, 'utf8');
+  const bytes = Buffer.byteLength(text, 'utf8');
+  if (bytes > MAX_DOCUMENT_BYTES) throw new ReadRefusedError(`the policy file is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`, 'too-large');
+  return text;
+}
+
+/** The symbolic link (as a path below the root) on the way to `path`, if there is one. */
+function linkOnTheWay(path: string, repoRoot: string): string | undefined {
+  const root = resolve(repoRoot);
+  const abs = resolve(path);
+  if (!inside(abs, root) || abs === root) return undefined;
+  const entry = inspectWorkTree(root, relative(root, abs).split(sep).join('/'));
+  return entry.kind === 'symlink' ? entry.link : undefined;
 }
 
 /**
@@ -160,12 +194,4 @@ function loadChain(
   }
   const draft = mergePolicy({ ...doc, id: doc.id, description: doc.description }, parent);
   return { draft, ...(doc.idSpan ? { idSpan: doc.idSpan } : {}), diagnostics: inherited };
-}
-
-function isFile(path: string): boolean {
-  try {
-    return statSync(path).isFile();
-  } catch {
-    return false;
-  }
 }

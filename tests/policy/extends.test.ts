@@ -169,7 +169,7 @@ describe('extends errors, at the extends value', () => {
     expect(failed(loadPolicyFile(dir, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-unreadable@3:10']);
   });
 
-  test('targets outside the repository root: by .., by an absolute path, through a symbolic link', () => {
+  test('targets outside the repository root (by .., by an absolute path); a symbolic link on the way is never followed', () => {
     const outside = tempRepo('rankfloor-outside-');
     try {
       outside.write('outside.yaml', 'id: o\ndescription: d\n');
@@ -182,7 +182,14 @@ describe('extends errors, at the extends value', () => {
       expect(failed(loadPolicyFile(absolute, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-outside-root@3:10']);
       symlinkSync(outside.root, repo.path('linked'));
       const viaLink = repo.write('d.yaml', 'id: d\ndescription: d\nextends: linked/outside.yaml\n');
-      expect(failed(loadPolicyFile(viaLink, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-outside-root@3:10']);
+      expect(failed(loadPolicyFile(viaLink, { repoRoot: repo.root })).map(where)).toEqual(['policy/extends-symlink@3:10']);
+      // A link to a file inside the repository is refused too: it could swap one policy for another.
+      repo.write('lax.yaml', 'id: lax\ndescription: d\n');
+      symlinkSync(repo.path('lax.yaml'), repo.path('org.yaml'));
+      const viaFileLink = repo.write('e.yaml', 'id: e\ndescription: d\nextends: org.yaml\n');
+      const ds = failed(loadPolicyFile(viaFileLink, { repoRoot: repo.root }));
+      expect(ds.map(where)).toEqual(['policy/extends-symlink@3:10']);
+      expect(ds[0]!.message).toBe("extends 'org.yaml': org.yaml is a symbolic link; links are never followed (they could lead outside the repository), point the check at the file itself");
     } finally {
       outside.remove();
     }

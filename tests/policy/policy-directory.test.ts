@@ -74,11 +74,16 @@ describe('loadPolicyDirectory', () => {
     ]);
   });
 
-  test('a symbolic link to a policy file inside the repository counts as a file', () => {
+  test('a symbolic link, to a policy file or to the directory, is an error at the link and never followed', () => {
     repo.write('shared/a.yaml', policy('a'));
-    repo.write('policies/keep.txt', '');
+    repo.write('policies/b.yaml', policy('b'));
     symlinkSync(repo.path('shared/a.yaml'), repo.path('policies/a.yaml'));
-    expect(loadPolicyDirectory(repo.path('policies'), { repoRoot: repo.root }).policies.map((p) => p.id)).toEqual(['a']);
+    const r = loadPolicyDirectory(repo.path('policies'), { repoRoot: repo.root });
+    expect(r.policies.map((p) => p.id)).toEqual(['b']);
+    expect(r.diagnostics.map((d) => [d.file, where(d)])).toEqual([[repo.path('policies/a.yaml'), 'policy/symlink']]);
+    symlinkSync(repo.path('shared'), repo.path('linked'));
+    const linked = loadPolicyDirectory(repo.path('linked'), { repoRoot: repo.root });
+    expect([linked.policies, linked.diagnostics.map((d) => [d.file, where(d)])]).toEqual([[], [[repo.path('linked'), 'policy/symlink']]]);
   });
 
   test('a directory that cannot be read', () => {

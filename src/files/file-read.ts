@@ -5,13 +5,16 @@
  * submodule, an oversized file, an unresolved conflict, an object missing from the store.
  * Refusals become input errors naming the file; "absent" is a normal answer.
  */
-export type FileRead =
-  | { readonly kind: 'file'; readonly text: string }
-  | { readonly kind: 'absent' }
-  | { readonly kind: 'refused'; readonly code: RefusalCode; readonly message: string };
+export type FileRead = { readonly kind: 'file'; readonly text: string } | { readonly kind: 'absent' } | Refusal;
+
+export interface Refusal {
+  readonly kind: 'refused';
+  readonly code: RefusalCode;
+  readonly message: string;
+}
 
 export type RefusalCode = 'symlink' | 'directory' | 'special' | 'submodule' | 'too-large' | 'conflict' | 'missing-object' | 'unreadable';
 
-export function refused(code: RefusalCode, message: string): FileRead {
+export function refused(code: RefusalCode, message: string): Refusal {
   return { kind: 'refused', code, message };
 }
