@@ -2,7 +2,8 @@
  * Which findings become annotations on the pull request's diff. GitHub shows at most ten
  * annotations of each kind from one step and drops the rest without a word, so the plan keeps the
  * first ten of each kind and hands the others to the job summary, where a reviewer still sees
- * them. The kind follows the rule, not the finding's own level, so that the mapping is stated once.
+ * them. The kind follows the rule, not the finding's own level, so that the mapping is stated once;
+ * the one exception is a removed config, which the policy makes a warning or an error.
  */
 import type { Finding, FindingRule } from '../report/finding.js';
 
@@ -11,7 +12,7 @@ export type AnnotationKind = 'error' | 'warning' | 'notice';
 /** Per kind and step, the number GitHub displays. */
 export const ANNOTATIONS_PER_KIND = 10;
 
-const KIND_OF: Readonly<Record<FindingRule, AnnotationKind>> = {
+const KIND_OF: Readonly<Record<Exclude<FindingRule, 'config-removed'>, AnnotationKind>> = {
   'requirement-failed': 'error',
   'capacity-drop': 'error',
   'input-error': 'error',
@@ -26,8 +27,9 @@ export interface Annotation {
   readonly properties: {
     readonly title: string;
     readonly file: string;
-    readonly startLine: number;
-    readonly startColumn: number;
+    /** Absent for a finding on a file as a whole. */
+    readonly startLine?: number;
+    readonly startColumn?: number;
   };
 }
 
@@ -38,6 +40,7 @@ export interface AnnotationPlan {
 }
 
 export function kindOf(finding: Finding): AnnotationKind {
+  if (finding.rule === 'config-removed') return finding.level === 'error' ? 'error' : 'warning';
   return KIND_OF[finding.rule];
 }
 
@@ -55,7 +58,12 @@ export function planAnnotations(findings: readonly Finding[], perKind = ANNOTATI
     shown.push({
       kind,
       message: finding.message,
-      properties: { title: finding.title, file: finding.file, startLine: finding.line, startColumn: finding.column },
+      properties: {
+        title: finding.title,
+        file: finding.file,
+        ...(finding.line !== undefined ? { startLine: finding.line } : {}),
+        ...(finding.column !== undefined ? { startColumn: finding.column } : {}),
+      },
     });
   }
   return { shown, overflow };

@@ -5,6 +5,7 @@
  * module never touches the Actions toolkit and its rules can be tested as plain functions.
  */
 import { readFileSync } from 'node:fs';
+import { sarifCategoryProblem } from '../report/sarif.js';
 
 export interface ActionInputs {
   /** Policy file or directory, relative to the workspace. */
@@ -18,6 +19,10 @@ export interface ActionInputs {
   readonly unprovenFails: boolean;
   /** Where to write the SARIF log, relative to the workspace. */
   readonly sarif?: string;
+  /** The SARIF run's category, for matrix jobs that upload several logs for one commit. */
+  readonly sarifCategory?: string;
+  /** Where to write the JUnit report, relative to the workspace. */
+  readonly junit?: string;
 }
 
 export interface InputReader {
@@ -81,6 +86,17 @@ export function readInputs(reader: InputReader, event: WorkflowEvent): ActionInp
   const changedOnly = changedOnlyGiven ? boolean(reader, 'changed-only') : PULL_REQUEST_EVENTS.has(event.name);
   const unprovenFails = reader.get('fail-on-unproven') !== '' && boolean(reader, 'fail-on-unproven');
   const sarif = reader.get('sarif');
+  const junit = reader.get('junit');
+  for (const [name, value] of [['sarif', sarif], ['junit', junit]] as const) {
+    const problem = value === '' ? undefined : reportPathProblem(value);
+    if (problem) throw new ActionInputError(`the input \`${name}\`: ${problem}`);
+  }
+  const sarifCategory = reader.get('sarif-category');
+  if (sarifCategory !== '') {
+    if (sarif === '') throw new ActionInputError('the input `sarif-category` needs the input `sarif` (the path of the SARIF log)');
+    const problem = sarifCategoryProblem(sarifCategory);
+    if (problem) throw new ActionInputError(`the input \`sarif-category\`: ${problem}`);
+  }
   return {
     policy,
     configGlobs,
@@ -89,6 +105,8 @@ export function readInputs(reader: InputReader, event: WorkflowEvent): ActionInp
     changedOnlyGiven,
     unprovenFails,
     ...(sarif ? { sarif } : {}),
+    ...(sarifCategory ? { sarifCategory } : {}),
+    ...(junit ? { junit } : {}),
   };
 }
 
@@ -98,6 +116,14 @@ function globProblem(glob: string): string | undefined {
   if (body === '') return `the pattern '${glob}' is empty`;
   if (/^[/\\]/.test(body) || /^[A-Za-z]:/.test(body)) return `the pattern '${glob}' is absolute; patterns are relative to the repository root, e.g. 'models/*.yaml'`;
   if (body.split(/[/\\]/).includes('..')) return `the pattern '${glob}' has a '..' segment; patterns may not leave the repository root`;
+  return undefined;
+}
+
+// Report files are written into the workspace only: the checked-out pull request must not be able
+// to steer a write elsewhere on the runner (the writer also refuses links on the way).
+function reportPathProblem(path: string): string | undefined {
+  if (/^[/\\]/.test(path) || /^[A-Za-z]:/.test(path)) return `'${path}' is absolute; give a path relative to the workspace, e.g. 'reports/rankfloor.sarif'`;
+  if (path.split(/[/\\]/).includes('..')) return `'${path}' has a '..' segment; report files are written inside the workspace`;
   return undefined;
 }
 

@@ -2,36 +2,37 @@
  * The job summary of the action: what a reviewer reads on the run's page instead of the log. One
  * table per checked config with the requirement, the base and head capacity and the change in
  * bits, the full explanation of each failing requirement folded away in a <details> block, then
- * the policy notices, the input errors and whatever did not fit into annotations. It writes into
- * a sink with the shape of the Actions toolkit's summary builder, which is handed in, so the
- * summary can be rendered and tested without the toolkit.
+ * the configs the change took out of a policy's reach, the policy notices, the skipped files, the
+ * input errors and whatever did not fit into annotations.
+ *
+ * The summary is rendered as one HTML block. File names, messages and layer names come from the
+ * pull request, so every piece of text is escaped, line breaks included: a blank line would end
+ * the HTML block, and whatever followed it (`## rankfloor: pass`) would render as Markdown.
+ * GitHub refuses a step summary over 1 MiB, so whole sections are kept while they fit and a note
+ * then points to the JSON report, which has everything.
  */
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
 import { log2Big, type Bound } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
 import { bits } from '../report/bounds-text.js';
-import { explainRequirement } from '../report/check-text.js';
+import { explainRequirement, removalMessage } from '../report/check-text.js';
 import type { OverallVerdict } from '../report/check-json.js';
 import type { AnnotationKind, AnnotationPlan } from './annotations.js';
 import { requirementLabel, tallyRequirements } from './requirement-tally.js';
 
-export type SummaryCell = string | { readonly data: string; readonly header?: boolean };
+/** GitHub's limit for one step's summary ("supports content up to a size of 1024k"). */
+export const SUMMARY_LIMIT_BYTES = 1024 * 1024;
 
-/** The part of the toolkit's summary builder this module uses; it does not escape HTML. */
-export interface SummarySink {
-  addHeading(text: string, level?: number | string): unknown;
-  addTable(rows: SummaryCell[][]): unknown;
-  addDetails(label: string, content: string): unknown;
-  addRaw(text: string, addEOL?: boolean): unknown;
+export interface SummaryOptions {
+  /** Where the JSON report is, for the note on a cut summary. */
+  readonly reportPath?: string;
+  readonly limitBytes?: number;
 }
 
 const NONE = '—';
 
-const TABLE_HEAD: SummaryCell[] = ['partition', 'required (bits)', 'base (bits)', 'head (bits)', 'change (bits)', 'verdict'].map((data) => ({
-  data,
-  header: true,
-}));
+const TABLE_HEAD = ['partition', 'required (bits)', 'base (bits)', 'head (bits)', 'change (bits)', 'verdict'];
 
 const KIND_WORDS: Readonly<Record<AnnotationKind, readonly [string, string]>> = {
   error: ['error', 'errors'],
@@ -39,29 +40,44 @@ const KIND_WORDS: Readonly<Record<AnnotationKind, readonly [string, string]>> = 
   notice: ['notice', 'notices'],
 };
 
-export function writeJobSummary(sink: SummarySink, outcome: CheckOutcome, verdict: OverallVerdict, overflow: AnnotationPlan['overflow']): void {
-  sink.addHeading(`rankfloor: ${verdict}`, 2);
-  sink.addRaw(`<p>${escapeHtml(headline(outcome))}</p>`, true);
-  for (const c of outcome.checked) writeConfig(sink, c);
-  if (outcome.notices.length > 0) {
-    sink.addHeading('Policy notices', 3);
-    sink.addRaw(list(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)), true);
-  }
+/** The whole summary, each line ending in '\n'; no line is blank. */
+export function renderJobSummary(outcome: CheckOutcome, verdict: OverallVerdict, overflow: AnnotationPlan['overflow'], options: SummaryOptions = {}): string {
+  const head = [heading(2, `rankfloor: ${verdict}`), `<p>${escapeHtml(headline(outcome))}</p>\n`].join('');
+  const sections: string[] = outcome.checked.map(configSection);
+  if (outcome.notices.length > 0) sections.push(heading(3, 'Policy notices') + list(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)));
+  if (outcome.skipped.length > 0) sections.push(heading(3, 'Selected but not checked') + list(outcome.skipped.map((x) => `${x.path}: ${x.reason}`)));
   const errors = outcome.errors.filter((e) => e.severity === 'error');
-  if (errors.length > 0) {
-    sink.addHeading('Input errors', 3);
-    sink.addRaw(list(errors.map(formatDiagnosticLine)), true);
-  }
+  if (errors.length > 0) sections.push(heading(3, 'Input errors') + list(errors.map(formatDiagnosticLine)));
   if (overflow.length > 0) {
-    sink.addHeading('Not shown as annotations', 3);
+    let s = heading(3, 'Not shown as annotations');
     for (const kind of ['error', 'warning', 'notice'] as const) {
       const rest = overflow.filter((o) => o.kind === kind);
       if (rest.length === 0) continue;
       // GitHub displays ten annotations of a kind per step; these would have been dropped silently.
-      sink.addRaw(`<p>${rest.length} more ${KIND_WORDS[kind][rest.length === 1 ? 0 : 1]}:</p>`, true);
-      sink.addRaw(list(rest.map(({ finding: f }) => `${f.file}:${f.line}:${f.column}: ${f.title}`)), true);
+      s += `<p>${rest.length} more ${KIND_WORDS[kind][rest.length === 1 ? 0 : 1]}:</p>\n`;
+      s += list(rest.map(({ finding: f }) => `${f.file}${f.line !== undefined ? `:${f.line}:${f.column ?? 1}` : ''}: ${f.title}`));
     }
+    sections.push(s);
   }
+  return fit(head, sections, options);
+}
+
+function fit(head: string, sections: readonly string[], options: SummaryOptions): string {
+  const limit = options.limitBytes ?? SUMMARY_LIMIT_BYTES;
+  const size = (s: string): number => Buffer.byteLength(s, 'utf8');
+  const whole = head + sections.join('');
+  if (size(whole) <= limit) return whole;
+  const note = (left: number): string =>
+    `<p><strong>${escapeHtml(
+      `This summary stops here to stay under GitHub's 1 MiB limit for a step summary; ${left} more section${left === 1 ? '' : 's'} ` +
+        `(configs, notices, errors) are in the JSON report${options.reportPath ? ` at ${options.reportPath}` : ''} (the action's \`report\` output).`,
+    )}</strong></p>\n`;
+  let out = head;
+  let kept = 0;
+  // The note is measured with the largest count it can show, so that adding it never overflows.
+  const reserve = size(note(sections.length));
+  while (kept < sections.length && size(out) + size(sections[kept]!) + reserve <= limit) out += sections[kept++];
+  return out + note(sections.length - kept);
 }
 
 function headline(outcome: CheckOutcome): string {
@@ -77,29 +93,29 @@ function headline(outcome: CheckOutcome): string {
   );
 }
 
-function writeConfig(sink: SummarySink, c: CheckedConfig): void {
-  sink.addHeading(escapeHtml(`${c.file} — policy ${c.policy.id}`), 3);
+function configSection(c: CheckedConfig): string {
+  let s = heading(3, `${c.file} — policy ${c.policy.id}`);
   const r = c.result;
-  if (!r) {
-    sink.addRaw('<p>Deleted by this change: nothing to check.</p>', true);
-    return;
-  }
-  if (c.comparison === 'new') sink.addRaw('<p>New config: no base version to compare with.</p>', true);
+  if (!r) return s + `<p>${escapeHtml(`${c.failing ? 'Failing' : 'Warning'}: ${removalMessage(c)}.`)}</p>\n`;
+  if (c.comparison === 'new') s += '<p>New config: no base version to compare with.</p>\n';
+  if (c.renamedFrom !== undefined) s += `<p>${escapeHtml(`Renamed from ${c.renamedFrom}; compared with its base version there.`)}</p>\n`;
   const rows = r.requirements.map((q, i) => row(q, c.deltas?.[i]));
-  sink.addTable([TABLE_HEAD, ...rows]);
+  s += `<table><tr>${TABLE_HEAD.map((h) => `<th>${escapeHtml(h)}</th>`).join('')}</tr>${rows.map((cells) => `<tr>${cells.map((x) => `<td>${escapeHtml(x)}</td>`).join('')}</tr>`).join('')}</table>\n`;
   r.requirements.forEach((q, i) => {
     const d = c.deltas?.[i];
     const label = requirementLabel(q, d);
     if (!label.startsWith('fail')) return;
-    sink.addDetails(escapeHtml(`${q.requirement.partition}: ${label} — why, and what restores it`), `<pre>${escapeHtml(explainRequirement(q, d).join('\n'))}</pre>`);
+    const summary = escapeHtml(`${q.requirement.partition}: ${label} — why, and what restores it`);
+    s += `<details><summary>${summary}</summary><pre>${escapeHtml(explainRequirement(q, d).join('\n'))}</pre></details>\n`;
   });
+  return s;
 }
 
-function row(q: RequirementResult, d: RequirementDelta | undefined): SummaryCell[] {
+function row(q: RequirementResult, d: RequirementDelta | undefined): string[] {
   const head = capacity(q.bounds.upper, q.bounds.lower);
   const base = d?.base ? capacity(d.base.upper, d.base.lower) : NONE;
   const change = d?.changeBits === null || d?.changeBits === undefined ? NONE : signed(d.changeBits);
-  return [q.requirement.partition, bits(log2Big(q.requirement.minRank)), base, head, change, requirementLabel(q, d)].map(escapeHtml);
+  return [q.requirement.partition, bits(log2Big(q.requirement.minRank)), base, head, change, requirementLabel(q, d)];
 }
 
 /** Exact when the bounds meet, a range when both are known, else only the ceiling. */
@@ -114,10 +130,24 @@ function signed(x: number): string {
   return x > 0 ? `+${s}` : s === '-0.00' ? '0.00' : s;
 }
 
-function list(items: readonly string[]): string {
-  return `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>`;
+function heading(level: number, text: string): string {
+  return `<h${level}>${escapeHtml(text)}</h${level}>\n`;
 }
 
+function list(items: readonly string[]): string {
+  return `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join('')}</ul>\n`;
+}
+
+/**
+ * Text for HTML content and attributes, on one line: line breaks become character references,
+ * which a <pre> still shows as line breaks but which cannot end the HTML block.
+ */
 export function escapeHtml(s: string): string {
-  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+  return s
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/\r/g, '&#13;')
+    .replace(/\n/g, '&#10;');
 }

@@ -8,25 +8,23 @@
  * wrong, and nothing can hide a 2.
  */
 import { randomUUID } from 'node:crypto';
-import { existsSync } from 'node:fs';
 import { EOL, tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import * as core from '@actions/core';
 import { findingsOf } from '../check/findings.js';
 import { ReportWriteError, writeReport } from '../check/write-report.js';
-import { findRepoRoot } from '../check/repo-files.js';
 import { CheckRequestError, runCheck, type CheckOutcome } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
-import { GitError, openRepo } from '../git/git.js';
+import { GitError } from '../git/git.js';
 import { checkJson, overallVerdict } from '../report/check-json.js';
 import { checkText } from '../report/check-text.js';
+import { junitReport } from '../report/junit.js';
 import { sarifText } from '../report/sarif.js';
 import { TOOL_VERSION } from '../version.js';
 import { planAnnotations } from './annotations.js';
 import { ActionInputError, readInputs, readWorkflowEvent, type ActionInputs } from './inputs.js';
 import { tallyRequirements } from './requirement-tally.js';
-import { selectConfigs } from './select-configs.js';
-import { writeJobSummary } from './job-summary.js';
+import { renderJobSummary } from './job-summary.js';
 
 const EXIT_INPUT = 2;
 const REPORT_NAME = 'rankfloor-report.json';
@@ -71,14 +69,17 @@ async function check(): Promise<void> {
 
   const reportPath = resolve(process.env['RUNNER_TEMP'] || tmpdir(), REPORT_NAME);
   writeReport(reportPath, checkJson(outcome));
-  if (inputs.sarif) writeReport(resolve(cwd, inputs.sarif), sarifText(findings, { version: TOOL_VERSION }), { inside: cwd });
+  // Inside the workspace only: the paths are inputs, and the workspace holds the pull request.
+  const sarifOptions = { version: TOOL_VERSION, ...(inputs.sarifCategory ? { category: inputs.sarifCategory } : {}) };
+  if (inputs.sarif) writeReport(resolve(cwd, inputs.sarif), sarifText(findings, sarifOptions), { inside: cwd });
+  if (inputs.junit) writeReport(resolve(cwd, inputs.junit), junitReport(outcome), { inside: cwd });
   const tally = tallyRequirements(outcome);
   core.setOutput('verdict', verdict);
   core.setOutput('failed', tally.failing);
   core.setOutput('report', reportPath);
 
   if (process.env['GITHUB_STEP_SUMMARY']) {
-    writeJobSummary(core.summary, outcome, verdict, plan.overflow);
+    core.summary.addRaw(renderJobSummary(outcome, verdict, plan.overflow, { reportPath }));
     try {
       await core.summary.write();
     } catch (e) {
@@ -94,33 +95,25 @@ async function check(): Promise<void> {
     const more = inputErrors.length > 1 ? ` (and ${inputErrors.length - 1} more)` : '';
     core.setFailed(`rankfloor: cannot check every config: ${first}${more}`);
     process.exitCode = EXIT_INPUT;
-  } else if (tally.failing > 0) {
-    const configs = outcome.checked.filter((c) => c.failing).length;
-    core.setFailed(
-      `rankfloor: ${tally.failing} failing requirement${tally.failing === 1 ? '' : 's'} in ${configs} config${configs === 1 ? '' : 's'}; see the annotations and the job summary`,
-    );
+  } else if (outcome.checked.some((c) => c.failing)) {
+    const plural = (n: number, one: string): string => `${n} ${one}${n === 1 ? '' : 's'}`;
+    const configs = outcome.checked.filter((c) => c.failing && c.result).length;
+    const removed = outcome.checked.filter((c) => c.failing && !c.result).length;
+    const parts = [
+      ...(tally.failing > 0 ? [`${plural(tally.failing, 'failing requirement')} in ${plural(configs, 'config')}`] : []),
+      ...(removed > 0 ? [`${plural(removed, 'governed config')} removed from ${removed === 1 ? 'its policy' : 'their policies'}`] : []),
+    ];
+    core.setFailed(`rankfloor: ${parts.join('; ')}; see the annotations and the job summary`);
   }
 }
 
 function checkConfigs(cwd: string, inputs: ActionInputs): CheckOutcome {
-  let configs: string[] = [];
-  if (inputs.configGlobs.length > 0) {
-    const root = openRepo(cwd)?.root ?? findRepoRoot(cwd);
-    configs = selectConfigs(root, inputs.configGlobs).map((p) => join(root, p));
-    // An empty list would mean "every governed config" to the check, the opposite of what the
-    // globs asked for.
-    if (configs.length === 0) {
-      if (inputs.base === undefined && !existsSync(resolve(cwd, inputs.policy))) {
-        throw new ActionInputError(`the input \`policy\`: ${inputs.policy}: no such file or directory`);
-      }
-      core.info('the `configs` globs match no YAML file in the workspace: nothing to check');
-      return { root, checked: [], notices: [], errors: [] };
-    }
-  }
   return runCheck({
     cwd,
     policy: inputs.policy,
-    configs,
+    configs: [],
+    // Globs that match nothing check nothing, not every governed config.
+    ...(inputs.configGlobs.length > 0 ? { configGlobs: inputs.configGlobs } : {}),
     ...(inputs.base !== undefined ? { base: inputs.base } : {}),
     changed: inputs.changedOnly && inputs.base !== undefined,
     unprovenFails: inputs.unprovenFails,

@@ -2,13 +2,14 @@
  * The check outcome as findings: what failed, where a reviewer should look, in one list that
  * annotations, SARIF and the job summary all render. A failing requirement points at the changed
  * field that lies on the minimal cut when the comparison found one (the line of the pull request
- * that shrank it), else at the bottleneck layer.
+ * that shrank it), else at the bottleneck layer. A config the change took out of a policy's reach
+ * (deleted, or renamed where the policy does not look) is a finding on the file as a whole.
  */
 import { resolve } from 'node:path';
 import type { Diagnostic } from '../diagnostic.js';
 import type { Finding } from '../report/finding.js';
-import { explainRequirement } from '../report/check-text.js';
-import type { CheckOutcome } from './run-check.js';
+import { explainRequirement, removalMessage } from '../report/check-text.js';
+import type { CheckedConfig, CheckOutcome } from './run-check.js';
 import { toRootRelative } from './repo-files.js';
 
 export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
@@ -26,6 +27,10 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
     });
   }
   for (const c of outcome.checked) {
+    if (c.comparison === 'deleted' || c.comparison === 'moved-out') {
+      out.push(removalFinding(c));
+      continue;
+    }
     if (!c.result) continue;
     c.result.requirements.forEach((q, i) => {
       const d = c.deltas?.[i];
@@ -55,15 +60,29 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
 }
 
 function errorFinding(e: Diagnostic, root: string, cwd: string): Finding {
-  const path = toRootRelative(root, resolve(cwd, e.file));
+  const relative = toRootRelative(root, resolve(cwd, e.file));
+  // A file outside the root (or the root itself) keeps the name it was given.
+  const path = relative === '' || relative === '..' || relative.startsWith('../') ? e.file : relative;
   return {
     rule: 'input-error',
     level: 'error',
     title: `cannot check ${e.file}`,
     message: `${e.message} [${e.code}]`,
     file: path,
-    line: e.span?.line ?? 1,
-    column: e.span?.column ?? 1,
+    ...(e.span ? { line: e.span.line, column: e.span.column } : {}),
     fingerprint: `input-error|${path}|${e.code}|${e.span?.offset ?? 0}`,
+  };
+}
+
+function removalFinding(c: CheckedConfig): Finding {
+  // A deleted file has no line to point at; a moved one is pointed at where it went.
+  const file = c.movedTo?.path ?? c.path;
+  return {
+    rule: 'config-removed',
+    level: c.failing ? 'error' : 'warning',
+    title: `${c.path}: ${c.movedTo ? 'moved out of' : 'deleted from'} policy ${c.policy.id}`,
+    message: removalMessage(c),
+    file,
+    fingerprint: `config-removed|${c.path}|${c.policy.id}`,
   };
 }

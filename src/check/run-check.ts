@@ -1,23 +1,33 @@
 /**
  * The whole `check` job as data, shared by the CLI and the GitHub Action: pick the policies (from
  * the base revision by default, so a pull request cannot loosen its own gate), pick the configs,
- * evaluate the head and, when comparing, the base; attribute changes to the minimal cut. Nothing
- * here prints. Input errors are collected, never thrown, so every other file is still checked.
+ * evaluate the head and, when comparing, the base; attribute changes to the minimal cut; report
+ * what a change removed from a policy's reach and what could not be checked. Nothing here prints.
+ * Input errors are collected, never thrown, so every other file is still checked.
+ *
+ * A comparison costs a fixed number of git processes, whatever the number of configs: the base
+ * tree is listed once and read in batches (git/revision-files.ts), one diff gives the changed
+ * files and the renames, and git lists the working tree once.
  */
-import { readFileSync, statSync } from 'node:fs';
 import { relative, resolve, sep } from 'node:path';
+import picomatch from 'picomatch';
 import { dedupeDiagnostics, type Diagnostic } from '../diagnostic.js';
-import { loadConfigText } from '../config/load-config.js';
-import type { Model } from '../config/model.js';
-import { diffModels, type FieldChange } from '../config/model-diff.js';
-import { duplicateIdDiagnostic, loadPolicyDirectory, loadPolicyFile, loadPolicyText, policyApplies } from '../policy/load-policy.js';
-import type { Policy, Requirement } from '../policy/policy.js';
-import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
-import { searchFixes, type Fix } from '../policy/fix-search.js';
+import type { FieldChange } from '../config/model-diff.js';
+import { couldMatchBelow, policyApplies } from '../policy/applies-to.js';
+import type { Policy } from '../policy/policy.js';
+import type { PolicyResult } from '../policy/evaluate.js';
+import type { Fix } from '../policy/fix-search.js';
 import type { Bound } from '../cut/types.js';
-import { changedFiles, ensureCommit, GitError, openRepo, readAtRevision, readStaged, resolveCommit, stagedFiles, type Repo } from '../git/git.js';
-import { listFilesAtRevision } from '../git/list-tree.js';
-import { findRepoRoot, listYamlFiles, toRootRelative } from './repo-files.js';
+import { changesSince, ensureCommit, openRepo, resolveCommit, RevisionFiles, stagedChanges, type Changes, type Repo } from '../git/git.js';
+import { symlinkMessage } from '../files/work-tree.js';
+import { compareConfig } from './compare-config.js';
+import { discoverConfigs, YAML_FILE, type Selector, type SkippedPath } from './discover-configs.js';
+import { indexFiles, workTreeFiles, type HeadFiles } from './head-files.js';
+import { JudgingFiles } from './judging-files.js';
+import { loadJudgingPolicies, MissingPolicyError } from './load-judging-policies.js';
+import { findRepoRoot, toRootRelative } from './repo-files.js';
+
+export type { SkippedPath } from './discover-configs.js';
 
 export interface CheckRequest {
   readonly cwd: string;
@@ -25,8 +35,10 @@ export interface CheckRequest {
   readonly root?: string;
   /** Policy file or directory, relative to cwd. */
   readonly policy: string;
-  /** Configs relative to cwd; empty: every config the policies' `applies_to` match. */
+  /** Configs relative to cwd; empty: every config the policies' `applies_to` (or `configGlobs`) match. */
   readonly configs: readonly string[];
+  /** Root-relative globs (a leading ! excludes) that narrow the configs when none is named. */
+  readonly configGlobs?: readonly string[];
   /** Compare with this revision. */
   readonly base?: string;
   /** Only configs that differ from the base, plus those governed by a changed policy. */
@@ -56,9 +68,17 @@ export interface CheckedConfig {
   /** Root-relative, forward slashes: what annotations and SARIF name. */
   readonly path: string;
   readonly policy: Policy;
-  /** Absent when the config was deleted by the change. */
+  /** Absent when the change removed the config from the policy's reach. */
   readonly result?: PolicyResult;
-  readonly comparison: 'none' | 'new' | 'deleted' | 'compared';
+  /**
+   * `deleted`: governed at the base, gone from the head. `moved-out`: renamed to a path the policy
+   * does not check (outside applies_to, another extension, a link); see `movedTo`.
+   */
+  readonly comparison: 'none' | 'new' | 'deleted' | 'moved-out' | 'compared';
+  /** The base path of a renamed config, which was compared with its old self. */
+  readonly renamedFrom?: string;
+  /** Where a moved-out config went, and why the policy does not check it there. */
+  readonly movedTo?: { readonly path: string; readonly why: string };
   /** Parallel to result.requirements when compared. */
   readonly deltas?: readonly RequirementDelta[];
   readonly changes: readonly FieldChange[];
@@ -77,6 +97,8 @@ export interface CheckOutcome {
   readonly base?: string;
   readonly checked: readonly CheckedConfig[];
   readonly notices: readonly PolicyNotice[];
+  /** Files a policy (or the request) selects that are not checked, with the reason. */
+  readonly skipped: readonly SkippedPath[];
   readonly errors: readonly Diagnostic[];
 }
 
@@ -85,12 +107,10 @@ export class CheckRequestError extends Error {
   override readonly name = 'CheckRequestError';
 }
 
-interface Sources {
-  readonly repo?: Repo;
-  readonly base?: string;
-  /** Text of a root-relative path in the head: the working tree, or the index with --staged. */
-  readonly head: (path: string) => string | null;
-}
+const CHANGED_POLICY =
+  "the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
+const DELETED_POLICY =
+  "the pull request deletes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
 
 export function runCheck(req: CheckRequest): CheckOutcome {
   const repo = openRepo(req.cwd);
@@ -99,44 +119,129 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   if (comparing && !repo) throw new CheckRequestError(`${req.staged ? '--staged' : '--base'} needs a git repository; ${req.cwd} is not in one`);
   const base = comparing ? resolveBase(repo!, req) : undefined;
   const display = (path: string): string => relative(req.cwd, resolve(root, path)).split(sep).join('/') || path;
-  const sources: Sources = {
-    ...(repo ? { repo } : {}),
-    ...(base ? { base } : {}),
-    head: (path) => (req.staged ? readStaged(repo!, path) : readWorkTree(root, path)),
-  };
   const errors: Diagnostic[] = [];
-  const notices: PolicyNotice[] = [];
-  const policyRel = toRootRelative(root, resolve(req.cwd, req.policy));
-  const loadedPolicies = loadPolicies(req, root, policyRel, sources, display, errors, notices);
-  const policies = req.unprovenFails
-    ? loadedPolicies.map((p) => ({ ...p, unproven: 'fail' as const, requirements: p.requirements.map((r) => ({ ...r, unproven: 'fail' as const })) }))
-    : loadedPolicies;
 
-  // Which (config, policy) pairs to check.
-  const singleFile = !isDirectoryAnywhere(root, policyRel, sources);
-  const candidates = new Set<string>();
-  if (req.configs.length > 0) for (const c of req.configs) candidates.add(toRootRelative(root, resolve(req.cwd, c)));
-  else {
-    for (const f of req.staged ? stagedFiles(repo!).map((s) => s.path) : listYamlFiles(root)) candidates.add(f);
-    if (base && !req.staged) for (const f of listFilesAtRevision(repo!, base, '')) if (/\.ya?ml$/i.test(f)) candidates.add(f);
+  // The two sides. Everything that judges comes from the base when it has it.
+  const baseFiles = base ? RevisionFiles.atCommit(repo!, base) : undefined;
+  const index = req.staged ? RevisionFiles.inIndex(repo!) : undefined;
+  const head: HeadFiles = index ? indexFiles(index) : workTreeFiles(root);
+  const judging = new JudgingFiles((req.policyFrom ?? 'base') === 'base' ? baseFiles : undefined, head);
+
+  const policyRel = toRootRelative(root, resolve(req.cwd, req.policy));
+  if (policyRel === '..' || policyRel.startsWith('../') || policyRel === '' || /^[A-Za-z]:/.test(policyRel)) {
+    throw new CheckRequestError(`--policy ${req.policy}: policies are read from inside the repository root ${root} (give --root)`);
   }
-  let selected = [...candidates].sort();
-  if ((req.changed || req.staged) && base && repo) {
-    const changed = new Set((req.staged ? stagedFiles(repo) : changedFiles(repo, base, { against: 'worktree' })).map((c) => c.path));
+  // The loaders resolve paths against the process's working directory and report them as given:
+  // short relative paths when that is the request's cwd, absolute ones otherwise.
+  const loaderPath = (rel: string): string => (resolve(req.cwd) === process.cwd() ? display(rel) : resolve(root, rel));
+  let loaded;
+  try {
+    loaded = loadJudgingPolicies(judging, { rel: policyRel, root, display, loaderPath }, errors);
+  } catch (e) {
+    if (!(e instanceof MissingPolicyError)) throw e;
+    throw new CheckRequestError(`--policy ${req.policy}: no such file or directory${base ? ' at the base revision or in the working tree' : ''}`);
+  }
+  const notices: PolicyNotice[] = judging.headChanges().map((c) => ({
+    file: display(c.path),
+    path: c.path,
+    line: c.line,
+    message: c.deleted ? DELETED_POLICY : CHANGED_POLICY,
+  }));
+  for (const { path, refusal } of judging.headRefusals()) errors.push({ code: `policy/${refusal.code === 'symlink' ? 'symlink' : 'unreadable'}`, message: refusal.message, file: display(path), severity: 'error' });
+  const policies = req.unprovenFails
+    ? loaded.policies.map((p) => ({ ...p, unproven: 'fail' as const, requirements: p.requirements.map((r) => ({ ...r, unproven: 'fail' as const })) }))
+    : loaded.policies;
+
+  // Which files are candidates, on each side.
+  const explicit = req.configs.length > 0 || req.configGlobs !== undefined;
+  const singleFile = !loaded.directory;
+  const selector = req.configGlobs !== undefined ? globSelector(req.configGlobs) : policySelector(policies);
+  const skipped: SkippedPath[] = [];
+  const headPaths = new Set<string>();
+  const basePaths = new Set<string>();
+  if (req.configs.length > 0) {
+    for (const c of req.configs) {
+      const rel = toRootRelative(root, resolve(req.cwd, c));
+      if (rel === '' || rel === '..' || rel.startsWith('../') || /^[A-Za-z]:/.test(rel)) {
+        errors.push({ code: 'config/outside-root', message: `the config is outside the repository root ${root}; only files inside the repository are read`, file: c, severity: 'error' });
+      } else {
+        headPaths.add(rel);
+        basePaths.add(rel);
+      }
+    }
+  } else if (index) {
+    for (const f of stagedChanges(repo!).files) if (selector.matches(f.path)) headPaths.add(f.path);
+  } else {
+    const found = discoverConfigs(root, repo, selector);
+    for (const f of found.files) headPaths.add(f);
+    for (const l of found.links) errors.push({ code: 'config/symlink', message: symlinkMessage(l.path, l.link), file: display(l.path), severity: 'error' });
+    skipped.push(...found.skipped);
+  }
+  if (baseFiles && req.configs.length === 0) for (const p of baseFiles.paths()) if (YAML_FILE.test(p) && selector.matches(p)) basePaths.add(p);
+
+  // What changed, and which deletions and additions git paired as renames.
+  const changes: Changes | undefined = base ? (index ? stagedChanges(repo!) : changesSince(repo!, base, { against: 'worktree' })) : undefined;
+  const renamedFrom = new Map<string, string>();
+  for (const [from, to] of changes?.renames ?? []) renamedFrom.set(to, from);
+  let selected = [...new Set([...headPaths, ...basePaths])].sort();
+  if ((req.changed || req.staged) && changes) {
+    const changed = new Set(changes.files.map((c) => c.path));
     const policyChanged = (p: Policy): boolean => p.chain.some((f) => changed.has(toRootRelative(root, resolve(req.cwd, f))));
     selected = selected.filter((f) => changed.has(f) || policies.some((p) => policyChanged(p) && policyApplies(p, f)));
   }
+
+  const readHead = (rel: string) => head.read(rel);
+  const readBase = baseFiles ? (rel: string) => baseFiles.read(rel) : undefined;
+  const governs = (p: Policy, path: string): boolean => (explicit && singleFile) || policyApplies(p, path);
+  const checkable = (p: Policy, path: string): string | undefined => {
+    if (!governs(p, path)) return `outside the applies_to of policy ${p.id}`;
+    if (!YAML_FILE.test(path)) return 'not a YAML file (.yaml or .yml)';
+    const r = head.read(path);
+    return r.kind === 'file' ? undefined : r.kind === 'refused' ? r.message : 'not there';
+  };
+  const baseOf = (path: string): string | undefined => {
+    if (!baseFiles) return undefined;
+    if (baseFiles.entry(path)) return path;
+    const from = renamedFrom.get(path);
+    return from !== undefined && baseFiles.entry(from) && !head.has(from) ? from : undefined;
+  };
+  index?.prefetch(selected);
+  baseFiles?.prefetch(selected.flatMap((p) => [p, renamedFrom.get(p) ?? p]));
+
   const checked: CheckedConfig[] = [];
+  const policySkipped = new Set<string>();
   for (const path of selected) {
+    const there = head.has(path);
     for (const policy of policies) {
-      const explicit = req.configs.length > 0 && singleFile;
-      if (!explicit && !policyApplies(policy, path)) continue;
-      if (path === policyRel || policy.chain.some((f) => toRootRelative(root, resolve(req.cwd, f)) === path)) continue;
-      const one = checkOne(path, display(path), policy, sources, errors);
-      if (one) checked.push(one);
+      if (!governs(policy, path)) continue;
+      if (loaded.files.has(path)) {
+        if (there && !policySkipped.has(path)) skipped.push({ path, reason: 'a policy file of this check, not a config' });
+        policySkipped.add(path);
+        continue;
+      }
+      if (there || !baseFiles?.entry(path)) {
+        const one = compareConfig(path, baseOf(path), display(path), policy, { head: readHead, ...(readBase ? { base: readBase } : {}) }, errors);
+        if (one) checked.push(one);
+        continue;
+      }
+      // Governed at the base, not in the head: deleted, or renamed somewhere this policy does not check.
+      const to = changes?.renames.get(path);
+      const why = to === undefined ? undefined : checkable(policy, to);
+      if (to !== undefined && why === undefined) continue; // compared at its new path
+      const failing = policy.removal === 'fail';
+      checked.push({
+        file: display(path),
+        path,
+        policy,
+        comparison: to === undefined ? 'deleted' : 'moved-out',
+        ...(to !== undefined ? { movedTo: { path: to, why: why! } } : {}),
+        changes: [],
+        failing,
+      });
     }
   }
-  return { root, ...(base ? { base } : {}), checked, notices, errors: dedupeDiagnostics(errors) };
+  skipped.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
+  return { root, ...(base ? { base } : {}), checked, notices, skipped, errors: dedupeDiagnostics(errors) };
 }
 
 function resolveBase(repo: Repo, req: CheckRequest): string | undefined {
@@ -152,185 +257,20 @@ function resolveBase(repo: Repo, req: CheckRequest): string | undefined {
   throw new CheckRequestError(`--base ${rev}: no such commit in this repository; check out with full history (for example fetch-depth: 0)`);
 }
 
-function readWorkTree(root: string, path: string): string | null {
-  try {
-    return readFileSync(resolve(root, path), 'utf8');
-  } catch {
-    return null;
-  }
+function policySelector(policies: readonly Policy[]): Selector {
+  return {
+    matches: (path) => policies.some((p) => policyApplies(p, path)),
+    couldMatchBelow: (dir) => policies.some((p) => couldMatchBelow(p.appliesTo, dir)),
+  };
 }
 
-function isDirectoryAnywhere(root: string, policyRel: string, s: Sources): boolean {
-  try {
-    if (statSync(resolve(root, policyRel)).isDirectory()) return true;
-  } catch {
-    // not in the working tree: look at the base
-  }
-  return s.repo && s.base ? listFilesAtRevision(s.repo, s.base, policyRel).some((f) => f !== policyRel) : false;
-}
-
-function loadPolicies(
-  req: CheckRequest,
-  root: string,
-  policyRel: string,
-  s: Sources,
-  display: (p: string) => string,
-  errors: Diagnostic[],
-  notices: PolicyNotice[],
-): Policy[] {
-  const policyPath = resolve(req.cwd, req.policy);
-  // The loaders resolve paths against the process's working directory and report them as given:
-  // short relative paths when that is the request's cwd, absolute ones otherwise.
-  const loaderPath = (rel: string): string => (resolve(req.cwd) === process.cwd() ? display(rel) : resolve(root, rel));
-  const fromBase = s.base !== undefined && (req.policyFrom ?? 'base') === 'base';
-  if (!s.base) {
-    let isDir: boolean;
-    try {
-      isDir = statSync(policyPath).isDirectory();
-    } catch {
-      throw new CheckRequestError(`--policy ${req.policy}: no such file or directory`);
-    }
-    if (isDir) {
-      const loaded = loadPolicyDirectory(loaderPath(policyRel), { repoRoot: root });
-      errors.push(...loaded.diagnostics);
-      return loaded.policies;
-    }
-    const loaded = loadPolicyFile(loaderPath(policyRel), { repoRoot: root });
-    if (!loaded.ok) errors.push(...loaded.diagnostics);
-    return loaded.ok ? [loaded.policy] : [];
-  }
-  // Comparing: every policy file of the base and of the head.
-  const repo = s.repo!;
-  const base = s.base;
-  const isDir = isDirectoryAnywhere(root, policyRel, s);
-  const files = new Set<string>();
-  if (isDir) {
-    for (const f of listFilesAtRevision(repo, base, policyRel)) if (isDirectChild(policyRel, f)) files.add(f);
-    try {
-      for (const f of listYamlFiles(resolve(root, policyRel))) if (!f.includes('/')) files.add(`${policyRel}/${f}`);
-    } catch {
-      // the head deleted the directory: the base still governs
-    }
-  } else files.add(policyRel);
-  const policies: Policy[] = [];
-  const ids = new Map<string, string>();
-  for (const f of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
-    const headText = s.head(f) ?? readWorkTree(root, f);
-    const baseText = readAtRevision(repo, base, f);
-    const useBase = fromBase && baseText !== null;
-    const text = useBase ? baseText : headText;
-    if (text === null) {
-      if (!isDir) throw new CheckRequestError(`--policy ${req.policy}: no such file at the base or in the working tree`);
-      continue;
-    }
-    if (useBase && headText !== null && headText !== baseText) {
-      notices.push({
-        file: display(f),
-        path: f,
-        line: firstDifferentLine(baseText, headText),
-        message: `the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)`,
-      });
-    }
-    const readAt = (abs: string): string => {
-      const rel = toRootRelative(root, abs);
-      const t = useBase ? readAtRevision(repo, base, rel) : (s.head(rel) ?? readWorkTree(root, rel));
-      if (t === null) throw Object.assign(new Error(`${rel} does not exist`), { code: 'ENOENT' });
-      return t;
-    };
-    const loaded = loadPolicyText(text, loaderPath(f), { repoRoot: root }, readAt);
-    if (!loaded.ok) {
-      errors.push(...loaded.diagnostics);
-      continue;
-    }
-    const earlier = ids.get(loaded.policy.id);
-    if (earlier !== undefined) {
-      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f), loaded.policy.span));
-      continue;
-    }
-    ids.set(loaded.policy.id, display(f));
-    policies.push(loaded.policy);
-  }
-  return policies;
-}
-
-function isDirectChild(dir: string, path: string): boolean {
-  const prefix = dir === '' || dir === '.' ? '' : `${dir.replace(/\/+$/, '')}/`;
-  return path.startsWith(prefix) && !path.slice(prefix.length).includes('/');
-}
-
-function firstDifferentLine(a: string, b: string): number {
-  const x = a.split('\n');
-  const y = b.split('\n');
-  for (let i = 0; i < Math.max(x.length, y.length); i++) if (x[i] !== y[i]) return Math.min(i + 1, y.length);
-  return 1;
-}
-
-function load(text: string, file: string, policy: Policy, errors: Diagnostic[]): Model | undefined {
-  const loaded = loadConfigText(text, file, policy.modelPath === undefined ? {} : { modelPath: policy.modelPath });
-  if (!loaded.ok) {
-    errors.push(...loaded.diagnostics);
-    return undefined;
-  }
-  return loaded.model;
-}
-
-function checkOne(path: string, file: string, policy: Policy, s: Sources, errors: Diagnostic[]): CheckedConfig | undefined {
-  let headText: string | null;
-  let baseText: string | null = null;
-  try {
-    headText = s.head(path);
-    if (s.repo && s.base) baseText = readAtRevision(s.repo, s.base, path);
-  } catch (e) {
-    if (!(e instanceof GitError)) throw e;
-    errors.push({ code: 'git/read', message: e.message, file, severity: 'error' });
-    return undefined;
-  }
-  if (headText === null) {
-    if (baseText !== null) return { file, path, policy, comparison: 'deleted', changes: [], failing: false };
-    errors.push({ code: 'config/unreadable', message: 'cannot read the config file: it does not exist', file, severity: 'error' });
-    return undefined;
-  }
-  const head = load(headText, file, policy, errors);
-  if (!head) return undefined;
-  const evaluated = evaluatePolicy(head, policy);
-  if (!evaluated.ok) {
-    errors.push(...evaluated.diagnostics);
-    return undefined;
-  }
-  const result = evaluated.result;
-  if (!s.base) return { file, path, policy, result, comparison: 'none', changes: [], failing: result.verdict === 'fail' };
-  if (baseText === null) return { file, path, policy, result, comparison: 'new', changes: [], failing: result.verdict === 'fail' };
-  // A base config that no longer loads (under today's rules) is compared with nothing.
-  const quiet: Diagnostic[] = [];
-  const baseModel = load(baseText, file, policy, quiet);
-  const baseEval = baseModel ? evaluatePolicy(baseModel, policy, { fixes: false }) : undefined;
-  if (!baseModel || !baseEval || !baseEval.ok) return { file, path, policy, result, comparison: 'new', changes: [], failing: result.verdict === 'fail' };
-  const changes = diffModels(baseModel, head);
-  const deltas = result.requirements.map((q) => delta(q, baseEval.result, policy, changes, head));
-  const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
-  return { file, path, policy, result, comparison: 'compared', deltas, changes, failing };
-}
-
-function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model): RequirementDelta {
-  const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
-  const maxDropBits = maxDrop(q.requirement, policy);
-  const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
-  const attributed = changes.filter((c) => cutLayers.has(c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed, fixes: [] };
-  const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
-  // Exact: a drop of more than k bits means base > head · 2^k; fractional limits compare in log2.
-  const limit = maxDropBits;
-  const dropFails =
-    limit !== undefined &&
-    (Number.isInteger(limit) ? b.bounds.upper.rank > q.bounds.upper.rank << BigInt(limit) : -changeBits > limit + 1e-9);
-  // A drop within k bits needs head ≥ ⌈base / 2^k⌉; the fix search finds the widths that reach it.
-  const fixes =
-    dropFails && !q.failing && head.kind === 'layered' && limit !== undefined && Number.isInteger(limit)
-      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), 'warn', policy.surrogate, cutLayers)
-      : [];
-  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed, fixes };
-}
-
-function maxDrop(r: Requirement, p: Policy): number | undefined {
-  return r.maxDropBits ?? p.maxDropBits;
+/** The Action's `configs` globs: matched like applies_to (root-relative, dot files, the same on every runner). */
+function globSelector(globs: readonly string[]): Selector {
+  const clean = (g: string): string => g.replace(/^(\.\/)+/, '');
+  const positive = globs.filter((g) => !g.startsWith('!')).map(clean);
+  const negative = globs.filter((g) => g.startsWith('!')).map((g) => clean(g.slice(1)));
+  const options = { dot: true, windows: false };
+  const include = positive.length > 0 ? picomatch(positive, options) : () => false;
+  const exclude = negative.length > 0 ? picomatch(negative, options) : () => false;
+  return { matches: (path) => include(path) && !exclude(path), couldMatchBelow: (dir) => couldMatchBelow(positive, dir) };
 }

@@ -9,8 +9,8 @@ import { findingsOf } from '../check/findings.js';
 import { ReportWriteError, writeReport } from '../check/write-report.js';
 import { checkJson } from '../report/check-json.js';
 import { checkText } from '../report/check-text.js';
-import { sarifText } from '../report/sarif.js';
-import { junitXml } from '../report/junit.js';
+import { sarifCategoryProblem, sarifText } from '../report/sarif.js';
+import { junitReport } from '../report/junit.js';
 import { TOOL_VERSION } from '../version.js';
 import { EXIT_FAIL, EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
 
@@ -29,6 +29,7 @@ export function checkCommand(args: readonly string[], io: Io): number {
       staged: { type: 'boolean' },
       'policy-from': { type: 'string' },
       sarif: { type: 'string' },
+      'sarif-category': { type: 'string' },
       junit: { type: 'string' },
     },
   });
@@ -37,6 +38,9 @@ export function checkCommand(args: readonly string[], io: Io): number {
   const policyFrom = oneOf(values['policy-from'] ?? 'base', ['base', 'head'], '--policy-from') as 'base' | 'head';
   if (values.changed && values.base === undefined) throw new UsageError('--changed needs --base REV');
   if (values.staged && values.base !== undefined) throw new UsageError('--staged compares with HEAD; do not give --base');
+  if (values['sarif-category'] !== undefined && values.sarif === undefined) throw new UsageError('--sarif-category needs --sarif FILE');
+  const categoryProblem = values['sarif-category'] === undefined ? undefined : sarifCategoryProblem(values['sarif-category']);
+  if (categoryProblem) throw new UsageError(`--sarif-category: ${categoryProblem}`);
   const cwd = process.cwd();
   let outcome;
   try {
@@ -61,8 +65,9 @@ export function checkCommand(args: readonly string[], io: Io): number {
   }
   const findings = findingsOf(outcome, cwd);
   try {
-    if (values.sarif) writeReport(values.sarif, sarifText(findings, { version: TOOL_VERSION }));
-    if (values.junit) writeReport(values.junit, junitXml(outcome.checked.flatMap((c) => (c.result ? [c.result] : [])), outcome.errors));
+    const category = values['sarif-category'];
+    if (values.sarif) writeReport(values.sarif, sarifText(findings, { version: TOOL_VERSION, ...(category ? { category } : {}) }));
+    if (values.junit) writeReport(values.junit, junitReport(outcome));
   } catch (e) {
     if (!(e instanceof ReportWriteError)) throw e;
     if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);

@@ -58,3 +58,31 @@ export function normaliseConfigPath(path: string): string | undefined {
   if (normal === '.' || normal === '..' || normal.startsWith('../')) return undefined;
   return normal;
 }
+
+/**
+ * Whether some file below the root-relative directory `dir` could match one of `patterns` (the
+ * exclusions aside): used to tell a user that a directory the check cannot enter (a symbolic
+ * link, a directory git ignores) may hold configs a policy asks for. Conservative: a pattern the
+ * test cannot take apart (braces, extglobs) could match anywhere.
+ */
+export function couldMatchBelow(patterns: readonly string[], dir: string): boolean {
+  const dirSegments = dir.replace(/\/+$/, '').split('/');
+  return patterns.some((pattern) => !pattern.startsWith('!') && patternReachesBelow(pattern, dirSegments));
+}
+
+function patternReachesBelow(pattern: string, dirSegments: readonly string[]): boolean {
+  const scan = picomatch.scan(pattern.replace(/^(\.\/)+/, ''));
+  const base = scan.base === '' ? [] : scan.base.split('/');
+  for (let i = 0; i < Math.min(base.length, dirSegments.length); i++) if (base[i] !== dirSegments[i]) return false;
+  if (dirSegments.length < base.length) return true;
+  if (!scan.isGlob) return false;
+  if (scan.isBrace || scan.isExtglob || scan.glob.includes('**')) return true;
+  const globSegments = scan.glob.split('/');
+  // A file below `dir` has at least one more segment than `dir`; a pattern without ** has a fixed depth.
+  if (base.length + globSegments.length < dirSegments.length + 1) return false;
+  const options = { dot: true, windows: false };
+  for (let j = 0; base.length + j < dirSegments.length; j++) {
+    if (!picomatch(globSegments[j]!, options)(dirSegments[base.length + j]!)) return false;
+  }
+  return true;
+}

@@ -34,6 +34,7 @@ export interface PolicyDocument {
   readonly appliesTo?: readonly string[];
   readonly unproven?: UnprovenMode;
   readonly maxDropBits?: number;
+  readonly removal?: UnprovenMode;
   readonly partitions: ReadonlyMap<string, NamedPartition>;
   /** Every name under `partitions`, including those whose definition is invalid. */
   readonly declaredPartitions: ReadonlySet<string>;
@@ -98,6 +99,7 @@ function readFields(root: LocatedMap, file: string, text: string, sink: Diagnost
   const appliesTo = readAppliesTo(fieldOf(root, 'applies_to'), sink);
   const unproven = unprovenModeOf(fieldOf(root, 'unproven'));
   const maxDropBits = dropBitsOf(fieldOf(root, 'max_drop_bits'));
+  const removal = unprovenModeOf(fieldOf(root, 'removal'));
   const partitionsNode = asMap(fieldOf(root, 'partitions'));
   const partitions = partitionsNode ? readNamedPartitions(partitionsNode, file, sink) : new Map<string, NamedPartition>();
   const requireNode = fieldOf(root, 'require');
@@ -115,6 +117,7 @@ function readFields(root: LocatedMap, file: string, text: string, sink: Diagnost
     ...(appliesTo !== undefined ? { appliesTo } : {}),
     ...(unproven !== undefined ? { unproven } : {}),
     ...(maxDropBits !== undefined ? { maxDropBits } : {}),
+    ...(removal !== undefined ? { removal } : {}),
     partitions,
     declaredPartitions: new Set(partitionsNode?.entries.map((e) => e.key) ?? []),
     requirements,

@@ -3,7 +3,7 @@
  * else the parent's; named partitions are merged, a child's definition replacing the parent's of
  * the same name; requirements are the parent's, except that a child's requirement for the same
  * partition takes the parent's place, followed by the child's new ones in file order. Defaults
- * (tree surrogate, `unproven: warn`, no applies_to) and the per-requirement settings are filled
+ * (tree surrogate, `unproven: warn`, `removal: warn`, no applies_to) and the per-requirement settings are filled
  * in only once, for the policy at the start of the chain: a requirement inherited from a parent
  * follows the settings of the policy that inherits it, unless it sets its own.
  */
@@ -24,6 +24,7 @@ export interface PolicyDraft {
   readonly appliesTo?: readonly string[];
   readonly unproven?: UnprovenMode;
   readonly maxDropBits?: number;
+  readonly removal?: UnprovenMode;
   readonly partitions: ReadonlyMap<string, NamedPartition>;
   readonly requirements: readonly DraftRequirement[];
   readonly chain: readonly string[];
@@ -41,6 +42,7 @@ export function mergePolicy(own: PolicyDocument & { readonly id: string; readonl
   const appliesTo = own.appliesTo ?? parent?.appliesTo;
   const unproven = own.unproven ?? parent?.unproven;
   const maxDropBits = own.maxDropBits ?? parent?.maxDropBits;
+  const removal = own.removal ?? parent?.removal;
   return {
     id: own.id,
     description: own.description,
@@ -51,6 +53,7 @@ export function mergePolicy(own: PolicyDocument & { readonly id: string; readonl
     ...(appliesTo !== undefined ? { appliesTo } : {}),
     ...(unproven !== undefined ? { unproven } : {}),
     ...(maxDropBits !== undefined ? { maxDropBits } : {}),
+    ...(removal !== undefined ? { removal } : {}),
     partitions,
     requirements,
     chain: [own.file, ...(parent?.chain ?? [])],
@@ -82,6 +85,7 @@ export function finalisePolicy(draft: PolicyDraft): Policy {
     requirements,
     unproven,
     ...(draft.maxDropBits !== undefined ? { maxDropBits: draft.maxDropBits } : {}),
+    removal: draft.removal ?? 'warn',
     chain: draft.chain,
     span: draft.span,
   };

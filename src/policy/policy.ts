@@ -45,6 +45,11 @@ export interface Policy {
   readonly requirements: readonly Requirement[];
   readonly unproven: UnprovenMode;
   readonly maxDropBits?: number;
+  /**
+   * What a config this policy governs at the base revision counts as when a change deletes it,
+   * renames it out of applies_to or to another extension: a warning (default) or a failure.
+   */
+  readonly removal: UnprovenMode;
   /** The files of the extends chain, this file first. */
   readonly chain: readonly string[];
   readonly span: Span;

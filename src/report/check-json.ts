@@ -1,7 +1,9 @@
 /**
  * The JSON form of `rankfloor check`: one document with a version, the overall verdict, one
- * result per (config, policy), the policy notices and every input error with its position.
- * Ranks are decimal strings. Comparison fields appear only when a base was compared.
+ * result per (config, policy), the policy notices, the selected files that were skipped and every
+ * input error with its position. Ranks are decimal strings. Comparison fields appear only when a
+ * base was compared; a config the change took out of a policy's reach has `removed` and no
+ * requirements, with the verdict `fail` or `warn` as the policy's `removal` says.
  */
 import type { CheckOutcome } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
@@ -20,12 +22,15 @@ export function checkJson(outcome: CheckOutcome): string {
     verdict: overallVerdict(outcome),
     results: outcome.checked.map((c) => {
       const r = c.result;
+      const removed = c.comparison === 'deleted' || c.comparison === 'moved-out';
       return {
         file: c.file,
         policy: c.policy.id,
         surrogate: c.policy.surrogate,
-        verdict: c.failing ? 'fail' : 'pass',
+        verdict: c.failing ? 'fail' : removed ? 'warn' : 'pass',
         ...(c.comparison === 'none' ? {} : { comparison: c.comparison }),
+        ...(c.renamedFrom !== undefined ? { renamed_from: c.renamedFrom } : {}),
+        ...(c.movedTo ? { moved_to: c.movedTo.path, moved_why: c.movedTo.why } : {}),
         requirements: (r?.requirements ?? []).map((q, i) => {
           const d = c.deltas?.[i];
           return {
@@ -60,6 +65,7 @@ export function checkJson(outcome: CheckOutcome): string {
       };
     }),
     ...(outcome.notices.length > 0 ? { notices: outcome.notices.map((n) => ({ file: n.file, line: n.line, message: n.message })) } : {}),
+    ...(outcome.skipped.length > 0 ? { skipped: outcome.skipped.map((x) => ({ path: x.path, reason: x.reason })) } : {}),
     errors: outcome.errors
       .filter((e) => e.severity === 'error')
       .map((e) => ({ file: e.file, line: e.span?.line ?? null, column: e.span?.column ?? null, message: e.message })),

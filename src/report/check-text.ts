@@ -5,7 +5,7 @@
  * lies on the cut, and the smallest single-field changes that would restore it. Passing and
  * unproven requirements get one line each.
  */
-import type { CheckOutcome, RequirementDelta } from '../check/run-check.js';
+import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
 import { bits, cutLabel, shortRank } from './bounds-text.js';
@@ -29,9 +29,14 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
   let passes = 0;
   if (outcome.base) out.push(`compared with base ${outcome.base.slice(0, 12)}`, '');
   for (const n of outcome.notices) out.push(`${paint('36', 'notice')}  ${n.file}:${n.line}: ${n.message}`, '');
+  if (!options.quiet && outcome.skipped.length > 0) {
+    for (const x of outcome.skipped) out.push(`${paint('36', 'skipped')} ${x.path}: ${x.reason}`);
+    out.push('');
+  }
   for (const c of outcome.checked) {
     if (!c.result) {
-      if (!options.quiet) out.push(`${c.file} — policy ${c.policy.id}: deleted by this change, nothing to check`, '');
+      if (c.failing) fails++;
+      if (!options.quiet || c.failing) out.push(`${paint(c.failing ? '1;31' : '33', c.failing ? 'REMOVED ' : 'removed ')}  ${removalMessage(c)}`, '');
       continue;
     }
     const r = c.result;
@@ -42,7 +47,7 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
       else passes++;
     }
     if (shown.length === 0) continue;
-    const against = c.comparison === 'new' ? ', new config (no base to compare)' : '';
+    const against = c.comparison === 'new' ? ', new config (no base to compare)' : c.renamedFrom !== undefined ? `, renamed from ${c.renamedFrom}` : '';
     out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${against}`);
     for (const { q, d } of shown) {
       if (q.failing || d?.dropFails) {
@@ -55,6 +60,15 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
   }
   out.push(`${outcome.checked.length} config × policy checks: ${fails} failing, ${unproven} unproven (warnings), ${passes} passing`);
   return out.join('\n') + '\n';
+}
+
+/** What a change did to a config a policy governed at the base, and how the policy counts it. */
+export function removalMessage(c: CheckedConfig): string {
+  const counts = c.failing ? `policy ${c.policy.id} counts this as failing (removal: fail)` : `policy ${c.policy.id} counts this as a warning (set removal: fail to make it fail)`;
+  if (c.movedTo) {
+    return `${c.path} was governed by policy ${c.policy.id} at the base and is renamed to ${c.movedTo.path}, which it does not check: ${c.movedTo.why}; ${counts}`;
+  }
+  return `${c.path} was governed by policy ${c.policy.id} at the base and this change deletes it; ${counts}`;
 }
 
 function label(q: RequirementResult, d: RequirementDelta | undefined, paint: (c: string, s: string) => string): string {

@@ -14,7 +14,9 @@ export type FindingRule =
   /** The head revision changed a policy; the base policy was used. */
   | 'policy-changed'
   /** A config or policy that could not be read. */
-  | 'input-error';
+  | 'input-error'
+  /** A config governed at the base that the change deleted or moved out of the policy's reach. */
+  | 'config-removed';
 
 export interface Finding {
   readonly rule: FindingRule;
@@ -22,10 +24,11 @@ export interface Finding {
   /** One-line title and the full explanation. */
   readonly title: string;
   readonly message: string;
-  /** Path relative to the repository root, forward slashes. */
+  /** Path relative to the repository root, forward slashes; never empty. */
   readonly file: string;
-  readonly line: number;
-  readonly column: number;
+  /** Absent when no line is known: the finding is about the file as a whole. */
+  readonly line?: number;
+  readonly column?: number;
   /** Stable across runs and unrelated edits: rule, file, policy and partition, never a line. */
   readonly fingerprint: string;
 }

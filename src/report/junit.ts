@@ -2,24 +2,46 @@
  * The JUnit XML form of `rankfloor check`, for CI systems that know nothing about capacity but do
  * know test reports: each requirement is a test case, grouped into one suite per (config,
  * policy), so a failing requirement shows up in the same place as a failing unit test, with the
- * explanation as the failure text. Input errors are test errors in a suite of their own, so a
- * broken config is not mistaken for a passing one. Output is deterministic (no times, no host
- * names) so that two runs on the same tree give the same file.
+ * explanation as the failure text. A requirement that is neither proven nor refuted (and counted
+ * as a warning) is a skipped test: nothing was shown either way. A config the change removed from
+ * a policy's reach is a test case of its own, failed or skipped as the policy says. Input errors
+ * are test errors in a suite of their own, so a broken config is not mistaken for a passing one.
+ * Output is deterministic (no times, no host names) so that two runs on the same tree give the
+ * same file.
  */
+import type { CheckOutcome } from '../check/run-check.js';
 import { formatDiagnosticLine, type Diagnostic } from '../diagnostic.js';
 import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
-import { explainRequirement, requirementSummary } from './check-text.js';
+import { explainRequirement, removalMessage, requirementSummary } from './check-text.js';
 
-export function junitXml(results: readonly PolicyResult[], errors: readonly Diagnostic[]): string {
-  const suites = groupSuites(results).map(policySuite);
+/** A config the change deleted or moved out of a policy's reach (see check/findings.ts). */
+export interface RemovedConfig {
+  readonly file: string;
+  readonly policy: string;
+  readonly message: string;
+  readonly failing: boolean;
+}
+
+/** The report of a whole check run. */
+export function junitReport(outcome: CheckOutcome): string {
+  const results = outcome.checked.flatMap((c) => (c.result ? [c.result] : []));
+  const removed = outcome.checked.flatMap((c) =>
+    c.comparison === 'deleted' || c.comparison === 'moved-out' ? [{ file: c.file, policy: c.policy.id, message: removalMessage(c), failing: c.failing }] : [],
+  );
+  return junitXml(results, outcome.errors, removed);
+}
+
+export function junitXml(results: readonly PolicyResult[], errors: readonly Diagnostic[], removed: readonly RemovedConfig[] = []): string {
+  const suites = groupSuites(results, removed).map(policySuite);
   const inputErrors = errors.filter((e) => e.severity === 'error');
   if (inputErrors.length > 0) suites.push(errorSuite(inputErrors));
   const tests = sum(suites, (s) => s.tests);
   const failures = sum(suites, (s) => s.failures);
   const errorCount = sum(suites, (s) => s.errors);
+  const skipped = sum(suites, (s) => s.skipped);
   const out = [
     '<?xml version="1.0" encoding="UTF-8"?>',
-    `<testsuites${attrs({ name: 'rankfloor', tests, failures, errors: errorCount })}>`,
+    `<testsuites${attrs({ name: 'rankfloor', tests, failures, errors: errorCount, skipped })}>`,
   ];
   for (const s of suites) out.push(...s.lines);
   out.push('</testsuites>');
@@ -30,6 +52,7 @@ interface Suite {
   readonly tests: number;
   readonly failures: number;
   readonly errors: number;
+  readonly skipped: number;
   readonly lines: string[];
 }
 
@@ -37,23 +60,26 @@ interface Group {
   readonly file: string;
   readonly policy: string;
   readonly requirements: RequirementResult[];
+  readonly removed: RemovedConfig[];
 }
 
 /**
  * One suite per (config file, policy id), in code-unit order of both, so the report does not
  * depend on the order in which configs were discovered on disk.
  */
-function groupSuites(results: readonly PolicyResult[]): Group[] {
+function groupSuites(results: readonly PolicyResult[], removed: readonly RemovedConfig[]): Group[] {
   const groups = new Map<string, Group>();
-  for (const r of results) {
-    const key = JSON.stringify([r.file, r.policy.id]);
+  const groupOf = (file: string, policy: string): Group => {
+    const key = JSON.stringify([file, policy]);
     let g = groups.get(key);
     if (!g) {
-      g = { file: r.file, policy: r.policy.id, requirements: [] };
+      g = { file, policy, requirements: [], removed: [] };
       groups.set(key, g);
     }
-    g.requirements.push(...r.requirements);
-  }
+    return g;
+  };
+  for (const r of results) groupOf(r.file, r.policy.id).requirements.push(...r.requirements);
+  for (const r of removed) groupOf(r.file, r.policy).removed.push(r);
   return [...groups.values()].sort((a, b) => cmp(a.file, b.file) || cmp(a.policy, b.policy));
 }
 
@@ -62,6 +88,7 @@ function policySuite(g: Group): Suite {
   const names = new UniqueNames();
   const cases: string[] = [];
   let failures = 0;
+  let skipped = 0;
   for (const q of g.requirements) {
     const name = names.take(`${g.policy}: ${q.requirement.partition}`);
     const head = `    <testcase${attrs({ classname, name, file: g.file })}`;
@@ -71,21 +98,34 @@ function policySuite(g: Group): Suite {
       cases.push(`      <failure${attrs({ message: requirementSummary(q), type: 'requirement-failed' })}>${text(explainRequirement(q).join('\n'))}</failure>`);
       cases.push('    </testcase>');
     } else if (q.verdict === 'unproven') {
-      // Counted as a warning by the policy: visible in the report, but not a failure.
+      // Counted as a warning by the policy: neither shown nor refuted, so the test is skipped.
+      skipped++;
       cases.push(`${head}>`);
-      cases.push(`      <system-out>${text(`warning: ${requirementSummary(q)}; not proven to reach the minimum (counted as a warning by the policy)`)}</system-out>`);
+      cases.push(`      <skipped${attrs({ message: `${requirementSummary(q)}; not proven to reach the minimum (counted as a warning by the policy)` })}/>`);
       cases.push('    </testcase>');
     } else {
       cases.push(`${head}/>`);
     }
   }
-  const tests = g.requirements.length;
+  for (const r of g.removed) {
+    const name = names.take(`${g.policy}: governed config removed`);
+    cases.push(`    <testcase${attrs({ classname, name, file: g.file })}>`);
+    if (r.failing) {
+      failures++;
+      cases.push(`      <failure${attrs({ message: r.message, type: 'config-removed' })}>${text(r.message)}</failure>`);
+    } else {
+      skipped++;
+      cases.push(`      <skipped${attrs({ message: r.message })}/>`);
+    }
+    cases.push('    </testcase>');
+  }
+  const tests = g.requirements.length + g.removed.length;
   const lines = [
-    `  <testsuite${attrs({ name: `${g.file}: ${g.policy}`, tests, failures, errors: 0, skipped: 0 })}>`,
+    `  <testsuite${attrs({ name: `${g.file}: ${g.policy}`, tests, failures, errors: 0, skipped })}>`,
     ...cases,
     '  </testsuite>',
   ];
-  return { tests, failures, errors: 0, lines };
+  return { tests, failures, errors: 0, skipped, lines };
 }
 
 function errorSuite(errors: readonly Diagnostic[]): Suite {
@@ -103,7 +143,7 @@ function errorSuite(errors: readonly Diagnostic[]): Suite {
     ...cases,
     '  </testsuite>',
   ];
-  return { tests: errors.length, failures: 0, errors: errors.length, lines };
+  return { tests: errors.length, failures: 0, errors: errors.length, skipped: 0, lines };
 }
 
 /** Test names must be unique within a suite; repeats get ` #2`, ` #3`, ... in order of appearance. */

@@ -3,7 +3,10 @@
  * line it points at and track it across pushes. It renders the same findings as every other
  * output; nothing is computed here. The log is a pure function of the findings and the tool
  * version: no timestamps, no generated ids, no absolute paths, so two runs on the same tree give
- * byte-identical files and a diff of two logs shows only what changed.
+ * byte-identical files and a diff of two logs shows only what changed. Every result has a
+ * location (the file alone when no line is known), since a code-scanning upload rejects a log
+ * with a result that has none; a matrix job names its run's category, so that the analyses of
+ * its jobs do not replace one another.
  */
 import type { Finding, FindingRule } from './finding.js';
 
@@ -81,6 +84,16 @@ const RULES: readonly RuleText[] = [
     help: 'Fix the file at the position given in the message; the message says what is wrong and, where it can, what was meant.',
     level: 'error',
   },
+  {
+    rule: 'config-removed',
+    name: 'ConfigRemoved',
+    short: 'A config a policy governed at the base revision is no longer checked by it.',
+    full:
+      'The change deletes the config, or renames it to a path the policy does not check (outside its applies_to, another ' +
+      "extension, a symbolic link). The policy's removal setting makes this a warning (default) or a failure.",
+    help: 'If the config is meant to stay governed, keep it where the policy looks; otherwise have the removal reviewed on its own.',
+    level: 'warning',
+  },
 ];
 
 const RULE_INDEX: ReadonlyMap<FindingRule, number> = new Map(RULES.map((r, i) => [r.rule, i]));
@@ -95,7 +108,26 @@ export interface SarifLog {
   readonly runs: readonly object[];
 }
 
-export function sarifLog(findings: readonly Finding[], tool: { readonly version: string }): SarifLog {
+export interface SarifOptions {
+  readonly version: string;
+  /**
+   * The run's category, for several analyses of one commit (a matrix job): written as
+   * `automationDetails.id` = `<category>/`. In SARIF 2.1.0 that id is a hierarchical string whose
+   * last component names the run instance and whose leading components name its category; a
+   * trailing '/' leaves the instance empty, so the id states the category alone.
+   */
+  readonly category?: string;
+}
+
+/** Why a string cannot be a run category, or undefined when it can. */
+export function sarifCategoryProblem(category: string): string | undefined {
+  if (category.trim() === '') return 'the category is empty';
+  if (/[\u0000-\u001f\u007f]/.test(category)) return 'the category contains control characters';
+  if (category.length > 200) return 'the category is longer than 200 characters';
+  return undefined;
+}
+
+export function sarifLog(findings: readonly Finding[], tool: SarifOptions): SarifLog {
   const rules = RULES.map((r) => ({
     id: ruleId(r.rule),
     name: r.name,
@@ -111,6 +143,7 @@ export function sarifLog(findings: readonly Finding[], tool: { readonly version:
     runs: [
       {
         tool: { driver: { name: 'rankfloor', version: tool.version, rules } },
+        ...(tool.category ? { automationDetails: { id: `${tool.category.replace(/\/+$/, '')}/` } } : {}),
         // Columns come from offsets into JavaScript strings, which count UTF-16 code units.
         columnKind: 'utf16CodeUnits',
         results,
@@ -119,7 +152,7 @@ export function sarifLog(findings: readonly Finding[], tool: { readonly version:
   };
 }
 
-export function sarifText(findings: readonly Finding[], tool: { readonly version: string }): string {
+export function sarifText(findings: readonly Finding[], tool: SarifOptions): string {
   return JSON.stringify(sarifLog(findings, tool), null, 2) + '\n';
 }
 
@@ -132,8 +165,7 @@ function result(f: Finding): object {
     level: sarifLevel(f.level),
     message: { text: messageText(f) },
   };
-  const location = physicalLocation(f);
-  if (location) out['locations'] = [{ physicalLocation: location }];
+  out['locations'] = [{ physicalLocation: physicalLocation(f) }];
   out['partialFingerprints'] = { [FINGERPRINT_KEY]: f.fingerprint };
   return out;
 }
@@ -150,14 +182,14 @@ function messageText(f: Finding): string {
   return `${title}\n\n${body}`;
 }
 
-function physicalLocation(f: Finding): object | null {
-  const uri = relativeUri(f.file);
-  if (uri === '') return null;
+function physicalLocation(f: Finding): object {
+  // A finding always names a file; should one not, it is placed at the repository root.
+  const uri = relativeUri(f.file) || '.';
   // The schema requires positive lines and columns; a finding without a position still names its file.
   const region: Record<string, number> = {};
-  if (Number.isInteger(f.line) && f.line >= 1) {
+  if (f.line !== undefined && Number.isInteger(f.line) && f.line >= 1) {
     region['startLine'] = f.line;
-    if (Number.isInteger(f.column) && f.column >= 1) region['startColumn'] = f.column;
+    if (f.column !== undefined && Number.isInteger(f.column) && f.column >= 1) region['startColumn'] = f.column;
   }
   const location: Record<string, unknown> = { artifactLocation: { uri, uriBaseId: SRCROOT } };
   if (Object.keys(region).length > 0) location['region'] = region;
@@ -186,8 +218,8 @@ function cmp(a: string, b: string): number {
 function compareFindings(a: Finding, b: Finding): number {
   return (
     cmp(a.file, b.file) ||
-    a.line - b.line ||
-    a.column - b.column ||
+    (a.line ?? 0) - (b.line ?? 0) ||
+    (a.column ?? 0) - (b.column ?? 0) ||
     cmp(ruleId(a.rule), ruleId(b.rule)) ||
     cmp(a.fingerprint, b.fingerprint) ||
     cmp(a.title, b.title) ||

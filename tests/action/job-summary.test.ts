@@ -1,29 +1,17 @@
 /**
- * The job summary rendered into a recording sink from a real comparison (a pull request that
- * shrinks the last convolution): the table's cells, the failing requirement's explanation in a
- * <details> block, HTML escaping, and the annotations that did not fit.
+ * The job summary rendered from a real comparison (a pull request that shrinks the last
+ * convolution): the table's cells, the failing requirement's explanation in a <details> block,
+ * the annotations that did not fit; that text from the pull request can never end the HTML block
+ * (after which forged Markdown would render); and that it stays under GitHub's 1 MiB limit
+ * ("$GITHUB_STEP_SUMMARY upload aborted, supports content up to a size of 1024k") with a note
+ * pointing to the JSON report.
  */
 import { afterAll, beforeAll, expect, test } from 'vitest';
 import { planAnnotations } from '../../src/action/annotations.js';
-import { escapeHtml, writeJobSummary, type SummaryCell, type SummarySink } from '../../src/action/job-summary.js';
+import { escapeHtml, renderJobSummary, SUMMARY_LIMIT_BYTES } from '../../src/action/job-summary.js';
 import { runCheck, type CheckOutcome } from '../../src/check/run-check.js';
 import type { Finding } from '../../src/report/finding.js';
 import { baseRepo, CONFIG_PATH, isolateThisProcess, removeTempDirs, SHRUNK_CONFIG_TEXT } from './action-fixture.js';
-
-type Call = [string, ...unknown[]];
-
-function recorder(): { sink: SummarySink; calls: Call[] } {
-  const calls: Call[] = [];
-  return {
-    calls,
-    sink: {
-      addHeading: (text, level) => calls.push(['heading', text, level]),
-      addTable: (rows: SummaryCell[][]) => calls.push(['table', rows]),
-      addDetails: (label, content) => calls.push(['details', label, content]),
-      addRaw: (text) => calls.push(['raw', text]),
-    },
-  };
-}
 
 let outcome: CheckOutcome;
 let base: string;
@@ -38,44 +26,31 @@ beforeAll(() => {
 });
 afterAll(removeTempDirs);
 
+const EMPTY = (root: string): CheckOutcome => ({ root, checked: [], notices: [], skipped: [], errors: [] });
+
+/** Lines that are empty or only spaces and tabs: each would end the summary's HTML block (CommonMark, HTML blocks of type 6). */
+function blankLines(text: string): number {
+  return text.replace(/\n$/, '').split(/\r\n|\r|\n/).filter((l) => /^[ \t]*$/.test(l)).length;
+}
+
 test('one table per checked config with base, head and change in bits', () => {
-  const { sink, calls } = recorder();
-  writeJobSummary(sink, outcome, 'fail', []);
-  expect(calls[0]).toEqual(['heading', 'rankfloor: fail', 2]);
-  expect(calls[1]).toEqual(['raw', `<p>1 config × policy check against base ${base.slice(0, 12)}: 1 failing requirement, 0 unproven, 0 passing.</p>`]);
-  expect(calls[2]).toEqual(['heading', 'models/renal-pair-net.yaml — policy paired-organs', 3]);
-  const header = ['partition', 'required (bits)', 'base (bits)', 'head (bits)', 'change (bits)', 'verdict'].map((data) => ({ data, header: true }));
-  expect(calls[3]).toEqual(['table', [header, ['organ-pair', '6.00', '8.00', '4.00', '-4.00', 'fail']]]);
-  const [kind, label, content] = calls[4]!;
-  expect(kind).toBe('details');
-  expect(label).toBe('organ-pair: fail — why, and what restores it');
-  expect(content).toMatch(/^<pre>organ-pair — columns 0-31 against columns 32-63\n/);
-  expect(content).toContain('change  base 8.00 bits → head 4.00 bits (-4.00)');
-  expect(content).toContain('line 18:24  layer 8 channels: 16 → 64');
-  expect(calls).toHaveLength(5);
+  const text = renderJobSummary(outcome, 'fail', []);
+  const lines = text.split('\n');
+  expect(lines[0]).toBe('<h2>rankfloor: fail</h2>');
+  expect(lines[1]).toBe(`<p>1 config × policy check against base ${base.slice(0, 12)}: 1 failing requirement, 0 unproven, 0 passing.</p>`);
+  expect(lines[2]).toBe('<h3>models/renal-pair-net.yaml — policy paired-organs</h3>');
+  expect(lines[3]).toBe(
+    '<table><tr><th>partition</th><th>required (bits)</th><th>base (bits)</th><th>head (bits)</th><th>change (bits)</th><th>verdict</th></tr>' +
+      '<tr><td>organ-pair</td><td>6.00</td><td>8.00</td><td>4.00</td><td>-4.00</td><td>fail</td></tr></table>',
+  );
+  expect(lines[4]).toMatch(/^<details><summary>organ-pair: fail — why, and what restores it<\/summary><pre>organ-pair — columns 0-31 against columns 32-63&#10;/);
+  expect(lines[4]).toContain('change  base 8.00 bits → head 4.00 bits (-4.00)');
+  expect(lines[4]).toContain('line 18:24  layer 8 channels: 16 → 64');
+  expect(lines.slice(5)).toEqual(['']);
 });
 
-test('without a base the base and change columns say so; nothing checked says so too', () => {
-  const { sink, calls } = recorder();
-  // Without a base the policies are read from the working tree, relative to the process's own
-  // directory, as the action has it after moving into the workspace.
-  const before = process.cwd();
-  let noBase: CheckOutcome;
-  try {
-    process.chdir(outcome.root);
-    noBase = runCheck({ cwd: outcome.root, policy: 'policies', configs: [] });
-  } finally {
-    process.chdir(before);
-  }
-  writeJobSummary(sink, noBase, 'fail', []);
-  const table = calls.find((c) => c[0] === 'table')![1] as SummaryCell[][];
-  expect(table[1]).toEqual(['organ-pair', '6.00', '—', '4.00', '—', 'fail']);
-  const empty = recorder();
-  writeJobSummary(empty.sink, { root: outcome.root, checked: [], notices: [], errors: [] }, 'pass', []);
-  expect(empty.calls).toEqual([
-    ['heading', 'rankfloor: pass', 2],
-    ['raw', '<p>Nothing to check: no config matched (or none changed).</p>'],
-  ]);
+test('nothing checked says so', () => {
+  expect(renderJobSummary(EMPTY(outcome.root), 'pass', [])).toBe('<h2>rankfloor: pass</h2>\n<p>Nothing to check: no config matched (or none changed).</p>\n');
 });
 
 test('annotations beyond the limit are listed, counted per kind', () => {
@@ -90,15 +65,52 @@ test('annotations beyond the limit are listed, counted per kind', () => {
     fingerprint: `${n}`,
   });
   const plan = planAnnotations(Array.from({ length: 12 }, (_, i) => f(i + 1)));
-  const { sink, calls } = recorder();
-  writeJobSummary(sink, { root: outcome.root, checked: [], notices: [], errors: [] }, 'error', plan.overflow);
-  expect(calls.slice(2)).toEqual([
-    ['heading', 'Not shown as annotations', 3],
-    ['raw', '<p>2 more errors:</p>'],
-    ['raw', '<ul><li>models/&lt;m11&gt;.yaml:11:2: cannot check models/&lt;m11&gt;.yaml</li><li>models/&lt;m12&gt;.yaml:12:2: cannot check models/&lt;m12&gt;.yaml</li></ul>'],
+  const text = renderJobSummary(EMPTY(outcome.root), 'error', plan.overflow);
+  expect(text.split('\n').slice(2)).toEqual([
+    '<h3>Not shown as annotations</h3>',
+    '<p>2 more errors:</p>',
+    '<ul><li>models/&lt;m11&gt;.yaml:11:2: cannot check models/&lt;m11&gt;.yaml</li><li>models/&lt;m12&gt;.yaml:12:2: cannot check models/&lt;m12&gt;.yaml</li></ul>',
+    '',
   ]);
 });
 
+test('names and messages with blank lines and markup cannot end the HTML block', () => {
+  const forged = '\n\n## rankfloor: pass\n\n**all good**\r\n\r\n<script>x</script>\n';
+  const checked = outcome.checked.map((c) => ({ ...c, file: `models/evil${forged}.yaml` }));
+  const hostile: CheckOutcome = {
+    ...outcome,
+    checked,
+    notices: [{ file: `policies/p${forged}.yaml`, path: 'policies/p.yaml', line: 3, message: `changed${forged}` }],
+    skipped: [{ path: `models/x${forged}.txt`, reason: 'not a YAML file (.yaml or .yml)' }],
+    errors: [{ code: 'config/unknown-field', message: `bad field${forged}`, file: `models/y${forged}.yaml`, severity: 'error' }],
+  };
+  const text = renderJobSummary(hostile, 'error', []);
+  expect(blankLines(text)).toBe(0);
+  expect(text).not.toMatch(/^##/m);
+  expect(text).not.toContain('<script>');
+  expect(text).toContain('<h3>models/evil&#10;&#10;## rankfloor: pass&#10;&#10;**all good**&#13;&#10;&#13;&#10;&lt;script&gt;x&lt;/script&gt;&#10;.yaml — policy paired-organs</h3>');
+});
+
+test('a summary over 1 MiB keeps whole sections and ends with a note that points to the JSON report', () => {
+  const one = outcome.checked[0]!;
+  const many: CheckOutcome = { ...outcome, checked: Array.from({ length: 4000 }, (_, i) => ({ ...one, file: `models/net-${String(i).padStart(4, '0')}.yaml` })) };
+  const full = renderJobSummary(many, 'fail', [], { limitBytes: Number.MAX_SAFE_INTEGER });
+  expect(Buffer.byteLength(full)).toBeGreaterThan(SUMMARY_LIMIT_BYTES);
+  const text = renderJobSummary(many, 'fail', [], { reportPath: '/runner/temp/rankfloor-report.json' });
+  expect(Buffer.byteLength(text)).toBeLessThanOrEqual(SUMMARY_LIMIT_BYTES);
+  const lines = text.trimEnd().split('\n');
+  const kept = lines.filter((l) => l.startsWith('<h3>models/net-')).length;
+  expect(kept).toBeGreaterThan(100);
+  expect(kept).toBeLessThan(4000);
+  // Whole sections only: the last kept config still has its table and its details.
+  expect(lines.at(-2)).toMatch(/^<details>.*<\/details>$/);
+  expect(lines.at(-1)).toBe(
+    `<p><strong>This summary stops here to stay under GitHub's 1 MiB limit for a step summary; ${4000 - kept} more sections (configs, notices, errors) ` +
+      "are in the JSON report at /runner/temp/rankfloor-report.json (the action's `report` output).</strong></p>",
+  );
+  expect(renderJobSummary(outcome, 'fail', [])).not.toContain('stops here');
+});
+
 test('escapeHtml', () => {
-  expect(escapeHtml('a < b && "c" > d')).toBe('a &lt; b &amp;&amp; &quot;c&quot; &gt; d');
+  expect(escapeHtml('a < b && "c" > d\r\n')).toBe('a &lt; b &amp;&amp; &quot;c&quot; &gt; d&#13;&#10;');
 });

@@ -26,6 +26,7 @@ function policy(requirements: Requirement[], extra: Partial<Policy> = {}): Polic
     partitions: new Map(),
     requirements,
     unproven: 'warn',
+    removal: 'warn',
     chain: ['p.yaml'],
     span: NO_SPAN,
     ...extra,

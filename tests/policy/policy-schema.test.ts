@@ -36,6 +36,7 @@ describe('the shipped policy schema', () => {
       '/properties/applies_to',
       '/properties/unproven',
       '/properties/max_drop_bits',
+      '/properties/removal',
       '/properties/partitions',
       '/properties/require',
     ]);

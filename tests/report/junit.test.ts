@@ -177,6 +177,7 @@ function policy(id: string, over: Partial<Policy> = {}): Policy {
     partitions: new Map(),
     requirements: [],
     unproven: 'warn',
+    removal: 'warn',
     chain: [`policies/${id}.yaml`],
     span: NO_SPAN,
     ...over,
@@ -294,15 +295,16 @@ describe('junitXml', () => {
     expect(root.name).toBe('testsuites');
   });
 
-  it('counts tests, failures and errors on the root and on each suite', () => {
-    // 5 requirements + 2 input errors (the warning is not one); failing: top-bottom, strict left-right.
-    expect(root.attrs).toEqual({ name: 'rankfloor', tests: '7', failures: '2', errors: '2' });
+  it('counts tests, failures, errors and skipped tests on the root and on each suite', () => {
+    // 5 requirements + 2 input errors (the warning is not one); failing: top-bottom, strict left-right;
+    // skipped: the unproven checkerboard counted as a warning.
+    expect(root.attrs).toEqual({ name: 'rankfloor', tests: '7', failures: '2', errors: '2', skipped: '1' });
     const suites = children(root, 'testsuite');
-    expect(suites.map((s) => [s.attrs['name'], s.attrs['tests'], s.attrs['failures'], s.attrs['errors']])).toEqual([
-      ['configs/audio.yaml: team', '1', '0', '0'],
-      ['configs/vision/resnet.yaml: strict', '1', '1', '0'],
-      ['configs/vision/resnet.yaml: team', '3', '1', '0'],
-      ['input errors', '2', '0', '2'],
+    expect(suites.map((s) => [s.attrs['name'], s.attrs['tests'], s.attrs['failures'], s.attrs['errors'], s.attrs['skipped']])).toEqual([
+      ['configs/audio.yaml: team', '1', '0', '0', '0'],
+      ['configs/vision/resnet.yaml: strict', '1', '1', '0', '0'],
+      ['configs/vision/resnet.yaml: team', '3', '1', '0', '1'],
+      ['input errors', '2', '0', '2', '0'],
     ]);
     for (const s of suites) expect(children(s, 'testcase')).toHaveLength(Number(s.attrs['tests']));
     const cases = suites.flatMap((s) => children(s, 'testcase'));
@@ -332,11 +334,25 @@ describe('junitXml', () => {
     expect(failure.text).toContain('[min_bits: 20, policies/team.yaml:7]');
   });
 
-  it('reports an unproven requirement counted as a warning in system-out, not as a failure', () => {
+  it('reports an unproven requirement counted as a warning as a skipped test, not as a failure', () => {
     const team = children(root, 'testsuite').find((s) => s.attrs['name'] === 'configs/vision/resnet.yaml: team')!;
     const unproven = children(team, 'testcase')[2]!;
     expect(children(unproven, 'failure')).toEqual([]);
-    expect(only(unproven, 'system-out').text).toMatch(/^warning: checkerboard: needs rank ≥ 1048576 .*not proven/);
+    expect(only(unproven, 'skipped').attrs['message']).toMatch(/^checkerboard: needs rank ≥ 1048576 .*not proven to reach the minimum/);
+  });
+
+  it('gives a removed config a test case: failed when the policy says so, else skipped', () => {
+    const doc = parseXml(
+      junitXml([], [], [
+        { file: 'configs/gone.yaml', policy: 'team', message: 'configs/gone.yaml was governed by policy team at the base and this change deletes it', failing: true },
+        { file: 'configs/moved.yaml', policy: 'team', message: 'renamed to configs/moved.txt', failing: false },
+      ]),
+    );
+    expect(doc.attrs).toEqual({ name: 'rankfloor', tests: '2', failures: '1', errors: '0', skipped: '1' });
+    const [gone, moved] = children(doc, 'testsuite').map((s) => only(s, 'testcase'));
+    expect(gone!.attrs['name']).toBe('team: governed config removed');
+    expect(only(gone!, 'failure').attrs['type']).toBe('config-removed');
+    expect(only(moved!, 'skipped').attrs['message']).toBe('renamed to configs/moved.txt');
   });
 
   it('fails an unproven requirement when the policy counts it as failing', () => {
@@ -366,7 +382,7 @@ describe('junitXml', () => {
 
   it('writes an empty report for no results', () => {
     const doc = parseXml(junitXml([], []));
-    expect(doc.attrs).toEqual({ name: 'rankfloor', tests: '0', failures: '0', errors: '0' });
+    expect(doc.attrs).toEqual({ name: 'rankfloor', tests: '0', failures: '0', errors: '0', skipped: '0' });
     expect(doc.children).toEqual([]);
   });
 });

@@ -55,6 +55,7 @@ const EVERY_RULE: Finding[] = [
   finding({ rule: 'capacity-drop', file: 'configs/model.yaml', line: 12, column: 3 }),
   finding({ rule: 'policy-changed', level: 'notice', file: 'policies/team.yaml', line: 1, column: 1 }),
   finding({ rule: 'input-error', file: 'configs/broken.yaml', line: 4, column: 7, message: 'unknown field `chanels`; did you mean `channels`?' }),
+  finding({ rule: 'config-removed', level: 'warning', file: 'configs/gone.yaml', line: undefined, column: undefined }),
 ];
 
 interface Result {
@@ -80,7 +81,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog(EVERY_RULE, TOOL);
     expectValid(log);
     expect(run(log).results.map((r) => r.ruleId).sort()).toEqual(
-      ['capacity-drop', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
+      ['capacity-drop', 'config-removed', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
     );
   });
 
@@ -88,7 +89,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog([], TOOL);
     expectValid(log);
     expect(run(log).results).toEqual([]);
-    expect(run(log).tool.driver.rules).toHaveLength(5);
+    expect(run(log).tool.driver.rules).toHaveLength(6);
   });
 
   it('accepts the text form, which parses back to the same log', () => {
@@ -98,7 +99,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     expectValid(JSON.parse(text));
   });
 
-  it('accepts findings without a usable position or file', () => {
+  it('gives every result a location: the file alone when no line is known (code scanning rejects a result without one)', () => {
     const log = sarifLog(
       [
         finding({ rule: 'input-error', line: 0, column: 0, file: 'configs/unreadable.yaml' }),
@@ -110,7 +111,8 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     expectValid(log);
     // Sorted by file: '' first, then configs/model.yaml, then configs/unreadable.yaml.
     const [noFile, noColumn, noRegion] = run(log).results;
-    expect(noFile!.locations).toBeUndefined();
+    expect(noFile!.locations).toEqual([{ physicalLocation: { artifactLocation: { uri: '.', uriBaseId: '%SRCROOT%' }, region: { startLine: 3, startColumn: 5 } } }]);
+    expect(noRegion!.locations).toEqual([{ physicalLocation: { artifactLocation: { uri: 'configs/unreadable.yaml', uriBaseId: '%SRCROOT%' } } }]);
     expect(noRegion!.locations![0]!.physicalLocation.region).toBeUndefined();
     expect(noColumn!.locations![0]!.physicalLocation.region).toEqual({ startLine: 2 });
   });
@@ -149,7 +151,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
 });
 
 describe('sarifLog content', () => {
-  it('lists all five rules in a fixed order, and each result points at its own rule', () => {
+  it('lists all six rules in a fixed order, and each result points at its own rule', () => {
     const rules = run(sarifLog(EVERY_RULE, TOOL)).tool.driver.rules;
     expect(rules.map((r) => r.id)).toEqual([
       'rankfloor/requirement-failed',
@@ -157,8 +159,9 @@ describe('sarifLog content', () => {
       'rankfloor/capacity-drop',
       'rankfloor/policy-changed',
       'rankfloor/input-error',
+      'rankfloor/config-removed',
     ]);
-    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError']);
+    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError', 'ConfigRemoved']);
     for (const r of run(sarifLog(EVERY_RULE, TOOL)).results) expect(rules[r.ruleIndex]!.id).toBe(r.ruleId);
     // The same indices whichever findings occur.
     const only = run(sarifLog([finding({ rule: 'input-error' })], TOOL)).results[0]!;
@@ -195,7 +198,7 @@ describe('sarifLog content', () => {
   it('keeps fingerprints when line numbers change', () => {
     const before = sarifLog(EVERY_RULE, TOOL);
     const after = sarifLog(
-      EVERY_RULE.map((f) => ({ ...f, line: f.line + 40, column: f.column + 2 })),
+      EVERY_RULE.map((f) => ({ ...f, line: (f.line ?? 1) + 40, column: (f.column ?? 1) + 2 })),
       TOOL,
     );
     const prints = (log: object): Map<string, string> =>
@@ -204,6 +207,16 @@ describe('sarifLog content', () => {
     expect(run(after).results.map((r) => r.locations?.[0]?.physicalLocation.region?.startLine)).not.toEqual(
       run(before).results.map((r) => r.locations?.[0]?.physicalLocation.region?.startLine),
     );
+  });
+});
+
+describe('the run category of a matrix job', () => {
+  it('is the automation id `<category>/` (SARIF 2.1.0: leading components of runAutomationDetails.id name the category)', () => {
+    const log = sarifLog(EVERY_RULE, { ...TOOL, category: 'gpu-models' });
+    expectValid(log);
+    expect((run(log) as unknown as { automationDetails: unknown }).automationDetails).toEqual({ id: 'gpu-models/' });
+    expect((run(sarifLog(EVERY_RULE, { ...TOOL, category: 'lang/ts/' })) as unknown as { automationDetails: unknown }).automationDetails).toEqual({ id: 'lang/ts/' });
+    expect('automationDetails' in run(sarifLog(EVERY_RULE, TOOL))).toBe(false);
   });
 });
 
