@@ -5,7 +5,7 @@
  * summary, the GITHUB_OUTPUT file, the JSON report and the exit code. Each run is one node
  * process.
  */
-import { readFileSync } from 'node:fs';
+import { readdirSync, readFileSync, symlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import {
@@ -211,5 +211,46 @@ describe('outside a pull request', () => {
     expect(commandLines(r.stdout, 'error')).toEqual([]);
     expect(r.outputs['verdict']).toBe('pass');
     expect(r.outputs['failed']).toBe('0');
+  });
+});
+
+describe('report files and removed configs', () => {
+  test('sarif (with its category) and junit inside the workspace; a deleted governed config is a warning annotation', () => {
+    const { repo, base } = baseRepo();
+    git(repo.dir, 'rm', '-q', CONFIG_PATH);
+    repo.commit('drop the kidney-pair model');
+    const r = runAction({
+      workspace: repo.dir,
+      inputs: { policy: 'policies', sarif: 'reports/rankfloor.sarif', 'sarif-category': 'models', junit: 'reports/rankfloor.xml' },
+      event: pullRequestEvent(base),
+    });
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const message =
+      'models/renal-pair-net.yaml was governed by policy paired-organs at the base and this change deletes it; ' +
+      'policy paired-organs counts this as a warning (set removal: fail to make it fail)';
+    expect(commandLines(r.stdout, 'warning')).toEqual([
+      `::warning title=models/renal-pair-net.yaml%3A deleted from policy paired-organs,file=models/renal-pair-net.yaml::${message}`,
+    ]);
+    expect(r.summary).toContain(`<p>Warning: ${message}.</p>`);
+    const sarif = JSON.parse(repo.read('reports/rankfloor.sarif'));
+    expect(sarif.runs[0].automationDetails).toEqual({ id: 'models/' });
+    expect(sarif.runs[0].results.map((x: { ruleId: string }) => x.ruleId)).toEqual(['rankfloor/config-removed']);
+    expect(repo.read('reports/rankfloor.xml')).toContain('<skipped message="models/renal-pair-net.yaml was governed by policy paired-organs');
+  });
+
+  test('a report path outside the workspace, or through a link out of it, is refused with exit 2 and one line', () => {
+    const { repo, base } = baseRepo();
+    const outside = tempDir('rankfloor-outside-');
+    const escape = runAction({ workspace: repo.dir, inputs: { policy: 'policies', sarif: `../${outside.split('/').at(-1)}/x.sarif` }, event: pullRequestEvent(base) });
+    expect(escape.code).toBe(2);
+    expect(commandLines(escape.stdout, 'error')).toEqual([expect.stringMatching(/^::error::rankfloor: the input `sarif`: .* has a '\.\.' segment; report files are written inside the workspace$/)]);
+    symlinkSync(outside, join(repo.dir, 'reports'));
+    const linked = runAction({ workspace: repo.dir, inputs: { policy: 'policies', junit: 'reports/x.xml' }, event: pullRequestEvent(base) });
+    expect(linked.code).toBe(2);
+    expect(commandLines(linked.stdout, 'error')).toEqual([
+      `::error::rankfloor: cannot write ${join(repo.dir, 'reports/x.xml')}: its directory leads, through a symbolic link, outside ${repo.dir}`,
+    ]);
+    expect(readdirSync(outside)).toEqual([]);
   });
 });
