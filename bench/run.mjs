@@ -89,3 +89,52 @@ time('1,000 small configs in one process (tree surrogate)', () => {
 time('1,000 small configs in one process (overlap surrogate)', () => {
   for (const text of small) analyse(text, 'overlap');
 }, 3);
+
+// `check --base` against the same check without it, through the built CLI in a scratch git
+// repository: 1,000 configs, every one changed by the head (the last width halved). A comparison
+// starts a fixed number of git processes, so what it adds is reading and evaluating the base
+// versions; the ratio says what that costs.
+{
+  const { execFileSync, spawnSync } = await import('node:child_process');
+  const { mkdtempSync, mkdirSync, writeFileSync, rmSync } = await import('node:fs');
+  const { join } = await import('node:path');
+  const dir = mkdtempSync(join(os.tmpdir(), 'rankfloor-bench-'));
+  const env = { ...process.env, GIT_CONFIG_NOSYSTEM: '1', GIT_CONFIG_GLOBAL: '/dev/null', NO_COLOR: '1' };
+  const git = (...args) => execFileSync('git', ['-c', 'user.name=bench', '-c', 'user.email=bench@example.invalid', '-c', 'commit.gpgsign=false', ...args], { cwd: dir, env });
+  git('init', '-q', '-b', 'main');
+  mkdirSync(join(dir, 'policies'));
+  mkdirSync(join(dir, 'configs'));
+  writeFileSync(join(dir, 'policies', 'pairs.yaml'), 'id: pairs\ndescription: bench\napplies_to: ["configs/*.yaml"]\nmax_drop_bits: 1\nrequire:\n  - {partition: left-right, min_rank: 4}\n');
+  seed = 777;
+  const shapes = Array.from({ length: 1000 }, () => ({ features: 2 + rand(3), first: 2 + rand(8), last: 16 + 2 * rand(24) }));
+  const config = (s, last) =>
+    `model:\n  input: {shape: [8, 8], features: ${s.features}}\n  layers:\n    - conv: {channels: ${s.first}, kernel: 3}\n    - pool: {window: 2}\n    - conv: {channels: 8}\n    - pool: {window: 2}\n    - conv: {channels: ${last}, name: last}\n    - pool: {global: true}\n`;
+  shapes.forEach((s, i) => writeFileSync(join(dir, 'configs', `c${String(i).padStart(4, '0')}.yaml`), config(s, s.last)));
+  git('add', '-A');
+  git('commit', '-q', '-m', 'base');
+  git('tag', 'bench-base');
+  shapes.forEach((s, i) => writeFileSync(join(dir, 'configs', `c${String(i).padStart(4, '0')}.yaml`), config(s, s.last / 2)));
+  git('add', '-A');
+  git('commit', '-q', '-m', 'head: every last width halved');
+  const cli = new URL('../build/cli/main.js', import.meta.url).pathname;
+  const check = (...extra) => () => {
+    const r = spawnSync(process.execPath, [cli, 'check', '--policy', 'policies', '--format', 'json', ...extra], { cwd: dir, env, maxBuffer: 1 << 30 });
+    if (r.status !== 0 && r.status !== 1) throw new Error(`check ${extra.join(' ')} exited ${r.status}: ${r.stderr}`);
+  };
+  // Alternated, so that a machine getting busier mid-run weighs on both sides alike.
+  const samples = { without: [], base: [] };
+  for (let i = 0; i < 3; i++) {
+    for (const [side, extra] of [['without', []], ['base', ['--base', 'bench-base']]]) {
+      const start = performance.now();
+      check(...extra)();
+      samples[side].push(performance.now() - start);
+    }
+  }
+  const median = (xs) => xs.sort((a, b) => a - b)[1];
+  const without = median(samples.without);
+  const withBase = median(samples.base);
+  console.log(`${'1,000 changed configs: check --base (CLI)'.padEnd(64)} ${withBase.toFixed(1).padStart(9)} ms (median of 3)`);
+  console.log(`${'1,000 changed configs: the same check without --base (CLI)'.padEnd(64)} ${without.toFixed(1).padStart(9)} ms (median of 3)`);
+  console.log(`${'    ratio --base / without'.padEnd(64)} ${(withBase / without).toFixed(2).padStart(9)}`);
+  rmSync(dir, { recursive: true, force: true });
+}

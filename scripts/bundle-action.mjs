@@ -1,4 +1,5 @@
-// Bundles the GitHub Action (src/action/index.ts) into one ESM file, dist/action.js, that the
+// Bundles the GitHub Action (src/action/index.ts) into one ESM file, dist/action.js (plus the base
+// evaluation's worker thread, dist/base-worker.js), that the
 // runner starts without `npm install`: GitHub runs a JavaScript action straight from its checked-out
 // repository, so every dependency has to be inside the committed file. The bundle must be a pure
 // function of the sources and the locked dependencies, because a test rebuilds it and fails on any
@@ -27,8 +28,10 @@ const result = await build({
   // Fixed, so that the path comments esbuild writes into the bundle do not depend on where the
   // script was started.
   absWorkingDir: ROOT,
-  entryPoints: ['src/action/index.ts'],
-  outfile: resolve(outdir, 'action.js'),
+  // The worker thread that evaluates base versions beside the heads is a file of its own, which
+  // the action finds next to itself (src/check/base-evaluation.ts).
+  entryPoints: { action: 'src/action/index.ts', 'base-worker': 'src/check/base-worker.ts' },
+  outdir,
   bundle: true,
   platform: 'node',
   format: 'esm',

@@ -2,7 +2,8 @@
  * One config under one policy: the head version evaluated, and when a base revision is compared,
  * the base version (at the same path, or at the path a rename came from) evaluated too, with the
  * change in bits per requirement, the drop limit, the changed fields on the new minimal cut and the
- * widths that would bring a failing drop back within the limit.
+ * widths that would bring a failing drop back within the limit. The two halves are separate steps
+ * so that the base versions can be evaluated all together, beside the heads (see base-evaluation.ts).
  */
 import type { Diagnostic } from '../diagnostic.js';
 import { loadConfigText } from '../config/load-config.js';
@@ -12,21 +13,21 @@ import type { FileRead } from '../files/file-read.js';
 import type { Policy, Requirement } from '../policy/policy.js';
 import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
 import { searchFixes } from '../policy/fix-search.js';
+import type { BaseAnswer } from './base-evaluation.js';
 import { refusalDiagnostic } from './input-errors.js';
 import type { CheckedConfig, RequirementDelta } from './run-check.js';
 
-export interface ConfigSides {
-  readonly head: (rel: string) => FileRead;
-  /** Absent when nothing is compared. */
-  readonly base?: (rel: string) => FileRead;
+export interface EvaluatedHead {
+  readonly path: string;
+  readonly file: string;
+  readonly policy: Policy;
+  readonly text: string;
+  readonly model: Model;
+  readonly result: PolicyResult;
 }
 
-/**
- * `basePath` is where the base version lives (the path itself, or a rename's source), undefined
- * when the base has none. Problems go to `errors`; undefined means the pair could not be checked.
- */
-export function compareConfig(path: string, basePath: string | undefined, file: string, policy: Policy, sides: ConfigSides, errors: Diagnostic[]): CheckedConfig | undefined {
-  const head = sides.head(path);
+/** The head half; problems go to `errors` and give undefined. */
+export function evaluateHead(path: string, file: string, policy: Policy, head: FileRead, errors: Diagnostic[]): EvaluatedHead | undefined {
   if (head.kind === 'refused') {
     errors.push(refusalDiagnostic(head, file, 'config'));
     return undefined;
@@ -35,36 +36,44 @@ export function compareConfig(path: string, basePath: string | undefined, file: 
     errors.push({ code: 'config/unreadable', message: 'cannot read the config file: it does not exist', file, severity: 'error' });
     return undefined;
   }
-  const model = load(head.text, file, policy, errors);
+  const model = loadConfig(head.text, file, policy, errors);
   if (!model) return undefined;
   const evaluated = evaluatePolicy(model, policy);
   if (!evaluated.ok) {
     errors.push(...evaluated.diagnostics);
     return undefined;
   }
-  const result = evaluated.result;
+  return { path, file, policy, text: head.text, model, result: evaluated.result };
+}
+
+/**
+ * The comparison of an evaluated head with its base. `base` is undefined when nothing is compared,
+ * `basePath` when the base has no version; `answer` is the base's evaluation (undefined when the
+ * base version does not load under today's rules, which compares the head with nothing).
+ */
+export function compareWithBase(
+  head: EvaluatedHead,
+  base: { readonly basePath: string | undefined; readonly read: FileRead | undefined; readonly answer: BaseAnswer | undefined } | undefined,
+  errors: Diagnostic[],
+): CheckedConfig | undefined {
+  const { path, file, policy, model, result } = head;
   const plain = { file, path, policy, result, changes: [], failing: result.verdict === 'fail' };
-  if (!sides.base) return { ...plain, comparison: 'none' };
-  if (basePath === undefined) return { ...plain, comparison: 'new' };
-  const base = sides.base(basePath);
-  if (base.kind === 'refused') {
+  if (!base) return { ...plain, comparison: 'none' };
+  if (base.basePath === undefined || base.read === undefined || base.read.kind === 'absent') return { ...plain, comparison: 'new' };
+  if (base.read.kind === 'refused') {
     // A base version that cannot be read is never taken for "no base": the drop check would be skipped.
-    errors.push(refusalDiagnostic(base, file, 'config'));
+    errors.push(refusalDiagnostic(base.read, file, 'config'));
     return undefined;
   }
-  if (base.kind === 'absent') return { ...plain, comparison: 'new' };
-  const renamed = basePath !== path ? { renamedFrom: basePath } : {};
-  // A base config that no longer loads (under today's rules) is compared with nothing.
-  const baseModel = load(base.text, file, policy, []);
-  const baseEval = baseModel ? evaluatePolicy(baseModel, policy, { fixes: false }) : undefined;
-  if (!baseModel || !baseEval || !baseEval.ok) return { ...plain, ...renamed, comparison: 'new' };
-  const changes = diffModels(baseModel, model);
-  const deltas = result.requirements.map((q) => delta(q, baseEval.result, policy, changes, model));
+  const renamed = base.basePath !== path ? { renamedFrom: base.basePath } : {};
+  if (!base.answer) return { ...plain, ...renamed, comparison: 'new' };
+  const changes = diffModels(base.answer.model, model);
+  const deltas = result.requirements.map((q) => delta(q, base.answer!.result, policy, changes, model));
   const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
   return { file, path, policy, result, ...renamed, comparison: 'compared', deltas, changes, failing };
 }
 
-function load(text: string, file: string, policy: Policy, errors: Diagnostic[]): Model | undefined {
+export function loadConfig(text: string, file: string, policy: Policy, errors: Diagnostic[]): Model | undefined {
   const loaded = loadConfigText(text, file, policy.modelPath === undefined ? {} : { modelPath: policy.modelPath });
   if (!loaded.ok) {
     errors.push(...loaded.diagnostics);

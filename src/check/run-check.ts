@@ -20,7 +20,9 @@ import type { Fix } from '../policy/fix-search.js';
 import type { Bound } from '../cut/types.js';
 import { changesSince, ensureCommit, openRepo, resolveCommit, RevisionFiles, stagedChanges, type Changes, type Repo } from '../git/git.js';
 import { symlinkMessage } from '../files/work-tree.js';
-import { compareConfig } from './compare-config.js';
+import { startBaseEvaluation, type BaseAnswer, type BaseTask } from './base-evaluation.js';
+import { compareWithBase, evaluateHead, type EvaluatedHead } from './compare-config.js';
+import type { FileRead } from '../files/file-read.js';
 import { discoverConfigs, YAML_FILE, type Selector, type SkippedPath } from './discover-configs.js';
 import { indexFiles, workTreeFiles, type HeadFiles } from './head-files.js';
 import { JudgingFiles } from './judging-files.js';
@@ -190,12 +192,10 @@ export function runCheck(req: CheckRequest): CheckOutcome {
     selected = selected.filter((f) => changed.has(f) || policies.some((p) => policyChanged(p) && policyApplies(p, f)));
   }
 
-  const readHead = (rel: string) => head.read(rel);
-  const readBase = baseFiles ? (rel: string) => baseFiles.read(rel) : undefined;
   const governs = (p: Policy, path: string): boolean => (explicit && singleFile) || policyApplies(p, path);
   const checkable = (p: Policy, path: string): string | undefined => {
-    if (!governs(p, path)) return `outside the applies_to of policy ${p.id}`;
     if (!YAML_FILE.test(path)) return 'not a YAML file (.yaml or .yml)';
+    if (!governs(p, path)) return `outside the applies_to of policy ${p.id}`;
     const r = head.read(path);
     return r.kind === 'file' ? undefined : r.kind === 'refused' ? r.message : 'not there';
   };
@@ -208,7 +208,17 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   index?.prefetch(selected);
   baseFiles?.prefetch(selected.flatMap((p) => [p, renamedFrom.get(p) ?? p]));
 
-  const checked: CheckedConfig[] = [];
+  // Each slot is a finished entry (a removal) or a pair still to compare, in report order.
+  interface Pair {
+    readonly path: string;
+    readonly policy: Policy;
+    readonly head: FileRead;
+    readonly basePath: string | undefined;
+    readonly base: FileRead | undefined;
+    /** Index of the base version in the batch, when it must be evaluated. */
+    task?: number;
+  }
+  const slots: (CheckedConfig | Pair)[] = [];
   const policySkipped = new Set<string>();
   for (const path of selected) {
     const there = head.has(path);
@@ -220,26 +230,49 @@ export function runCheck(req: CheckRequest): CheckOutcome {
         continue;
       }
       if (there || !baseFiles?.entry(path)) {
-        const one = compareConfig(path, baseOf(path), display(path), policy, { head: readHead, ...(readBase ? { base: readBase } : {}) }, errors);
-        if (one) checked.push(one);
+        const basePath = baseOf(path);
+        slots.push({ path, policy, head: head.read(path), basePath, base: basePath === undefined ? undefined : baseFiles!.read(basePath) });
         continue;
       }
       // Governed at the base, not in the head: deleted, or renamed somewhere this policy does not check.
       const to = changes?.renames.get(path);
       const why = to === undefined ? undefined : checkable(policy, to);
       if (to !== undefined && why === undefined) continue; // compared at its new path
-      const failing = policy.removal === 'fail';
-      checked.push({
+      slots.push({
         file: display(path),
         path,
         policy,
         comparison: to === undefined ? 'deleted' : 'moved-out',
         ...(to !== undefined ? { movedTo: { path: to, why: why! } } : {}),
         changes: [],
-        failing,
+        failing: policy.removal === 'fail',
       });
     }
   }
+
+  // The base versions that differ from their heads are evaluated as one batch, beside the heads.
+  const tasks: BaseTask[] = [];
+  for (const slot of slots) {
+    if (!('head' in slot) || slot.base?.kind !== 'file') continue;
+    if (slot.head.kind === 'file' && slot.head.text === slot.base.text) continue;
+    slot.task = tasks.push({ text: slot.base.text, file: display(slot.path), policy: slot.policy }) - 1;
+  }
+  const collect = startBaseEvaluation(tasks);
+  const heads = slots.map((slot) => ('head' in slot ? evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors) : undefined));
+  const answers: readonly BaseAnswer[] = tasks.length > 0 ? collect() : [];
+  const checked: CheckedConfig[] = [];
+  slots.forEach((slot, i) => {
+    if (!('head' in slot)) {
+      checked.push(slot);
+      return;
+    }
+    const evaluated: EvaluatedHead | undefined = heads[i];
+    if (!evaluated) return;
+    // An unchanged base version has the head's own evaluation.
+    const answer = slot.task !== undefined ? answers[slot.task] : { model: evaluated.model, result: evaluated.result };
+    const one = compareWithBase(evaluated, baseFiles ? { basePath: slot.basePath, read: slot.base, answer } : undefined, errors);
+    if (one) checked.push(one);
+  });
   skipped.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
   return { root, ...(base ? { base } : {}), checked, notices, skipped, errors: dedupeDiagnostics(errors) };
 }

@@ -18,7 +18,7 @@ test('dist/ is the bundle of the current sources (run `npm run bundle` and commi
   const r = spawnSync(process.execPath, [join(REPO, 'scripts', 'bundle-action.mjs'), '--outdir', out], { cwd: out, encoding: 'utf8' });
   expect(r.stderr).toBe('');
   expect(r.status).toBe(0);
-  for (const name of ['action.js', 'package.json']) {
+  for (const name of ['action.js', 'base-worker.js', 'package.json']) {
     const built = readFileSync(join(out, name));
     const committed = readFileSync(join(REPO, 'dist', name));
     // Comparing buffers would print megabytes on a mismatch; the first differing offset says enough.
@@ -29,10 +29,12 @@ test('dist/ is the bundle of the current sources (run `npm run bundle` and commi
 });
 
 test('the bundle starts with the require shim and imports nothing outside Node', () => {
-  const text = readFileSync(join(REPO, 'dist', 'action.js'), 'utf8');
-  expect(text.split('\n', 1)[0]).toBe("import { createRequire as __createRequire } from 'module'; const require = __createRequire(import.meta.url);");
-  const imports = [...text.matchAll(/^import .* from ["']([^"']+)["'];?$/gm)].map((m) => m[1]!);
-  expect(imports.length).toBeGreaterThan(0);
-  // Anything else would have to be installed next to the action, which the runner never does.
-  expect(imports.filter((s) => !isBuiltin(s))).toEqual([]);
+  for (const file of ['action.js', 'base-worker.js']) {
+    const text = readFileSync(join(REPO, 'dist', file), 'utf8');
+    expect(text.split('\n', 1)[0]).toBe("import { createRequire as __createRequire } from 'module'; const require = __createRequire(import.meta.url);");
+    const imports = [...text.matchAll(/^import .* from ["']([^"']+)["'];?$/gm)].map((m) => m[1]!);
+    expect(imports.length).toBeGreaterThan(0);
+    // Anything else would have to be installed next to the action, which the runner never does.
+    expect(imports.filter((s) => !isBuiltin(s))).toEqual([]);
+  }
 });

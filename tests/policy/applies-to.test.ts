@@ -3,7 +3,7 @@
  * every platform, and the checks that keep patterns inside the repository.
  */
 import { describe, expect, test } from 'vitest';
-import { appliesToProblem, normaliseConfigPath } from '../../src/policy/applies-to.js';
+import { appliesToProblem, couldMatchBelow, normaliseConfigPath } from '../../src/policy/applies-to.js';
 import { policyApplies } from '../../src/policy/load-policy.js';
 import { HEAD, policyOf } from './helpers.js';
 
@@ -79,5 +79,26 @@ describe('pattern and path checks', () => {
 
   test('normaliseConfigPath', () => {
     expect(['a\\b.yaml', './a/b.yaml', 'a//b.yaml', 'a/b/', '.', '../a', 'D:/a'].map(normaliseConfigPath)).toEqual(['a/b.yaml', 'a/b.yaml', 'a/b.yaml', 'a/b/', undefined, undefined, undefined]);
+  });
+});
+
+describe('couldMatchBelow: can a file below a directory be selected?', () => {
+  const below = (patterns: string[], dirs: string[]) => dirs.map((d) => couldMatchBelow(patterns, d));
+  test('a static base prefix: only directories on the way to it or under it', () => {
+    expect(below(['examples/renal-*.yaml'], ['examples', 'examples/sub', 'other', 'ex'])).toEqual([true, false, false, false]);
+    expect(below(['models/vision/*.yaml'], ['models', 'models/vision', 'models/audio', 'models/vision/old'])).toEqual([true, true, false, false]);
+  });
+
+  test('** reaches every depth; a fixed-depth glob only its own', () => {
+    expect(below(['**/*.yaml'], ['node_modules', 'a/b/c', '.ci'])).toEqual([true, true, true]);
+    expect(below(['configs/**'], ['configs', 'configs/x/y', 'other'])).toEqual([true, true, false]);
+    expect(below(['configs/*/net.yaml'], ['configs', 'configs/a', 'configs/a/b'])).toEqual([true, true, false]);
+    expect(below(['*.yaml'], ['build', 'dist'])).toEqual([false, false]);
+  });
+
+  test('exclusions are not taken into account, braces and extglobs count as "anywhere"', () => {
+    expect(below(['!configs/**'], ['configs'])).toEqual([false]);
+    expect(below(['{a,b}/*.yaml'], ['c'])).toEqual([true]);
+    expect(below(['a/file.yaml'], ['a', 'a/file.yaml', 'b'])).toEqual([true, false, false]);
   });
 });

@@ -29,6 +29,15 @@ require:
     min_bits: 12.5
 `;
 
+test('removal: warn by default, fail when set, inherited through extends', () => {
+  expect(policyOf(HEAD).removal).toBe('warn');
+  expect(policyOf(`${HEAD}removal: fail\n`).removal).toBe('fail');
+  const parent = `${HEAD}removal: fail\n`;
+  const readFile = (): string => parent;
+  expect(policyOf('id: c\ndescription: d\nextends: parent.yaml\n', { repoRoot: '/virtual', file: '/virtual/c.yaml', readFile }).removal).toBe('fail');
+  expect(policyOf('id: c\ndescription: d\nextends: parent.yaml\nremoval: warn\n', { repoRoot: '/virtual', file: '/virtual/c.yaml', readFile }).removal).toBe('warn');
+});
+
 describe('a full valid policy', () => {
   const policy = policyOf(FULL, { file: 'policies/renal.yaml' });
 
@@ -148,6 +157,7 @@ describe('structural errors, with exact positions', () => {
 
   test('an unknown unproven value, at the policy and at a requirement', () => {
     expect(codesOf(`${HEAD}unproven: maybe\n`)).toEqual(['policy/invalid-value@3:11']);
+    expect(codesOf(`${HEAD}removal: ignore\n`)).toEqual(['policy/invalid-value@3:10']);
     const ds = failed(loadPolicyText(`${HEAD}require:\n  - {partition: left-right, min_rank: 4, unproven: fial}\n`, 'p.yaml', { repoRoot: '/' }));
     expect(ds.map(where)).toEqual(['policy/invalid-value@4:52']);
     expect(ds[0]!.message).toContain("did you mean 'fail'?");
