@@ -93,7 +93,8 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
 // `check --base` against the same check without it, through the built CLI in a scratch git
 // repository: 1,000 configs, every one changed by the head (the last width halved). A comparison
 // starts a fixed number of git processes, so what it adds is reading and evaluating the base
-// versions; the ratio says what that costs.
+// versions (on a worker thread when a core is idle, see src/check/base-evaluation.ts); the ratio
+// says what that costs, in wall time, on this machine as loaded as it is.
 {
   const { execFileSync, spawnSync } = await import('node:child_process');
   const { mkdtempSync, mkdirSync, writeFileSync, rmSync } = await import('node:fs');
@@ -116,11 +117,13 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   shapes.forEach((s, i) => writeFileSync(join(dir, 'configs', `c${String(i).padStart(4, '0')}.yaml`), config(s, s.last / 2)));
   git('add', '-A');
   git('commit', '-q', '-m', 'head: every last width halved');
-  const cli = new URL('../build/cli/main.js', import.meta.url).pathname;
+  const { fileURLToPath } = await import('node:url');
+  const cli = fileURLToPath(new URL('../build/cli/main.js', import.meta.url));
   const check = (...extra) => () => {
     const r = spawnSync(process.execPath, [cli, 'check', '--policy', 'policies', '--format', 'json', ...extra], { cwd: dir, env, maxBuffer: 1 << 30 });
     if (r.status !== 0 && r.status !== 1) throw new Error(`check ${extra.join(' ')} exited ${r.status}: ${r.stderr}`);
   };
+  const load = os.loadavg()[0].toFixed(1);
   // Alternated, so that a machine getting busier mid-run weighs on both sides alike.
   const samples = { without: [], base: [] };
   for (let i = 0; i < 3; i++) {
@@ -135,6 +138,6 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   const withBase = median(samples.base);
   console.log(`${'1,000 changed configs: check --base (CLI)'.padEnd(64)} ${withBase.toFixed(1).padStart(9)} ms (median of 3)`);
   console.log(`${'1,000 changed configs: the same check without --base (CLI)'.padEnd(64)} ${without.toFixed(1).padStart(9)} ms (median of 3)`);
-  console.log(`${'    ratio --base / without'.padEnd(64)} ${(withBase / without).toFixed(2).padStart(9)}`);
+  console.log(`${'    ratio --base / without'.padEnd(64)} ${(withBase / without).toFixed(2).padStart(9)}   (load average ${load} on ${os.availableParallelism()} cores)`);
   rmSync(dir, { recursive: true, force: true });
 }
