@@ -28,6 +28,8 @@ export interface PolicyRequest {
   readonly display: (rel: string) => string;
   /** The file name handed to the loader, which resolves it against the process's working directory. */
   readonly loaderPath: (rel: string) => string;
+  /** Receives the text of every file read, under the names diagnostics give it. */
+  readonly sources?: Map<string, string>;
 }
 
 export class MissingPolicyError extends Error {
@@ -46,11 +48,16 @@ export function loadJudgingPolicies(files: JudgingFiles, req: PolicyRequest, err
   files.prefetch(candidates);
 
   const read = new Set<string>();
+  const remember = (rel: string, text: string): string => {
+    req.sources?.set(req.display(rel), text);
+    req.sources?.set(req.loaderPath(rel), text);
+    return text;
+  };
   const readFile = (abs: string): string => {
     const rel = toRootRelative(req.root, abs);
     read.add(rel);
     const r = files.read(rel).read;
-    if (r.kind === 'file') return r.text;
+    if (r.kind === 'file') return remember(rel, r.text);
     if (r.kind === 'absent') throw Object.assign(new Error(`${rel} does not exist`), { code: 'ENOENT' });
     throw new ReadRefusedError(r.message, r.code);
   };
@@ -64,7 +71,7 @@ export function loadJudgingPolicies(files: JudgingFiles, req: PolicyRequest, err
       errors.push(refusalDiagnostic(r, req.display(rel), 'policy'));
       continue;
     }
-    const loaded = loadPolicyText(r.text, req.loaderPath(rel), { repoRoot: req.root }, readFile);
+    const loaded = loadPolicyText(remember(rel, r.text), req.loaderPath(rel), { repoRoot: req.root }, readFile);
     if (!loaded.ok) {
       errors.push(...loaded.diagnostics);
       continue;

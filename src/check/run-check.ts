@@ -102,6 +102,11 @@ export interface CheckOutcome {
   /** Files a policy (or the request) selects that are not checked, with the reason. */
   readonly skipped: readonly SkippedPath[];
   readonly errors: readonly Diagnostic[];
+  /**
+   * The text of each file the check read, by the name its diagnostics use: what an excerpt must
+   * quote (the base version of a policy, not the working tree's; never a file through a link).
+   */
+  readonly sources?: ReadonlyMap<string, string>;
 }
 
 /** A problem with the request itself (not with a file): the CLI reports it as a usage error. */
@@ -136,9 +141,10 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   // The loaders resolve paths against the process's working directory and report them as given:
   // short relative paths when that is the request's cwd, absolute ones otherwise.
   const loaderPath = (rel: string): string => (resolve(req.cwd) === process.cwd() ? display(rel) : resolve(root, rel));
+  const sources = new Map<string, string>();
   let loaded;
   try {
-    loaded = loadJudgingPolicies(judging, { rel: policyRel, root, display, loaderPath }, errors);
+    loaded = loadJudgingPolicies(judging, { rel: policyRel, root, display, loaderPath, sources }, errors);
   } catch (e) {
     if (!(e instanceof MissingPolicyError)) throw e;
     throw new CheckRequestError(`--policy ${req.policy}: no such file or directory${base ? ' at the base revision or in the working tree' : ''}`);
@@ -258,7 +264,11 @@ export function runCheck(req: CheckRequest): CheckOutcome {
     slot.task = tasks.push({ text: slot.base.text, file: display(slot.path), policy: slot.policy }) - 1;
   }
   const collect = startBaseEvaluation(tasks);
-  const heads = slots.map((slot) => ('head' in slot ? evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors) : undefined));
+  const heads = slots.map((slot) => {
+    if (!('head' in slot)) return undefined;
+    if (slot.head.kind === 'file') sources.set(display(slot.path), slot.head.text);
+    return evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors);
+  });
   const answers: readonly BaseAnswer[] = tasks.length > 0 ? collect() : [];
   const checked: CheckedConfig[] = [];
   slots.forEach((slot, i) => {
@@ -274,7 +284,7 @@ export function runCheck(req: CheckRequest): CheckOutcome {
     if (one) checked.push(one);
   });
   skipped.sort((a, b) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0));
-  return { root, ...(base ? { base } : {}), checked, notices, skipped, errors: dedupeDiagnostics(errors) };
+  return { root, ...(base ? { base } : {}), checked, notices, skipped, errors: dedupeDiagnostics(errors), sources };
 }
 
 function resolveBase(repo: Repo, req: CheckRequest): string | undefined {

@@ -70,11 +70,11 @@ export function checkCommand(args: readonly string[], io: Io): number {
     if (values.junit) writeReport(values.junit, junitReport(outcome));
   } catch (e) {
     if (!(e instanceof ReportWriteError)) throw e;
-    if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);
+    if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io, outcome.sources);
     io.stderr(`rankfloor: ${e.message}\n`);
     return EXIT_INPUT;
   }
-  if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io);
+  if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io, outcome.sources);
   if (outcome.errors.some((d) => d.severity === 'error')) return EXIT_INPUT;
   return outcome.checked.some((c) => c.failing) ? EXIT_FAIL : EXIT_OK;
 }

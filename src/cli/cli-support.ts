@@ -26,11 +26,14 @@ export function oneOf(value: string, allowed: readonly string[], option: string)
   return value;
 }
 
-/** Prints diagnostics (with the offending source line where it can be read) on stderr. */
-export function printDiagnostics(diagnostics: readonly Diagnostic[], io: Io): void {
-  const sources = new Map<string, string | undefined>();
+/**
+ * Prints diagnostics (with the offending source line where it can be read) on stderr. `given`
+ * holds the texts a command already read; a file named there is never read again from disk.
+ */
+export function printDiagnostics(diagnostics: readonly Diagnostic[], io: Io, given?: ReadonlyMap<string, string>): void {
+  const sources = new Map<string, string | undefined>(given);
   for (const d of diagnostics) {
-    if (!sources.has(d.file)) {
+    if (!sources.has(d.file) && !given) {
       let text: string | undefined;
       try {
         text = readFileSync(d.file, 'utf8');

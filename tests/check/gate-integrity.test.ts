@@ -5,11 +5,11 @@
  * applies_to, given another extension or deleted, a config under a directory a scan used to skip
  * by name, a config that is a link to a secret, and a base version missing from the object store.
  */
-import { mkdirSync, readFileSync, renameSync, rmSync, symlinkSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { runCli } from '../e2e/run-cli.js';
-import { makeRepo, removeTempDirs, type TempRepo } from '../git/git-fixture.js';
+import { makeRepo, removeTempDirs, tempDir, type TempRepo } from '../git/git-fixture.js';
 
 afterAll(removeTempDirs);
 
@@ -203,6 +203,20 @@ describe('links and the object store', () => {
       expect(r.stdout + r.stderr).not.toContain('PATH=');
       expect(codes(r.doc, r.stderr)).toEqual(['config/symlink', 'config/symlink']);
     }
+  });
+
+  test('an excerpt quotes the version that was read: the base policy, never a file behind the link of the head', () => {
+    const { repo, base } = gate({ 'policies/pairs.yaml': PAIRS.replace('applies_to', 'surogate: tree\napplies_to') });
+    const outside = tempDir('rankfloor-secret-');
+    writeFileSync(join(outside, 'secret.txt'), 'line one\nline two\nline three\nTOKEN=hunter2\n');
+    rmSync(join(repo.dir, 'policies/pairs.yaml'));
+    symlinkSync(join(outside, 'secret.txt'), join(repo.dir, 'policies/pairs.yaml'));
+    repo.commitAll('link the broken policy to a secret');
+    const r = runCli(['check', '--policy', 'policies', '--base', base], repo.dir);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('policies/pairs.yaml:4:1: error:');
+    expect(r.stderr).toContain(' 4 | surogate: tree');
+    expect(r.stderr).not.toContain('hunter2');
   });
 
   test('a base version missing from the object store is an error, not a new config', () => {
