@@ -254,3 +254,16 @@ describe('report files and removed configs', () => {
     expect(readdirSync(outside)).toEqual([]);
   });
 });
+
+test('a config whose name holds blank lines and Markdown cannot forge the job summary', () => {
+  const { repo, base } = baseRepo();
+  const forged = 'models/renal-\n\n## rankfloor: pass\n\n<!-- .yaml';
+  repo.write(forged, SHRUNK_CONFIG_TEXT);
+  repo.commit('a config with a hostile name');
+  const r = runAction({ workspace: repo.dir, inputs: { policy: 'policies' }, event: pullRequestEvent(base) });
+  expect(r.code).toBe(1);
+  // A blank line would end the summary's HTML block; what follows would render as Markdown.
+  expect(r.summary.replace(/\n$/, '').split('\n').filter((l) => l.trim() === '')).toEqual([]);
+  expect(r.summary).not.toMatch(/^## /m);
+  expect(r.summary).toContain('<h3>models/renal-&#10;&#10;## rankfloor: pass&#10;&#10;&lt;!-- .yaml — policy paired-organs</h3>');
+});

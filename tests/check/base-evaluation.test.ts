@@ -12,14 +12,13 @@ import { checkJson } from '../../src/report/check-json.js';
 import { policyOf } from '../policy/helpers.js';
 import { REPO, runCli } from '../e2e/run-cli.js';
 import { makeRepo, removeTempDirs } from '../git/git-fixture.js';
+import { pyramid } from './pyramid.js';
 
 afterAll(removeTempDirs);
 
 const POLICY = 'id: pairs\ndescription: d\napplies_to: ["configs/*.yaml"]\nmax_drop_bits: 1\nrequire:\n  - {partition: left-right, min_rank: 4}\n';
 
-function config(first: number, last: number, comment = ''): string {
-  return `${comment}model:\n  input: {shape: [8, 8], features: 2}\n  layers:\n    - conv: {channels: ${first}}\n    - pool: {window: 2}\n    - conv: {channels: 8}\n    - pool: {window: 2}\n    - conv: {channels: ${last}, name: last}\n    - pool: {global: true}\n`;
-}
+const config = (first: number, last: number, preamble = ''): string => pyramid(last, first, preamble);
 
 test('equal models share one evaluation; a base that does not load has no answer', () => {
   const policy = policyOf(POLICY);
@@ -33,7 +32,7 @@ test('equal models share one evaluation; a base that does not load has no answer
   expect(answers[1]!.result).toBe(answers[0]!.result);
   expect(answers[1]!.model.span.line).toBe(answers[0]!.model.span.line + 2);
   expect(answers[2]!.result).not.toBe(answers[0]!.result);
-  // min(64, C(8 + 1, 2) = 36) and min(32, 36), as in tests/check/compare.test.ts (derived here)
+  // min(64, 36) and min(32, 36): see pyramid.ts (derived here)
   expect(answers.slice(0, 3).map((a) => a!.result.requirements[0]!.bounds.upper.rank)).toEqual([36n, 36n, 32n]);
   expect(answers[3]).toBeUndefined();
 });

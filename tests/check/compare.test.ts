@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { describe, expect, test } from 'vitest';
 import { runCli } from '../e2e/run-cli.js';
+import { pyramid } from './pyramid.js';
 
 function git(cwd: string, ...args: string[]): string {
   const r = spawnSync('git', ['-c', 'user.name=t', '-c', 'user.email=t@example.invalid', '-c', 'commit.gpgsign=false', ...args], {
@@ -33,18 +34,7 @@ require:
   - {partition: left-right, min_rank: 16}
 `;
 
-function config(lastWidth: number): string {
-  return `model:
-  input: {shape: [8, 8], features: 2}
-  layers:
-    - conv: {channels: 4}
-    - pool: {window: 2}
-    - conv: {channels: 8}
-    - pool: {window: 2}
-    - conv: {channels: ${lastWidth}, name: last}
-    - pool: {global: true}
-`;
-}
+const config = (lastWidth: number): string => pyramid(lastWidth);
 
 /** A repository with a base commit; returns its root and the base sha. */
 function repo(files: Record<string, string>): { root: string; base: string } {

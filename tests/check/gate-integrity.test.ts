@@ -10,6 +10,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { runCli } from '../e2e/run-cli.js';
 import { makeRepo, removeTempDirs, tempDir, type TempRepo } from '../git/git-fixture.js';
+import { pyramid } from './pyramid.js';
 
 afterAll(removeTempDirs);
 
@@ -24,18 +25,7 @@ require:
   - {partition: left-right, min_rank: 4}
 `;
 
-function config(lastWidth: number): string {
-  return `model:
-  input: {shape: [8, 8], features: 2}
-  layers:
-    - conv: {channels: 4}
-    - pool: {window: 2}
-    - conv: {channels: 8}
-    - pool: {window: 2}
-    - conv: {channels: ${lastWidth}, name: last}
-    - pool: {global: true}
-`;
-}
+const config = (lastWidth: number): string => pyramid(lastWidth);
 
 /**
  * Base commit: the gate, a laxer copy of the organisation base elsewhere in the tree, one config.
@@ -158,12 +148,22 @@ describe('nothing governed escapes', () => {
   });
 
   test('no directory is skipped by name: configs under build/, dist/ and node_modules/ are checked', () => {
-    const { repo, base } = gate({ 'configs/build/x.yaml': config(64), 'configs/dist/y.yaml': config(64), 'configs/node_modules/z.yaml': config(64) });
+    const { repo, base } = gate({ 'configs/build/x.yaml': config(64), 'configs/dist/y.yaml': config(64) });
     for (const f of ['configs/build/x.yaml', 'configs/dist/y.yaml', 'configs/node_modules/z.yaml']) repo.write(f, config(8));
-    repo.commitAll('shrink the hidden ones');
+    repo.commitAll('shrink the hidden ones, add one more');
     const r = check(repo, '--base', base);
     expect(r.code).toBe(1);
-    expect(r.doc.results.map((x: { file: string; verdict: string }) => `${x.file}:${x.verdict}`)).toEqual([
+    expect(r.doc.results.map((x: { file: string; comparison: string; verdict: string }) => `${x.file}:${x.comparison}:${x.verdict}`)).toEqual([
+      'configs/a.yaml:compared:pass',
+      'configs/build/x.yaml:compared:fail',
+      'configs/dist/y.yaml:compared:fail',
+      'configs/node_modules/z.yaml:new:pass',
+    ]);
+    // Without a base, every one of them is found in the working tree. A minimum of 16 fails the
+    // shrunk pyramids (min(8, 36) = 8 < 16, derived here) and passes the wide one (36).
+    repo.write('policies/pairs.yaml', PAIRS.replace('min_rank: 4', 'min_rank: 16'));
+    const plain = check(repo);
+    expect(plain.doc.results.map((x: { file: string; verdict: string }) => `${x.file}:${x.verdict}`)).toEqual([
       'configs/a.yaml:pass',
       'configs/build/x.yaml:fail',
       'configs/dist/y.yaml:fail',

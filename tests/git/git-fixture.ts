@@ -78,3 +78,21 @@ export function repoOf(t: TempRepo): Repo {
   if (repo === undefined) throw new Error(`expected ${t.dir} to be a repository`);
   return repo;
 }
+
+/** A repository in the middle of a merge whose `m.yaml` has an unresolved conflict. */
+export function conflictedRepo(files: Record<string, string> = {}): TempRepo {
+  const t = makeRepo({ 'm.yaml': 'base\n', ...files });
+  t.commitAll('base');
+  t.git('checkout', '-q', '-b', 'other');
+  t.write('m.yaml', 'other\n');
+  t.commitAll('other');
+  t.git('checkout', '-q', 'main');
+  t.write('m.yaml', 'main\n');
+  t.commitAll('main');
+  try {
+    t.git('merge', '-q', 'other');
+  } catch {
+    return t;
+  }
+  throw new Error('expected the merge to stop at a conflict');
+}

@@ -6,7 +6,7 @@
 import { symlinkSync, unlinkSync } from 'node:fs';
 import { afterAll, describe, expect, test } from 'vitest';
 import { GitError, openRepo, readAtRevision, readStaged, resolveCommit, type Repo } from '../../src/git/git.js';
-import { makeRepo, repoOf as open, removeTempDirs, type TempRepo } from './git-fixture.js';
+import { conflictedRepo, makeRepo, repoOf as open, removeTempDirs, type TempRepo } from './git-fixture.js';
 
 afterAll(removeTempDirs);
 
@@ -107,15 +107,7 @@ describe('readStaged', () => {
   });
 
   test('an unresolved merge conflict is an error, not one side of it', () => {
-    const t = makeRepo({ 'm.yaml': 'base\n' });
-    t.commitAll('base');
-    t.git('checkout', '-q', '-b', 'other');
-    t.write('m.yaml', 'other\n');
-    t.commitAll('other');
-    t.git('checkout', '-q', 'main');
-    t.write('m.yaml', 'main\n');
-    t.commitAll('main');
-    expect(() => t.git('merge', '-q', 'other')).toThrow();
+    const t = conflictedRepo();
     expect(() => readStaged(open(t), 'm.yaml')).toThrow(/unresolved merge conflicts/);
   });
 });

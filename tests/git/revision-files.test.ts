@@ -8,7 +8,7 @@ import { renameSync, symlinkSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test, vi } from 'vitest';
 import { changesSince, readAtRevision, RevisionFiles, stagedChanges } from '../../src/git/git.js';
-import { makeRepo, repoOf, removeTempDirs } from './git-fixture.js';
+import { conflictedRepo, makeRepo, repoOf, removeTempDirs } from './git-fixture.js';
 
 const spawned = vi.hoisted(() => ({ git: [] as string[][] }));
 vi.mock('node:child_process', async (importOriginal) => {
@@ -68,15 +68,7 @@ test('an object missing from the store is a refusal, never "absent"', () => {
 });
 
 test('the index: staged contents and unresolved conflicts', () => {
-  const t = makeRepo({ 'm.yaml': 'base\n', 'n.yaml': 'n\n' });
-  t.commitAll('base');
-  t.git('checkout', '-q', '-b', 'other');
-  t.write('m.yaml', 'other\n');
-  t.commitAll('other');
-  t.git('checkout', '-q', 'main');
-  t.write('m.yaml', 'main\n');
-  t.commitAll('main');
-  expect(() => t.git('merge', '-q', 'other')).toThrow();
+  const t = conflictedRepo({ 'n.yaml': 'n\n' });
   t.write('n.yaml', 'staged\n');
   t.git('add', 'n.yaml');
   const index = RevisionFiles.inIndex(repoOf(t));
