@@ -57,9 +57,10 @@ export function measureJson(o: MeasureOutcome): string {
   return JSON.stringify(doc, null, 2) + '\n';
 }
 
-export function policyJson(w: PolicyWrite): { file: string; created: boolean; changes: { partition: string; action: string; min_rank: string; previous: string | null }[] } {
+export function policyJson(w: PolicyWrite): { file: string; written: boolean; created: boolean; changes: { partition: string; action: string; min_rank: string; previous: string | null }[] } {
   return {
     file: w.file,
+    written: w.written,
     created: w.created,
     changes: w.changes.map((c) => ({ partition: c.partition, action: c.action, min_rank: c.minRank.toString(), previous: c.action === 'added' ? null : c.previous.toString() })),
   };
@@ -118,7 +119,8 @@ function noteFor(p: PartitionMeasurement, r: Recommendation): string[] {
 /** What a write did to the policy, for the text reports of both commands. */
 export function policyWriteLines(w: PolicyWrite): string[] {
   const count = (a: string) => w.changes.filter((c) => c.action === a).length;
-  const lines = [`${w.created ? 'created' : 'updated'} ${w.file}: ${count('added')} added, ${count('raised')} raised, ${count('kept')} kept (an existing minimum is never lowered)`];
+  const tally = `${count('added')} added, ${count('raised')} raised, ${count('kept')} kept (an existing minimum is never lowered)`;
+  const lines = [w.written ? `${w.created ? 'created' : 'updated'} ${w.file}: ${tally}` : `${w.file} left as it was: ${w.changes.length === 0 ? 'no minimum to write' : tally}`];
   for (const c of w.changes) {
     if (c.action === 'added') lines.push(`  ${c.partition}: min_rank ${c.minRank}`);
     else if (c.action === 'raised') lines.push(`  ${c.partition}: min_rank ${c.previous} → ${c.minRank}`);

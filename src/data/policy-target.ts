@@ -49,6 +49,8 @@ export interface PolicyPartition {
 
 export interface PolicyWrite {
   readonly file: string;
+  /** False when nothing was added or raised: the file is then left as it was (or not created). */
+  readonly written: boolean;
   readonly created: boolean;
   readonly changes: readonly MinimumChange[];
 }
@@ -62,10 +64,11 @@ export function writePolicy(target: PolicyTarget, fresh: NewPolicy, minimums: re
     ? { text: target.text, effective: new Map(target.policy.requirements.map((r) => [partitionKey(r.partition), r.minRank] as const)) }
     : undefined;
   const { text, changes } = writeMinimums(existing, fresh, minimums);
+  if (!changes.some((c) => c.action !== 'kept')) return { file: target.file, written: false, created: false, changes };
   const check = loadPolicyText(text, target.file, { repoRoot });
   if (!check.ok) throw new Error(`the policy written for ${target.file} does not load: ${check.diagnostics.map((d) => d.message).join('; ')}`);
-  if (!existing || text !== existing.text) writeFileAtomic(target.file, text);
-  return { file: target.file, created: !existing, changes };
+  writeFileAtomic(target.file, text);
+  return { file: target.file, written: true, created: !existing, changes };
 }
 
 /** A policy id from a file name: `Digits Policy.yaml` → `digits-policy`. */

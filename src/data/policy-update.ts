@@ -43,33 +43,37 @@ export function writeMinimums(
   const doc = existing ? parseDocument(existing.text) : parseDocument(newPolicyText(fresh));
   const effective = existing?.effective ?? new Map<string, bigint>();
   const changes: MinimumChange[] = [];
-  let require = doc.get('require', true);
-  if (!isSeq(require)) {
-    require = new YAMLSeq();
-    doc.set('require', require);
-  }
-  const seq = require as YAMLSeq;
-  seq.flow = false;
+  const present = doc.get('require', true);
+  let seq: YAMLSeq | undefined = isSeq(present) ? present : undefined;
+  const requireList = (): YAMLSeq => {
+    if (!seq) {
+      seq = new YAMLSeq();
+      doc.set('require', seq);
+    }
+    seq.flow = false;
+    return seq;
+  };
   for (const m of minimums) {
     const previous = effective.get(partitionKey(m.partition));
     if (previous !== undefined && previous >= m.minRank) {
       changes.push({ partition: m.partition, action: 'kept', minRank: m.minRank, previous });
       continue;
     }
-    const index = seq.items.findIndex((item) => isMap(item) && partitionKey(scalarText(item.get('partition', true)) ?? '') === partitionKey(m.partition));
+    const list = requireList();
+    const index = list.items.findIndex((item) => isMap(item) && partitionKey(scalarText(item.get('partition', true)) ?? '') === partitionKey(m.partition));
     const comment = wrapComment(m.evidence);
     if (index >= 0) {
-      const item = seq.items[index] as YAMLMap;
+      const item = list.items[index] as YAMLMap;
       item.delete('min_bits');
       item.set('min_rank', rankValue(doc, m.minRank));
       // The first item's comment belongs to the sequence; the justification of the old value goes.
-      if (index === 0) seq.commentBefore = undefined;
+      if (index === 0) list.commentBefore = undefined;
       item.commentBefore = comment;
     } else {
       const item = doc.createNode({ partition: m.partition, min_rank: rankValue(doc, m.minRank) }) as YAMLMap;
       item.flow = true;
       item.commentBefore = comment;
-      seq.items.push(item);
+      list.items.push(item);
     }
     changes.push(previous === undefined ? { partition: m.partition, action: 'added', minRank: m.minRank } : { partition: m.partition, action: 'raised', minRank: m.minRank, previous });
   }

@@ -1,10 +1,10 @@
 /**
  * A policy file is written whole or not at all: the text goes to a new temporary file in the
- * same directory (created exclusively, so an existing file or a symbolic link there is never
+ * same directory (the directory is made if missing; the file is created exclusively, so an existing file or a symbolic link there is never
  * followed), is flushed, and is renamed over the target. A target that is a symbolic link is
  * refused rather than replaced or followed.
  */
-import { closeSync, fsyncSync, lstatSync, openSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { closeSync, fsyncSync, lstatSync, mkdirSync, openSync, renameSync, unlinkSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 
 export class UnsafeTargetError extends Error {
@@ -25,7 +25,7 @@ export function writeFileAtomic(path: string, text: string): void {
     if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw e;
   }
   const dir = dirname(path);
-  if (!statSync(dir).isDirectory()) throw new UnsafeTargetError(`${dir} is not a directory`);
+  mkdirSync(dir, { recursive: true });
   const tmp = join(dir, `.${basename(path)}.${process.pid}.${counter++}.tmp`);
   const fd = openSync(tmp, 'wx', mode);
   try {
