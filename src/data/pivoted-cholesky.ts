@@ -36,29 +36,33 @@ export function pivotedCholesky(g: Float64Array, n: number, stride: number = n):
     let j = -1;
     let best = stop;
     for (let i = 0; i < n; i++) {
-      if (!pivoted[i] && d[i]! > best) {
+      if (pivoted[i] === 0 && d[i]! > best) {
         best = d[i]!;
         j = i;
       }
     }
     if (j < 0) break;
     pivoted[j] = 1;
-    const col = columns.subarray(rank * n, rank * n + n);
-    for (let i = 0; i < n; i++) col[i] = g[i * stride + j]!;
+    // Column `rank` of L: (G[:, j] − Σ_m L[:, m]·L[j, m]) / √d[j], zero on the rows pivoted before.
+    const base = rank * n;
+    for (let i = 0; i < n; i++) columns[base + i] = g[i * stride + j]!;
     for (let m = 0; m < rank; m++) {
-      const prev = columns.subarray(m * n, m * n + n);
-      const lj = prev[j]!;
+      const prev = m * n;
+      const lj = columns[prev + j]!;
       if (lj === 0) continue;
-      for (let i = 0; i < n; i++) col[i]! -= prev[i]! * lj;
+      for (let i = 0; i < n; i++) columns[base + i]! -= columns[prev + i]! * lj;
     }
-    for (let i = 0; i < n; i++) if (pivoted[i]) col[i] = 0;
-    const pivot = Math.sqrt(best);
+    const inverse = 1 / Math.sqrt(best);
     for (let i = 0; i < n; i++) {
-      if (pivoted[i]) continue;
-      col[i]! /= pivot;
-      d[i]! -= col[i]! * col[i]!;
+      if (pivoted[i] === 1) {
+        columns[base + i] = 0;
+        continue;
+      }
+      const l = columns[base + i]! * inverse;
+      columns[base + i] = l;
+      d[i]! -= l * l;
     }
-    col[j] = pivot;
+    columns[base + j] = Math.sqrt(best);
   }
   return { n, rank, columns: columns.slice(0, rank * n) };
 }
