@@ -83,6 +83,10 @@ export function openJsonl(file: string, options: OpenOptions): OpenResult {
     return { ok: false, diagnostics: [dataError('data/empty', records.count === 0 ? 'the file holds no records' : 'the sequences are empty', file)] };
   }
   const positions = length;
+  if (options.shape && (options.shape.length !== 1 || options.shape[0] !== positions)) {
+    records.close();
+    return { ok: false, diagnostics: [dataError('data/shape', `--shape ${options.shape.join(',')} does not match the sequences' length ${positions}; token sequences are 1D (use --length to cut or pad them)`, file)] };
+  }
   const pad = -1;
   const source: DataSource = {
     file,

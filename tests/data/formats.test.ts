@@ -203,6 +203,7 @@ describe('JSON Lines token sequences', () => {
     ['d.jsonl', '{"words": []}\n', {}, 'data/jsonl@1:1'],
     ['e.jsonl', '["a"]\n', { labelColumn: 'label' }, 'data/jsonl@1:1'],
     ['f.jsonl', '{"tokens": ["a"], "class": null}\n', { labelColumn: 'class' }, 'data/jsonl@1:1'],
+    ['g.jsonl', '["a", "b"]\n', { shape: [2, 1] }, 'data/shape@-'],
   ])('%s: %j', (name, text, options, expected) => {
     expect(where(failure(write(name, text), options)).startsWith(expected)).toBe(true);
   });
