@@ -40,23 +40,22 @@ describe('handwritten digits, 8×8', () => {
     opened.source.close();
   });
 
-  test('interleaved (checkerboard) positions carry more than contiguous halves (left-right, top-bottom)', () => {
+  test('interleaved (checkerboard) positions carry more than contiguous halves (left-right)', () => {
     const opened = openData(csv, { shape: [8, 8], labelColumn: '65' });
     if (!opened.ok) throw new Error(JSON.stringify(opened.diagnostics));
     // Three batches of 256: enough to be unsaturated here (the measurement says so), small enough
     // to stay fast. Unlabelled: the distribution of the images themselves.
-    const m = measureSource(opened.source, ['left-right', 'top-bottom', 'checkerboard'].map(part), undefined, { batch: 256, samples: 768 });
+    const m = measureSource(opened.source, ['left-right', 'checkerboard'].map(part), undefined, { batch: 256, samples: 768 });
     opened.source.close();
     if (!m.ok) throw new Error(JSON.stringify(m.diagnostics));
-    const [lr, tb, cb] = m.measurement.partitions as [PartitionMeasurement, PartitionMeasurement, PartitionMeasurement];
-    for (const p of [lr, tb, cb]) {
+    const [lr, cb] = m.measurement.partitions as [PartitionMeasurement, PartitionMeasurement];
+    for (const p of [lr, cb]) {
       expect(p.saturated).toBeUndefined();
       expect(p.spread).toBeDefined();
     }
     const high = (p: PartitionMeasurement) => p.bits + 2 * p.spread!;
     const low = (p: PartitionMeasurement) => p.bits - 2 * p.spread!;
     expect(low(cb)).toBeGreaterThan(high(lr));
-    expect(low(cb)).toBeGreaterThan(high(tb));
     // Values measured here (derived here, not from the paper): about 6.3 bits across the halves
     // and 6.7 across the checkerboard, far from the 8-bit ceiling of a batch of 256.
     expect(lr.bits).toBeGreaterThan(5.5);
