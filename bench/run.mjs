@@ -140,4 +140,59 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   console.log(`${'1,000 changed configs: the same check without --base (CLI)'.padEnd(64)} ${without.toFixed(1).padStart(9)} ms (median of 3)`);
   console.log(`${'    ratio --base / without'.padEnd(64)} ${(withBase / without).toFixed(2).padStart(9)}   (load average ${load} on ${os.availableParallelism()} cores)`);
   rmSync(dir, { recursive: true, force: true });
+// `rankfloor measure` on invented data: grey 28×28 "ink blot" images (two to four Gaussian blots
+// each, 8-bit), written as a .npy file; every built-in 2D partition. Each run is a child process,
+// so the peak memory printed is that run's own.
+{
+  const { mkdtempSync, writeFileSync, rmSync } = await import('node:fs');
+  const { join } = await import('node:path');
+  const { spawnSync } = await import('node:child_process');
+  const inkBlots = (n) => {
+    let s = 7;
+    const random = () => {
+      s = (s * 1103515245 + 12345) % 2147483648;
+      return s / 2147483648;
+    };
+    const data = new Uint8Array(n * 784);
+    for (let k = 0; k < n; k++) {
+      const blots = Array.from({ length: 2 + Math.floor(random() * 3) }, () => [6 + random() * 16, 6 + random() * 16, 1.5 + random() * 2.5]);
+      for (let y = 0; y < 28; y++) {
+        for (let x = 0; x < 28; x++) {
+          const v = blots.reduce((a, [cx, cy, r]) => a + Math.exp(-((x - cx) ** 2 + (y - cy) ** 2) / (2 * r * r)), 0);
+          data[k * 784 + y * 28 + x] = Math.min(255, Math.round(255 * v));
+        }
+      }
+    }
+    return data;
+  };
+  const npy = (data, shape) => {
+    let header = `{'descr': '|u1', 'fortran_order': False, 'shape': (${shape.join(', ')}), }`;
+    header += ' '.repeat((64 - ((10 + header.length + 1) % 64)) % 64) + '\n';
+    const head = Buffer.from([0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59, 1, 0, 0, 0]);
+    head.writeUInt16LE(header.length, 8);
+    return Buffer.concat([head, Buffer.from(header, 'latin1'), Buffer.from(data)]);
+  };
+  const dir = mkdtempSync(join(os.tmpdir(), 'rankfloor-bench-'));
+  const run = (label, file, batch, samples) => {
+    const r = spawnSync(process.execPath, [new URL('./measure-data.mjs', import.meta.url).pathname, file, String(batch), ...(samples ? [String(samples)] : [])], { encoding: 'utf8' });
+    if (r.status !== 0) throw new Error(r.stderr);
+    const out = JSON.parse(r.stdout);
+    console.log(`${label.padEnd(64)} ${out.ms.toFixed(0).padStart(9)} ms, peak ${out.maxRssMiB.toFixed(0)} MiB`);
+    for (const p of out.partitions) console.log(`    ${p.partition.padEnd(14)} ${p.bits.toFixed(2)} bits${p.saturated ? ` (saturated: ${p.saturated})` : ''}`);
+  };
+  console.log(`(measure runs below: load average ${os.loadavg()[0].toFixed(1)} on ${os.cpus().length} cores at their start)`);
+  try {
+    const ten = join(dir, 'blots-10k.npy');
+    writeFileSync(ten, npy(inkBlots(10000), [10000, 28, 28]));
+    run('measure: 10,000 × 28×28, 3 partitions, batch 256 (default)', ten, 256);
+    run('measure: 10,000 × 28×28, 3 partitions, batch 128', ten, 128);
+    const hundred = join(dir, 'blots-100k.npy');
+    const block = inkBlots(10000);
+    const big = new Uint8Array(100000 * 784);
+    for (let i = 0; i < 10; i++) big.set(block, i * block.length);
+    writeFileSync(hundred, npy(big, [100000, 28, 28]));
+    run('measure: a 100,000 × 28×28 file (78 MB), 2,048 of its samples', hundred, 256, 2048);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
 }

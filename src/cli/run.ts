@@ -5,6 +5,8 @@
  */
 import { boundsCommand } from './bounds-command.js';
 import { checkCommand } from './check-command.js';
+import { measureCommand } from './measure-command.js';
+import { ratchetCommand } from './ratchet-command.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, type Io } from './cli-support.js';
 
 export type { Io } from './cli-support.js';
@@ -13,6 +15,8 @@ export { EXIT_FAIL, EXIT_INPUT, EXIT_OK } from './cli-support.js';
 const USAGE = `usage:
   rankfloor bounds CONFIG [--partition P]... [--model-path PTR] [--surrogate tree|overlap] [--format text|json]
   rankfloor check --policy FILE|DIR [CONFIG...] [--format text|json] [--quiet] [--root DIR]
+  rankfloor measure DATA [--shape H,W] [--labels FILE | --label-column C] [--partition P]... [--policy FILE [--write]] [--batch N] [--format text|json]
+  rankfloor ratchet CONFIG [--policy FILE [--write]] [--margin BITS] [--partition P]... [--surrogate tree|overlap] [--format text|json]
 
 partitions: start-end, interleaved (1D); left-right, top-bottom, checkerboard (2D);
             positions:0,2,5; block:r0-r1,c0-c1 (2D) or block:a-b (1D), half-open ranges
@@ -27,6 +31,10 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
         return boundsCommand(rest, io);
       case 'check':
         return checkCommand(rest, io);
+      case 'measure':
+        return measureCommand(rest, io);
+      case 'ratchet':
+        return ratchetCommand(rest, io);
       case undefined:
       case 'help':
       case '--help':
