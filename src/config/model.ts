@@ -168,7 +168,11 @@ export interface PointwiseLayer extends LayerBase {
 export interface MergeLayer extends LayerBase {
   readonly kind: 'merge';
   readonly mode: 'sum' | 'concat';
-  /** The YAML construct that made it, for reports. */
+  /**
+   * The YAML construct that made it, for reports. Input order: a residual block reads
+   * [main path, shortcut]; branches read their paths in order; a skip reads [the current grid,
+   * the named layer].
+   */
   readonly origin: 'residual' | 'branches' | 'skip';
 }
 

@@ -4,7 +4,7 @@
  * here is sound on its own; when none proves a lower bound, the partition is `upper-only`.
  */
 import type { Diagnostic } from '../diagnostic.js';
-import type { LayeredModel, Model } from '../config/model.js';
+import { INPUT, representationOf, type LayeredModel, type Model, type RecurrentLayer } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
 import { OP_INPUT, type Circuit } from '../network/circuit.js';
@@ -14,6 +14,10 @@ import { degreeBound, binomial } from './degree-bound.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
+import { rankPropagation } from './rank-propagation.js';
+import { specialCases } from './special-cases.js';
+import type { ModelShapes } from '../config/model-shapes.js';
+import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
 import { log2Big } from './types.js';
 
@@ -54,33 +58,23 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   if (!built.ok) return built;
   const circuit = built.circuit;
   const notes = [...built.notes];
-  // Lower bounds are proven on a tree network: the model's own, or for `overlap` its kernel-1
-  // special case (zero every off-centre tap), which exists when every conv keeps the grid.
-  let lowerCircuit: Circuit | undefined = circuit.sums ? undefined : circuit;
   if (circuit.sums) {
-    const keepsGrid = model.layers.every(
-      (l) => l.kind !== 'conv' || (l.stride.every((s) => s === 1) && (l.padding === 'same' || l.kernel.every((k) => k === 1))),
-    );
-    if (keepsGrid) {
-      const tree = buildCircuit(model, { ...options, surrogate: 'tree' });
-      if (tree.ok) lowerCircuit = tree.circuit;
-    }
-    notes.push('overlap surrogate: each index of the min-cut carries one extra constant coordinate (dimension + 1), so that window sums are contractions');
+    notes.push('the network has sums (overlapping windows, merges, flatten + dense): a min-cut index carries one extra constant coordinate (dimension + 1), and rank propagation adds the ranks of summed terms');
   }
   const augment = circuit.sums ? 1 : 0;
   const upperWeights = new Float64Array(circuit.size);
   for (let v = 0; v < circuit.size; v++) upperWeights[v] = Math.log2(circuit.dim[v]! + augment);
   const hasRecurrent = model.layers.some((l) => l.kind === 'recurrent');
-  const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : undefined;
   // Sibling subtrees compute the same function only with shared weights in a uniform tree.
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
+  const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    // Choose by log2 first: the loser may have millions of digits and is never written out.
-    const useDegree = deg !== null && deg.log2 < cut.value - 1e-9;
-    if (Math.min(cut.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
+    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
+    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    if (best > MAX_RANK_BITS) {
       return {
         diagnostic: {
           code: 'network/rank-too-large',
@@ -91,28 +85,68 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
         },
       };
     }
-    let upper = useDegree ? makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) : makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment);
-    if (deg && !useDegree && cut.value - deg.log2 < 1) {
-      // Close call in log2 (log-gamma is approximate): compare the exact values.
-      const exact = deg.rank();
-      if (exact < upper.rank) upper = makeBound(exact, 'degree', circuit, deg.counts, 0);
+    // Choose by log2 first: the losers may have millions of digits and are never written out.
+    // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
+    const candidates: { log2: number; make: () => Bound | undefined }[] = [
+      { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
+    ];
+    if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
+    if (prop && prop.rank !== undefined) {
+      const rank = prop.rank;
+      candidates.push({ log2: prop.log2, make: () => makeBound(rank, 'rank propagation', circuit, prop.counts, 0) });
+    }
+    let upper: Bound | undefined;
+    for (const c of candidates) {
+      if (c.log2 > best + 1) continue;
+      const b = c.make();
+      if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
     const lowers: Bound[] = [];
-    if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
-    else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit, p.side));
-    if (lowerCircuit && model.weightSharing && !hasRecurrent) {
-      const top = topWindowLower(lowerCircuit, p.side);
-      if (top !== undefined) lowers.push({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] });
-    }
+    for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
     const shallow = shallowRecurrentLower(model, p);
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
-    return finish(p.label, { upper, lower });
+    return finish(p.label, { upper: upper!, lower });
   };
   return { ok: true, notes, bounds };
+}
+
+interface LowerNetwork {
+  readonly lower: (side: Uint8Array) => Bound[];
+}
+
+/**
+ * The sum-free networks whose lower bounds are lower bounds of the model: the model's own network
+ * when it has no sums, else its special cases (special-cases.ts) that have none.
+ */
+function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: ModelShapes, reading: PointwiseReading, hasRecurrent: boolean): LowerNetwork[] {
+  const out: LowerNetwork[] = [];
+  for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
+    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate });
+    if (!built.ok || built.circuit.sums) continue;
+    const c = built.circuit;
+    const suffix = sc.how ? ` (${sc.how})` : '';
+    // Power rounding needs a tensor network: no reuse, no shared weights, no recurrence.
+    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : undefined;
+    const topWindow = model.weightSharing && !hasRecurrent && !c.reuse;
+    out.push({
+      lower: (side) => {
+        const found: Bound[] = [];
+        const tag = (b: Bound): Bound => ({ ...b, method: b.method + suffix });
+        if (rounding) found.push(tag(roundingLower(c, side, rounding)));
+        found.push(tag(diagonalLower(c, side)));
+        if (topWindow) {
+          const top = topWindowLower(c, side);
+          if (top !== undefined) found.push(tag({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] }));
+        }
+        return found;
+      },
+    });
+  }
+  return out;
 }
 
 function finish(label: string, b: { upper: Bound; lower: Bound | null }): PartitionBounds {
@@ -212,15 +246,14 @@ function diagonalLower(c: Circuit, side: Uint8Array): Bound {
  * depth for long-term memory of recurrent networks").
  */
 function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== 'recurrent' || first.depth !== 2) return undefined;
-  if (rest.some((l) => l.kind !== 'dense')) return undefined;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 2) return undefined;
   if (model.input.shape.length !== 1) return undefined;
   const t = model.input.shape[0]!;
   if (t % 2 !== 0) return undefined;
   const startEnd = resolvePartition('start-end', model.input.shape);
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return undefined;
-  const m = Math.min(model.input.features, first.hidden);
+  const m = Math.min(representationOf(model)!, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: 'published depth-2 recurrent', cut: [] };
 }
@@ -233,15 +266,14 @@ function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | und
  * by Sylvester's inequality rank ≥ ρ_A + ρ_B − R. One weight choice suffices for a lower bound.
  */
 function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== 'recurrent' || first.depth !== 1) return undefined;
-  if (rest.some((l) => l.kind !== 'dense')) return undefined;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 1) return undefined;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
-  const m = model.input.features;
+  const m = representationOf(model)!;
   const span = (count: number): bigint => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
@@ -249,6 +281,17 @@ function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undef
   const bound = span(a) + span(b) - r;
   if (bound <= 1n) return undefined;
   return { rank: bound, log2: log2Big(bound), method: 'shallow recurrent span', cut: [] };
+}
+
+/**
+ * The recurrent layer of a model that is one recurrent layer on the raw input followed only by a
+ * head (dense and pointwise layers on its single output position, all linear there).
+ */
+function recurrentOnInput(model: LayeredModel): RecurrentLayer | undefined {
+  const [first, ...rest] = model.layers;
+  if (!first || first.kind !== 'recurrent' || first.inputs[0] !== INPUT) return undefined;
+  if (rest.some((l) => l.kind !== 'dense' && l.kind !== 'pointwise')) return undefined;
+  return first;
 }
 
 function sameMask(a: Uint8Array, b: Uint8Array): boolean {
