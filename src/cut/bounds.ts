@@ -91,9 +91,14 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
     ];
     if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
-    if (prop && prop.rank !== undefined) {
-      const rank = prop.rank;
-      candidates.push({ log2: prop.log2, make: () => makeBound(rank, 'rank propagation', circuit, prop.counts, 0) });
+    if (prop) {
+      candidates.push({
+        log2: prop.log2,
+        make: () => {
+          const rank = prop.rank();
+          return rank === undefined ? undefined : makeBound(rank, 'rank propagation', circuit, prop.counts, 0);
+        },
+      });
     }
     let upper: Bound | undefined;
     for (const c of candidates) {

@@ -102,8 +102,8 @@ const FROM_SIDE_B = 5;
 export interface RankPropagation {
   /** log2 of the bound (from the log pass; the exact value may differ in the last digits). */
   readonly log2: number;
-  /** The exact bound, or undefined when some node's value exceeds the bit limit. */
-  readonly rank: bigint | undefined;
+  /** The exact bound, or undefined when some node's value exceeds the bit limit (computed on demand). */
+  readonly rank: () => bigint | undefined;
   /** The widths that enter the bound: tag → dimension → count. */
   readonly counts: CutCounts;
 }
@@ -112,30 +112,96 @@ export interface RankPropagation {
 const MAX_BITS = 4_000_000;
 
 export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
-  const logs = propagate(c, side, LOG);
+  const plan = planOf(c);
+  const logs = propagate(c, plan, side, LOG);
   let largest = 0;
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v]!, logs.rb[v]!);
-  const log2 = logs.lam[c.top]!;
-  if (largest > MAX_BITS) return { log2, rank: undefined, counts: recordWidths(c, logs) };
-  const exact = propagate(c, side, EXACT);
-  return { log2, rank: big(exact.lam[c.top]!), counts: recordWidths(c, exact) };
+  const rank = (): bigint | undefined => (largest > MAX_BITS ? undefined : big(propagate(c, plan, side, EXACT).lam[c.top]!));
+  return { log2: logs.lam[c.top]!, rank, counts: recordWidths(c, plan, logs) };
+}
+
+/**
+ * What the passes need about the circuit's shape, computed once per circuit: the linear source of
+ * every node, the distinct children of each product with their multiplicities, and the terms of
+ * each sum (children grouped by their linear source).
+ */
+interface Plan {
+  readonly source: Int32Array;
+  /** Product v: children childOf[start[v] .. start[v+1]) with multiplicity times[...]. */
+  readonly start: Int32Array;
+  readonly childOf: Int32Array;
+  readonly times: Int32Array;
+  /** Sum v: terms [start[v] .. start[v+1]); term t carries node childOf[t] and members members[mStart[t] .. mStart[t+1]). */
+  readonly mStart: Int32Array;
+  readonly members: Int32Array;
+}
+
+const plans = new WeakMap<Circuit, Plan>();
+
+function planOf(c: Circuit): Plan {
+  const hit = plans.get(c);
+  if (hit) return hit;
+  const { op, childStart, childList } = c;
+  const source = new Int32Array(c.size);
+  const start = new Int32Array(c.size + 1);
+  const childOf: number[] = [];
+  const times: number[] = [];
+  const mStart: number[] = [0];
+  const members: number[] = [];
+  for (let v = 0; v < c.size; v++) {
+    start[v] = childOf.length;
+    source[v] = op[v] === OP_LINEAR ? source[childList[childStart[v]!]!]! : v;
+    if (op[v] !== OP_PRODUCT && op[v] !== OP_SUM) continue;
+    const counts = new Map<number, number>();
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) counts.set(childList[i]!, (counts.get(childList[i]!) ?? 0) + 1);
+    if (op[v] === OP_PRODUCT) {
+      for (const [ch, k] of counts) {
+        childOf.push(ch);
+        times.push(k);
+        mStart.push(members.length);
+      }
+      continue;
+    }
+    const bySource = new Map<number, number[]>();
+    for (const ch of counts.keys()) {
+      const g = bySource.get(source[ch]!);
+      if (g) g.push(ch);
+      else bySource.set(source[ch]!, [ch]);
+    }
+    for (const [src, group] of bySource) {
+      childOf.push(group.length === 1 ? group[0]! : src);
+      times.push(1);
+      if (group.length > 1) members.push(...group);
+      mStart.push(members.length);
+    }
+  }
+  start[c.size] = childOf.length;
+  const plan: Plan = {
+    source,
+    start,
+    childOf: Int32Array.from(childOf),
+    times: Int32Array.from(times),
+    mStart: Int32Array.from(mStart),
+    members: Int32Array.from(members),
+  };
+  plans.set(c, plan);
+  return plan;
 }
 
 interface Propagated<T> {
   readonly dep: Uint8Array;
   readonly ra: T[];
   readonly rb: T[];
-  readonly kap: T[];
   readonly lam: T[];
   readonly whyA: Uint8Array;
   readonly whyB: Uint8Array;
   readonly whyL: Uint8Array;
-  readonly source: Int32Array;
 }
 
-function propagate<T>(c: Circuit, side: Uint8Array, ar: Arith<T>): Propagated<T> {
+function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): Propagated<T> {
   const n = c.size;
   const { op, dim, childStart, childList } = c;
+  const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
   const ra: T[] = new Array<T>(n).fill(ar.one);
   const rb: T[] = new Array<T>(n).fill(ar.one);
@@ -144,11 +210,9 @@ function propagate<T>(c: Circuit, side: Uint8Array, ar: Arith<T>): Propagated<T>
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
-  const source = new Int32Array(n);
   const min = (a: T, b: T): T => (ar.le(a, b) ? a : b);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
-    source[v] = kind === OP_LINEAR ? source[childList[childStart[v]!]!]! : v;
     if (kind === OP_INPUT) {
       const onA = side[c.position[v]!] === 1;
       dep[v] = onA ? 1 : 2;
@@ -160,6 +224,14 @@ function propagate<T>(c: Circuit, side: Uint8Array, ar: Arith<T>): Propagated<T>
     let d = 0;
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
     dep[v] = d;
+    // A node that reads one side only (or nothing) is a function of that side: ranks 1, except
+    // with its output index on the far side, where its dimension caps them.
+    if (d !== 3) {
+      const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
+      if (d === 1) rb[v] = own >= 0 ? min(rb[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
+      if (d === 2) ra[v] = own >= 0 ? min(ra[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
+      continue;
+    }
     const D = ar.of(dim[v]!);
     let a: T;
     let b: T;
@@ -176,104 +248,58 @@ function propagate<T>(c: Circuit, side: Uint8Array, ar: Arith<T>): Propagated<T>
       a = ar.one;
       b = ar.one;
       k = ar.one;
-      for (const [ch, times] of multiplicities(c, v)) {
-        a = ar.mul(a, ar.symPow(ra[ch]!, times));
-        b = ar.mul(b, ar.symPow(rb[ch]!, times));
-        k = ar.mul(k, ar.symPow(kap[ch]!, times));
+      for (let t = start[v]!; t < start[v + 1]!; t++) {
+        const ch = childOf[t]!;
+        const m = times[t]!;
+        a = ar.mul(a, m === 1 ? ra[ch]! : ar.symPow(ra[ch]!, m));
+        b = ar.mul(b, m === 1 ? rb[ch]! : ar.symPow(rb[ch]!, m));
+        k = ar.mul(k, m === 1 ? kap[ch]! : ar.symPow(kap[ch]!, m));
       }
       l = ar.mul(D, k);
       lWhy = FROM_DIM_KAPPA;
     } else if (kind === OP_SUM) {
-      ({ a, b, l } = sumRule(c, v, dep, ra, rb, lam, source, ar));
+      ({ a, b, l } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
       k = l;
     } else {
       throw new Error(`rank propagation: unknown node kind ${kind}`);
     }
-    if (d !== 3) {
-      // A node that reads one side only (or nothing) is a function of that side.
-      k = ar.one;
-      l = ar.one;
-      if (d !== 2) a = ar.one;
-      if (d !== 1) b = ar.one;
-    }
-    const why = d === 3 ? FROM_CHILDREN : FROM_PURE;
-    whyA[v] = why;
-    whyB[v] = why;
-    whyL[v] = d === 3 ? lWhy : FROM_PURE;
+    whyA[v] = FROM_CHILDREN;
+    whyB[v] = FROM_CHILDREN;
+    whyL[v] = lWhy;
     const viaB = ar.mul(D, b);
     const viaA = ar.mul(D, a);
     const viaK = ar.mul(D, k);
-    let na = a;
-    let nb = b;
-    if (!ar.le(na, min(viaB, viaK))) {
-      na = min(viaB, viaK);
+    if (!ar.le(a, min(viaB, viaK))) {
       whyA[v] = ar.le(viaB, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      a = min(viaB, viaK);
     }
-    if (!ar.le(nb, min(viaA, viaK))) {
-      nb = min(viaA, viaK);
+    if (!ar.le(b, min(viaA, viaK))) {
       whyB[v] = ar.le(viaA, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      b = min(viaA, viaK);
     }
-    if (!ar.le(l, min(na, nb))) {
-      l = min(na, nb);
-      whyL[v] = ar.le(na, nb) ? FROM_SIDE_A : FROM_SIDE_B;
+    if (!ar.le(l, min(a, b))) {
+      whyL[v] = ar.le(a, b) ? FROM_SIDE_A : FROM_SIDE_B;
+      l = min(a, b);
     }
-    ra[v] = na;
-    rb[v] = nb;
+    ra[v] = a;
+    rb[v] = b;
     lam[v] = l;
     kap[v] = min(k, l);
   }
-  return { dep, ra, rb, kap, lam, whyA, whyB, whyL, source };
+  return { dep, ra, rb, lam, whyA, whyB, whyL };
 }
 
-/** Each distinct child of v with the number of times it appears. */
-function multiplicities(c: Circuit, v: number): Map<number, number> {
-  const m = new Map<number, number>();
-  for (let i = c.childStart[v]!; i < c.childStart[v + 1]!; i++) {
-    const ch = c.childList[i]!;
-    m.set(ch, (m.get(ch) ?? 0) + 1);
-  }
-  return m;
+/** A term's rank: its node's, or, for several linear images of one node, the smaller of that and their sum. */
+function termRank<T>(plan: Plan, t: number, r: T[], ar: Arith<T>): T {
+  const { childOf, mStart, members } = plan;
+  const node = childOf[t]!;
+  if (mStart[t + 1] === mStart[t]) return r[node]!;
+  let sum: T = r[members[mStart[t]!]!]!;
+  for (let i = mStart[t]! + 1; i < mStart[t + 1]!; i++) sum = ar.add(sum, r[members[i]!]!);
+  return ar.le(r[node]!, sum) ? r[node]! : sum;
 }
 
-interface Term {
-  /** The node whose ranks the term carries. */
-  readonly node: number;
-  /** Several children that are linear images of `node`: the term is min(node, their sum). */
-  readonly members: readonly number[];
-}
-
-/** The terms of a sum: children grouped by the node they are linear images of. */
-function sumTerms(c: Circuit, v: number, source: Int32Array): Term[] {
-  const bySource = new Map<number, number[]>();
-  for (const ch of multiplicities(c, v).keys()) {
-    const s = source[ch]!;
-    const g = bySource.get(s);
-    if (g) g.push(ch);
-    else bySource.set(s, [ch]);
-  }
-  const terms: Term[] = [];
-  for (const [s, members] of bySource) terms.push(members.length === 1 ? { node: members[0]!, members: [] } : { node: s, members });
-  return terms;
-}
-
-function termRank<T>(t: Term, r: T[], ar: Arith<T>): T {
-  if (t.members.length === 0) return r[t.node]!;
-  let sum: T = r[t.members[0]!]!;
-  for (const m of t.members.slice(1)) sum = ar.add(sum, r[m]!);
-  return ar.le(r[t.node]!, sum) ? r[t.node]! : sum;
-}
-
-function sumRule<T>(
-  c: Circuit,
-  v: number,
-  dep: Uint8Array,
-  ra: T[],
-  rb: T[],
-  lam: T[],
-  source: Int32Array,
-  ar: Arith<T>,
-): { a: T; b: T; l: T } {
-  const D = ar.of(c.dim[v]!);
+function sumRule<T>(plan: Plan, v: number, D: T, dep: Uint8Array, ra: T[], rb: T[], lam: T[], ar: Arith<T>): { a: T; b: T; l: T } {
   const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
   let a: T | undefined;
   let b: T | undefined;
@@ -284,19 +310,19 @@ function sumRule<T>(
   let constant = false;
   let pureAonB: T | undefined;
   let pureBonA: T | undefined;
-  for (const t of sumTerms(c, v, source)) {
-    const d = dep[t.node]!;
+  for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
+    const d = dep[plan.childOf[t]!]!;
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB = plus(pureAonB, termRank(t, rb, ar));
+      pureAonB = plus(pureAonB, termRank(plan, t, rb, ar));
     } else if (d === 2) {
       pureB = true;
-      pureBonA = plus(pureBonA, termRank(t, ra, ar));
+      pureBonA = plus(pureBonA, termRank(plan, t, ra, ar));
     } else {
-      a = plus(a, termRank(t, ra, ar));
-      b = plus(b, termRank(t, rb, ar));
-      l = plus(l, termRank(t, lam, ar));
+      a = plus(a, termRank(plan, t, ra, ar));
+      b = plus(b, termRank(plan, t, rb, ar));
+      l = plus(l, termRank(plan, t, lam, ar));
     }
   }
   // A constant term is a function of either side: it joins a pure group when there is one.
@@ -322,8 +348,8 @@ function sumRule<T>(
  * The widths behind the bound: walks the choices from the head down and counts each node whose
  * dimension multiplied in. A bound that is a sum of terms names the widths of every term.
  */
-function recordWidths<T>(c: Circuit, p: Propagated<T>): CutCounts {
-  const { dep, whyA, whyB, whyL, source } = p;
+function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
+  const { dep, whyA, whyB, whyL } = p;
   const counts: CutCounts = new Map();
   const seen = new Set<number>();
   const note = (v: number): void => {
@@ -346,7 +372,7 @@ function recordWidths<T>(c: Circuit, p: Propagated<T>): CutCounts {
     const kind = c.op[v];
     if (kind === OP_CONST) continue;
     const why = which === A ? whyA[v]! : which === B ? whyB[v]! : which === L ? whyL[v]! : FROM_CHILDREN;
-    if (kind === OP_INPUT || why === FROM_PURE) {
+    if (kind === OP_INPUT || dep[v] !== 3 || why === FROM_PURE) {
       // A one-sided value crosses only through its own index.
       if (farSide(v, which)) note(v);
       continue;
@@ -362,16 +388,18 @@ function recordWidths<T>(c: Circuit, p: Propagated<T>): CutCounts {
     }
     if (kind === OP_SUM) {
       const sub = which === K ? L : which;
-      for (const t of sumTerms(c, v, source)) {
-        if (dep[t.node] === 3) stack.push([t.node, sub]);
-        else if (farSide(t.node, sub)) note(v);
+      for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
+        const node = plan.childOf[t]!;
+        if (dep[node] === 3) stack.push([node, sub]);
+        else if (farSide(node, sub)) note(v);
       }
       continue;
     }
-    for (let i = c.childStart[v]!; i < c.childStart[v + 1]!; i++) {
-      const ch = c.childList[i]!;
-      stack.push([ch, kind === OP_LINEAR && which === K ? L : which]);
+    if (kind === OP_PRODUCT) {
+      for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) stack.push([plan.childOf[t]!, which]);
+      continue;
     }
+    stack.push([c.childList[c.childStart[v]!]!, which === K ? L : which]);
   }
   return counts;
 }
