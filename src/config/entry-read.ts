@@ -39,6 +39,7 @@ export function chainOf(r: EntryRead, ctx: ReadContext, layers: readonly MadeLay
 /** Reports a missing required field at the body and returns false. */
 export function requireField(r: EntryRead, field: string, what: string, ctx: ReadContext): boolean {
   if (r.fields.has(field)) return true;
+  if (r.fields.wasSuggested(field)) return false;
   ctx.sink.error('config/missing-field', `${displayPath(r.entry.body)} is missing '${field}' (${what})`, r.entry.body.span);
   return false;
 }

@@ -14,6 +14,10 @@ import { normaliseWord } from './pointwise-ops.js';
 
 export class LayerFields {
   private readonly values = new Map<string, LocatedEntry>();
+  /** Canonical fields that an unknown key was suggested as (a misspelt required field). */
+  private readonly suggested = new Set<string>();
+  /** False when a key was unknown, refused or given twice (already reported). */
+  ok = true;
 
   constructor(
     /** The node messages name as the body. */
@@ -50,9 +54,6 @@ export class LayerFields {
     }
   }
 
-  /** False when a key was unknown, refused or given twice (already reported). */
-  ok = true;
-
   private unknown(entry: LocatedEntry, path: string, sink: DiagnosticSink): void {
     this.ok = false;
     if (entry.key === '<<') {
@@ -62,6 +63,8 @@ export class LayerFields {
     const spellings = this.specs.flatMap((s) => (s.refused ? [] : [s.name, ...(s.aliases ?? [])]));
     const guess = closest(normaliseWord(entry.key), spellings.map(normaliseWord));
     const said = guess ? spellings.find((s) => normaliseWord(s) === guess) : undefined;
+    const meant = said ? this.specs.find((s) => s.name === said || s.aliases?.includes(said)) : undefined;
+    if (meant) this.suggested.add(meant.name);
     const read = this.specs.filter((s) => !s.ignored && !s.refused).map((s) => s.name);
     sink.error(
       'config/unknown-field',
@@ -76,6 +79,11 @@ export class LayerFields {
 
   has(name: string): boolean {
     return this.values.has(name);
+  }
+
+  /** An unknown key was reported with "did you mean" this field (so its absence is not reported again). */
+  wasSuggested(name: string): boolean {
+    return this.suggested.has(name);
   }
 
   /** The key as written, for messages. */

@@ -5,7 +5,7 @@
  * once, however often it is copied.
  */
 import type { Located } from './located-value.js';
-import { displayPath, pointerOf } from './located-value.js';
+import { describeValue, displayPath, pointerOf } from './located-value.js';
 import type { ReadContext } from './field-readers.js';
 import { readText } from './field-readers.js';
 import { readLayerEntry } from './layer-entry.js';
@@ -39,6 +39,9 @@ const READERS: Record<ReaderKind, KindReader> = {
   add: readSkip,
   concat: readSkip,
 };
+
+/** Kinds whose whole body may be a scalar: `- activation: relu`, `- dropout: 0.1`. */
+const SCALAR_BODIES = new Set<ReaderKind>(['activation', 'pointwise']);
 
 /** Names that reports make up or that `from:` gives a meaning of its own. */
 const RESERVED = new Set(['input']);
@@ -76,6 +79,11 @@ export function readLayerList(node: Located, ctx: ReadContext, allowEmpty = fals
 function readLayer(item: Located, ctx: ReaderContext): Template | undefined {
   const entry = readLayerEntry(item, ctx.sink);
   if (!entry) return undefined;
+  if (entry.scalar && !SCALAR_BODIES.has(entry.match.reader)) {
+    const s = entry.scalar;
+    ctx.sink.error('config/type', `${displayPath(s)} must be a mapping of the layer's fields, got ${describeValue(s)}; e.g. '- ${entry.kindWritten}: {…}'`, s.span);
+    return undefined;
+  }
   const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
   const nameNode = fields.get('name');
   const text = nameNode ? readName(nameNode, ctx) : undefined;

@@ -27,7 +27,9 @@ describe('repeat expansion', () => {
       [6, 'pool', '/model/layers/1/repeat/layers/1', 2],
       [7, 'dense', '/model/layers/2', undefined],
     ]);
-    expect(m.layers.map((l) => l.name)).toEqual(['stem', undefined, 'down', undefined, 'down', undefined, 'down', undefined]);
+    // copies of a named layer are numbered from 1, so every layer has one label
+    expect(m.layers.map((l) => l.name)).toEqual(['stem', undefined, 'down[1]', undefined, 'down[2]', undefined, 'down[3]', undefined]);
+    expect(m.layers.map((l) => l.inputs)).toEqual([[-1], [0], [1], [2], [3], [4], [5], [6]]);
   });
 
   test('spans of expanded layers point at the inner YAML', () => {
