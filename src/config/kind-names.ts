@@ -132,7 +132,7 @@ export function lookupKind(written: string): KindLookup {
       message: `'${written}' layers are not read yet: this version reads convolutional, pooling, dense and simple recurrent layers; gated recurrent, embedding and attention layers are planned`,
     };
   }
-  const guess = closest(base, [...SUGGESTIONS.keys()]);
+  const guess = closest(base, [...SUGGESTIONS.keys()]) ?? closest(base.replace(/[123]d/g, ''), [...SUGGESTIONS.keys()]);
   const shown = guess ? SUGGESTIONS.get(guess) : undefined;
   return {
     ok: false,

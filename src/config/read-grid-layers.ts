@@ -47,6 +47,7 @@ export function readPool(r: EntryRead, ctx: ReaderContext): Template | undefined
   }
   const sizeNode = r.fields.get('output_size');
   if (sizeNode) {
+    global = true;
     const size = readPerAxis(sizeNode, ctx);
     if (size === undefined) ok = false;
     else if (size.some((n) => n !== 1)) {
@@ -56,7 +57,7 @@ export function readPool(r: EntryRead, ctx: ReaderContext): Template | undefined
         sizeNode.span,
       );
       ok = false;
-    } else global = true;
+    }
   } else if (match.adaptive) {
     ok = requireField(r, 'output_size', 'the output size; only 1 is read', ctx) && ok;
   }
