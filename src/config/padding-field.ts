@@ -18,7 +18,6 @@ export function readPadding(node: Located, ctx: ReadContext, words: readonly Pad
     const amount = readPerAxis(node, ctx, 0);
     return amount && { mode: 'explicit', amount };
   }
-  const shown = [...words, 'an integer per side'];
-  const word = readChoice(node, ctx, new Map(words.map((w) => [w, w])), shown);
+  const word = readChoice(node, ctx, new Map(words.map((w) => [w, w])), words);
   return word && { mode: word };
 }

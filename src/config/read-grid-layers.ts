@@ -81,6 +81,7 @@ export function readPool(r: EntryRead, ctx: ReaderContext): Template | undefined
     return chainOf(r, ctx, [{ body: { kind: 'pool', mode, window: [], stride: [], padding: { mode: 'valid' }, global: true }, site: r.site, labelled: true }], false);
   }
   if (!windowNode) {
+    if (r.fields.wasSuggested('window')) return undefined;
     ctx.sink.error('config/missing-field', `${displayPath(r.entry.body)} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, r.entry.body.span);
     return undefined;
   }
