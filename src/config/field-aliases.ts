@@ -4,10 +4,12 @@
  * keeps its YAML node and the entry its written key, so spans and messages still point at what the
  * user wrote, and the builder can tell which spelling was used. Giving an alias together with its
  * canonical name (or two aliases of one field) is an error, reported at every spelling after the
- * first. Layer fields have their own table (`layer-vocabulary.ts`).
+ * first. Keys are compared like layer fields (case, `_` and `-` ignored: `inChannels`). Layer
+ * fields have their own table (`layer-vocabulary.ts`).
  */
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { displayPath, fieldOf, type Located, type LocatedEntry, type LocatedMap } from './located-value.js';
+import { normaliseWord } from './pointwise-ops.js';
 
 /** Alias → canonical field of `model.input`. `features` is the data's channels, not M. */
 export const INPUT_ALIASES: ReadonlyMap<string, string> = new Map([
@@ -16,16 +18,21 @@ export const INPUT_ALIASES: ReadonlyMap<string, string> = new Map([
   ['num_channels', 'channels'],
 ]);
 
+const INPUT_FIELDS = ['shape', 'channels', 'representation'];
+
 export function normaliseFieldAliases(root: Located, sink: DiagnosticSink): void {
   if (root.kind !== 'map') return;
   const input = fieldOf(root, 'input');
-  if (input?.kind === 'map') normaliseBody(input, INPUT_ALIASES, sink);
+  if (input?.kind === 'map') normaliseBody(input, INPUT_FIELDS, INPUT_ALIASES, sink);
 }
 
-function normaliseBody(body: LocatedMap, aliases: ReadonlyMap<string, string>, sink: DiagnosticSink): void {
+function normaliseBody(body: LocatedMap, fields: readonly string[], aliases: ReadonlyMap<string, string>, sink: DiagnosticSink): void {
+  const bySpelling = new Map<string, string>();
+  for (const f of fields) bySpelling.set(normaliseWord(f), f);
+  for (const [alias, canonical] of aliases) bySpelling.set(normaliseWord(alias), canonical);
   const byCanonical = new Map<string, LocatedEntry[]>();
   for (const entry of body.entries) {
-    const canonical = aliases.get(entry.key) ?? entry.key;
+    const canonical = bySpelling.get(normaliseWord(entry.key)) ?? entry.key;
     const group = byCanonical.get(canonical) ?? [];
     group.push(entry);
     byCanonical.set(canonical, group);

@@ -9,32 +9,33 @@ import type { DiagnosticSink } from './diagnostic-sink.js';
 import { displayPath, entryOf, fieldOf, type LocatedMap } from './located-value.js';
 import { fieldSpansOf, positiveIntegerListOf, positiveIntegerOf, nonNegativeIntegerOf } from './located-read.js';
 import type { InputSpec, OutputSpec } from './model.js';
+import { normaliseWord } from './pointwise-ops.js';
 
 /** Reads `input` (already schema-checked; undefined when it is not valid). */
 export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink): InputSpec | undefined {
   if (!node) return undefined;
   const shapeNode = fieldOf(node, 'shape');
-  const written = positiveIntegerListOf(shapeNode);
+  const given = positiveIntegerListOf(shapeNode);
   const channelsNode = fieldOf(node, 'channels');
   const channels = positiveIntegerOf(channelsNode);
   const reprNode = fieldOf(node, 'representation');
   const representation = positiveIntegerOf(reprNode);
-  if (!shapeNode || !written || written.length < 1 || written.length > 3) return undefined;
+  if (!shapeNode || !given || given.length < 1 || given.length > 3) return undefined;
   if ((channelsNode && channels === undefined) || (reprNode && representation === undefined)) return undefined;
-  let shape = written;
-  if (written.length === 3) {
+  let shape = given;
+  if (given.length === 3) {
     const at = displayPath(shapeNode);
-    const text = `[${written.join(', ')}]`;
+    const text = `[${given.join(', ')}]`;
     if (channels === undefined) {
       sink.error(
         'config/input-shape',
-        `${at} is ${text}: only 1D ([length]) and 2D ([height, width]) grids are supported; if one entry is the channel count, give it as input.channels too (e.g. channels: ${Math.min(written[0]!, written[2]!)}) and it is dropped, or write the shape without it`,
+        `${at} is ${text}: only 1D ([length]) and 2D ([height, width]) grids are supported; if one entry is the channel count, give it as input.channels too (e.g. channels: ${Math.min(given[0]!, given[2]!)}) and it is dropped, or write the shape without it`,
         shapeNode.span,
       );
       return undefined;
     }
-    const first = written[0] === channels ? written.slice(1) : undefined;
-    const last = written[2] === channels ? written.slice(0, 2) : undefined;
+    const first = given[0] === channels ? given.slice(1) : undefined;
+    const last = given[2] === channels ? given.slice(0, 2) : undefined;
     if (first && last && (first[0] !== last[0] || first[1] !== last[1])) {
       sink.error('config/input-shape', `${at} is ${text}, and both its first and its last entry equal input.channels (${channels}); write [height, width]`, shapeNode.span);
       return undefined;
@@ -50,7 +51,8 @@ export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink): I
     }
     shape = kept;
   }
-  const featuresAsChannels = entryOf(node, 'channels')?.writtenKey === 'features';
+  const written = entryOf(node, 'channels')?.writtenKey;
+  const featuresAsChannels = written !== undefined && normaliseWord(written) === 'features';
   return {
     shape,
     ...(representation !== undefined ? { representation } : {}),
