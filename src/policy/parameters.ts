@@ -10,7 +10,7 @@
  * a scale and a shift per channel (2 · width; RMS normalisation: a scale only), PReLU a slope per
  * channel; other pointwise layers, pools, upsampling, flatten and merges have none.
  */
-import { INPUT, positionCount, type Layer, type LayeredModel } from '../config/model.js';
+import { INPUT, layerWidth, positionCount, type Layer, type LayeredModel } from '../config/model.js';
 import { inferShapes, type ModelShapes } from '../config/model-shapes.js';
 
 const AFFINE_NORMS = new Set(['batch_norm', 'layer_norm', 'group_norm', 'instance_norm']);
@@ -36,15 +36,11 @@ export function parameterCount(model: LayeredModel): bigint {
 
 /** Width of the real layer's output given its inputs' widths (the inferred widths start from M). */
 function outWidth(layer: Layer, d: number, ins: readonly number[], inGrid: readonly number[]): number {
+  const own = layerWidth(layer);
+  if (own !== undefined) return own;
   switch (layer.kind) {
     case 'conv':
-      return layer.channels ?? (layer.groups === 'depthwise' ? d * layer.depthMultiplier : d);
-    case 'conv-transpose':
-      return layer.channels;
-    case 'dense':
-      return layer.units;
-    case 'recurrent':
-      return layer.hidden;
+      return layer.groups === 'depthwise' ? d * layer.depthMultiplier : d;
     case 'flatten':
       return d * positionCount(inGrid);
     case 'merge':

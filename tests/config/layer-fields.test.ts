@@ -5,7 +5,8 @@
  */
 import { describe, expect, test } from 'vitest';
 import type { Layer } from '../../src/config/model.js';
-import { afterConv, bodyOf, codesAt, diagnostics, withConv } from './helpers.js';
+import { inferShapes } from '../../src/config/model-shapes.js';
+import { afterConv, bodyOf, codesAt, diagnostics, loadLayered, withConv } from './helpers.js';
 
 const value = (layer: Layer, field: string): unknown => (layer as unknown as Record<string, unknown>)[field];
 
@@ -154,15 +155,16 @@ describe('field errors, at the field', () => {
 describe('transposed conv padding words', () => {
   test('same gives an output of n·stride; valid removes nothing', () => {
     // derived here from the output length (n−1)·s − 2p + e + q: same needs −2p + e + q = s
-    const [same, valid, small] = afterConv(
-      ['conv_transpose: {channels: 2, kernel: 3, stride: 2, padding: same}', 'conv_transpose: {channels: 2, kernel: 3, stride: 2, padding: valid}', 'conv_transpose: {channels: 2, kernel: 1, stride: 3, padding: valid}'],
-      '[5, 5]',
-    );
-    expect([same, valid, small].map((l) => l!.kind === 'conv-transpose' && [l.padding, l.outputPadding])).toEqual([
+    const entries = ['conv_transpose: {channels: 2, kernel: 3, stride: 2, padding: same}', 'conv_transpose: {channels: 2, kernel: 3, stride: 2, padding: valid}', 'conv_transpose: {channels: 2, kernel: 1, stride: 3, padding: valid}'];
+    const [same, valid, small] = afterConv(entries, '[5, 5]');
+    expect([same, valid, small].map((l) => (l?.kind === 'conv-transpose' ? [l.padding, l.outputPadding] : undefined))).toEqual([
       [[1, 1], [1, 1]],
       [[0, 0], [0, 0]],
       [[0, 0], [2, 2]],
     ]);
+    // 5 → 5·2 = 10 (same); 10 → 9·2 + 3 = 21 (valid); 21 → 21·3 = 63 (valid, kernel below the stride)
+    const shapes = inferShapes(loadLayered(withConv(entries, '[5, 5]')));
+    expect(shapes.ok && shapes.shapes.layers.slice(1).map((l) => l.shape[0])).toEqual([10, 21, 63]);
   });
 });
 

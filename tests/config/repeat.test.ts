@@ -115,6 +115,17 @@ describe('the expansion cap', () => {
     expect(d[0]!.message).toContain('1000000000000001 layers');
   });
 
+  test('a repeat inside a block is blamed at its times; the blocks count their merges', () => {
+    const text = layered(
+      '    - conv: {channels: 2}\n    - residual:\n        layers:\n          - repeat: {times: 9997, layers: [{conv: {channels: 2}}]}\n        activation: relu\n',
+    );
+    // 1 + 9997 + the merge + its activation = 10000: allowed; one more copy is not
+    expect(loadLayered(text).layers).toHaveLength(10000);
+    const d = diagnostics(text.replace('9997', '9998'));
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/too-many-layers@9:29']);
+    expect(d[0]!.message).toContain('model.layers[1].residual.layers[0].repeat.times is 9998');
+  });
+
   test('the biggest of several top-level repeats is blamed', () => {
     const text = layered('    - repeat: {times: 3000, layers: [{dense: {units: 1}}]}\n    - repeat: {times: 4000, layers: [{dense: {units: 1}}, {dense: {units: 1}}]}\n');
     expect(codesAt(text)).toEqual(['config/too-many-layers@7:23']);
