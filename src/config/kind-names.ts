@@ -107,9 +107,6 @@ for (const r of ROWS) for (const w of r.words) SUGGESTIONS.set(normaliseWord(w),
 /** The documented spellings of every kind, main name first (README table, tests). */
 export const KIND_SPELLINGS: readonly (readonly string[])[] = ROWS.map((r) => r.words);
 
-/** The canonical kind names, in the order the README lists them. */
-export const CANONICAL_KINDS = ['conv', 'conv_transpose', 'separable_conv', 'pool', 'dense', 'flatten', 'upsample', 'recurrent', 'repeat', 'residual', 'branches', 'add', 'concat', 'sequence', 'activation'] as const;
-
 /** `conv2d` → `conv`; `conv3d` → `conv` with `dims3` set. */
 function splitDimension(word: string): { base: string; dims3: boolean } {
   const n = normaliseWord(word);

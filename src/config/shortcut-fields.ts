@@ -8,7 +8,7 @@
 import type { Located } from './located-value.js';
 import { displayPath, pointerOf } from './located-value.js';
 import type { PointwiseOp } from './pointwise-ops.js';
-import { opsOf, pointwiseOpOf } from './pointwise-ops.js';
+import { normaliseWord, opsOf, pointwiseOpOf } from './pointwise-ops.js';
 import { pointwiseOpNamed } from './kind-names.js';
 import { lookupChoice, readBoolean, readRate, type ReadContext } from './field-readers.js';
 import type { LayerFields } from './layer-fields.js';
@@ -57,7 +57,7 @@ export function readShortcutFields(fields: LayerFields, ctx: ReadContext): MadeL
     if (!node) continue;
     const on = readBoolean(node, ctx);
     if (on === undefined) ok = false;
-    else if (on) norms.push({ field, node, op: pointwiseOpOf(opName.replace(/_/g, ''))! });
+    else if (on) norms.push({ field, node, op: pointwiseOpOf(normaliseWord(opName))! });
   }
   if (norms.length > 1) {
     const second = norms[1]!;
@@ -98,7 +98,7 @@ function readNorm(node: Located, ctx: ReadContext): PointwiseOp | null | undefin
   if (isNone(node)) return null;
   if (node.kind === 'scalar' && typeof node.value === 'string') {
     const short = lookupChoice(node.value, NORM_WORDS);
-    const op = short !== undefined ? pointwiseOpOf(short.replace(/_/g, '')) : pointwiseOpNamed(node.value);
+    const op = short !== undefined ? pointwiseOpOf(normaliseWord(short)) : pointwiseOpNamed(node.value);
     if (op?.family === 'normalisation') return op;
   }
   return badOp(node, ctx, 'a normalisation', [...NORM_WORDS.keys(), 'none']);
