@@ -44,8 +44,6 @@ export function readPointwise(r: EntryRead, ctx: ReaderContext): Template | unde
   if (r.entry.scalar && op.family !== 'dropout') {
     ctx.sink.error('config/type', `${displayPath(r.entry.scalar)} must be a mapping of the layer's fields (or nothing), got ${String(r.entry.scalar.value)}`, r.entry.scalar.span);
     ok = false;
-  } else if (r.entry.scalar && r.fields.has('rate')) {
-    ok = false;
   } else if (rateNode && readRate(rateNode, ctx) === undefined) ok = false;
   if (!ok) return undefined;
   return chainOf(r, ctx, [{ body: { kind: 'pointwise', family: op.family, op: op.op }, site: r.site, labelled: true }], false);

@@ -77,7 +77,7 @@ describe('entry form errors', () => {
     expect(d[0]!.message).toBe("model.layers[1]: unknown layer kind 'Conv2dd' (did you mean 'conv'?)");
   });
 
-  test('a scalar body where the kind needs fields, and a rate given twice', () => {
+  test('a scalar body where the kind needs fields', () => {
     expect(codesAt(withConv(['relu: 3', 'dense: 10']))).toEqual(['config/type@7:13', 'config/type@8:14']);
   });
 
