@@ -92,6 +92,11 @@ export interface ConvLayer extends LayerBase {
   readonly groups: number | 'depthwise';
   /** Output channels per input channel of a depthwise conv (1 unless the config says otherwise). */
   readonly depthMultiplier: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 export interface ConvTransposeLayer extends LayerBase {
@@ -105,6 +110,11 @@ export interface ConvTransposeLayer extends LayerBase {
   /** Extra positions added at the end of each axis. */
   readonly outputPadding: readonly number[];
   readonly groups: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 /** What the real network computes in a pool; every mode is a product in the arithmetic surrogate. */
@@ -126,6 +136,11 @@ export interface PoolLayer extends LayerBase {
 export interface DenseLayer extends LayerBase {
   readonly kind: 'dense';
   readonly units: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 /** Turns the grid into one position holding every position's vector, in row-major order. */
