@@ -19,7 +19,7 @@ import { specialCases } from './special-cases.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
-import { log2Big } from './types.js';
+import { HUGE_RANK, MAX_RANK_BITS, log2Big } from './types.js';
 
 export interface BoundsOptions {
   readonly surrogate: Surrogate;
@@ -28,8 +28,7 @@ export interface BoundsOptions {
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };
 
-/** Ranks above this many bits are not written out as integers. */
-export const MAX_RANK_BITS = 4_000_000;
+export { MAX_RANK_BITS } from './types.js';
 
 export function computeBounds(model: Model, partitions: readonly Partition[], options: BoundsOptions): BoundsOutcome {
   if (model.kind === 'explicit') {
@@ -75,15 +74,11 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
     const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
     if (best > MAX_RANK_BITS) {
-      return {
-        diagnostic: {
-          code: 'network/rank-too-large',
-          message: `the bound for partition '${p.label}' has more than ${MAX_RANK_BITS} bits; analyse a smaller input`,
-          file: model.file,
-          span: model.span,
-          severity: 'error',
-        },
-      };
+      // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
+      const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
+      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
+      const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
+      return finish(p.label, { upper, lower: bestLower(p) });
     }
     // Choose by log2 first: the losers may have millions of digits and are never written out.
     // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
@@ -106,6 +101,9 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const b = c.make();
       if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
+    return finish(p.label, { upper: upper!, lower: bestLower(p) });
+  };
+  const bestLower = (p: Partition): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
@@ -114,7 +112,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
-    return finish(p.label, { upper: upper!, lower });
+    return lower;
   };
   return { ok: true, notes, bounds };
 }
