@@ -42,6 +42,8 @@ function big(x: Int): bigint {
  */
 interface Arith<T> {
   readonly one: T;
+  /** A fresh array of n ones (typed for log2 values). */
+  ones(n: number): Slots<T>;
   of(n: number): T;
   mul(a: T, b: T): T;
   add(a: T, b: T): T;
@@ -50,8 +52,14 @@ interface Arith<T> {
   symPow(x: T, a: number): T;
 }
 
+/** Indexable storage of per-node values. */
+interface Slots<T> {
+  [i: number]: T;
+}
+
 const EXACT: Arith<Int> = {
   one: 1,
+  ones: (n) => new Array<Int>(n).fill(1),
   of: (n) => n,
   mul: (a, b) => {
     if (typeof a === 'number' && typeof b === 'number') {
@@ -79,6 +87,7 @@ const EXACT: Arith<Int> = {
 
 const LOG: Arith<number> = {
   one: 0,
+  ones: (n) => new Float64Array(n),
   of: (n) => Math.log2(n),
   mul: (a, b) => a + b,
   add: (a, b) => Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
@@ -190,9 +199,9 @@ function planOf(c: Circuit): Plan {
 
 interface Propagated<T> {
   readonly dep: Uint8Array;
-  readonly ra: T[];
-  readonly rb: T[];
-  readonly lam: T[];
+  readonly ra: Slots<T>;
+  readonly rb: Slots<T>;
+  readonly lam: Slots<T>;
   readonly whyA: Uint8Array;
   readonly whyB: Uint8Array;
   readonly whyL: Uint8Array;
@@ -203,10 +212,10 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
-  const ra: T[] = new Array<T>(n).fill(ar.one);
-  const rb: T[] = new Array<T>(n).fill(ar.one);
-  const kap: T[] = new Array<T>(n).fill(ar.one);
-  const lam: T[] = new Array<T>(n).fill(ar.one);
+  const ra = ar.ones(n);
+  const rb = ar.ones(n);
+  const kap = ar.ones(n);
+  const lam = ar.ones(n);
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
@@ -290,7 +299,7 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
 }
 
 /** A term's rank: its node's, or, for several linear images of one node, the smaller of that and their sum. */
-function termRank<T>(plan: Plan, t: number, r: T[], ar: Arith<T>): T {
+function termRank<T>(plan: Plan, t: number, r: Slots<T>, ar: Arith<T>): T {
   const { childOf, mStart, members } = plan;
   const node = childOf[t]!;
   if (mStart[t + 1] === mStart[t]) return r[node]!;
@@ -299,7 +308,7 @@ function termRank<T>(plan: Plan, t: number, r: T[], ar: Arith<T>): T {
   return ar.le(r[node]!, sum) ? r[node]! : sum;
 }
 
-function sumRule<T>(plan: Plan, v: number, D: T, dep: Uint8Array, ra: T[], rb: T[], lam: T[], ar: Arith<T>): { a: T; b: T; l: T } {
+function sumRule<T>(plan: Plan, v: number, D: T, dep: Uint8Array, ra: Slots<T>, rb: Slots<T>, lam: Slots<T>, ar: Arith<T>): { a: T; b: T; l: T } {
   const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
   let a: T | undefined;
   let b: T | undefined;
