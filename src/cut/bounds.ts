@@ -7,7 +7,7 @@ import type { Diagnostic } from '../diagnostic.js';
 import { INPUT, representationOf, type LayeredModel, type Model, type RecurrentLayer } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
-import { OP_INPUT, type Circuit } from '../network/circuit.js';
+import { OP_INPUT, OP_LINEAR, type Circuit } from '../network/circuit.js';
 import { buildCircuit } from '../network/build-circuit.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial } from './degree-bound.js';
@@ -130,7 +130,11 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
   for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
     const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate });
     if (!built.ok || built.circuit.sums) continue;
-    const c = built.circuit;
+    // h = ⟨w, L_k⋯L_1 v⟩ = ⟨w', v⟩, and w' = L_1ᵀ⋯L_kᵀw can be any vector (generic maps, even
+    // of width 1): the lower-bound rules read the head from the last node that is not a linear map.
+    let top = built.circuit.top;
+    while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]!]!;
+    const c: Circuit = { ...built.circuit, top };
     const suffix = sc.how ? ` (${sc.how})` : '';
     // Power rounding needs a tensor network: no reuse, no shared weights, no recurrence.
     const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : undefined;

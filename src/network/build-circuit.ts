@@ -318,8 +318,8 @@ class Notes {
     if (surrogate === 'tree' && model.layers.some((l) => (l.kind === 'conv' || l.kind === 'conv-transpose') && l.kernel.some((k, a) => k > l.stride[a]!))) {
       this.out.push('the tree surrogate uses each convolution as a per-position map: kernels wider than their stride are not used by the bound');
     }
-    const pools = model.layers.filter((l) => l.kind === 'pool' && l.mode !== 'product');
-    if (pools.length > 0) this.out.push(`pooling is a product over each window in the arithmetic surrogate, whatever its kind (${list(pools.map(where))})`);
+    const modes = [...new Set(model.layers.flatMap((l) => (l.kind === 'pool' && l.mode !== 'product' ? [l.mode] : [])))].sort();
+    if (modes.length > 0) this.out.push(`${modes.join(' and ')} pooling is a product over each window in the arithmetic surrogate`);
     const identity = model.layers.filter((l) => l.kind === 'pointwise' && !pointwise.squared.has(l.index) && !pointwise.ignored.has(l.index));
     if (identity.length > 0) {
       this.out.push(
