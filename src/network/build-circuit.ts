@@ -190,20 +190,38 @@ function recurrent(b: CircuitBuilder, g: Grid, hidden: number, depth: number, ta
   return { shape: [1], nodes: [below[below.length - 1]!], dim: hidden, flat: false };
 }
 
-/** Positions of output `at` (row-major) as the product set of per-axis position lists. */
-function crossPositions(shape: readonly number[], perAxis: readonly (readonly number[])[]): number[] {
-  if (shape.length === 1) return [...perAxis[0]!];
-  const res: number[] = [];
-  for (const r of perAxis[0]!) for (const c of perAxis[1]!) res.push(r * shape[1]! + c);
-  return res;
-}
-
-/** Every output position of a grid, as per-axis index tuples in row-major order. */
-function outputs(shape: readonly number[]): number[][] {
-  if (shape.length === 1) return Array.from({ length: shape[0]! }, (_, j) => [j]);
-  const res: number[][] = [];
-  for (let i = 0; i < shape[0]!; i++) for (let j = 0; j < shape[1]!; j++) res.push([i, j]);
-  return res;
+/**
+ * Visits every output position of a window layer in row-major order with the input positions it
+ * reads: the product set of per-axis lists, each list computed once per axis index (so a layer
+ * costs one small array per output, not one per axis and output). `visit` returns a problem to stop.
+ */
+function eachOutput(
+  inShape: readonly number[],
+  outShape: readonly number[],
+  axisList: (axis: number, j: number) => readonly number[],
+  visit: (positions: readonly number[], at: readonly number[]) => Problem | undefined,
+): Problem | undefined {
+  const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
+  if (outShape.length === 1) {
+    for (let j = 0; j < outShape[0]!; j++) {
+      const problem = visit(lists[0]![j]!, [j]);
+      if (problem) return problem;
+    }
+    return undefined;
+  }
+  const width = inShape[1]!;
+  for (let i = 0; i < outShape[0]!; i++) {
+    const rows = lists[0]![i]!;
+    for (let j = 0; j < outShape[1]!; j++) {
+      const cols = lists[1]![j]!;
+      const positions = new Array<number>(rows.length * cols.length);
+      let k = 0;
+      for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
+      const problem = visit(positions, [i, j]);
+      if (problem) return problem;
+    }
+  }
+  return undefined;
 }
 
 function plans(g: Grid, k: readonly number[], s: readonly number[], d: readonly number[], layer: ConvLayer | PoolLayer): AxisPlan[] {
@@ -222,78 +240,92 @@ function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly numb
   if (layer.global) {
     return { shape, nodes: [g.nodes.length === 1 ? g.nodes[0]! : b.add(OP_PRODUCT, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
   }
-  const ones = layer.window.map(() => 1);
-  const axisPlans = plans(g, layer.window, layer.stride, ones, layer);
+  const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes: number[] = [];
-  for (const at of outputs(shape)) {
-    const perAxis = at.map((j, a) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left));
-    const children = crossPositions(g.shape, perAxis).map((p) => g.nodes[p]!);
-    if (children.length === 0) return emptyWindow(layer, at);
-    nodes.push(children.length === 1 ? children[0]! : b.add(OP_PRODUCT, g.dim, tag, children));
-  }
-  return { shape, nodes, dim: g.dim, flat: false };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left),
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : b.add(OP_PRODUCT, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: g.dim, flat: false };
 }
 
 function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: readonly number[], tag: number): Grid {
   const nodes: number[] = [];
-  for (const at of outputs(shape)) {
-    const perAxis = at.map((j, a) => {
+  eachOutput(
+    g.shape,
+    shape,
+    (a, j) => {
       const f = layer.factor[a]!;
       if (layer.mode === 'nearest') return [Math.floor(j / f)];
       const src = linearSources(j, g.shape[a]!, f);
       return src.num === 0 ? [src.i0] : [src.i0, src.i1];
-    });
-    const children = crossPositions(g.shape, perAxis).map((p) => g.nodes[p]!);
-    nodes.push(children.length === 1 ? children[0]! : b.add(OP_SUM, g.dim, tag, children));
-  }
+    },
+    (positions) => {
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : b.add(OP_SUM, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
   return { shape, nodes, dim: g.dim, flat: false };
 }
 
 function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate): Grid | Problem {
   const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === 'causal';
-  const mapped = new Map<number, number>();
-  const mapOf = (p: number): number => {
-    let v = mapped.get(p);
-    if (v === undefined) mapped.set(p, (v = b.add(OP_LINEAR, width, tag, [g.nodes[p]!])));
-    return v;
-  };
   const nodes: number[] = [];
-  for (const at of outputs(shape)) {
-    if (surrogate === 'overlap') {
-      const perAxis = at.map((j, a) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left));
-      const children = crossPositions(g.shape, perAxis).map((p) => g.nodes[p]!);
-      if (children.length === 0) return emptyWindow(layer, at);
-      nodes.push(sumOrLinear(b, width, tag, children));
-    } else {
-      const perAxis = at.map((j, a) =>
-        treeConvPositions(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!, causal),
-      );
-      const positions = crossPositions(g.shape, perAxis);
-      if (positions.length === 0) return emptyWindow(layer, at);
-      const children = positions.map(mapOf);
-      nodes.push(children.length === 1 ? children[0]! : b.add(OP_PRODUCT, width, tag, children));
-    }
+  if (surrogate === 'overlap') {
+    const problem = eachOutput(
+      g.shape,
+      shape,
+      (a, j) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left),
+      (positions, at) => {
+        if (positions.length === 0) return emptyWindow(layer, at);
+        nodes.push(sumOrLinear(b, width, tag, positions.map((p) => g.nodes[p]!)));
+        return undefined;
+      },
+    );
+    return problem ?? { shape, nodes, dim: width, flat: false };
   }
-  return { shape, nodes, dim: width, flat: false };
+  // Each input position is mapped once (it lies in at most one window, since min(k, s) ≤ s).
+  const mapped = new Int32Array(g.nodes.length).fill(-1);
+  const mapOf = (p: number): number => {
+    if (mapped[p] === -1) mapped[p] = b.add(OP_LINEAR, width, tag, [g.nodes[p]!]);
+    return mapped[p]!;
+  };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => treeConvPositions(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!, causal),
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(positions.length === 1 ? mapOf(positions[0]!) : b.add(OP_PRODUCT, width, tag, positions.map(mapOf)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: width, flat: false };
 }
 
 function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, shape: readonly number[], tag: number, surrogate: Surrogate): Grid | Problem {
   const nodes: number[] = [];
-  for (const at of outputs(shape)) {
-    if (surrogate === 'overlap') {
-      const perAxis = at.map((j, a) =>
-        transposeSources(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, layer.padding[a]!).map(([i]) => i),
-      );
-      const children = crossPositions(g.shape, perAxis).map((p) => g.nodes[p]!);
-      if (children.length === 0) return emptyWindow(layer, at);
-      nodes.push(sumOrLinear(b, layer.channels, tag, children));
-    } else {
-      const perAxis = at.map((j, a) => [treeTransposeSource(j, g.shape[a]!, layer.stride[a]!)[0]]);
-      nodes.push(b.add(OP_LINEAR, layer.channels, tag, [g.nodes[crossPositions(g.shape, perAxis)[0]!]!]));
-    }
-  }
-  return { shape, nodes, dim: layer.channels, flat: false };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) =>
+      surrogate === 'overlap'
+        ? transposeSources(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, layer.padding[a]!).map(([i]) => i)
+        : [treeTransposeSource(j, g.shape[a]!, layer.stride[a]!)[0]],
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(sumOrLinear(b, layer.channels, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: layer.channels, flat: false };
 }
 
 /** The statements every report carries about how this model was read; each said once. */
