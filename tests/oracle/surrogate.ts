@@ -68,6 +68,13 @@ export class WeightStore {
     return v;
   }
 
+  /** Fixes a weight before anything draws it (hand-computed examples in the oracle's self-tests). */
+  set(key: string, values: readonly number[]): this {
+    if (this.cache.has(key)) throw new Error(`weight ${key} is already drawn`);
+    this.cache.set(key, Float64Array.from(values));
+    return this;
+  }
+
   get size(): number {
     return this.cache.size;
   }
