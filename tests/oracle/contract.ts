@@ -14,7 +14,7 @@
  */
 import type { ExplicitModel, LayeredModel } from '../../src/config/model.js';
 import { add, mul, randomVector, rankInPlace, type Rng } from './field.js';
-import { axisTaps, cartesian, count, flatIndex, multiIndices, treeConvAxis, treeTransposeAxis, windowAxis } from './geometry.js';
+import { count, flatIndex, multiIndices, poolGroups, treeConvGroups, treeTransposeAxis } from './geometry.js';
 import { planModel } from './plan.js';
 import { WeightStore, linearKey, mapMatrix, offsetKey, recurrentKeys } from './surrogate.js';
 
@@ -247,15 +247,7 @@ export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: F
       case 'conv': {
         const r = outGrid.width;
         const g = plan.groups[li]!;
-        const causal = layer.padding.mode === 'causal';
-        const axes = gdims.map((len, a) => {
-          const k = layer.kernel[a] as number;
-          const s = layer.stride[a] as number;
-          const dl = layer.dilation[a] as number;
-          const w = windowAxis(len, k, s, dl, layer.padding, a);
-          return Array.from({ length: w.out }, (_, j) => treeConvAxis(j, len, w, k, s, dl, causal));
-        });
-        const groups = multiIndices(outGrid.dims).map((j) => cartesian(j.map((jj, a) => axes[a]![jj]!)).map((idx) => flatIndex(idx, gdims)));
+        const { groups } = treeConvGroups(gdims, layer.kernel, layer.stride, layer.dilation, layer.padding);
         usedOnce(groups, `conv ${li}`);
         cur = cur.map((v, p) => linearAt(v, linearKey(li, p, model.weightSharing), r, g));
         d = r;
@@ -278,12 +270,7 @@ export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: F
           windows([cur.map((_, p) => p)], `pool ${li}`);
           break;
         }
-        const geo = gdims.map((len, a) => windowAxis(len, layer.window[a] as number, layer.stride[a] as number, 1, layer.padding, a));
-        const groups = multiIndices(outGrid.dims).map((j) =>
-          cartesian(j.map((jj, a) => axisTaps(jj, geo[a]!, layer.window[a] as number, layer.stride[a] as number, 1)))
-            .filter((pos) => pos.every((x, a) => x >= 0 && x < (gdims[a] as number)))
-            .map((pos) => flatIndex(pos, gdims)),
-        );
+        const { groups } = poolGroups(gdims, layer.window, layer.stride, layer.padding);
         windows(groups, `pool ${li}`);
         break;
       }

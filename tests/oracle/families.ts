@@ -700,3 +700,13 @@ export const BLOCK_FAMILIES: readonly { readonly name: string; readonly gen: Blo
 export function blockCase(rng: Rng, family: (typeof BLOCK_FAMILIES)[number], surrogate: SurrogateKind): LayeredCase {
   return family.gen(rng, rng.pick(family.dims), surrogate);
 }
+
+/** Every layered family's generator, block families under both surrogates (for the self-tests). */
+export const LAYERED_GENERATORS: readonly { readonly name: string; readonly gen: (rng: Rng) => LayeredCase }[] = [
+  { name: 'tree1d', gen: (rng) => tree1d(rng, rng.chance(0.5)) },
+  { name: 'tree2d', gen: (rng) => tree2d(rng, rng.chance(0.5)) },
+  { name: 'overlap1d', gen: overlap1d },
+  { name: 'overlap2d', gen: overlap2d },
+  { name: 'recurrent', gen: (rng) => recurrentCase(rng, rng.int(1, 3)) },
+  ...BLOCK_FAMILIES.flatMap((f) => (['tree', 'overlap'] as const).map((s) => ({ name: `${f.name}-${s}`, gen: (rng: Rng) => blockCase(rng, f, s) }))),
+];

@@ -65,6 +65,45 @@ export function treeConvAxis(j: number, n: number, w: AxisWindow, k: number, s: 
   return ps;
 }
 
+/**
+ * Tree conv over a whole grid: the output dims and, per output position (row-major), the flat
+ * input positions of P(j) = P_h(j_h) × P_w(j_w).
+ */
+export function treeConvGroups(
+  dims: readonly number[],
+  kernel: readonly number[],
+  stride: readonly number[],
+  dilation: readonly number[],
+  padding: Padding,
+): { dims: number[]; groups: number[][] } {
+  const causal = padding.mode === 'causal';
+  const axes = dims.map((n, a) => {
+    const k = kernel[a] as number;
+    const s = stride[a] as number;
+    const d = dilation[a] as number;
+    const w = windowAxis(n, k, s, d, padding, a);
+    return Array.from({ length: w.out }, (_, j) => treeConvAxis(j, n, w, k, s, d, causal));
+  });
+  const outDims = axes.map((a) => a.length);
+  const groups = multiIndices(outDims).map((j) => cartesian(j.map((jj, a) => (axes[a] as number[][])[jj] as number[])).map((idx) => flatIndex(idx, dims)));
+  return { dims: outDims, groups };
+}
+
+/**
+ * A pool window op over a whole grid (k = window, d = 1): the output dims and, per output
+ * position, the flat positions of its taps inside the grid (padding taps left out).
+ */
+export function poolGroups(dims: readonly number[], window: readonly number[], stride: readonly number[], padding: Padding): { dims: number[]; groups: number[][] } {
+  const geo = dims.map((n, a) => windowAxis(n, window[a] as number, stride[a] as number, 1, padding, a));
+  const outDims = geo.map((w) => w.out);
+  const groups = multiIndices(outDims).map((j) =>
+    cartesian(j.map((jj, a) => axisTaps(jj, geo[a] as AxisWindow, window[a] as number, stride[a] as number, 1)))
+      .filter((pos) => pos.every((x, a) => x >= 0 && x < (dims[a] as number)))
+      .map((pos) => flatIndex(pos, dims)),
+  );
+  return { dims: outDims, groups };
+}
+
 /** Transposed conv output length (n−1)·s − 2p + e + q. */
 export function transposeLength(n: number, k: number, s: number, d: number, p: number, q: number): number {
   return (n - 1) * s - 2 * p + extent(k, d) + q;

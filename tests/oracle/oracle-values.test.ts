@@ -10,7 +10,7 @@ import type { LayeredModel } from '../../src/config/model.js';
 import { P, Rng, inv, mul, mulAdd, randomVector, rank } from './field.js';
 import { compile, probeInputs, probeMatrixNaive, probeRank, probeRankWith, WeightStore, type SurrogateKind } from './surrogate.js';
 import { explicitRank, NotATreeNetwork, treeTensorRank } from './contract.js';
-import { BLOCK_FAMILIES, blockCase, overlap1d, overlap2d, randomMask, recurrentCase, tree1d, tree2d, type LayeredCase } from './families.js';
+import { LAYERED_GENERATORS, randomMask } from './families.js';
 import { conv, explicit, globalPool, layered, partition, pool, recurrent, type LayerDraft } from './models.js';
 import { planModel } from './plan.js';
 
@@ -74,20 +74,11 @@ describe('field arithmetic and rank', () => {
 });
 
 describe('the two oracle methods agree', () => {
-  /** Every family's generator, each drawing its own cases (block families under both surrogates). */
-  const generators: readonly { name: string; gen: (rng: Rng) => LayeredCase }[] = [
-    { name: 'tree1d', gen: (rng) => tree1d(rng, rng.chance(0.5)) },
-    { name: 'tree2d', gen: (rng) => tree2d(rng, rng.chance(0.5)) },
-    { name: 'overlap1d', gen: overlap1d },
-    { name: 'overlap2d', gen: overlap2d },
-    { name: 'recurrent', gen: (rng) => recurrentCase(rng, rng.int(1, 3)) },
-    ...BLOCK_FAMILIES.flatMap((f) => (['tree', 'overlap'] as const).map((s) => ({ name: `${f.name}-${s}`, gen: (rng: Rng) => blockCase(rng, f, s) }))),
-  ];
 
   it('the cached probe matrix equals entry-by-entry evaluation, for every family', () => {
     // The fast path computes side-only units once per row or column; it must not change a value.
     const master = new Rng(31337);
-    for (const { name, gen } of generators) {
+    for (const { name, gen } of LAYERED_GENERATORS) {
       for (let i = 0; i < 6; i++) {
         const seed = master.fork();
         const c = gen(new Rng(seed));
@@ -105,7 +96,7 @@ describe('the two oracle methods agree', () => {
     // multilinear), the two constructions must give the same rank from one weight draw.
     const master = new Rng(2024);
     const compared = new Map<string, number>();
-    const tries = generators.filter((g) => !g.name.endsWith('-overlap') && !g.name.startsWith('overlap'));
+    const tries = LAYERED_GENERATORS.filter((g) => !g.name.endsWith('-overlap') && !g.name.startsWith('overlap'));
     for (let i = 0; i < 1500 && [...compared.values()].reduce((a, b) => a + b, 0) < 200; i++) {
       const seed = master.fork();
       const { name, gen } = tries[i % tries.length]!;

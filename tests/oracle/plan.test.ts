@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { inferShapes } from '../../src/config/model-shapes.js';
 import { Rng } from './field.js';
-import { BLOCK_FAMILIES, blockCase, overlap1d, overlap2d, recurrentCase, tree1d, tree2d, type LayeredCase } from './families.js';
+import { LAYERED_GENERATORS } from './families.js';
 import { count, linearAxis, transposeLength, transposePairs, treeConvAxis, treeTransposeAxis, windowAxis, axisTaps } from './geometry.js';
 import { planModel } from './plan.js';
 import { describeModel } from './models.js';
@@ -86,17 +86,9 @@ describe('grid arithmetic, worked examples', () => {
 
 describe("the oracle's reading of models agrees with the product's shape inference", () => {
   it('grids, widths, groups, dense readings, M and the output position, on every family', () => {
-    const gens: { name: string; gen: (rng: Rng) => LayeredCase }[] = [
-      { name: 'tree1d', gen: (rng) => tree1d(rng, rng.chance(0.5)) },
-      { name: 'tree2d', gen: (rng) => tree2d(rng, rng.chance(0.5)) },
-      { name: 'overlap1d', gen: overlap1d },
-      { name: 'overlap2d', gen: overlap2d },
-      { name: 'recurrent', gen: (rng) => recurrentCase(rng, rng.int(1, 3)) },
-      ...BLOCK_FAMILIES.flatMap((f) => (['tree', 'overlap'] as const).map((s) => ({ name: `${f.name}-${s}`, gen: (rng: Rng) => blockCase(rng, f, s) }))),
-    ];
     const master = new Rng(4242);
     const problems: string[] = [];
-    for (const { name, gen } of gens) {
+    for (const { name, gen } of LAYERED_GENERATORS) {
       for (let i = 0; i < 25; i++) {
         const seed = master.fork();
         const c = gen(new Rng(seed));
@@ -109,7 +101,7 @@ describe("the oracle's reading of models agrees with the product's shape inferen
         }
         const s = theirs.shapes;
         if (s.representation !== mine.m) problems.push(`${where}: M ${s.representation} vs ${mine.m}`);
-        c.model.layers.forEach((l, li) => {
+        c.model.layers.forEach((_, li) => {
           const a = mine.grids[li]!;
           const b = s.layers[li]!;
           const single = count(a.dims) === 1 && count(b.shape) === 1;

@@ -6,14 +6,16 @@
  * definition is part of the model. A model that breaks a rule of the text throws: families draw
  * valid models, so a throw is a test bug (families use it to reject a draw).
  */
-import { INPUT, representationOf, type Layer, type LayeredModel, type PointwiseLayer } from '../../src/config/model.js';
 import {
-  count,
-  transposeLength,
-  treeConvAxis,
-  windowAxis,
-  type AxisWindow,
-} from './geometry.js';
+  INPUT,
+  representationOf,
+  type ConvLayer,
+  type ConvTransposeLayer,
+  type Layer,
+  type LayeredModel,
+  type PointwiseLayer,
+} from '../../src/config/model.js';
+import { count, transposeLength, treeConvGroups, windowAxis } from './geometry.js';
 
 export type SurrogateKind = 'tree' | 'overlap';
 
@@ -65,6 +67,13 @@ function perAxis<T>(values: readonly T[], dims: readonly number[], what: string,
   }
 }
 
+/** Kernel, stride and dilation have one entry per grid axis. */
+function windowFields(layer: ConvLayer | ConvTransposeLayer, dims: readonly number[]): void {
+  perAxis(layer.kernel, dims, 'kernel', layer);
+  perAxis(layer.stride, dims, 'stride', layer);
+  perAxis(layer.dilation, dims, 'dilation', layer);
+}
+
 export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overlap'): ModelPlan {
   const m = representationOf(model);
   if (m === undefined || m < 1) throw new Error('model has no representation width M');
@@ -99,25 +108,16 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
       case 'conv': {
         const src = one(layer);
         const dims = src.dims;
-        perAxis(layer.kernel, dims, 'kernel', layer);
-        perAxis(layer.stride, dims, 'stride', layer);
-        perAxis(layer.dilation, dims, 'dilation', layer);
+        windowFields(layer, dims);
         if (layer.padding.mode === 'causal' && dims.length !== 1) throw new Error(`conv ${li}: causal padding on a 2D grid`);
         g = layer.groups === 'depthwise' ? src.width : layer.groups;
         const r = layer.channels ?? (layer.groups === 'depthwise' ? src.width * layer.depthMultiplier : undefined);
         if (r === undefined) throw new Error(`conv ${li} has no channels`);
         if (src.width % g !== 0 || r % g !== 0) throw new Error(`conv ${li}: groups ${g} do not divide widths ${src.width} → ${r}`);
-        const axes: AxisWindow[] = dims.map((n, a) =>
-          windowAxis(n, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number, layer.padding, a),
-        );
-        if (surrogate === 'tree') {
-          // "A conv whose P(j) is empty for some j is refused."
-          axes.forEach((w, a) => {
-            for (let j = 0; j < w.out; j++) {
-              const ps = treeConvAxis(j, dims[a] as number, w, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number, layer.padding.mode === 'causal');
-              if (ps.length === 0) throw new Error(`tree conv ${li}: output ${j} of axis ${a} has no position`);
-            }
-          });
+        const axes = dims.map((n, a) => windowAxis(n, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number, layer.padding, a));
+        // "A conv whose P(j) is empty for some j is refused."
+        if (surrogate === 'tree' && treeConvGroups(dims, layer.kernel, layer.stride, layer.dilation, layer.padding).groups.some((ps) => ps.length === 0)) {
+          throw new Error(`tree conv ${li}: an output reads no position`);
         }
         out = { dims: axes.map((w) => w.out), width: r };
         break;
@@ -125,9 +125,7 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
       case 'conv-transpose': {
         const src = one(layer);
         const dims = src.dims;
-        perAxis(layer.kernel, dims, 'kernel', layer);
-        perAxis(layer.stride, dims, 'stride', layer);
-        perAxis(layer.dilation, dims, 'dilation', layer);
+        windowFields(layer, dims);
         perAxis(layer.padding, dims, 'padding', layer);
         perAxis(layer.outputPadding, dims, 'output padding', layer);
         g = layer.groups;

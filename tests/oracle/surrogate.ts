@@ -28,8 +28,9 @@ import {
   flatIndex,
   linearAxis,
   multiIndices,
+  poolGroups,
   transposePairs,
-  treeConvAxis,
+  treeConvGroups,
   treeTransposeAxis,
   windowAxis,
 } from './geometry.js';
@@ -251,15 +252,7 @@ interface Context {
 
 function treeConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: number): Grid {
   const { c, weights, shared } = ctx;
-  const dims = src.dims;
-  const causal = layer.padding.mode === 'causal';
-  const axes = dims.map((n, a) => {
-    const k = layer.kernel[a] as number;
-    const s = layer.stride[a] as number;
-    const d = layer.dilation[a] as number;
-    const w = windowAxis(n, k, s, d, layer.padding, a);
-    return Array.from({ length: w.out }, (_, j) => treeConvAxis(j, n, w, k, s, d, causal));
-  });
+  const tree = treeConvGroups(src.dims, layer.kernel, layer.stride, layer.dilation, layer.padding);
   const mapped = new Map<number, number>();
   const mapAt = (p: number): number => {
     let u = mapped.get(p);
@@ -270,13 +263,11 @@ function treeConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: numbe
     }
     return u;
   };
-  const outDims = axes.map((a) => a.length);
-  const units = multiIndices(outDims).map((j) => {
-    const ps = cartesian(j.map((jj, a) => (axes[a] as number[][])[jj] as number[])).map((idx) => flatIndex(idx, dims));
+  const units = tree.groups.map((ps) => {
     if (ps.length === 0) throw new Error(`tree conv ${layer.index}: empty P(j)`);
     return productUnit(c, ps.map(mapAt), r);
   });
-  return { dims: outDims, width: r, units };
+  return { dims: tree.dims, width: r, units };
 }
 
 function overlapConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: number): Grid {
@@ -326,15 +317,9 @@ function convTranspose(ctx: Context, layer: ConvTransposeLayer, src: Grid, g: nu
 function poolGrid(ctx: Context, layer: PoolLayer, src: Grid): Grid {
   const { c } = ctx;
   if (layer.global) return { dims: src.dims.map(() => 1), width: src.width, units: [productUnit(c, src.units, src.width)] };
-  const dims = src.dims;
-  const geo = dims.map((n, a) => windowAxis(n, layer.window[a] as number, layer.stride[a] as number, 1, layer.padding, a));
-  const outDims = geo.map((w) => w.out);
-  const units = multiIndices(outDims).map((j) => {
-    const taps = cartesian(j.map((jj, a) => axisTaps(jj, geo[a]!, layer.window[a] as number, layer.stride[a] as number, 1)));
-    const inside = taps.filter((pos) => pos.every((x, a) => x >= 0 && x < (dims[a] as number)));
-    return productUnit(c, inside.map((pos) => src.units[flatIndex(pos, dims)] as number), src.width);
-  });
-  return { dims: outDims, width: src.width, units };
+  const pooled = poolGroups(src.dims, layer.window, layer.stride, layer.padding);
+  const units = pooled.groups.map((ps) => productUnit(c, ps.map((p) => src.units[p] as number), src.width));
+  return { dims: pooled.dims, width: src.width, units };
 }
 
 function upsampleGrid(ctx: Context, layer: UpsampleLayer, src: Grid): Grid {
