@@ -401,9 +401,18 @@ export function branchesCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): La
   return d.done(1);
 }
 
+/**
+ * A transposed conv of stride 2 that doubles every axis: k + q − 2p = 2, i.e. (k, p, q) one of
+ * (2, 0, 0), (3, 1, 1), (4, 1, 0) per axis.
+ */
+function doubling(rng: Rng, dims: number): { kernel: number[]; stride: number[]; padding: number[]; outputPadding: number[] } {
+  const axes = perAxis(dims, () => rng.int(0, 2)).map((i) => [[2, 0, 0], [3, 1, 1], [4, 1, 0]][i] as [number, number, number]);
+  return { kernel: axes.map((a) => a[0]), stride: fillAxes(dims, 2), padding: axes.map((a) => a[1]), outputPadding: axes.map((a) => a[2]) };
+}
+
 /** Encoder/decoder with long skips: downsample, upsample (nearest, linear or transposed conv), merge. */
 export function skipsCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): LayeredCase {
-  const d = blockDraw(rng, dims, surrogate, [4, 4, 6, 8], [[2, 2], [2, 3], [2, 4], [4, 4], [4, 2]]);
+  const d = blockDraw(rng, dims, surrogate, [4, 4, 6, 8], [[2, 2], [2, 4], [4, 4], [4, 2]]);
   const levels = d.shape.every((n) => n % 4 === 0) && rng.chance(0.3) ? 2 : 1;
   const widths: number[] = [];
   const names: string[] = [];
@@ -424,17 +433,10 @@ export function skipsCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): Layer
       const up = rng.int(0, 2);
       const grow: Item[] =
         up === 0
-          ? [upsample(two, 'nearest'), conv(w)]
+          ? [upsample(two, 'nearest'), conv(w, { dims })]
           : up === 1
-            ? [upsample(two, 'linear'), conv(w)]
-            : [
-                convTranspose(w, {
-                  kernel: perAxis(dims, () => rng.int(2, 3)),
-                  stride: two,
-                  padding: perAxis(dims, () => rng.int(0, 1)),
-                  outputPadding: perAxis(dims, () => rng.int(0, 1)),
-                }),
-              ];
+            ? [upsample(two, 'linear'), conv(w, { dims })]
+            : [convTranspose(w, doubling(rng, dims))];
       return [...grow, skip(mode, names[l] as string)];
     }, 20);
     if (rng.chance(0.5)) d.attempt(() => [conv(d.width(), { kernel: perAxis(dims, () => rng.int(1, 3)) })]);
@@ -453,7 +455,7 @@ export function upsampleCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): La
   d.attempt(() => [upsample(factor(), mode())]);
   d.attempt(() => [randomConv(rng, dims, d.width(), { strided: 0.2 })]);
   if (rng.chance(0.7)) d.attempt(() => [randomPool(rng, d.grid(), 0.3)]);
-  if (rng.chance(0.3)) d.attempt(() => [upsample(fillAxes(dims, 2), mode()), conv(d.width())]);
+  if (rng.chance(0.3)) d.attempt(() => [upsample(fillAxes(dims, 2), mode()), conv(d.width(), { dims })]);
   finish(d, 0.5);
   return d.done(1);
 }
