@@ -499,7 +499,7 @@ export function dilationCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): La
   const d = blockDraw(rng, dims, surrogate, [4, 5, 6, 8, 8], [[2, 3], [3, 3], [2, 4], [4, 4], [4, 3]]);
   for (let b = 0; b < 2 && d.positions() > 1; b++) {
     d.attempt(() => [randomConv(rng, dims, d.width(), { dilated: 0.9, strided: 0.2, causal: false })]);
-    if (rng.chance(0.5) && d.positions() > 1) d.attempt(() => [randomPool(rng, d.grid(), 0.2)]);
+    if (rng.chance(surrogate === 'tree' ? 0.8 : 0.5) && d.positions() > 1) d.attempt(() => [randomPool(rng, d.grid(), 0.2)]);
   }
   finish(d, 0.5);
   return d.done(1);
@@ -519,6 +519,9 @@ export function causalCase(rng: Rng, surrogate: SurrogateKind): LayeredCase {
       }),
     ]);
     if (rng.chance(0.2)) d.push(act());
+    // Under `tree` only strides and pools couple positions; a pool is not a conv, so the output
+    // stays the last position by default.
+    if (surrogate === 'tree' && d.positions() > 2 && rng.chance(0.4)) d.attempt(() => [pool([2], { stride: [rng.int(1, 2)] })]);
   }
   if (d.positions() > 1 && rng.chance(0.2)) d.push(globalPool());
   const opts: LayeredOptions = d.positions() > 1 && rng.chance(0.3) ? { output: [rng.int(0, d.positions() - 1)] } : {};
