@@ -196,7 +196,9 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     grids.push(out);
   });
 
-  // The square rule.
+  // The square rule. Reading of the text: "nearest non-pointwise ancestor" stops at any other
+  // layer, merges included, so an activation after a sum of dense layers (a residual MLP) is the
+  // identity and such a stack stays linear; only a dense layer's own activation squares.
   const mixes: boolean[] = layers.map(() => false);
   layers.forEach((layer, li) => {
     if (layer.kind !== 'dense') return;
