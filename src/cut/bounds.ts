@@ -128,7 +128,8 @@ interface LowerNetwork {
 function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: ModelShapes, reading: PointwiseReading, hasRecurrent: boolean): LowerNetwork[] {
   const out: LowerNetwork[] = [];
   for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
-    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate });
+    // Grouped maps are not generic: the rules run on the special case where they are identities.
+    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate, groupedAsIdentity: true });
     if (!built.ok || built.circuit.sums) continue;
     // h = ⟨w, L_k⋯L_1 v⟩ = ⟨w', v⟩, and w' = L_1ᵀ⋯L_kᵀw can be any vector (generic maps, even
     // of width 1): the lower-bound rules read the head from the last node that is not a linear map.

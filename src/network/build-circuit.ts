@@ -40,6 +40,12 @@ export const NODE_LIMIT = 4_000_000;
 export interface BuildOptions {
   readonly surrogate: Surrogate;
   readonly nodeLimit?: number;
+  /**
+   * For lower bounds: build the special case in which every grouped map is the identity (its
+   * blocks identity matrices), which needs equal input and output widths; a grouped map between
+   * different widths makes the build fail with `network/grouped-not-identity`.
+   */
+  readonly groupedAsIdentity?: boolean;
 }
 
 export type BuildResult =
@@ -96,7 +102,7 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
     const gridOf = (i: number): Grid => (i === INPUT ? input : grids[i]!);
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options.surrogate, shapes, pointwise);
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
       if ('code' in built) return fail(built.span, built.code, built.message);
       grids.push(built);
     }
@@ -105,9 +111,16 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
     let top: number;
     if (last.flat) {
       const headTag = b.addTag({ label: layerLabel(lastLayer), line: lastLayer.span.line, span: lastLayer.span, layerIndex: lastLayer.index });
-      top = sumOrLinear(b, 1, headTag, last.nodes);
+      top = sumOf(b, 1, headTag, last.nodes);
     } else {
       top = last.nodes[flatIndex(last.shape, shapes.output.position)]!;
+    }
+    if (top === ZERO) {
+      return fail(
+        lastLayer.span,
+        'network/zero-output',
+        `the analysed output is zero for every choice of weights: it reads only padding; reduce the padding or analyse another output position`,
+      );
     }
     return { ok: true, circuit: b.finish(top), notes: notes.list(), shapes, pointwise };
   } catch (e) {
@@ -120,15 +133,33 @@ function flatIndex(shape: readonly number[], at: readonly number[]): number {
   return shape.length === 1 ? at[0]! : at[0]! * shape[1]! + at[1]!;
 }
 
+/**
+ * Stands in a grid for a vector that is zero for every choice of weights (a conv output that
+ * reads only padding); it is not a node. The three constructors below keep zeros out of the
+ * circuit: a map or a product of zero is zero, and a sum leaves zero terms out.
+ */
+const ZERO = -2;
+
+function linearOf(b: CircuitBuilder, dim: number, tag: number, v: number): number {
+  return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
+}
+
+function productOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
+  if (children.includes(ZERO)) return ZERO;
+  return children.length === 1 ? children[0]! : b.add(OP_PRODUCT, dim, tag, children);
+}
+
 /** A node of dimension `dim` reading `children` through maps: a linear node for one child. */
-function sumOrLinear(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
-  return b.add(children.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, children);
+function sumOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
+  const live = children.filter((v) => v !== ZERO);
+  if (live.length === 0) return ZERO;
+  return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
 }
 
 /** One node per position of a grid (a flattened grid becomes its concatenation). */
 function materialise(b: CircuitBuilder, g: Grid, tag: number): Grid {
   if (!g.flat) return g;
-  return { shape: g.shape, nodes: [sumOrLinear(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
+  return { shape: g.shape, nodes: [sumOf(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
 }
 
 function buildLayer(
@@ -136,29 +167,35 @@ function buildLayer(
   layer: Layer,
   inputs: Grid[],
   tag: number,
-  surrogate: Surrogate,
+  options: BuildOptions,
   shapes: ModelShapes,
   pointwise: PointwiseReading,
 ): Grid | Problem {
   const out = shapes.layers[layer.index]!;
   const first = inputs[0]!;
+  const surrogate = options.surrogate;
+  // In the identity special case a grouped map reads its input unchanged (no node).
+  const grouped = shapes.groups[layer.index]! > 1 && options.groupedAsIdentity === true;
+  if (grouped && out.width !== first.dim) {
+    return { span: layer.span, code: 'network/grouped-not-identity', message: `layer ${layerLabel(layer)}: a grouped map between widths ${first.dim} and ${out.width} is not the identity` };
+  }
   switch (layer.kind) {
     case 'pointwise': {
       if (!pointwise.squared.has(layer.index)) return first;
       const g = materialise(b, first, tag);
-      return { ...g, nodes: g.nodes.map((v) => b.add(OP_PRODUCT, g.dim, tag, [v, v])) };
+      return { ...g, nodes: g.nodes.map((v) => productOf(b, g.dim, tag, [v, v])) };
     }
     case 'flatten':
       // A flattened grid flattened again is the same list of positions.
       return { shape: out.shape, nodes: first.nodes, dim: first.dim, flat: true };
     case 'dense': {
       const reading = shapes.denseReading[layer.index];
-      if (first.flat || reading === 'input') return { shape: out.shape, nodes: [sumOrLinear(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
-      return { shape: out.shape, nodes: first.nodes.map((v) => b.add(OP_LINEAR, layer.units, tag, [v])), dim: layer.units, flat: false };
+      if (first.flat || reading === 'input') return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
     }
     case 'merge': {
       const grids = inputs.map((g) => materialise(b, g, tag));
-      const nodes = grids[0]!.nodes.map((_, p) => b.add(OP_SUM, out.width, tag, grids.map((g) => g.nodes[p]!)));
+      const nodes = grids[0]!.nodes.map((_, p) => sumOf(b, out.width, tag, grids.map((g) => g.nodes[p]!)));
       return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
     case 'recurrent':
@@ -168,9 +205,9 @@ function buildLayer(
     case 'upsample':
       return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
     case 'conv':
-      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate);
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
     case 'conv-transpose':
-      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate);
+      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
 }
 
@@ -180,9 +217,7 @@ function recurrent(b: CircuitBuilder, g: Grid, hidden: number, depth: number, ta
     let prev = b.add(OP_CONST, hidden, tag, []);
     const states: number[] = [];
     for (const x of below) {
-      const carried = b.add(OP_LINEAR, hidden, tag, [prev]);
-      const fed = b.add(OP_LINEAR, hidden, tag, [x]);
-      prev = b.add(OP_PRODUCT, hidden, tag, [carried, fed]);
+      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
       states.push(prev);
     }
     below = states;
@@ -238,7 +273,7 @@ function emptyWindow(layer: Layer, at: readonly number[]): Problem {
 
 function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly number[], tag: number): Grid | Problem {
   if (layer.global) {
-    return { shape, nodes: [g.nodes.length === 1 ? g.nodes[0]! : b.add(OP_PRODUCT, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
+    return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
   }
   const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes: number[] = [];
@@ -248,7 +283,7 @@ function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly numb
     (a, j) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left),
     (positions, at) => {
       if (positions.length === 0) return emptyWindow(layer, at);
-      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : b.add(OP_PRODUCT, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
       return undefined;
     },
   );
@@ -267,14 +302,14 @@ function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: reado
       return src.num === 0 ? [src.i0] : [src.i0, src.i1];
     },
     (positions) => {
-      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : b.add(OP_SUM, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
       return undefined;
     },
   );
   return { shape, nodes, dim: g.dim, flat: false };
 }
 
-function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate): Grid | Problem {
+function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
   const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === 'causal';
   const nodes: number[] = [];
@@ -283,9 +318,8 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
       g.shape,
       shape,
       (a, j) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left),
-      (positions, at) => {
-        if (positions.length === 0) return emptyWindow(layer, at);
-        nodes.push(sumOrLinear(b, width, tag, positions.map((p) => g.nodes[p]!)));
+      (positions) => {
+        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p]!)));
         return undefined;
       },
     );
@@ -294,23 +328,23 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
   // Each input position is mapped once (it lies in at most one window, since min(k, s) ≤ s).
   const mapped = new Int32Array(g.nodes.length).fill(-1);
   const mapOf = (p: number): number => {
-    if (mapped[p] === -1) mapped[p] = b.add(OP_LINEAR, width, tag, [g.nodes[p]!]);
+    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p]! : linearOf(b, width, tag, g.nodes[p]!);
     return mapped[p]!;
   };
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => treeConvPositions(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!, causal),
-    (positions, at) => {
-      if (positions.length === 0) return emptyWindow(layer, at);
-      nodes.push(positions.length === 1 ? mapOf(positions[0]!) : b.add(OP_PRODUCT, width, tag, positions.map(mapOf)));
+    (positions) => {
+      // A window of padding only reads nothing: the zero vector, as in the real network.
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
       return undefined;
     },
   );
   return problem ?? { shape, nodes, dim: width, flat: false };
 }
 
-function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, shape: readonly number[], tag: number, surrogate: Surrogate): Grid | Problem {
+function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, shape: readonly number[], tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
   const nodes: number[] = [];
   const problem = eachOutput(
     g.shape,
@@ -319,9 +353,8 @@ function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, sh
       surrogate === 'overlap'
         ? transposeSources(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, layer.padding[a]!).map(([i]) => i)
         : [treeTransposeSource(j, g.shape[a]!, layer.stride[a]!)[0]],
-    (positions, at) => {
-      if (positions.length === 0) return emptyWindow(layer, at);
-      nodes.push(sumOrLinear(b, layer.channels, tag, positions.map((p) => g.nodes[p]!)));
+    (positions) => {
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p]!)));
       return undefined;
     },
   );

@@ -13,7 +13,7 @@ export interface PointwiseReading {
   readonly squared: ReadonlySet<number>;
   /** Pointwise layers from which no weighted layer can be reached: not part of the score. */
   readonly ignored: ReadonlySet<number>;
-  /** Dense layers that mix positions (read a flattened grid of several positions, or follow one). */
+  /** Dense and merge layers that mix positions (read a flattened grid of several positions, or follow one). */
   readonly mixing: ReadonlySet<number>;
 }
 
@@ -43,6 +43,10 @@ export function readPointwise(model: LayeredModel, shapes: ModelShapes): Pointwi
   const mixing = new Set<number>();
   const squared = new Set<number>();
   const ignored = new Set<number>();
+  const mixes = (i: number): boolean => {
+    const { at } = nearest(i);
+    return at !== INPUT && mixing.has(at);
+  };
   for (const layer of layers) {
     if (layer.kind === 'dense') {
       const reading = shapes.denseReading[layer.index];
@@ -51,8 +55,11 @@ export function readPointwise(model: LayeredModel, shapes: ModelShapes): Pointwi
         const { at } = nearest(layer.inputs[0]!);
         const above = at === INPUT ? undefined : layers[at]!;
         if (above?.kind === 'flatten' && positionsBefore(above.inputs[0]!) > 1) mixing.add(layer.index);
-        else if (above?.kind === 'dense' && mixing.has(above.index)) mixing.add(layer.index);
+        else if (above && mixing.has(above.index)) mixing.add(layer.index);
       }
+    } else if (layer.kind === 'merge') {
+      // A residual or branch merge inside a fully connected stack stays in it.
+      if (layer.inputs.every(mixes)) mixing.add(layer.index);
     } else if (layer.kind === 'pointwise') {
       if (!reachesWeighted[layer.index]) {
         ignored.add(layer.index);

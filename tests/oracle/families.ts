@@ -225,7 +225,8 @@ function randomConv(rng: Rng, dims: number, r: number, o: { strided?: number; di
 function randomPool(rng: Rng, grid: GridShape, overlap = 0.15): Item {
   const window = grid.dims.map((n) => (n === 1 ? 1 : rng.int(2, Math.min(3, n))));
   const stride = window.map((w) => (rng.chance(overlap) ? rng.int(1, w) : w));
-  const pad: PaddingSpec = rng.chance(0.7) ? 'valid' : rng.chance(0.5) ? 'same' : window.map(() => rng.int(0, 1));
+  // Explicit padding at most half the window, as frameworks require: no window reads only padding.
+  const pad: PaddingSpec = rng.chance(0.7) ? 'valid' : rng.chance(0.5) ? 'same' : window.map((w) => rng.int(0, Math.floor(w / 2)));
   return pool(window, { stride, padding: pad });
 }
 

@@ -196,11 +196,19 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     grids.push(out);
   });
 
-  // The square rule. Reading of the text: "nearest non-pointwise ancestor" stops at any other
-  // layer, merges included, so an activation after a sum of dense layers (a residual MLP) is the
-  // identity and such a stack stays linear; only a dense layer's own activation squares.
+  // The square rule: a dense layer mixes positions when it reads `input`, or when the nearest
+  // non-pointwise layer it reads is a flatten of more than one position or itself mixes; a merge
+  // mixes when the nearest non-pointwise layer of every input mixes.
   const mixes: boolean[] = layers.map(() => false);
+  const nearMixes = (i: number): boolean => {
+    const near = throughPointwise(i);
+    return near !== INPUT && (mixes[near] as boolean);
+  };
   layers.forEach((layer, li) => {
+    if (layer.kind === 'merge') {
+      mixes[li] = layer.inputs.every(nearMixes);
+      return;
+    }
     if (layer.kind !== 'dense') return;
     if (reading[li] === 'input') {
       mixes[li] = true;
@@ -210,7 +218,7 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     if (near === INPUT) return;
     const nl = layers[near] as Layer;
     if (nl.kind === 'flatten') mixes[li] = count(gridOf(nl.inputs[0] as number).dims) > 1;
-    else if (nl.kind === 'dense') mixes[li] = mixes[near] as boolean;
+    else mixes[li] = mixes[near] as boolean;
   });
   // Reachability of a weighted layer, from the consumers backwards.
   const reachesWeighted: boolean[] = layers.map(() => false);
@@ -228,7 +236,7 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
       if ((layers[x] as PointwiseLayer).family === 'activation') return false; // another activation between
       x = (layers[x] as Layer).inputs[0] as number;
     }
-    return x !== INPUT && (layers[x] as Layer).kind === 'dense' && (mixes[x] as boolean);
+    return x !== INPUT && (mixes[x] as boolean);
   });
 
   // The analysed output.
@@ -245,9 +253,9 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     }
   } else {
     defaulted = true;
-    // Reading of the text: "every conv is causal" counts layers of kind `conv` only, and holds
-    // vacuously for a model without one.
-    const allCausal = layers.every((l) => l.kind !== 'conv' || l.padding.mode === 'causal');
+    // "the model has at least one conv and every conv is causal" (layers of kind `conv`).
+    const convs = layers.filter((l) => l.kind === 'conv');
+    const allCausal = convs.length > 0 && convs.every((l) => l.kind === 'conv' && l.padding.mode === 'causal');
     position = last.dims.length === 1 && allCausal ? [(last.dims[0] as number) - 1] : last.dims.map((n) => Math.floor(n / 2));
   }
   let index = 0;

@@ -24,7 +24,7 @@ import {
   residual,
   upsample,
 } from './models.js';
-import { compile, WeightStore } from './surrogate.js';
+import { compile, RefusedModel, WeightStore } from './surrogate.js';
 
 /** h(x) with exactly the given weights (and no other draw). */
 function value(model: LayeredModel, surrogate: SurrogateKind, weights: Record<string, readonly number[]>, x: readonly number[]): number {
@@ -46,11 +46,11 @@ describe('pool', () => {
     for (const s of both) expect(value(m, s, { head: [1] }, [2, 3, 5])).toBe(2700);
   });
 
-  it('a window made of padding only holds the empty product (the reading of this oracle: all ones)', () => {
+  it('a window made of padding only is refused (the text: frameworks forbid such padding)', () => {
     // n = 2, window 1, explicit padding 1: 4 windows, taps −1, 0, 1, 2; the first and last are
-    // padding only. Product: x0·x1·1·1.
+    // padding only.
     const m = layered([2], 1, true, [pool([1], { stride: [1], padding: [1] }), globalPool()]);
-    expect(value(m, 'tree', { head: [1] }, [3, 7])).toBe(21);
+    expect(() => value(m, 'tree', { head: [1] }, [3, 7])).toThrow(RefusedModel);
   });
 });
 

@@ -12,7 +12,8 @@
  * of the generic separation rank; with K above the rank it equals it with high probability.
  *
  * Readings of the text where it is terse or silent (each also in the oracle's report):
- * - a pool window whose taps all fall in the padding holds the empty product, the all-ones vector;
+ * - (the text now says: a pool window with no tap inside the grid is refused; a conv output with
+ *   no position inside the grid is the zero vector);
  * - `groups` of a conv-transpose make its maps block diagonal, as for a conv;
  * - an unshared `overlap` conv-transpose has one set of tap maps per output position;
  * - the `tree` conv-transpose reads input min(⌊j/s⌋, n−1) whatever its padding p (literal text);
@@ -37,6 +38,11 @@ import {
 import { planModel, type ModelPlan, type SurrogateKind } from './plan.js';
 
 export type { SurrogateKind } from './plan.js';
+
+/** The text refuses this model (not an evaluation failure): the product must refuse it too. */
+export class RefusedModel extends Error {
+  override readonly name = 'RefusedModel';
+}
 
 // Local bindings of the hot arithmetic: under the test runner's module transform every call
 // through an imported binding is a property load on a module object, which V8 does not inline
@@ -263,10 +269,8 @@ function treeConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: numbe
     }
     return u;
   };
-  const units = tree.groups.map((ps) => {
-    if (ps.length === 0) throw new Error(`tree conv ${layer.index}: empty P(j)`);
-    return productUnit(c, ps.map(mapAt), r);
-  });
+  // "An output whose P(j) is empty holds the zero vector": an empty sum.
+  const units = tree.groups.map((ps) => (ps.length === 0 ? mapSumUnit(c, [], [], r, src.width) : productUnit(c, ps.map(mapAt), r)));
   return { dims: tree.dims, width: r, units };
 }
 
@@ -318,7 +322,11 @@ function poolGrid(ctx: Context, layer: PoolLayer, src: Grid): Grid {
   const { c } = ctx;
   if (layer.global) return { dims: src.dims.map(() => 1), width: src.width, units: [productUnit(c, src.units, src.width)] };
   const pooled = poolGroups(src.dims, layer.window, layer.stride, layer.padding);
-  const units = pooled.groups.map((ps) => productUnit(c, ps.map((p) => src.units[p] as number), src.width));
+  const units = pooled.groups.map((ps) => {
+    // "A window with no tap inside the grid is refused."
+    if (ps.length === 0) throw new RefusedModel(`pool ${layer.index}: a window reads only padding`);
+    return productUnit(c, ps.map((p) => src.units[p] as number), src.width);
+  });
   return { dims: pooled.dims, width: src.width, units };
 }
 
