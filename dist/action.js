@@ -41562,6 +41562,10 @@ function readPointwise2(model, shapes) {
   const mixing = /* @__PURE__ */ new Set();
   const squared = /* @__PURE__ */ new Set();
   const ignored2 = /* @__PURE__ */ new Set();
+  const mixes = (i) => {
+    const { at } = nearest(i);
+    return at !== INPUT && mixing.has(at);
+  };
   for (const layer of layers) {
     if (layer.kind === "dense") {
       const reading = shapes.denseReading[layer.index];
@@ -41570,8 +41574,10 @@ function readPointwise2(model, shapes) {
         const { at } = nearest(layer.inputs[0]);
         const above = at === INPUT ? void 0 : layers[at];
         if (above?.kind === "flatten" && positionsBefore(above.inputs[0]) > 1) mixing.add(layer.index);
-        else if (above?.kind === "dense" && mixing.has(above.index)) mixing.add(layer.index);
+        else if (above && mixing.has(above.index)) mixing.add(layer.index);
       }
+    } else if (layer.kind === "merge") {
+      if (layer.inputs.every(mixes)) mixing.add(layer.index);
     } else if (layer.kind === "pointwise") {
       if (!reachesWeighted[layer.index]) {
         ignored2.add(layer.index);
@@ -41615,7 +41621,7 @@ function buildCircuit(model, options) {
     const gridOf = (i) => i === INPUT ? input : grids[i];
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options.surrogate, shapes, pointwise);
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
       if ("code" in built) return fail(built.span, built.code, built.message);
       grids.push(built);
     }
@@ -41624,9 +41630,16 @@ function buildCircuit(model, options) {
     let top;
     if (last.flat) {
       const headTag = b.addTag({ label: layerLabel(lastLayer), line: lastLayer.span.line, span: lastLayer.span, layerIndex: lastLayer.index });
-      top = sumOrLinear(b, 1, headTag, last.nodes);
+      top = sumOf(b, 1, headTag, last.nodes);
     } else {
       top = last.nodes[flatIndex(last.shape, shapes.output.position)];
+    }
+    if (top === ZERO) {
+      return fail(
+        lastLayer.span,
+        "network/zero-output",
+        `the analysed output is zero for every choice of weights: it reads only padding; reduce the padding or analyse another output position`
+      );
     }
     return { ok: true, circuit: b.finish(top), notes: notes.list(), shapes, pointwise };
   } catch (e) {
@@ -41637,32 +41650,47 @@ function buildCircuit(model, options) {
 function flatIndex(shape, at) {
   return shape.length === 1 ? at[0] : at[0] * shape[1] + at[1];
 }
-function sumOrLinear(b, dim, tag, children) {
-  return b.add(children.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, children);
+var ZERO = -2;
+function linearOf(b, dim, tag, v) {
+  return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
+}
+function productOf(b, dim, tag, children) {
+  if (children.includes(ZERO)) return ZERO;
+  return children.length === 1 ? children[0] : b.add(OP_PRODUCT, dim, tag, children);
+}
+function sumOf(b, dim, tag, children) {
+  const live = children.filter((v) => v !== ZERO);
+  if (live.length === 0) return ZERO;
+  return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
 }
 function materialise(b, g, tag) {
   if (!g.flat) return g;
-  return { shape: g.shape, nodes: [sumOrLinear(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
+  return { shape: g.shape, nodes: [sumOf(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
 }
-function buildLayer(b, layer, inputs, tag, surrogate, shapes, pointwise) {
+function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
   const out = shapes.layers[layer.index];
   const first = inputs[0];
+  const surrogate = options.surrogate;
+  const grouped = shapes.groups[layer.index] > 1 && options.groupedAsIdentity === true;
+  if (grouped && out.width !== first.dim) {
+    return { span: layer.span, code: "network/grouped-not-identity", message: `layer ${layerLabel(layer)}: a grouped map between widths ${first.dim} and ${out.width} is not the identity` };
+  }
   switch (layer.kind) {
     case "pointwise": {
       if (!pointwise.squared.has(layer.index)) return first;
       const g = materialise(b, first, tag);
-      return { ...g, nodes: g.nodes.map((v) => b.add(OP_PRODUCT, g.dim, tag, [v, v])) };
+      return { ...g, nodes: g.nodes.map((v) => productOf(b, g.dim, tag, [v, v])) };
     }
     case "flatten":
       return { shape: out.shape, nodes: first.nodes, dim: first.dim, flat: true };
     case "dense": {
       const reading = shapes.denseReading[layer.index];
-      if (first.flat || reading === "input") return { shape: out.shape, nodes: [sumOrLinear(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
-      return { shape: out.shape, nodes: first.nodes.map((v) => b.add(OP_LINEAR, layer.units, tag, [v])), dim: layer.units, flat: false };
+      if (first.flat || reading === "input") return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
     }
     case "merge": {
       const grids = inputs.map((g) => materialise(b, g, tag));
-      const nodes = grids[0].nodes.map((_, p) => b.add(OP_SUM, out.width, tag, grids.map((g) => g.nodes[p])));
+      const nodes = grids[0].nodes.map((_, p) => sumOf(b, out.width, tag, grids.map((g) => g.nodes[p])));
       return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
     case "recurrent":
@@ -41672,9 +41700,9 @@ function buildLayer(b, layer, inputs, tag, surrogate, shapes, pointwise) {
     case "upsample":
       return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
     case "conv":
-      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate);
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
     case "conv-transpose":
-      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate);
+      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
 }
 function recurrent(b, g, hidden, depth, tag) {
@@ -41683,26 +41711,35 @@ function recurrent(b, g, hidden, depth, tag) {
     let prev = b.add(OP_CONST, hidden, tag, []);
     const states = [];
     for (const x of below2) {
-      const carried = b.add(OP_LINEAR, hidden, tag, [prev]);
-      const fed = b.add(OP_LINEAR, hidden, tag, [x]);
-      prev = b.add(OP_PRODUCT, hidden, tag, [carried, fed]);
+      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
       states.push(prev);
     }
     below2 = states;
   }
   return { shape: [1], nodes: [below2[below2.length - 1]], dim: hidden, flat: false };
 }
-function crossPositions(shape, perAxis2) {
-  if (shape.length === 1) return [...perAxis2[0]];
-  const res = [];
-  for (const r of perAxis2[0]) for (const c of perAxis2[1]) res.push(r * shape[1] + c);
-  return res;
-}
-function outputs(shape) {
-  if (shape.length === 1) return Array.from({ length: shape[0] }, (_, j) => [j]);
-  const res = [];
-  for (let i = 0; i < shape[0]; i++) for (let j = 0; j < shape[1]; j++) res.push([i, j]);
-  return res;
+function eachOutput(inShape, outShape, axisList, visit3) {
+  const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
+  if (outShape.length === 1) {
+    for (let j = 0; j < outShape[0]; j++) {
+      const problem = visit3(lists[0][j], [j]);
+      if (problem) return problem;
+    }
+    return void 0;
+  }
+  const width = inShape[1];
+  for (let i = 0; i < outShape[0]; i++) {
+    const rows = lists[0][i];
+    for (let j = 0; j < outShape[1]; j++) {
+      const cols = lists[1][j];
+      const positions = new Array(rows.length * cols.length);
+      let k = 0;
+      for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
+      const problem = visit3(positions, [i, j]);
+      if (problem) return problem;
+    }
+  }
+  return void 0;
 }
 function plans(g, k, s, d, layer) {
   return g.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
@@ -41716,77 +41753,84 @@ function emptyWindow(layer, at) {
 }
 function pool(b, g, layer, shape, tag) {
   if (layer.global) {
-    return { shape, nodes: [g.nodes.length === 1 ? g.nodes[0] : b.add(OP_PRODUCT, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
+    return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
   }
-  const ones = layer.window.map(() => 1);
-  const axisPlans = plans(g, layer.window, layer.stride, ones, layer);
+  const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes = [];
-  for (const at of outputs(shape)) {
-    const perAxis2 = at.map((j, a) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans[a].left));
-    const children = crossPositions(g.shape, perAxis2).map((p) => g.nodes[p]);
-    if (children.length === 0) return emptyWindow(layer, at);
-    nodes.push(children.length === 1 ? children[0] : b.add(OP_PRODUCT, g.dim, tag, children));
-  }
-  return { shape, nodes, dim: g.dim, flat: false };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans[a].left),
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
+    }
+  );
+  return problem ?? { shape, nodes, dim: g.dim, flat: false };
 }
 function upsample(b, g, layer, shape, tag) {
   const nodes = [];
-  for (const at of outputs(shape)) {
-    const perAxis2 = at.map((j, a) => {
+  eachOutput(
+    g.shape,
+    shape,
+    (a, j) => {
       const f2 = layer.factor[a];
       if (layer.mode === "nearest") return [Math.floor(j / f2)];
       const src = linearSources(j, g.shape[a], f2);
       return src.num === 0 ? [src.i0] : [src.i0, src.i1];
-    });
-    const children = crossPositions(g.shape, perAxis2).map((p) => g.nodes[p]);
-    nodes.push(children.length === 1 ? children[0] : b.add(OP_SUM, g.dim, tag, children));
-  }
+    },
+    (positions) => {
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
+    }
+  );
   return { shape, nodes, dim: g.dim, flat: false };
 }
-function conv(b, g, layer, shape, width, tag, surrogate) {
+function conv(b, g, layer, shape, width, tag, surrogate, identity) {
   const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === "causal";
-  const mapped = /* @__PURE__ */ new Map();
+  const nodes = [];
+  if (surrogate === "overlap") {
+    const problem2 = eachOutput(
+      g.shape,
+      shape,
+      (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a].left),
+      (positions) => {
+        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p])));
+        return void 0;
+      }
+    );
+    return problem2 ?? { shape, nodes, dim: width, flat: false };
+  }
+  const mapped = new Int32Array(g.nodes.length).fill(-1);
   const mapOf = (p) => {
-    let v = mapped.get(p);
-    if (v === void 0) mapped.set(p, v = b.add(OP_LINEAR, width, tag, [g.nodes[p]]));
-    return v;
+    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p] : linearOf(b, width, tag, g.nodes[p]);
+    return mapped[p];
   };
-  const nodes = [];
-  for (const at of outputs(shape)) {
-    if (surrogate === "overlap") {
-      const perAxis2 = at.map((j, a) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a].left));
-      const children = crossPositions(g.shape, perAxis2).map((p) => g.nodes[p]);
-      if (children.length === 0) return emptyWindow(layer, at);
-      nodes.push(sumOrLinear(b, width, tag, children));
-    } else {
-      const perAxis2 = at.map(
-        (j, a) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a], causal)
-      );
-      const positions = crossPositions(g.shape, perAxis2);
-      if (positions.length === 0) return emptyWindow(layer, at);
-      const children = positions.map(mapOf);
-      nodes.push(children.length === 1 ? children[0] : b.add(OP_PRODUCT, width, tag, children));
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a], causal),
+    (positions) => {
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
+      return void 0;
     }
-  }
-  return { shape, nodes, dim: width, flat: false };
+  );
+  return problem ?? { shape, nodes, dim: width, flat: false };
 }
-function convTranspose(b, g, layer, shape, tag, surrogate) {
+function convTranspose(b, g, layer, shape, tag, surrogate, identity) {
   const nodes = [];
-  for (const at of outputs(shape)) {
-    if (surrogate === "overlap") {
-      const perAxis2 = at.map(
-        (j, a) => transposeSources(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]).map(([i]) => i)
-      );
-      const children = crossPositions(g.shape, perAxis2).map((p) => g.nodes[p]);
-      if (children.length === 0) return emptyWindow(layer, at);
-      nodes.push(sumOrLinear(b, layer.channels, tag, children));
-    } else {
-      const perAxis2 = at.map((j, a) => [treeTransposeSource(j, g.shape[a], layer.stride[a])[0]]);
-      nodes.push(b.add(OP_LINEAR, layer.channels, tag, [g.nodes[crossPositions(g.shape, perAxis2)[0]]]));
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => surrogate === "overlap" ? transposeSources(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]).map(([i]) => i) : [treeTransposeSource(j, g.shape[a], layer.stride[a])[0]],
+    (positions) => {
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
     }
-  }
-  return { shape, nodes, dim: layer.channels, flat: false };
+  );
+  return problem ?? { shape, nodes, dim: layer.channels, flat: false };
 }
 var Notes = class {
   out = [];
@@ -43094,7 +43138,7 @@ function analyseLayered(model, options) {
       return finish(p.label, { upper: upper2, lower: bestLower(p) });
     }
     const candidates2 = [
-      { log2: cut2.value, make: () => makeBound(productOf(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
+      { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
     if (prop) {
@@ -43130,7 +43174,7 @@ function analyseLayered(model, options) {
 function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
   const out = [];
   for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
-    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate });
+    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate, groupedAsIdentity: true });
     if (!built.ok || built.circuit.sums) continue;
     let top = built.circuit.top;
     while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]];
@@ -43161,7 +43205,7 @@ function finish(label2, b) {
   const status = !b.lower ? "upper-only" : b.lower.rank === b.upper.rank ? "exact" : "bounded";
   return { partition: label2, upper: b.upper, lower: b.lower, status };
 }
-function productOf(counts, augment) {
+function productOf2(counts, augment) {
   const byDim = /* @__PURE__ */ new Map();
   for (const m of counts.values()) {
     for (const [dim, k] of m) {

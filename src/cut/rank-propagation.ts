@@ -122,11 +122,204 @@ const MAX_BITS = 4_000_000;
 
 export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
   const plan = planOf(c);
-  const logs = propagate(c, plan, side, LOG);
+  const logs = propagateFloat(c, plan, side, true);
   let largest = 0;
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v]!, logs.rb[v]!);
-  const rank = (): bigint | undefined => (largest > MAX_BITS ? undefined : big(propagate(c, plan, side, EXACT).lam[c.top]!));
+  const rank = (): bigint | undefined => {
+    if (largest > MAX_BITS) return undefined;
+    // Below 2^40 every value, and every step of a symmetric power, is an exact double.
+    if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]!);
+    return big(propagate(c, plan, side, EXACT).lam[c.top]!);
+  };
   return { log2: logs.lam[c.top]!, rank, counts: recordWidths(c, plan, logs) };
+}
+
+/**
+ * The rules of `propagate` on doubles, written out for speed (most circuits are large, and this
+ * pass runs for every partition): in log2 (`log`) to measure sizes and name the widths, or on
+ * the values themselves when all of them are known to be small integers.
+ */
+function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean): Propagated<number> {
+  const n = c.size;
+  const { op, dim, childStart, childList } = c;
+  const { start, childOf, times, mStart, members } = plan;
+  const dep = new Uint8Array(n);
+  const one = log ? 0 : 1;
+  const ra = new Float64Array(n).fill(one);
+  const rb = new Float64Array(n).fill(one);
+  const kap = new Float64Array(n).fill(one);
+  const lam = new Float64Array(n).fill(one);
+  const whyA = new Uint8Array(n).fill(FROM_PURE);
+  const whyB = new Uint8Array(n).fill(FROM_PURE);
+  const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const of = (x: number): number => (log ? Math.log2(x) : x);
+  const mul = (x: number, y: number): number => (log ? x + y : x * y);
+  const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
+  const symPow = (x: number, a: number): number => (log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a)));
+  const term = (t: number, r: Float64Array): number => {
+    const node = childOf[t]!;
+    if (mStart[t + 1] === mStart[t]) return r[node]!;
+    let sum = r[members[mStart[t]!]!]!;
+    for (let i = mStart[t]! + 1; i < mStart[t + 1]!; i++) sum = add(sum, r[members[i]!]!);
+    return Math.min(r[node]!, sum);
+  };
+  for (let v = 0; v < n; v++) {
+    const kind = op[v];
+    if (kind === OP_INPUT) {
+      const onA = side[c.position[v]!] === 1;
+      dep[v] = onA ? 1 : 2;
+      if (onA) rb[v] = of(dim[v]!);
+      else ra[v] = of(dim[v]!);
+      continue;
+    }
+    if (kind === OP_CONST) continue;
+    let d = 0;
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
+    dep[v] = d;
+    const D = of(dim[v]!);
+    if (d !== 3) {
+      const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
+      if (d === 1) rb[v] = own >= 0 ? Math.min(rb[own]!, D) : D;
+      if (d === 2) ra[v] = own >= 0 ? Math.min(ra[own]!, D) : D;
+      continue;
+    }
+    let a: number;
+    let b: number;
+    let k: number;
+    let l: number;
+    let lWhy = FROM_CHILDREN;
+    if (kind === OP_LINEAR) {
+      const ch = childList[childStart[v]!]!;
+      a = ra[ch]!;
+      b = rb[ch]!;
+      l = lam[ch]!;
+      k = l;
+    } else if (kind === OP_PRODUCT) {
+      a = one;
+      b = one;
+      k = one;
+      for (let t = start[v]!; t < start[v + 1]!; t++) {
+        const ch = childOf[t]!;
+        const m = times[t]!;
+        a = mul(a, m === 1 ? ra[ch]! : symPow(ra[ch]!, m));
+        b = mul(b, m === 1 ? rb[ch]! : symPow(rb[ch]!, m));
+        k = mul(k, m === 1 ? kap[ch]! : symPow(kap[ch]!, m));
+      }
+      l = mul(D, k);
+      lWhy = FROM_DIM_KAPPA;
+    } else {
+      // A sum: the rule of sumRule, on doubles.
+      [a, b, l] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      k = l;
+    }
+    whyA[v] = FROM_CHILDREN;
+    whyB[v] = FROM_CHILDREN;
+    whyL[v] = lWhy;
+    const viaB = mul(D, b);
+    const viaA = mul(D, a);
+    const viaK = mul(D, k);
+    if (a > Math.min(viaB, viaK)) {
+      whyA[v] = viaB <= viaK ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      a = Math.min(viaB, viaK);
+    }
+    if (b > Math.min(viaA, viaK)) {
+      whyB[v] = viaA <= viaK ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      b = Math.min(viaA, viaK);
+    }
+    if (l > Math.min(a, b)) {
+      whyL[v] = a <= b ? FROM_SIDE_A : FROM_SIDE_B;
+      l = Math.min(a, b);
+    }
+    ra[v] = a;
+    rb[v] = b;
+    lam[v] = l;
+    kap[v] = Math.min(k, l);
+  }
+  return { dep, ra, rb, lam, whyA, whyB, whyL };
+}
+
+/** A running sum of values given as they are (`plain`) or by their log2. */
+interface FloatSum {
+  add(x: number): void;
+  readonly value: number;
+}
+
+/** Plain values: exact while every partial sum stays below 2^53. */
+class PlainSum implements FloatSum {
+  value = 0;
+  add(x: number): void {
+    this.value += x;
+  }
+}
+
+/** log2 values: the largest term and Σ 2^(x − largest), one power per term. */
+class Log2Sum implements FloatSum {
+  private m = -Infinity;
+  private s = 0;
+  add(x: number): void {
+    if (x > this.m) {
+      this.s = this.s * 2 ** (this.m - x) + 1;
+      this.m = x;
+    } else this.s += 2 ** (x - this.m);
+  }
+  get value(): number {
+    return this.m === -Infinity ? 0 : this.m + Math.log2(this.s);
+  }
+}
+
+/** The rule of `sumRule` on doubles, for `propagateFloat`: [ρ_A, ρ_B, λ]. */
+function sumFloat(
+  v: number,
+  start: Int32Array,
+  childOf: Int32Array,
+  dep: Uint8Array,
+  termA: (t: number) => number,
+  termB: (t: number) => number,
+  termL: (t: number) => number,
+  D: number,
+  log: boolean,
+): [number, number, number] {
+  const sum = (): FloatSum => (log ? new Log2Sum() : new PlainSum());
+  const one = log ? 0 : 1;
+  const a = sum();
+  const b = sum();
+  const l = sum();
+  const pureAonB = sum();
+  const pureBonA = sum();
+  let pureA = false;
+  let pureB = false;
+  let constant = false;
+  for (let t = start[v]!; t < start[v + 1]!; t++) {
+    const d = dep[childOf[t]!]!;
+    if (d === 0) constant = true;
+    else if (d === 1) {
+      pureA = true;
+      pureAonB.add(termB(t));
+    } else if (d === 2) {
+      pureB = true;
+      pureBonA.add(termA(t));
+    } else {
+      a.add(termA(t));
+      b.add(termB(t));
+      l.add(termL(t));
+    }
+  }
+  if (constant && !pureA && !pureB) {
+    a.add(one);
+    b.add(one);
+    l.add(one);
+  }
+  if (pureA) {
+    a.add(one);
+    b.add(Math.min(D, pureAonB.value));
+    l.add(one);
+  }
+  if (pureB) {
+    a.add(Math.min(D, pureBonA.value));
+    b.add(one);
+    l.add(one);
+  }
+  return [a.value, b.value, l.value];
 }
 
 /**
