@@ -4859,8 +4859,8 @@ var require_util2 = __commonJS({
       }
       return values;
     }
-    function getDecodeSplit(name, list2) {
-      const value = list2.get(name, true);
+    function getDecodeSplit(name, list3) {
+      const value = list3.get(name, true);
       if (value === null) {
         return null;
       }
@@ -8185,8 +8185,8 @@ var require_pool_stats = __commonJS({
     var { kFree, kConnected, kPending, kQueued, kRunning, kSize } = require_symbols();
     var kPool = /* @__PURE__ */ Symbol("pool");
     var PoolStats = class {
-      constructor(pool) {
-        this[kPool] = pool;
+      constructor(pool2) {
+        this[kPool] = pool2;
       }
       get connected() {
         return this[kPool][kConnected];
@@ -8237,35 +8237,35 @@ var require_pool_base = __commonJS({
         this[kQueue] = new FixedQueue();
         this[kClients] = [];
         this[kQueued] = 0;
-        const pool = this;
+        const pool2 = this;
         this[kOnDrain] = function onDrain(origin, targets) {
-          const queue = pool[kQueue];
+          const queue = pool2[kQueue];
           let needDrain = false;
           while (!needDrain) {
             const item = queue.shift();
             if (!item) {
               break;
             }
-            pool[kQueued]--;
+            pool2[kQueued]--;
             needDrain = !this.dispatch(item.opts, item.handler);
           }
           this[kNeedDrain] = needDrain;
-          if (!this[kNeedDrain] && pool[kNeedDrain]) {
-            pool[kNeedDrain] = false;
-            pool.emit("drain", origin, [pool, ...targets]);
+          if (!this[kNeedDrain] && pool2[kNeedDrain]) {
+            pool2[kNeedDrain] = false;
+            pool2.emit("drain", origin, [pool2, ...targets]);
           }
-          if (pool[kClosedResolve] && queue.isEmpty()) {
-            Promise.all(pool[kClients].map((c) => c.close())).then(pool[kClosedResolve]);
+          if (pool2[kClosedResolve] && queue.isEmpty()) {
+            Promise.all(pool2[kClients].map((c) => c.close())).then(pool2[kClosedResolve]);
           }
         };
         this[kOnConnect] = (origin, targets) => {
-          pool.emit("connect", origin, [pool, ...targets]);
+          pool2.emit("connect", origin, [pool2, ...targets]);
         };
         this[kOnDisconnect] = (origin, targets, err) => {
-          pool.emit("disconnect", origin, [pool, ...targets], err);
+          pool2.emit("disconnect", origin, [pool2, ...targets], err);
         };
         this[kOnConnectionError] = (origin, targets, err) => {
-          pool.emit("connectionError", origin, [pool, ...targets], err);
+          pool2.emit("connectionError", origin, [pool2, ...targets], err);
         };
         this[kStats] = new PoolStats(this);
       }
@@ -8519,22 +8519,22 @@ var require_balanced_pool = __commonJS({
       }
       addUpstream(upstream) {
         const upstreamOrigin = parseOrigin(upstream).origin;
-        if (this[kClients].find((pool2) => pool2[kUrl].origin === upstreamOrigin && pool2.closed !== true && pool2.destroyed !== true)) {
+        if (this[kClients].find((pool3) => pool3[kUrl].origin === upstreamOrigin && pool3.closed !== true && pool3.destroyed !== true)) {
           return this;
         }
-        const pool = this[kFactory](upstreamOrigin, Object.assign({}, this[kOptions]));
-        this[kAddClient](pool);
-        pool.on("connect", () => {
-          pool[kWeight] = Math.min(this[kMaxWeightPerServer], pool[kWeight] + this[kErrorPenalty]);
+        const pool2 = this[kFactory](upstreamOrigin, Object.assign({}, this[kOptions]));
+        this[kAddClient](pool2);
+        pool2.on("connect", () => {
+          pool2[kWeight] = Math.min(this[kMaxWeightPerServer], pool2[kWeight] + this[kErrorPenalty]);
         });
-        pool.on("connectionError", () => {
-          pool[kWeight] = Math.max(1, pool[kWeight] - this[kErrorPenalty]);
+        pool2.on("connectionError", () => {
+          pool2[kWeight] = Math.max(1, pool2[kWeight] - this[kErrorPenalty]);
           this._updateBalancedPoolStats();
         });
-        pool.on("disconnect", (...args) => {
+        pool2.on("disconnect", (...args) => {
           const err = args[2];
           if (err && err.code === "UND_ERR_SOCKET") {
-            pool[kWeight] = Math.max(1, pool[kWeight] - this[kErrorPenalty]);
+            pool2[kWeight] = Math.max(1, pool2[kWeight] - this[kErrorPenalty]);
             this._updateBalancedPoolStats();
           }
         });
@@ -8553,9 +8553,9 @@ var require_balanced_pool = __commonJS({
       }
       removeUpstream(upstream) {
         const upstreamOrigin = parseOrigin(upstream).origin;
-        const pool = this[kClients].find((pool2) => pool2[kUrl].origin === upstreamOrigin && pool2.closed !== true && pool2.destroyed !== true);
-        if (pool) {
-          this[kRemoveClient](pool);
+        const pool2 = this[kClients].find((pool3) => pool3[kUrl].origin === upstreamOrigin && pool3.closed !== true && pool3.destroyed !== true);
+        if (pool2) {
+          this[kRemoveClient](pool2);
         }
         return this;
       }
@@ -8570,16 +8570,16 @@ var require_balanced_pool = __commonJS({
         if (!dispatcher) {
           return;
         }
-        const allClientsBusy = this[kClients].map((pool) => pool[kNeedDrain]).reduce((a, b) => a && b, true);
+        const allClientsBusy = this[kClients].map((pool2) => pool2[kNeedDrain]).reduce((a, b) => a && b, true);
         if (allClientsBusy) {
           return;
         }
         let counter = 0;
-        let maxWeightIndex = this[kClients].findIndex((pool) => !pool[kNeedDrain]);
+        let maxWeightIndex = this[kClients].findIndex((pool2) => !pool2[kNeedDrain]);
         while (counter++ < this[kClients].length) {
           this[kIndex] = (this[kIndex] + 1) % this[kClients].length;
-          const pool = this[kClients][this[kIndex]];
-          if (pool[kWeight] > this[kClients][maxWeightIndex][kWeight] && !pool[kNeedDrain]) {
+          const pool2 = this[kClients][this[kIndex]];
+          if (pool2[kWeight] > this[kClients][maxWeightIndex][kWeight] && !pool2[kNeedDrain]) {
             maxWeightIndex = this[kIndex];
           }
           if (this[kIndex] === 0) {
@@ -8588,8 +8588,8 @@ var require_balanced_pool = __commonJS({
               this[kCurrentWeight] = this[kMaxWeightPerServer];
             }
           }
-          if (pool[kWeight] >= this[kCurrentWeight] && !pool[kNeedDrain]) {
-            return pool;
+          if (pool2[kWeight] >= this[kCurrentWeight] && !pool2[kNeedDrain]) {
+            return pool2;
           }
         }
         this[kCurrentWeight] = this[kClients][maxWeightIndex][kWeight];
@@ -12272,9 +12272,9 @@ var require_headers = __commonJS({
       // https://fetch.spec.whatwg.org/#dom-headers-getsetcookie
       getSetCookie() {
         webidl.brandCheck(this, _Headers);
-        const list2 = this.#headersList.cookies;
-        if (list2) {
-          return [...list2];
+        const list3 = this.#headersList.cookies;
+        if (list3) {
+          return [...list3];
         }
         return [];
       }
@@ -12314,8 +12314,8 @@ var require_headers = __commonJS({
       static getHeadersList(o) {
         return o.#headersList;
       }
-      static setHeadersList(o, list2) {
-        o.#headersList = list2;
+      static setHeadersList(o, list3) {
+        o.#headersList = list3;
       }
     };
     var { getHeadersGuard, setHeadersGuard, getHeadersList, setHeadersList } = Headers2;
@@ -13283,13 +13283,13 @@ var require_request2 = __commonJS({
         if (this.signal.aborted) {
           ac.abort(this.signal.reason);
         } else {
-          let list2 = dependentControllerMap.get(this.signal);
-          if (list2 === void 0) {
-            list2 = /* @__PURE__ */ new Set();
-            dependentControllerMap.set(this.signal, list2);
+          let list3 = dependentControllerMap.get(this.signal);
+          if (list3 === void 0) {
+            list3 = /* @__PURE__ */ new Set();
+            dependentControllerMap.set(this.signal, list3);
           }
           const acRef = new WeakRef(ac);
-          list2.add(acRef);
+          list3.add(acRef);
           util.addAbortListener(
             ac.signal,
             buildAbort(acRef)
@@ -21993,9 +21993,9 @@ var require_float2 = __commonJS({
         const node = new Scalar.Scalar(parseFloat(str.replace(/_/g, "")));
         const dot = str.indexOf(".");
         if (dot !== -1) {
-          const f = str.substring(dot + 1).replace(/_/g, "");
-          if (f[f.length - 1] === "0")
-            node.minFractionDigits = f.length;
+          const f2 = str.substring(dot + 1).replace(/_/g, "");
+          if (f2[f2.length - 1] === "0")
+            node.minFractionDigits = f2.length;
         }
         return node;
       },
@@ -25467,15 +25467,15 @@ var require_parser = __commonJS({
     var node_process = __require("process");
     var cst = require_cst();
     var lexer = require_lexer();
-    function includesToken(list2, type) {
-      for (let i = 0; i < list2.length; ++i)
-        if (list2[i].type === type)
+    function includesToken(list3, type) {
+      for (let i = 0; i < list3.length; ++i)
+        if (list3[i].type === type)
           return true;
       return false;
     }
-    function findNonEmptyIndex(list2) {
-      for (let i = 0; i < list2.length; ++i) {
-        switch (list2[i].type) {
+    function findNonEmptyIndex(list3) {
+      for (let i = 0; i < list3.length; ++i) {
+        switch (list3[i].type) {
           case "space":
           case "comment":
           case "newline":
@@ -27585,12 +27585,12 @@ var require_util9 = __commonJS({
       return str.replace(/~1/g, "/").replace(/~0/g, "~");
     }
     exports.unescapeJsonPointer = unescapeJsonPointer;
-    function eachItem(xs, f) {
+    function eachItem(xs, f2) {
       if (Array.isArray(xs)) {
         for (const x of xs)
-          f(x);
+          f2(x);
       } else {
-        f(xs);
+        f2(xs);
       }
     }
     exports.eachItem = eachItem;
@@ -27637,10 +27637,10 @@ var require_util9 = __commonJS({
     }
     exports.setEvaluated = setEvaluated;
     var snippets = {};
-    function useFunc(gen, f) {
+    function useFunc(gen, f2) {
       return gen.scopeValue("func", {
-        ref: f,
-        code: snippets[f.code] || (snippets[f.code] = new code_1._Code(f.code))
+        ref: f2,
+        code: snippets[f2.code] || (snippets[f2.code] = new code_1._Code(f2.code))
       });
     }
     exports.useFunc = useFunc;
@@ -31514,12 +31514,12 @@ var require_limitNumber = __commonJS({
     "use strict";
     Object.defineProperty(exports, "__esModule", { value: true });
     var codegen_1 = require_codegen();
-    var ops = codegen_1.operators;
+    var ops2 = codegen_1.operators;
     var KWDs = {
-      maximum: { okStr: "<=", ok: ops.LTE, fail: ops.GT },
-      minimum: { okStr: ">=", ok: ops.GTE, fail: ops.LT },
-      exclusiveMaximum: { okStr: "<", ok: ops.LT, fail: ops.GTE },
-      exclusiveMinimum: { okStr: ">", ok: ops.GT, fail: ops.LTE }
+      maximum: { okStr: "<=", ok: ops2.LTE, fail: ops2.GT },
+      minimum: { okStr: ">=", ok: ops2.GTE, fail: ops2.LT },
+      exclusiveMaximum: { okStr: "<", ok: ops2.LT, fail: ops2.GTE },
+      exclusiveMinimum: { okStr: ">", ok: ops2.GT, fail: ops2.LTE }
     };
     var error2 = {
       message: ({ keyword, schemaCode }) => (0, codegen_1.str)`must be ${KWDs[keyword].okStr} ${schemaCode}`,
@@ -32224,7 +32224,7 @@ var require_contains = __commonJS({
           const count = gen.let("count", 0);
           validateItems(schValid, () => gen.if(schValid, () => checkLimits(count)));
         }
-        function validateItems(_valid, block) {
+        function validateItems(_valid, block2) {
           gen.forRange("i", 0, len, (i) => {
             cxt.subschema({
               keyword: "contains",
@@ -32232,7 +32232,7 @@ var require_contains = __commonJS({
               dataPropType: util_1.Type.Num,
               compositeRule: true
             }, _valid);
-            block();
+            block2();
           });
         }
         function checkLimits(count) {
@@ -36337,8 +36337,8 @@ var Summary = class {
    * @returns {Summary} summary instance
    */
   addTable(rows) {
-    const tableBody = rows.map((row2) => {
-      const cells = row2.map((cell) => {
+    const tableBody = rows.map((row3) => {
+      const cells = row3.map((cell) => {
         if (typeof cell === "string") {
           return this.wrap("td", cell);
         }
@@ -37447,6 +37447,8 @@ function getIDToken(aud) {
 import { resolve as resolve3 } from "node:path";
 
 // src/cut/types.ts
+var MAX_RANK_BITS = 4e6;
+var HUGE_RANK = 1n << BigInt(MAX_RANK_BITS);
 function log2Big(x) {
   if (x <= 0n) throw new RangeError("log2Big needs a positive integer");
   const bits2 = x.toString(2).length;
@@ -37459,7 +37461,11 @@ function log2Big(x) {
 function bits(x) {
   return x.toFixed(2);
 }
+function boundRank(b) {
+  return b.huge ? `more than 2^${MAX_RANK_BITS.toLocaleString("en-US")} (≈2^${b.log2.toFixed(1)})` : shortRank(b.rank, b.log2);
+}
 function shortRank(r, log2) {
+  if (log2 > 1e5) return `≈2^${log2.toFixed(1)} (${Math.floor(log2 * Math.log10(2)) + 1} digits)`;
   const s = r.toString();
   return s.length <= 15 ? s : `≈2^${log2.toFixed(1)} (${s.length} digits)`;
 }
@@ -37522,7 +37528,7 @@ function needs(q) {
 }
 function range(q) {
   const b = q.bounds;
-  const upper = `${shortRank(b.upper.rank, b.upper.log2)} (${bits(b.upper.log2)} bits)`;
+  const upper = `${boundRank(b.upper)} (${bits(b.upper.log2)} bits)`;
   if (b.status === "exact") return `exactly ${upper}`;
   if (!b.lower) return `at most ${upper}; no lower bound proven`;
   return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
@@ -37567,10 +37573,10 @@ function explainRequirement(q, d) {
       lines.push("fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change");
     } else {
       lines.push("fix (smallest change of one field, cheapest first):");
-      for (const f of fixes) {
-        const who = f.layer === "input" ? "input" : `layer ${f.layer}`;
-        const proof = f.verdict === "pass" ? "then proven" : "then no longer provably short";
-        lines.push(`  line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString("en-US")} parameters; ${proof})`);
+      for (const f2 of fixes) {
+        const who = f2.layer === "input" ? "input" : `layer ${f2.layer}`;
+        const proof = f2.verdict === "pass" ? "then proven" : "then no longer provably short";
+        lines.push(`  line ${f2.line}:${f2.column}  ${who} ${f2.field}: ${f2.from} → ${f2.to}  (+${f2.addedParameters.toLocaleString("en-US")} parameters; ${proof})`);
       }
     }
   }
@@ -37752,12 +37758,12 @@ var AnchorIndex = class {
     const byName = /* @__PURE__ */ new Map();
     (0, import_yaml.visit)(this.doc, (_key, node) => {
       if (((0, import_yaml.isScalar)(node) || (0, import_yaml.isCollection)(node)) && !(0, import_yaml.isAlias)(node) && node.anchor && node.range) {
-        const list2 = byName.get(node.anchor) ?? [];
-        list2.push({ offset: node.range[0], node });
-        byName.set(node.anchor, list2);
+        const list3 = byName.get(node.anchor) ?? [];
+        list3.push({ offset: node.range[0], node });
+        byName.set(node.anchor, list3);
       }
     });
-    for (const list2 of byName.values()) list2.sort((a, b) => a.offset - b.offset);
+    for (const list3 of byName.values()) list3.sort((a, b) => a.offset - b.offset);
     this.byName = byName;
     return byName;
   }
@@ -37821,6 +37827,10 @@ function spanFromOffsets(lines, offset, endOffset) {
 function spanOfRange(lines, range2) {
   if (!range2) return void 0;
   return spanFromOffsets(lines, range2[0], range2[1]);
+}
+function spanJoin(first, last) {
+  if (last.endOffset < first.offset) return first;
+  return { offset: first.offset, line: first.line, column: first.column, endOffset: last.endOffset, endLine: last.endLine, endColumn: last.endColumn };
 }
 
 // src/config/located-value.ts
@@ -38036,27 +38046,55 @@ function positiveIntegerListOf(node) {
   }
   return out;
 }
-function optionalName(body) {
-  const node = fieldOf(body, "name");
-  if (!node) return void 0;
-  const s = stringOf(node);
-  return s !== void 0 && s.length > 0 ? s : false;
-}
 function fieldSpansOf(body, fields) {
   const out = {};
-  for (const f of fields) {
-    const v = fieldOf(body, f);
-    if (v) out[f] = v.span;
+  for (const f2 of fields) {
+    const v = fieldOf(body, f2);
+    if (v) out[f2] = v.span;
   }
   return out;
 }
 
 // src/config/model.ts
+var INPUT = -1;
 function positionCount(shape) {
   return shape.reduce((a, b) => a * b, 1);
 }
 function layerLabel(layer) {
   return layer.name ?? layer.index;
+}
+function layerWidth(layer) {
+  switch (layer.kind) {
+    case "conv":
+    case "conv-transpose":
+      return layer.channels;
+    case "dense":
+      return layer.units;
+    case "recurrent":
+      return layer.hidden;
+    default:
+      return void 0;
+  }
+}
+var PASS_THROUGH = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten"]);
+function firstMaps(model) {
+  const reached = /* @__PURE__ */ new Set([INPUT]);
+  const maps = [];
+  for (const layer of model.layers) {
+    if (layer.kind === "merge" || !layer.inputs.some((i) => reached.has(i))) continue;
+    if (PASS_THROUGH.has(layer.kind)) reached.add(layer.index);
+    else if (layerWidth(layer) !== void 0) maps.push(layer);
+  }
+  return maps;
+}
+function representationOf(model) {
+  if (model.input.representation !== void 0) return model.input.representation;
+  let best;
+  for (const layer of firstMaps(model)) {
+    const w = layerWidth(layer);
+    if (best === void 0 || w > best) best = w;
+  }
+  return best;
 }
 
 // src/config/build-explicit.ts
@@ -38169,95 +38207,1538 @@ function buildExplicitModel(root, file, sink) {
   return { kind: "explicit", file, shape: validShape, tensors, bonds, span: root.span };
 }
 
+// src/config/pointwise-ops.ts
+var ops = (family, rows) => rows.map(([op, ...aliases]) => ({ op, family, aliases }));
+var POINTWISE_OPS = [
+  ...ops("activation", [
+    ["relu"],
+    ["relu6"],
+    ["gelu"],
+    ["silu", "swish"],
+    ["tanh"],
+    ["sigmoid"],
+    ["hard_sigmoid"],
+    ["elu"],
+    ["selu"],
+    ["celu"],
+    ["leaky_relu", "lrelu"],
+    ["softplus"],
+    ["softsign"],
+    ["mish"],
+    ["hardswish", "hswish", "hard_swish"],
+    ["hardtanh"],
+    ["prelu"],
+    ["softmax"],
+    ["log_softmax"],
+    ["identity"]
+  ]),
+  ...ops("normalisation", [
+    ["batch_norm", "bn", "batchnormalization", "syncbatchnorm"],
+    ["layer_norm", "ln", "layernormalization"],
+    ["group_norm", "gn", "groupnormalization"],
+    ["instance_norm", "instancenormalization"],
+    ["local_response_norm", "lrn", "localresponsenormalization"],
+    ["rms_norm", "rmsnormalization"]
+  ]),
+  ...ops("dropout", [
+    ["dropout"],
+    ["spatial_dropout"],
+    ["alpha_dropout"],
+    ["gaussian_dropout"],
+    ["feature_alpha_dropout"]
+  ]),
+  ...ops("scaling", [
+    ["scale", "scaling", "rescaling"],
+    ["weight_norm", "weightnormalization"]
+  ])
+];
+function normaliseWord(word) {
+  return word.toLowerCase().replace(/[_\-\s.]/g, "");
+}
+var BY_WORD = /* @__PURE__ */ new Map();
+for (const o of POINTWISE_OPS) for (const w of [o.op, ...o.aliases]) BY_WORD.set(normaliseWord(w), o);
+function pointwiseOpOf(normalisedWord) {
+  return BY_WORD.get(normalisedWord);
+}
+function opsOf(family) {
+  return POINTWISE_OPS.filter((o) => o.family === family).map((o) => o.op);
+}
+
+// src/config/read-input.ts
+function readInput(node, sink) {
+  if (!node) return void 0;
+  const shapeNode = fieldOf(node, "shape");
+  const given = positiveIntegerListOf(shapeNode);
+  const channelsNode = fieldOf(node, "channels");
+  const channels = positiveIntegerOf(channelsNode);
+  const reprNode = fieldOf(node, "representation");
+  const representation = positiveIntegerOf(reprNode);
+  if (!shapeNode || !given || given.length < 1 || given.length > 3) return void 0;
+  if (channelsNode && channels === void 0 || reprNode && representation === void 0) return void 0;
+  let shape = given;
+  if (given.length === 3) {
+    const at = displayPath(shapeNode);
+    const text = `[${given.join(", ")}]`;
+    if (channels === void 0) {
+      sink.error(
+        "config/input-shape",
+        `${at} is ${text}: only 1D ([length]) and 2D ([height, width]) grids are supported; if one entry is the channel count, give it as input.channels too (e.g. channels: ${Math.min(given[0], given[2])}) and it is dropped, or write the shape without it`,
+        shapeNode.span
+      );
+      return void 0;
+    }
+    const first = given[0] === channels ? given.slice(1) : void 0;
+    const last = given[2] === channels ? given.slice(0, 2) : void 0;
+    if (first && last && (first[0] !== last[0] || first[1] !== last[1])) {
+      sink.error("config/input-shape", `${at} is ${text}, and both its first and its last entry equal input.channels (${channels}); write [height, width]`, shapeNode.span);
+      return void 0;
+    }
+    const kept = first ?? last;
+    if (!kept) {
+      sink.error(
+        "config/input-shape",
+        `${at} is ${text}, but neither its first nor its last entry equals input.channels (${channels}); write [height, width] (only 1D and 2D grids are supported)`,
+        shapeNode.span
+      );
+      return void 0;
+    }
+    shape = kept;
+  }
+  const written = entryOf(node, "channels")?.writtenKey;
+  const featuresAsChannels = written !== void 0 && normaliseWord(written) === "features";
+  return {
+    shape,
+    ...representation !== void 0 ? { representation } : {},
+    ...channels !== void 0 ? { channels } : {},
+    ...featuresAsChannels ? { featuresAsChannels: true } : {},
+    span: node.span,
+    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels"])
+  };
+}
+function readOutput(node) {
+  if (!node) return {};
+  const p = fieldOf(node, "position");
+  if (!p) return { span: node.span };
+  const one = nonNegativeIntegerOf(p);
+  const list3 = p.kind === "seq" ? p.items.map(nonNegativeIntegerOf) : void 0;
+  if (one !== void 0) return { position: [one], span: p.span };
+  if (list3 && list3.every((v) => v !== void 0)) return { position: list3, span: p.span };
+  return void 0;
+}
+
+// src/config/field-readers.ts
+function isInteger(node) {
+  return node.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value);
+}
+function wrong(node, ctx, what, numeric) {
+  const isNumber = node.kind === "scalar" && typeof node.value === "number";
+  const code = numeric && isNumber ? "config/invalid-number" : "config/type";
+  ctx.sink.error(code, `${displayPath(node)} must be ${what}, got ${describeValue(node)}`, node.span);
+  return void 0;
+}
+function readPositiveInteger(node, ctx) {
+  return isInteger(node) && node.value >= 1 ? node.value : wrong(node, ctx, "a positive integer", true);
+}
+function readNonNegativeInteger(node, ctx) {
+  return isInteger(node) && node.value >= 0 ? node.value : wrong(node, ctx, "a non-negative integer", true);
+}
+function readPerAxis(node, ctx, min = 1) {
+  const one = min === 1 ? readPositiveInteger : readNonNegativeInteger;
+  const noun = min === 1 ? "positive integer" : "non-negative integer";
+  if (node.kind === "scalar" && typeof node.value === "number") {
+    const v = one(node, ctx);
+    return v === void 0 || ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(v);
+  }
+  if (node.kind !== "seq") {
+    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
+    return wrong(node, ctx, `a ${noun} or a list ${form}`, false);
+  }
+  const values = node.items.map((item) => one(item, ctx));
+  if (values.some((v) => v === void 0) || ctx.dims === void 0) return void 0;
+  if (values.length !== ctx.dims) {
+    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
+    ctx.sink.error(
+      "config/dimension-mismatch",
+      `${displayPath(node)} has ${values.length} entries, but ${ctx.shapePath} is ${ctx.shapeText} (${ctx.dims}D); give one integer for every axis or ${form}`,
+      node.span
+    );
+    return void 0;
+  }
+  return values;
+}
+function readBoolean(node, ctx) {
+  return node.kind === "scalar" && typeof node.value === "boolean" ? node.value : wrong(node, ctx, "true or false", false);
+}
+function readOnly(node, ctx, value, why) {
+  const v = readBoolean(node, ctx);
+  if (v === void 0) return false;
+  if (v === value) return true;
+  ctx.sink.error("config/unsupported-value", `${displayPath(node)} is ${String(v)}, which is not read: ${why}`, node.span);
+  return false;
+}
+function readChoice(node, ctx, choices, shown2) {
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const hit = lookupChoice(node.value, choices);
+    if (hit !== void 0) return hit;
+    const guess = closest(normaliseWord(node.value), shown2.map(normaliseWord));
+    const said = guess ? shown2.find((s) => normaliseWord(s) === guess) : void 0;
+    ctx.sink.error(
+      "config/invalid-value",
+      `${displayPath(node)} must be one of ${shown2.map((s) => `'${s}'`).join(", ")}, got ${describeValue(node)}${said ? ` (did you mean '${said}'?)` : ""}`,
+      node.span
+    );
+    return void 0;
+  }
+  return wrong(node, ctx, `one of ${shown2.map((s) => `'${s}'`).join(", ")}`, false);
+}
+function lookupChoice(word, choices) {
+  const n = normaliseWord(word);
+  for (const [k, v] of choices) if (normaliseWord(k) === n) return v;
+  return void 0;
+}
+function readRate(node, ctx) {
+  if (node.kind === "scalar" && typeof node.value === "number" && node.value >= 0 && node.value < 1) return node.value;
+  return wrong(node, ctx, "a number from 0 up to (not including) 1", true);
+}
+function readText(node, ctx) {
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    if (node.value.length > 0) return node.value;
+    ctx.sink.error("config/invalid-value", `${displayPath(node)} must be a non-empty string`, node.span);
+    return void 0;
+  }
+  return wrong(node, ctx, "a string", false);
+}
+
+// src/config/kind-names.ts
+var row = (words, match) => ({ words, match });
+var ROWS = [
+  row(["conv", "convolution"], { reader: "conv", canonical: "conv" }),
+  row(["depthwise_conv", "depthwise_convolution", "dw_conv"], { reader: "conv", canonical: "conv", depthwise: true }),
+  row(["separable_conv", "separable_convolution", "sep_conv", "depthwise_separable_conv"], { reader: "separable_conv", canonical: "separable_conv" }),
+  row(["conv_transpose", "convolution_transpose", "transposed_conv", "transpose_conv", "deconv", "deconvolution", "upconv"], {
+    reader: "conv_transpose",
+    canonical: "conv_transpose"
+  }),
+  row(["pool", "pooling"], { reader: "pool", canonical: "pool" }),
+  row(["max_pool", "max_pooling"], { reader: "pool", canonical: "pool", poolMode: "max" }),
+  row(["avg_pool", "average_pool", "avg_pooling", "average_pooling", "mean_pool"], { reader: "pool", canonical: "pool", poolMode: "average" }),
+  row(["sum_pool", "sum_pooling"], { reader: "pool", canonical: "pool", poolMode: "sum" }),
+  row(["product_pool", "product_pooling"], { reader: "pool", canonical: "pool", poolMode: "product" }),
+  row(["lp_pool", "lp_pooling"], { reader: "pool", canonical: "pool", poolMode: "other" }),
+  row(["global_pool", "global_pooling"], { reader: "pool", canonical: "pool", global: true }),
+  row(["global_max_pool", "global_max_pooling"], { reader: "pool", canonical: "pool", global: true, poolMode: "max" }),
+  row(["global_avg_pool", "global_average_pool", "global_avg_pooling", "global_average_pooling"], {
+    reader: "pool",
+    canonical: "pool",
+    global: true,
+    poolMode: "average"
+  }),
+  row(["adaptive_avg_pool", "adaptive_average_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "average" }),
+  row(["adaptive_max_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "max" }),
+  row(["dense", "linear", "fc", "fully_connected"], { reader: "dense", canonical: "dense" }),
+  row(["flatten"], { reader: "flatten", canonical: "flatten" }),
+  row(["upsample", "upsampling", "interpolate"], { reader: "upsample", canonical: "upsample" }),
+  row(["upsampling_nearest", "upsample_nearest"], { reader: "upsample", canonical: "upsample", upsampleMode: "nearest" }),
+  row(["upsampling_bilinear", "upsample_bilinear"], { reader: "upsample", canonical: "upsample", upsampleMode: "linear" }),
+  row(["recurrent", "rnn", "simple_rnn"], { reader: "recurrent", canonical: "recurrent" }),
+  row(["repeat"], { reader: "repeat", canonical: "repeat" }),
+  row(["residual", "residual_block", "res_block"], { reader: "residual", canonical: "residual" }),
+  row(["branches", "parallel"], { reader: "branches", canonical: "branches" }),
+  row(["add", "sum"], { reader: "add", canonical: "add" }),
+  row(["concat", "concatenate", "cat"], { reader: "concat", canonical: "concat" }),
+  row(["sequence", "sequential", "block"], { reader: "sequence", canonical: "sequence" }),
+  row(["activation"], { reader: "activation", canonical: "activation" }),
+  ...POINTWISE_OPS.map((op) => row([op.op, ...op.aliases], { reader: "pointwise", canonical: op.op, op }))
+];
+var LATER = ["lstm", "gru", "lstm_cell", "gru_cell", "conv_lstm", "embedding", "attention", "multi_head_attention", "multihead_attention", "self_attention", "transformer", "transformer_encoder", "transformer_encoder_layer", "transformer_decoder", "transformer_decoder_layer", "transformer_block", "positional_encoding", "positional_embedding"];
+var BY_WORD2 = /* @__PURE__ */ new Map();
+for (const r of ROWS) for (const w of r.words) BY_WORD2.set(normaliseWord(w), r);
+var LATER_WORDS = new Set(LATER.map(normaliseWord));
+var SUGGESTIONS = /* @__PURE__ */ new Map();
+for (const r of ROWS) for (const w of r.words) SUGGESTIONS.set(normaliseWord(w), w);
+var KIND_SPELLINGS = ROWS.map((r) => r.words);
+function splitDimension(word) {
+  const n = normaliseWord(word);
+  const m = /([123])d(?=transpose$|$)/.exec(n);
+  if (!m) return { base: n, dims3: false };
+  return { base: n.slice(0, m.index) + n.slice(m.index + 2), dims3: m[1] === "3" };
+}
+function lookupKind(written) {
+  const { base, dims3 } = splitDimension(written);
+  const hit = BY_WORD2.get(base);
+  if (hit && dims3) {
+    return { ok: false, code: "config/unsupported-3d", message: `'${written}' is a 3D layer; only 1D ([length]) and 2D ([height, width]) grids are supported` };
+  }
+  if (hit) return { ok: true, match: hit.match };
+  if (LATER_WORDS.has(base)) {
+    return {
+      ok: false,
+      code: "config/kind-not-read-yet",
+      message: `'${written}' layers are not read yet: this version reads convolutional, pooling, dense and simple recurrent layers; gated recurrent, embedding and attention layers are planned`
+    };
+  }
+  const guess = closest(base, [...SUGGESTIONS.keys()]) ?? closest(base.replace(/[123]d/g, ""), [...SUGGESTIONS.keys()]);
+  const shown2 = guess ? SUGGESTIONS.get(guess) : void 0;
+  return {
+    ok: false,
+    code: "config/unknown-layer-kind",
+    message: `unknown layer kind '${written}'${shown2 ? ` (did you mean '${shown2}'?)` : ""}`
+  };
+}
+function pointwiseOpNamed(written) {
+  return pointwiseOpOf(splitDimension(written).base);
+}
+
+// src/config/layer-entry.ts
+var KIND_KEYS = /* @__PURE__ */ new Set(["type", "layer", "kind"]);
+var FORMS = "write a layer as '- conv: {channels: 64}', '- {type: Conv2d, out_channels: 64}' or '- relu'";
+function readLayerEntry(item, sink) {
+  const path6 = displayPath(item);
+  if (item.kind === "scalar") {
+    if (typeof item.value !== "string" || item.value.length === 0) {
+      sink.error("config/type", `${path6} must be a layer, got ${item.value === null ? "an empty entry" : String(item.value)}; ${FORMS}`, item.span);
+      return void 0;
+    }
+    return withKind(item, item.value, item.span, item, [], void 0, sink);
+  }
+  if (item.kind === "seq") {
+    sink.error("config/type", `${path6} must be a layer, got a list; ${FORMS}`, item.span);
+    return void 0;
+  }
+  const kindKeys = item.entries.filter((e) => KIND_KEYS.has(normaliseWord(e.key)));
+  if (kindKeys.length > 1) {
+    sink.error("config/layer-kind", `${path6} gives its kind ${kindKeys.length} times (${kindKeys.map((e) => `'${e.writtenKey}'`).join(", ")}); keep one`, kindKeys[1].keySpan);
+    return void 0;
+  }
+  if (kindKeys.length === 1) {
+    const key = kindKeys[0];
+    const v2 = key.value;
+    if (v2.kind !== "scalar" || typeof v2.value !== "string" || v2.value.length === 0) {
+      sink.error("config/type", `${displayPath(v2)} must be a layer kind such as 'Conv2d' or 'relu', got ${v2.kind === "scalar" ? String(v2.value) : `a ${v2.kind === "map" ? "mapping" : "list"}`}`, v2.span);
+      return void 0;
+    }
+    return withKind(item, v2.value, v2.span, item, item.entries.filter((e) => e !== key), void 0, sink);
+  }
+  if (item.entries.length === 0) {
+    sink.error("config/layer-kind", `${path6} is an empty mapping; ${FORMS}`, item.span);
+    return void 0;
+  }
+  if (item.entries.length > 1) {
+    const kinds = item.entries.filter((e) => lookupKind(e.key).ok);
+    const keys = item.entries.map((e) => `'${e.writtenKey}'`).join(", ");
+    if (kinds.length > 1) {
+      sink.error("config/layer-kind", `${path6} has ${kinds.length} kinds (${keys}); one entry is one layer: put each kind in its own '- ' entry`, item.span);
+    } else if (kinds.length === 1) {
+      const stray = item.entries.find((e) => e !== kinds[0]);
+      sink.error(
+        "config/layer-kind",
+        `${path6} has '${stray.writtenKey}' beside its kind '${kinds[0].writtenKey}'; fields go inside the kind ('- ${kinds[0].writtenKey}: {${stray.writtenKey}: …}') or name the kind with 'type: ${kinds[0].writtenKey}'`,
+        stray.keySpan
+      );
+    } else {
+      sink.error("config/layer-kind", `${path6} (${keys}) names no layer kind; give it with 'type', e.g. '- {type: conv, channels: 64}'`, item.span);
+    }
+    return void 0;
+  }
+  const only = item.entries[0];
+  const v = only.value;
+  if (v.kind === "seq") {
+    sink.error("config/type", `${displayPath(v)} must be a mapping of the layer's fields, got a list`, v.span);
+    return void 0;
+  }
+  if (v.kind === "map") return withKind(item, only.key, only.keySpan, v, v.entries, void 0, sink);
+  return withKind(item, only.key, only.keySpan, v, [], v.value === null ? void 0 : v, sink);
+}
+function withKind(item, written, kindSpan, body, fields, scalar, sink) {
+  const found2 = lookupKind(written);
+  if (!found2.ok) {
+    sink.error(found2.code, `${displayPath(item)}: ${found2.message}`, kindSpan);
+    return void 0;
+  }
+  return { item, match: found2.match, kindWritten: written, kindSpan, body, fields, ...scalar ? { scalar } : {} };
+}
+
+// src/config/layer-fields.ts
+var LayerFields = class {
+  constructor(body, entries2, specs, sink) {
+    this.body = body;
+    this.specs = specs;
+    const bySpelling = /* @__PURE__ */ new Map();
+    for (const s of specs) for (const w of [s.name, ...s.aliases ?? []]) bySpelling.set(normaliseWord(w), s);
+    const path6 = displayPath(body);
+    for (const entry of entries2) {
+      const spec = bySpelling.get(normaliseWord(entry.key));
+      if (!spec) {
+        this.unknown(entry, path6, sink);
+        continue;
+      }
+      if (spec.refused) {
+        sink.error("config/unsupported-field", `${path6}.${entry.writtenKey}: ${spec.refused}`, entry.keySpan);
+        this.ok = false;
+        continue;
+      }
+      const earlier = this.values.get(spec.name);
+      if (earlier) {
+        sink.error(
+          "config/alias-conflict",
+          `${path6} gives '${earlier.writtenKey}' and '${entry.writtenKey}', which both mean '${spec.name}'; keep only one of them`,
+          entry.keySpan
+        );
+        this.ok = false;
+        continue;
+      }
+      this.values.set(spec.name, entry);
+    }
+  }
+  body;
+  specs;
+  values = /* @__PURE__ */ new Map();
+  /** Canonical fields that an unknown key was suggested as (a misspelt required field). */
+  suggested = /* @__PURE__ */ new Set();
+  /** False when a key was unknown, refused or given twice (already reported). */
+  ok = true;
+  unknown(entry, path6, sink) {
+    this.ok = false;
+    if (entry.key === "<<") {
+      sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, entry.keySpan);
+      return;
+    }
+    const spellings = this.specs.flatMap((s) => s.refused ? [] : [s.name, ...s.aliases ?? []]);
+    const guess = closest(normaliseWord(entry.key), spellings.map(normaliseWord));
+    const said = guess ? spellings.find((s) => normaliseWord(s) === guess) : void 0;
+    const meant = said ? this.specs.find((s) => s.name === said || s.aliases?.includes(said)) : void 0;
+    if (meant) this.suggested.add(meant.name);
+    const read = this.specs.filter((s) => !s.ignored && !s.refused).map((s) => s.name);
+    sink.error(
+      "config/unknown-field",
+      `unknown field '${entry.writtenKey}' in ${path6}${said ? ` (did you mean '${said}'?)` : ""}; it reads ${read.join(", ")}`,
+      entry.keySpan
+    );
+  }
+  get(name) {
+    return this.values.get(name)?.value;
+  }
+  has(name) {
+    return this.values.has(name);
+  }
+  /** An unknown key was reported with "did you mean" this field (so its absence is not reported again). */
+  wasSuggested(name) {
+    return this.suggested.has(name);
+  }
+  /** The key as written, for messages. */
+  written(name) {
+    return this.values.get(name)?.writtenKey ?? name;
+  }
+  keySpan(name) {
+    return this.values.get(name)?.keySpan;
+  }
+  /** Value spans of the given canonical fields that are present (all read fields when omitted). */
+  spans(names) {
+    const out = {};
+    for (const [name, entry] of this.values) {
+      if (names && !names.includes(name)) continue;
+      const spec = this.specs.find((s) => s.name === name);
+      if (!spec?.ignored) out[name] = entry.value.span;
+    }
+    return out;
+  }
+};
+
 // src/config/layer-vocabulary.ts
-var LAYER_KINDS = ["conv", "pool", "dense", "recurrent", "repeat"];
-function isLayerKind(word) {
-  return LAYER_KINDS.includes(word);
+var f = (name, doc, aliases = []) => ({ name, doc, aliases });
+var ignored = (name, doc, aliases = []) => ({ name, doc, aliases, ignored: true });
+var NAME = f("name", "a label for reports, and the name that `add`/`concat` `from:` refers to");
+var SHORTCUT_FIELDS = [
+  f("norm", "a normalisation after the layer: batch, layer, group, instance, …", ["normalization", "normalisation"]),
+  f("batch_norm", "true: a batch normalisation after the layer", ["bn", "use_bn", "use_batch_norm", "batch_normalization"]),
+  f("layer_norm", "true: a layer normalisation after the layer", ["use_layer_norm"]),
+  f("activation", "an activation after the normalisation: relu, gelu, …; `linear`/`none`: no activation", ["act"]),
+  f("dropout", "a dropout (of this rate) after the activation", ["dropout_rate"])
+];
+var TRAINING_ONLY = [
+  ignored("kernel_initializer", "accepted, ignored", ["weight_init", "init"]),
+  ignored("bias_initializer", "accepted, ignored"),
+  ignored("kernel_regularizer", "accepted, ignored"),
+  ignored("bias_regularizer", "accepted, ignored"),
+  ignored("activity_regularizer", "accepted, ignored"),
+  ignored("kernel_constraint", "accepted, ignored"),
+  ignored("bias_constraint", "accepted, ignored"),
+  ignored("trainable", "accepted, ignored"),
+  ignored("dtype", "accepted, ignored"),
+  ignored("data_format", "accepted, ignored (grids are [length] or [height, width]; channels are the width)")
+];
+var BIAS = f("bias", "false: the real layer has no bias (only the parameter count reads it; default true)", ["use_bias"]);
+var IN_CHANNELS = ignored("in_channels", "accepted, ignored: the input width follows from the previous layer", ["in_features", "input_dim"]);
+var WINDOW_CONV = [
+  f("kernel", "window size per axis (default 1)", ["kernel_size"]),
+  f("stride", "per axis (default 1)", ["strides"]),
+  f("dilation", "spacing of the kernel taps per axis (default 1)", ["dilation_rate"])
+];
+var POINTWISE_PARAMS = {
+  activation: ["inplace", "negative_slope", "alpha", "approximate", "beta", "threshold", "dim", "axis", "num_parameters", "max_value", "min_val", "max_val", "lower", "upper"],
+  normalisation: ["num_features", "eps", "epsilon", "momentum", "affine", "track_running_stats", "num_groups", "groups", "num_channels", "normalized_shape", "elementwise_affine", "axis", "center", "scale", "size", "alpha", "beta", "k"],
+  dropout: ["inplace", "noise_shape", "seed"],
+  scaling: ["scale", "offset", "dim", "value"]
+};
+function pointwiseFields(family) {
+  const params = (POINTWISE_PARAMS[family] ?? []).map((p) => ignored(p, "accepted, ignored"));
+  const rate = family === "dropout" ? [f("rate", "the dropout rate (accepted; dropout is the identity at inference)", ["p"])] : [];
+  return [...rate, ...params, NAME];
 }
 var LAYER_FIELDS = /* @__PURE__ */ new Map([
-  ["conv", ["channels", "kernel", "stride", "padding", "name"]],
-  ["pool", ["window", "global", "name"]],
-  ["dense", ["units", "name"]],
-  ["recurrent", ["hidden", "depth", "name"]],
-  ["repeat", ["times", "layers", "name"]]
+  [
+    "conv",
+    [
+      f("channels", "output channels (required unless depthwise)", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "`same` (default), `valid`, `causal` (1D), or zeros per side: an integer or [h, w]"),
+      f("groups", "grouped conv: an integer dividing both widths, or `depthwise` (default 1)"),
+      f("depthwise", "true: one group per input channel", []),
+      f("depth_multiplier", "output channels per input channel of a depthwise conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "conv_transpose",
+    [
+      f("channels", "output channels", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "zeros removed from both ends per axis (default 0), or `same` (output n·stride) or `valid`"),
+      f("output_padding", "positions added at the end per axis (default 0)"),
+      f("groups", "grouped transposed conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "separable_conv",
+    [
+      f("channels", "output channels of the 1×1 conv that follows the depthwise conv", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "as for conv, of the depthwise conv"),
+      f("depth_multiplier", "as for conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ignored("depthwise_initializer", "accepted, ignored"),
+      ignored("pointwise_initializer", "accepted, ignored"),
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "pool",
+    [
+      f("window", "window per axis (required unless global)", ["pool_size", "kernel_size"]),
+      f("stride", "per axis (default: the window)", ["strides"]),
+      f("padding", "`valid` (default), `same`, or zeros per side"),
+      f("mode", "`max` (default), `average`/`avg`/`mean`, `sum`, `product`, `lp`"),
+      f("global", "true: one position pooled from all that are left"),
+      f("output_size", "adaptive pooling: only 1 (a global pool) is read"),
+      { name: "ceil_mode", doc: "only false is read", aliases: [] },
+      ignored("count_include_pad", "accepted, ignored"),
+      ignored("keepdims", "accepted, ignored"),
+      ignored("data_format", "accepted, ignored"),
+      NAME
+    ]
+  ],
+  ["dense", [f("units", "output units", ["out_features", "features", "output_dim"]), IN_CHANNELS, BIAS, ...TRAINING_ONLY, ...SHORTCUT_FIELDS, NAME]],
+  ["flatten", [ignored("start_dim", "accepted, ignored"), ignored("end_dim", "accepted, ignored"), ignored("data_format", "accepted, ignored"), NAME]],
+  [
+    "upsample",
+    [
+      f("factor", "integer factor per axis (default 2)", ["scale_factor"]),
+      f("mode", "`nearest` (default) or `linear` (`bilinear`)", ["interpolation"]),
+      { name: "align_corners", doc: "only false is read", aliases: [] },
+      {
+        name: "size",
+        doc: "refused",
+        aliases: [],
+        refused: "'size' is a factor in some frameworks and an output size in others; write 'factor' (the integer factor per axis)"
+      },
+      ignored("data_format", "accepted, ignored"),
+      NAME
+    ]
+  ],
+  [
+    "recurrent",
+    [
+      f("hidden", "hidden state size", ["hidden_size", "units"]),
+      f("depth", "stacked layers (default 1)", ["num_layers"]),
+      { name: "bidirectional", doc: "only false is read", aliases: [] },
+      { name: "return_sequences", doc: "only false is read (the layer ends on its last state)", aliases: [] },
+      ignored("input_size", "accepted, ignored"),
+      ignored("nonlinearity", "accepted, ignored (the surrogate integrates multiplicatively)", ["activation"]),
+      ignored("dropout", "accepted, ignored", ["recurrent_dropout"]),
+      ignored("batch_first", "accepted, ignored"),
+      ignored("bias", "accepted, ignored", ["use_bias"]),
+      ...TRAINING_ONLY,
+      NAME
+    ]
+  ],
+  ["repeat", [f("times", "how many copies (required)", ["count", "repeats"]), f("layers", "the layers repeated, in order"), NAME]],
+  [
+    "residual",
+    [
+      f("layers", "the main path", ["body", "main", "path"]),
+      f("shortcut", "the shortcut path (absent or empty: the identity)", ["projection", "downsample", "skip"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "branches",
+    [
+      f("paths", "a list of paths, each a list of layers (empty: the identity); at least two", ["branches"]),
+      f("merge", "`concat` (default) or `sum`", ["mode"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  ["add", [f("from", "the name (or list of names) of earlier layers added to the current grid"), ...SHORTCUT_FIELDS, NAME]],
+  [
+    "concat",
+    [
+      f("from", "the name (or list of names) of earlier layers joined to the current grid"),
+      ignored("axis", "accepted, ignored (always the channels)", ["dim"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  ["sequence", [f("layers", "the layers, in order"), NAME]],
+  ["activation", [f("fn", "the function: relu, gelu, …", ["function", "activation"]), ...pointwiseFields("activation").filter((s) => s.name !== "name"), NAME]]
 ]);
-var FIELD_ALIASES = /* @__PURE__ */ new Map([
-  ["conv", /* @__PURE__ */ new Map([["out_channels", "channels"], ["filters", "channels"], ["kernel_size", "kernel"]])],
-  ["pool", /* @__PURE__ */ new Map([["pool_size", "window"]])],
-  ["dense", /* @__PURE__ */ new Map()],
-  ["recurrent", /* @__PURE__ */ new Map([["hidden_size", "hidden"], ["num_layers", "depth"]])],
-  ["repeat", /* @__PURE__ */ new Map()]
-]);
-var KIND_LIST_TEXT = LAYER_KINDS.join(", ");
+function fieldsOf(kind, family) {
+  if (kind === "pointwise") return pointwiseFields(family ?? "activation");
+  return LAYER_FIELDS.get(kind) ?? [NAME];
+}
 
-// src/config/repeat-expansion.ts
+// src/config/padding-field.ts
+function readPadding(node, ctx, words) {
+  if (node.kind === "scalar" && typeof node.value === "number") {
+    const amount = readPerAxis(node, ctx, 0);
+    return amount && { mode: "explicit", amount };
+  }
+  if (node.kind === "seq") {
+    const amount = readPerAxis(node, ctx, 0);
+    return amount && { mode: "explicit", amount };
+  }
+  const word = readChoice(node, ctx, new Map(words.map((w) => [w, w])), words);
+  return word && { mode: word };
+}
+
+// src/config/grid-geometry.ts
+function extent(k, d) {
+  return d * (k - 1) + 1;
+}
+function windowAxis(n, k, s, d, padding, axis) {
+  const e = extent(k, d);
+  switch (padding.mode) {
+    case "same": {
+      const out = Math.ceil(n / s);
+      const total = Math.max((out - 1) * s + e - n, 0);
+      return { out, left: Math.floor(total / 2) };
+    }
+    case "valid":
+      if (n < e) return `a window spanning ${e} positions does not fit the ${n} positions of the grid without padding`;
+      return { out: Math.floor((n - e) / s) + 1, left: 0 };
+    case "causal":
+      return { out: Math.floor((n - 1) / s) + 1, left: e - 1 };
+    case "explicit": {
+      const p = padding.amount[axis] ?? 0;
+      if (n + 2 * p < e) return `a window spanning ${e} positions does not fit the ${n} positions of the grid with ${p} padding on each side`;
+      return { out: Math.floor((n + 2 * p - e) / s) + 1, left: p };
+    }
+  }
+}
+function windowTaps(j, n, k, s, d, left) {
+  const at = [];
+  for (let t = 0; t < k; t++) {
+    const p = j * s - left + t * d;
+    if (p >= 0 && p < n) at.push(p);
+  }
+  return at;
+}
+function treeConvPositions(j, n, k, s, d, plan, causal) {
+  const m = Math.min(k, s);
+  const e = extent(k, d);
+  const start = j * s - plan.left + (causal ? e - m : Math.floor((e - m) / 2));
+  const at = [];
+  for (let p = start; p < start + m; p++) if (p >= 0 && p < n) at.push(p);
+  return at;
+}
+function transposeLength(n, k, s, d, padding, outputPadding) {
+  return (n - 1) * s - 2 * padding + extent(k, d) + outputPadding;
+}
+function transposeSources(j, n, k, s, d, padding) {
+  const out = [];
+  for (let t = 0; t < k; t++) {
+    const num = j + padding - t * d;
+    if (num < 0 || num % s !== 0) continue;
+    const i = num / s;
+    if (i < n) out.push([i, t]);
+  }
+  return out;
+}
+function treeTransposeSource(j, n, s) {
+  return [Math.min(Math.floor(j / s), n - 1), j % s];
+}
+function linearSources(j, n, f2) {
+  const den = 2 * f2;
+  const coord = 2 * j + 1 - f2;
+  if (coord <= 0) return { i0: 0, i1: 0, num: 0, den };
+  const i0 = Math.floor(coord / den);
+  if (i0 >= n - 1) return { i0: n - 1, i1: n - 1, num: 0, den };
+  return { i0, i1: i0 + 1, num: coord - i0 * den, den };
+}
+
+// src/config/shortcut-fields.ts
+var NORM_WORDS = /* @__PURE__ */ new Map([
+  ["batch", "batch_norm"],
+  ["layer", "layer_norm"],
+  ["group", "group_norm"],
+  ["instance", "instance_norm"],
+  ["local_response", "local_response_norm"],
+  ["rms", "rms_norm"]
+]);
+var NONE_WORDS = /* @__PURE__ */ new Set(["none", "null", "linear", "identity", "false", "off"]);
+var BOOLEAN_NORMS = [
+  ["batch_norm", "batch_norm"],
+  ["layer_norm", "layer_norm"]
+];
+function readShortcutFields(fields, ctx) {
+  let ok = true;
+  const out = [];
+  const add = (field2, node, op) => {
+    const keySpan = fields.keySpan(field2) ?? node.span;
+    out.push({
+      body: { kind: "pointwise", family: op.family, op: op.op },
+      site: { path: pointerOf(node), span: spanJoin(keySpan, node.span), fieldSpans: { [field2]: node.span } }
+    });
+  };
+  const norms = [];
+  const normNode = fields.get("norm");
+  if (normNode) {
+    const op = readNorm(normNode, ctx);
+    if (op === void 0) ok = false;
+    else if (op !== null) norms.push({ field: "norm", node: normNode, op });
+  }
+  for (const [field2, opName] of BOOLEAN_NORMS) {
+    const node = fields.get(field2);
+    if (!node) continue;
+    const on = readBoolean(node, ctx);
+    if (on === void 0) ok = false;
+    else if (on) norms.push({ field: field2, node, op: pointwiseOpOf(normaliseWord(opName)) });
+  }
+  if (norms.length > 1) {
+    const second = norms[1];
+    ctx.sink.error(
+      "config/conflicting-fields",
+      `${displayPath(fields.body)} gives a normalisation twice ('${fields.written(norms[0].field)}' and '${fields.written(second.field)}'); keep one`,
+      fields.keySpan(second.field) ?? second.node.span
+    );
+    ok = false;
+  } else if (norms.length === 1) {
+    add(norms[0].field, norms[0].node, norms[0].op);
+  }
+  const actNode = fields.get("activation");
+  if (actNode) {
+    const op = readActivation(actNode, ctx);
+    if (op === void 0) ok = false;
+    else if (op !== null) add("activation", actNode, op);
+  }
+  const dropNode = fields.get("dropout");
+  if (dropNode) {
+    const rate = readRate(dropNode, ctx);
+    if (rate === void 0) ok = false;
+    else if (rate > 0) add("dropout", dropNode, pointwiseOpOf("dropout"));
+  }
+  return ok ? out : void 0;
+}
+function isNone(node) {
+  if (node.kind !== "scalar") return false;
+  if (node.value === null || node.value === false) return true;
+  return typeof node.value === "string" && NONE_WORDS.has(node.value.toLowerCase());
+}
+function readNorm(node, ctx) {
+  if (isNone(node)) return null;
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const short = lookupChoice(node.value, NORM_WORDS);
+    const op = short !== void 0 ? pointwiseOpOf(normaliseWord(short)) : pointwiseOpNamed(node.value);
+    if (op?.family === "normalisation") return op;
+  }
+  return badOp(node, ctx, "a normalisation", [...NORM_WORDS.keys(), "none"]);
+}
+function readActivation(node, ctx, noneAllowed = true) {
+  if (noneAllowed && isNone(node)) return null;
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const op = pointwiseOpNamed(node.value);
+    if (op?.family === "activation") return op;
+    if (op) {
+      ctx.sink.error("config/invalid-value", `${displayPath(node)} names ${op.op}, which is a ${op.family} layer, not an activation`, node.span);
+      return void 0;
+    }
+  }
+  return badOp(node, ctx, "an activation function", [...opsOf("activation"), ...noneAllowed ? ["linear"] : []]);
+}
+function badOp(node, ctx, what, known) {
+  const word = node.kind === "scalar" && typeof node.value === "string" ? node.value : void 0;
+  const guess = word ? closest(word, known) : void 0;
+  const got = word !== void 0 ? `'${word}'` : node.kind === "scalar" ? String(node.value) : `a ${node.kind === "map" ? "mapping" : "list"}`;
+  ctx.sink.error(
+    word !== void 0 ? "config/invalid-value" : "config/type",
+    `${displayPath(node)} must be ${what} (${known.join(", ")}), got ${got}${guess ? ` (did you mean '${guess}'?)` : ""}`,
+    node.span
+  );
+  return void 0;
+}
+
+// src/config/entry-read.ts
+function chainOf(r, ctx, layers, shortcuts) {
+  const after = shortcuts ? readShortcutFields(r.fields, ctx) : [];
+  if (!after) return void 0;
+  return { t: "chain", layers: [...layers, ...after], ...r.name ? { name: r.name } : {} };
+}
+function requireField(r, field2, what, ctx) {
+  if (r.fields.has(field2)) return true;
+  if (r.fields.wasSuggested(field2)) return false;
+  ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} is missing '${field2}' (${what})`, r.entry.body.span);
+  return false;
+}
+
+// src/config/read-conv-layers.ts
+function readWindow(r, ctx) {
+  const axis = (field2) => {
+    const node = r.fields.get(field2);
+    if (!node) return ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(1);
+    return readPerAxis(node, ctx);
+  };
+  const kernel = axis("kernel");
+  const stride = axis("stride");
+  const dilation = axis("dilation");
+  return kernel && stride && dilation ? { kernel, stride, dilation } : void 0;
+}
+function optionalPositive(r, field2, ctx) {
+  const node = r.fields.get(field2);
+  if (!node) return void 0;
+  return readPositiveInteger(node, ctx) ?? false;
+}
+function readBias(r, ctx) {
+  const node = r.fields.get("bias");
+  if (!node) return {};
+  const b = readBoolean(node, ctx);
+  if (b === void 0) return void 0;
+  return b ? {} : { bias: false };
+}
+function readConv(r, ctx) {
+  const window = readWindow(r, ctx);
+  const paddingNode = r.fields.get("padding");
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
+  const groups = readGroups(r, ctx);
+  const channels = optionalPositive(r, "channels", ctx);
+  const bias = readBias(r, ctx);
+  let ok = window !== void 0 && padding !== void 0 && groups !== void 0 && channels !== false && bias !== void 0;
+  if (groups && groups.groups !== "depthwise" && !r.fields.has("channels")) ok = requireField(r, "channels", "output channels", ctx) && ok;
+  if (!ok || !window || !padding || !groups || channels === false || !bias) return void 0;
+  const body = {
+    kind: "conv",
+    ...channels !== void 0 ? { channels } : {},
+    ...window,
+    padding,
+    groups: groups.groups,
+    depthMultiplier: groups.depthMultiplier,
+    ...bias
+  };
+  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
+}
+function readGroups(r, ctx) {
+  let depthwise = r.entry.match.depthwise === true;
+  let groups = 1;
+  let ok = true;
+  const flag = r.fields.get("depthwise");
+  if (flag) {
+    const v = readBoolean(flag, ctx);
+    if (v === void 0) ok = false;
+    else if (v) depthwise = true;
+  }
+  const groupsNode = r.fields.get("groups");
+  if (groupsNode) {
+    if (groupsNode.kind === "scalar" && typeof groupsNode.value === "string" && groupsNode.value.toLowerCase() === "depthwise") {
+      depthwise = true;
+    } else if (groupsNode.kind === "scalar" && typeof groupsNode.value === "number") {
+      const g = readPositiveInteger(groupsNode, ctx);
+      if (g === void 0) ok = false;
+      else if (depthwise) {
+        ctx.sink.error("config/conflicting-fields", `${displayPath(groupsNode)} is ${g}, but the conv is depthwise (one group per input channel); drop one of them`, groupsNode.span);
+        ok = false;
+      } else groups = g;
+    } else {
+      ctx.sink.error("config/type", `${displayPath(groupsNode)} must be a positive integer or 'depthwise', got ${groupsNode.kind === "scalar" ? String(groupsNode.value) : "a " + (groupsNode.kind === "map" ? "mapping" : "list")}`, groupsNode.span);
+      ok = false;
+    }
+  }
+  const multNode = r.fields.get("depth_multiplier");
+  let depthMultiplier = 1;
+  if (multNode) {
+    const m = readPositiveInteger(multNode, ctx);
+    if (m === void 0) ok = false;
+    else if (!depthwise) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(multNode)} applies to depthwise convs only; add 'depthwise: true' or drop it`, multNode.span);
+      ok = false;
+    } else depthMultiplier = m;
+  }
+  return ok ? { groups: depthwise ? "depthwise" : groups, depthMultiplier } : void 0;
+}
+function readConvTranspose(r, ctx) {
+  const window = readWindow(r, ctx);
+  const channels = optionalPositive(r, "channels", ctx);
+  const groups = optionalPositive(r, "groups", ctx);
+  const bias = readBias(r, ctx);
+  let ok = requireField(r, "channels", "output channels", ctx);
+  const pads = window && readTransposePadding(r, window, ctx);
+  ok = ok && window !== void 0 && pads !== void 0 && channels !== void 0 && channels !== false && groups !== false && bias !== void 0;
+  if (!ok || !window || !pads || channels === void 0 || channels === false || groups === false || !bias) return void 0;
+  const body = {
+    kind: "conv-transpose",
+    channels,
+    ...window,
+    padding: pads.padding,
+    outputPadding: pads.outputPadding,
+    groups: groups ?? 1,
+    ...bias
+  };
+  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
+}
+function readTransposePadding(r, w, ctx) {
+  const node = r.fields.get("padding");
+  const outNode = r.fields.get("output_padding");
+  const dims = w.kernel.length;
+  const outputPadding = outNode ? readPerAxis(outNode, ctx, 0) : new Array(dims).fill(0);
+  if (!node || node.kind === "seq" || node.kind === "scalar" && typeof node.value === "number") {
+    const padding2 = node ? readPerAxis(node, ctx, 0) : new Array(dims).fill(0);
+    return padding2 && outputPadding ? { padding: padding2, outputPadding } : void 0;
+  }
+  const word = readPadding(node, ctx, ["same", "valid"]);
+  if (!word || !outputPadding) return void 0;
+  if (outNode) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(outNode)} cannot be combined with padding '${word.mode}', which sets the output length itself; give padding as zeros per side instead`, outNode.span);
+    return void 0;
+  }
+  const padding = [];
+  const extra = [];
+  for (let a = 0; a < dims; a++) {
+    const e = extent(w.kernel[a], w.dilation[a]);
+    const s = w.stride[a];
+    if (word.mode === "same" && e >= s) {
+      const p = Math.ceil((e - s) / 2);
+      padding.push(p);
+      extra.push(2 * p - (e - s));
+    } else {
+      padding.push(0);
+      extra.push(Math.max(s - e, 0));
+    }
+  }
+  return { padding, outputPadding: extra };
+}
+function readSeparableConv(r, ctx) {
+  const window = readWindow(r, ctx);
+  const paddingNode = r.fields.get("padding");
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
+  const channels = optionalPositive(r, "channels", ctx);
+  const mult = optionalPositive(r, "depth_multiplier", ctx);
+  const bias = readBias(r, ctx);
+  const ok = requireField(r, "channels", "output channels of the 1×1 conv", ctx);
+  if (!ok || !window || !padding || channels === void 0 || channels === false || mult === false || !bias) return void 0;
+  const ones = window.kernel.map(() => 1);
+  const spans2 = (names) => ({ ...r.site, fieldSpans: r.fields.spans(names) });
+  const depthwise = {
+    body: { kind: "conv", ...window, padding, groups: "depthwise", depthMultiplier: mult ?? 1, bias: false },
+    site: spans2(["kernel", "stride", "dilation", "padding", "depth_multiplier"])
+  };
+  const pointwise = {
+    body: { kind: "conv", channels, kernel: ones, stride: ones, dilation: ones, padding: { mode: "valid" }, groups: 1, depthMultiplier: 1, ...bias },
+    site: spans2(["channels", "bias"]),
+    labelled: true
+  };
+  return chainOf(r, ctx, [depthwise, pointwise], true);
+}
+
+// src/config/read-grid-layers.ts
+var POOL_MODES = /* @__PURE__ */ new Map([
+  ["max", "max"],
+  ["average", "average"],
+  ["avg", "average"],
+  ["mean", "average"],
+  ["sum", "sum"],
+  ["product", "product"],
+  ["prod", "product"],
+  ["lp", "other"]
+]);
+var POOL_MODE_WORDS = ["max", "average", "avg", "mean", "sum", "product", "lp"];
+function readPool(r, ctx) {
+  const { match } = r.entry;
+  let ok = true;
+  let mode = match.poolMode ?? "max";
+  const modeNode = r.fields.get("mode");
+  if (modeNode) {
+    const m = readChoice(modeNode, ctx, POOL_MODES, POOL_MODE_WORDS);
+    if (m === void 0) ok = false;
+    else if (match.poolMode !== void 0 && m !== match.poolMode) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(modeNode)} says ${m}, but '${r.entry.kindWritten}' is a ${match.poolMode} pool; drop one of them`, modeNode.span);
+      ok = false;
+    } else mode = m;
+  }
+  let global2 = match.global === true;
+  const globalNode = r.fields.get("global");
+  if (globalNode) {
+    const g = readBoolean(globalNode, ctx);
+    if (g === void 0) ok = false;
+    else if (match.global && !g) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(globalNode)} is false, but '${r.entry.kindWritten}' is a global pool; drop it`, globalNode.span);
+      ok = false;
+    } else global2 = g;
+  }
+  const sizeNode = r.fields.get("output_size");
+  if (sizeNode) {
+    global2 = true;
+    const size = readPerAxis(sizeNode, ctx);
+    if (size === void 0) ok = false;
+    else if (size.some((n) => n !== 1)) {
+      ctx.sink.error(
+        "config/adaptive-pool",
+        `${displayPath(sizeNode)} is [${size.join(", ")}]: adaptive pooling is read only to size 1 (a global pool), because its windows depend on the input size; write a pool with a fixed window instead (window = input size / output size, e.g. window: 2 to go from 14 to 7)`,
+        sizeNode.span
+      );
+      ok = false;
+    }
+  } else if (match.adaptive) {
+    ok = requireField(r, "output_size", "the output size; only 1 is read", ctx) && ok;
+  }
+  const ceil = r.fields.get("ceil_mode");
+  if (ceil && !readOnly(ceil, ctx, false, "rounding the output length up changes the grid; give the padding instead")) ok = false;
+  const windowNode = r.fields.get("window");
+  const strideNode = r.fields.get("stride");
+  const paddingNode = r.fields.get("padding");
+  if (global2) {
+    for (const [node, field2] of [
+      [windowNode, "window"],
+      [strideNode, "stride"],
+      [paddingNode, "padding"]
+    ]) {
+      if (!node) continue;
+      ctx.sink.error("config/conflicting-fields", `${displayPath(r.entry.body)} has both '${r.fields.written(field2)}' and a global pool; give a window or pool globally, not both`, r.fields.keySpan(field2) ?? node.span);
+      ok = false;
+    }
+    if (!ok) return void 0;
+    return chainOf(r, ctx, [{ body: { kind: "pool", mode, window: [], stride: [], padding: { mode: "valid" }, global: true }, site: r.site, labelled: true }], false);
+  }
+  if (!windowNode) {
+    if (r.fields.wasSuggested("window")) return void 0;
+    ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, r.entry.body.span);
+    return void 0;
+  }
+  const window = readPerAxis(windowNode, ctx);
+  const stride = strideNode ? readPerAxis(strideNode, ctx) : window;
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["valid", "same"]) : { mode: "valid" };
+  if (!ok || !window || !stride || !padding) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "pool", mode, window, stride, padding, global: false }, site: r.site, labelled: true }], false);
+}
+var UPSAMPLE_MODES = /* @__PURE__ */ new Map([
+  ["nearest", "nearest"],
+  ["linear", "linear"],
+  ["bilinear", "linear"]
+]);
+function readUpsample(r, ctx) {
+  let ok = true;
+  let mode = r.entry.match.upsampleMode ?? "nearest";
+  const modeNode = r.fields.get("mode");
+  if (modeNode) {
+    const m = readChoice(modeNode, ctx, UPSAMPLE_MODES, ["nearest", "linear", "bilinear"]);
+    if (m === void 0) ok = false;
+    else mode = m;
+  }
+  const align2 = r.fields.get("align_corners");
+  if (align2 && !readOnly(align2, ctx, false, "linear upsampling is read with half-pixel centres (align_corners false)")) ok = false;
+  const factorNode = r.fields.get("factor");
+  const factor = factorNode ? readPerAxis(factorNode, ctx) : ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(2);
+  if (!ok || !factor) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "upsample", factor, mode }, site: r.site, labelled: true }], false);
+}
+
+// src/config/read-plain-layers.ts
+function readDense(r, ctx) {
+  const ok = requireField(r, "units", "output units", ctx);
+  const unitsNode = r.fields.get("units");
+  const units = unitsNode && readPositiveInteger(unitsNode, ctx);
+  const biasNode = r.fields.get("bias");
+  const bias = biasNode ? readBoolean(biasNode, ctx) : true;
+  if (!ok || units === void 0 || bias === void 0) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "dense", units, ...bias ? {} : { bias: false } }, site: r.site, labelled: true }], true);
+}
+function readFlatten(r, ctx) {
+  return chainOf(r, ctx, [{ body: { kind: "flatten" }, site: r.site, labelled: true }], false);
+}
+function readRecurrent(r, ctx) {
+  let ok = requireField(r, "hidden", "hidden state size", ctx);
+  const hiddenNode = r.fields.get("hidden");
+  const hidden = hiddenNode && readPositiveInteger(hiddenNode, ctx);
+  const depthNode = r.fields.get("depth");
+  const depth = depthNode ? readPositiveInteger(depthNode, ctx) : 1;
+  const bi = r.fields.get("bidirectional");
+  if (bi && !readOnly(bi, ctx, false, "bidirectional recurrent layers are not read yet")) ok = false;
+  const seq = r.fields.get("return_sequences");
+  if (seq && !readOnly(seq, ctx, false, "the layer is read as ending on its last state; per-step outputs are not read yet")) ok = false;
+  if (!ok || hidden === void 0 || depth === void 0) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "recurrent", hidden, depth }, site: r.site, labelled: true }], false);
+}
+function readPointwise(r, ctx) {
+  const op = r.entry.match.op;
+  let ok = true;
+  const rateNode = r.fields.get("rate") ?? r.entry.scalar;
+  if (r.entry.scalar && op.family !== "dropout") {
+    ctx.sink.error("config/type", `${displayPath(r.entry.scalar)} must be a mapping of the layer's fields (or nothing), got ${String(r.entry.scalar.value)}`, r.entry.scalar.span);
+    ok = false;
+  } else if (rateNode && readRate(rateNode, ctx) === void 0) ok = false;
+  if (!ok) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
+}
+function readActivationLayer(r, ctx) {
+  const fnNode = r.fields.get("fn") ?? r.entry.scalar;
+  if (!fnNode) {
+    requireField(r, "fn", "the function, e.g. relu", ctx);
+    return void 0;
+  }
+  const read = readActivation(fnNode, ctx);
+  if (read === void 0) return void 0;
+  const op = read ?? pointwiseOpOf("identity");
+  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
+}
+
+// src/config/read-blocks.ts
+function readRepeat(r, ctx) {
+  const hasTimes = requireField(r, "times", "how many copies", ctx);
+  const hasLayers = requireField(r, "layers", "the layers to repeat", ctx);
+  const timesNode = r.fields.get("times");
+  const times = timesNode && readPositiveInteger(timesNode, ctx);
+  const layersNode = r.fields.get("layers");
+  const body = layersNode && ctx.readList(layersNode, false);
+  if (!hasTimes || !hasLayers || !timesNode || times === void 0 || !body) return void 0;
+  return { t: "repeat", times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body, ...r.name ? { name: r.name } : {} };
+}
+function readSequence(r, ctx) {
+  if (!requireField(r, "layers", "the layers, in order", ctx)) return void 0;
+  const body = ctx.readList(r.fields.get("layers"), false);
+  if (!body) return void 0;
+  return { t: "sequence", body, ...r.name ? { name: r.name } : {} };
+}
+function mergeOf(r, mode, origin) {
+  return { body: { kind: "merge", mode, origin }, site: r.site, labelled: true };
+}
+function block(r, ctx, paths, refs, merge, ok) {
+  const after = readShortcutFields(r.fields, ctx);
+  if (!ok || !after || !refs || paths.some((p) => p === void 0)) return void 0;
+  return { t: "merge", paths, refs, merge, after, ...r.name ? { name: r.name } : {} };
+}
+function readResidual(r, ctx) {
+  const ok = requireField(r, "layers", "the main path, a list of layers", ctx);
+  const mainNode = r.fields.get("layers");
+  const main = mainNode && ctx.readList(mainNode, false);
+  const shortcutNode = r.fields.get("shortcut");
+  const shortcut = shortcutNode ? ctx.readPath(shortcutNode) : [];
+  return block(r, ctx, [main, shortcut], [], mergeOf(r, "sum", "residual"), ok);
+}
+var MERGE_MODES = /* @__PURE__ */ new Map([
+  ["concat", "concat"],
+  ["concatenate", "concat"],
+  ["cat", "concat"],
+  ["sum", "sum"],
+  ["add", "sum"]
+]);
+function readBranches(r, ctx) {
+  let ok = requireField(r, "paths", "a list of paths, each a list of layers", ctx);
+  const modeNode = r.fields.get("merge");
+  const mode = modeNode ? readChoice(modeNode, ctx, MERGE_MODES, ["concat", "sum"]) : "concat";
+  if (!mode) ok = false;
+  const pathsNode = r.fields.get("paths");
+  const paths = [];
+  if (pathsNode) {
+    if (pathsNode.kind !== "seq" || pathsNode.items.length < 2) {
+      const got = pathsNode.kind === "seq" ? `${pathsNode.items.length} path${pathsNode.items.length === 1 ? "" : "s"}` : "no list";
+      ctx.sink.error("config/branches", `${displayPath(pathsNode)} must list at least two paths (each a list of layers; an empty list is the identity), got ${got}`, pathsNode.span);
+      ok = false;
+    } else {
+      for (const p of pathsNode.items) paths.push(ctx.readPath(p));
+    }
+  }
+  return block(r, ctx, paths, [], mergeOf(r, mode ?? "concat", "branches"), ok);
+}
+function readSkip(r, ctx) {
+  const ok = requireField(r, "from", "the name of the earlier layer to merge with", ctx);
+  const fromNode = r.fields.get("from");
+  const refs = fromNode ? readRefs(fromNode, ctx) : [];
+  const mode = r.entry.match.reader === "add" ? "sum" : "concat";
+  return block(r, ctx, [[]], refs, mergeOf(r, mode, "skip"), ok);
+}
+function readRefs(node, ctx) {
+  const items = node.kind === "seq" ? node.items : [node];
+  if (items.length === 0) {
+    ctx.sink.error("config/invalid-value", `${displayPath(node)} is empty; name at least one earlier layer`, node.span);
+    return void 0;
+  }
+  const out = [];
+  let ok = true;
+  for (const item of items) {
+    const m = item.kind === "scalar" && typeof item.value === "string" ? /^([^[\]]+)((?:\[[1-9][0-9]*\])*)$/.exec(item.value) : null;
+    if (!m) {
+      const got = item.kind === "scalar" ? JSON.stringify(item.value) : `a ${item.kind === "map" ? "mapping" : "list"}`;
+      ctx.sink.error("config/invalid-value", `${displayPath(item)} must name an earlier layer ('enc1', or one copy of a repeated layer such as 'down[2]'), got ${got}`, item.span);
+      ok = false;
+      continue;
+    }
+    const copies = [...m[2].matchAll(/\[([0-9]+)\]/g)].map((c) => Number(c[1]));
+    out.push({ text: m[0], base: m[1], copies, span: item.span, where: displayPath(item) });
+  }
+  return ok ? out : void 0;
+}
+
+// src/config/read-layers.ts
+var READERS = {
+  conv: readConv,
+  conv_transpose: readConvTranspose,
+  separable_conv: readSeparableConv,
+  pool: readPool,
+  upsample: readUpsample,
+  dense: readDense,
+  flatten: readFlatten,
+  recurrent: readRecurrent,
+  pointwise: readPointwise,
+  activation: readActivationLayer,
+  repeat: readRepeat,
+  sequence: readSequence,
+  residual: readResidual,
+  branches: readBranches,
+  add: readSkip,
+  concat: readSkip
+};
+var SCALAR_BODIES = /* @__PURE__ */ new Set(["activation", "pointwise"]);
+var RESERVED = /* @__PURE__ */ new Set(["input"]);
+function readLayerList(node, ctx, allowEmpty = false) {
+  const rc = {
+    ...ctx,
+    readList: (n, empty) => readLayerList(n, ctx, empty),
+    readPath: (n) => {
+      if (n.kind === "seq") return readLayerList(n, ctx, true);
+      if (n.kind === "scalar" && n.value === null) return [];
+      const one = readLayer(n, rc);
+      return one ? [one] : void 0;
+    }
+  };
+  if (node.kind !== "seq") {
+    const got = node.kind === "map" ? "a mapping" : node.value === null ? "nothing" : String(node.value);
+    ctx.sink.error("config/type", `${displayPath(node)} must be a list of layers, got ${got}`, node.span);
+    return void 0;
+  }
+  if (node.items.length === 0 && !allowEmpty) {
+    ctx.sink.error("config/empty-layers", `${displayPath(node)} is empty; list at least one layer`, node.span);
+    return void 0;
+  }
+  let ok = true;
+  const out = [];
+  for (const item of node.items) {
+    const t = readLayer(item, rc);
+    if (t) out.push(t);
+    else ok = false;
+  }
+  return ok ? out : void 0;
+}
+function readLayer(item, ctx) {
+  const entry = readLayerEntry(item, ctx.sink);
+  if (!entry) return void 0;
+  if (entry.scalar && !SCALAR_BODIES.has(entry.match.reader)) {
+    const s = entry.scalar;
+    ctx.sink.error("config/type", `${displayPath(s)} must be a mapping of the layer's fields, got ${describeValue(s)}; e.g. '- ${entry.kindWritten}: {…}'`, s.span);
+    return void 0;
+  }
+  const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
+  const nameNode = fields.get("name");
+  const text = nameNode ? readName(nameNode, ctx) : void 0;
+  const site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans() };
+  const read = { entry, fields, site, ...text !== void 0 && nameNode ? { name: { text, span: nameNode.span } } : {} };
+  const t = READERS[entry.match.reader](read, ctx);
+  return t && fields.ok && (nameNode === void 0 || text !== void 0) ? t : void 0;
+}
+function readName(node, ctx) {
+  const text = readText(node, ctx);
+  if (text === void 0) return void 0;
+  if (/[[\]]/.test(text) || RESERVED.has(text)) {
+    const why = RESERVED.has(text) ? `'${text}' is reserved (it means the model input in 'from')` : "'[' and ']' are kept for the copies a repeat makes (name[1], name[2], …)";
+    ctx.sink.error("config/invalid-name", `${displayPath(node)} is '${text}', which cannot name a layer: ${why}`, node.span);
+    return void 0;
+  }
+  return text;
+}
+
+// src/config/layer-names.ts
+function checkNames(templates, sink) {
+  const all = /* @__PURE__ */ new Map();
+  collect(templates, all);
+  const defs = /* @__PURE__ */ new Map();
+  const out = /* @__PURE__ */ new Map();
+  let ok = true;
+  const define = (name, chain) => {
+    if (!name) return;
+    const earlier = defs.get(name.text);
+    if (earlier) {
+      sink.error(
+        "config/duplicate-name",
+        `the layer name '${name.text}' is already used on line ${earlier.span.line}; names must be unique in the model (the copies a repeat makes are numbered ${name.text}[1], ${name.text}[2], … by themselves)`,
+        name.span
+      );
+      ok = false;
+      return;
+    }
+    defs.set(name.text, { span: name.span, chain });
+  };
+  const check2 = (ref, chain) => {
+    if (ref.base === "input") {
+      if (ref.copies.length > 0) {
+        sink.error("config/invalid-copy", `${ref.where}: 'input' is the model input, which has no copies; write 'input'`, ref.span);
+        ok = false;
+      } else out.set(ref, { input: true });
+      return;
+    }
+    const def = defs.get(ref.base);
+    if (!def) {
+      ok = false;
+      const later = all.get(ref.base);
+      if (later) {
+        sink.error("config/forward-reference", `${ref.where} names '${ref.base}', which is defined later (line ${later.line}); a merge reads only layers that come before it`, ref.span);
+        return;
+      }
+      const guess = closest(ref.base, [...defs.keys(), "input"]);
+      sink.error("config/unknown-name", `${ref.where}: no layer before this one is named '${ref.base}'${guess ? ` (did you mean '${guess}'?)` : ""}; give the layer a 'name' to merge with it`, ref.span);
+      return;
+    }
+    let shared = 0;
+    while (shared < def.chain.length && shared < chain.length && def.chain[shared] === chain[shared]) shared++;
+    const outside = def.chain.slice(shared);
+    if (ref.copies.length === 0 && outside.length > 0) {
+      const example = `${ref.base}${outside.map((f2) => `[${f2.times}]`).join("")}`;
+      const count = outside.reduce((a, f2) => a * f2.times, 1);
+      sink.error(
+        "config/ambiguous-name",
+        `${ref.where}: '${ref.base}' is inside a repeat (line ${outside[0].span.line}) that this merge is outside of, so it names ${count} copies; name one, e.g. '${example}'`,
+        ref.span
+      );
+      ok = false;
+      return;
+    }
+    if (ref.copies.length !== outside.length) {
+      const why = outside.length === 0 ? def.chain.length === 0 ? `'${ref.base}' is not inside a repeat` : `inside the repeat that copies it, '${ref.base}' already means the copy of the same iteration` : `'${ref.base}' is inside ${outside.length} repeats that this merge is outside of; give one copy number for each`;
+      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but ${why}`, ref.span);
+      ok = false;
+      return;
+    }
+    const over = ref.copies.findIndex((c, i) => c > outside[i].times);
+    if (over >= 0) {
+      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but the repeat on line ${outside[over].span.line} makes ${outside[over].times} copies`, ref.span);
+      ok = false;
+      return;
+    }
+    out.set(ref, { input: false, shared });
+  };
+  const walk = (list3, chain) => {
+    for (const t of list3) {
+      switch (t.t) {
+        case "chain":
+          break;
+        case "repeat":
+          walk(t.body, [...chain, { times: t.times, span: t.timesSpan }]);
+          break;
+        case "sequence":
+          walk(t.body, chain);
+          break;
+        case "merge":
+          for (const p of t.paths) walk(p, chain);
+          for (const r of t.refs) check2(r, chain);
+          break;
+      }
+      define(t.name, chain);
+    }
+  };
+  walk(templates, []);
+  return ok ? out : void 0;
+}
+function collect(list3, into) {
+  for (const t of list3) {
+    if (t.t === "repeat" || t.t === "sequence") collect(t.body, into);
+    if (t.t === "merge") for (const p of t.paths) collect(p, into);
+    if (t.name && !into.has(t.name.text)) into.set(t.name.text, t.name.span);
+  }
+}
+
+// src/config/layer-templates.ts
 function expandedCount(templates) {
   let total = 0;
-  for (const t of templates) total += t.kind === "layer" ? 1 : t.times * expandedCount(t.body);
+  for (const t of templates) total += countOne(t);
   return total;
 }
-function expandTemplates(templates, listPath, listSpan, sink) {
-  let total = 0;
-  let culprit;
-  for (const t of templates) {
-    const count = t.kind === "layer" ? 1 : t.times * expandedCount(t.body);
-    total += count;
-    if (t.kind === "repeat" && (!culprit || count > culprit.count)) culprit = { count, template: t };
+function countOne(t) {
+  switch (t.t) {
+    case "chain":
+      return t.layers.length;
+    case "repeat":
+      return t.times * expandedCount(t.body);
+    case "sequence":
+      return expandedCount(t.body);
+    case "merge":
+      return t.paths.reduce((a, p) => a + expandedCount(p), 0) + 1 + t.after.length;
   }
+}
+
+// src/config/expand-layers.ts
+function expandTemplates(templates, refs, listPath, listSpan, sink) {
+  const total = expandedCount(templates);
   if (total > MAX_EXPANDED_LAYERS) {
     const amount = Number.isSafeInteger(total) ? `${total} layers` : `more than ${Number.MAX_SAFE_INTEGER} layers`;
+    const culprit = biggestRepeat(templates);
     if (culprit) {
       sink.error(
         "config/too-many-layers",
-        `${culprit.template.timesPath} is ${culprit.template.times}, which makes the model expand to ${amount}; at most ${MAX_EXPANDED_LAYERS} layers are allowed after expanding repeat blocks`,
-        culprit.template.timesSpan
+        `${culprit.timesPath} is ${culprit.times}, which makes the model expand to ${amount}; at most ${MAX_EXPANDED_LAYERS} layers are allowed after expanding repeat blocks`,
+        culprit.timesSpan
       );
     } else {
       sink.error("config/too-many-layers", `${listPath} has ${amount}; at most ${MAX_EXPANDED_LAYERS} are allowed`, listSpan);
     }
     return void 0;
   }
-  const out = [];
-  const expand = (list2, iteration) => {
-    for (const t of list2) {
-      if (t.kind === "layer") out.push(t.make(out.length, iteration));
-      else for (let i = 0; i < t.times; i++) expand(t.body, i);
+  return new Expansion(refs).run(templates);
+}
+function biggestRepeat(templates) {
+  let best;
+  const visit3 = (list3) => {
+    for (const t of list3) {
+      if (t.t === "repeat") {
+        const count = countOne(t);
+        if (!best || count > best.count) best = { count, t };
+      } else if (t.t === "sequence") visit3(t.body);
+      else if (t.t === "merge") for (const p of t.paths) visit3(p);
     }
   };
-  expand(templates, void 0);
-  return out;
+  visit3(templates);
+  return best?.t;
 }
-function checkLayerEntryCount(root, sink) {
-  if (root.kind !== "map") return true;
-  const layers = fieldOf(root, "layers");
-  if (layers?.kind !== "seq") return true;
-  const count = countEntries(layers);
-  if (count <= MAX_EXPANDED_LAYERS) return true;
-  sink.error(
-    "config/too-many-layers",
-    `${displayPath(layers)} lists ${count} layers (counting those inside repeat blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
-    layers.span
-  );
-  return false;
-}
-function countEntries(list2) {
-  if (list2.kind !== "seq") return 0;
-  let n = 0;
-  for (const item of list2.items) {
-    const body = item.kind === "map" && item.entries.length === 1 && item.entries[0].key === "repeat" ? item.entries[0].value : void 0;
-    if (body?.kind === "map") n += countEntries(fieldOf(body, "layers") ?? body);
-    else n += 1;
+var Expansion = class {
+  constructor(refs) {
+    this.refs = refs;
   }
-  return n;
-}
+  refs;
+  out = [];
+  /** Label → the output layer of the entry that carries it. */
+  labels = /* @__PURE__ */ new Map();
+  /** Iterations (1-based) of the enclosing repeats, outermost first. */
+  iterations = [];
+  run(templates) {
+    this.list(templates, INPUT);
+    return this.out;
+  }
+  list(templates, input) {
+    let cur = input;
+    for (const t of templates) cur = this.one(t, cur);
+    return cur;
+  }
+  label(text) {
+    return text + this.iterations.map((i) => `[${i}]`).join("");
+  }
+  make(m, inputs, name) {
+    const index = this.out.length;
+    const depth = this.iterations.length;
+    const layer = {
+      ...m.body,
+      index,
+      inputs,
+      path: m.site.path,
+      span: m.site.span,
+      fieldSpans: m.site.fieldSpans,
+      ...name !== void 0 && m.labelled ? { name } : {},
+      ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {}
+    };
+    this.out.push(layer);
+    return index;
+  }
+  chain(layers, input, name) {
+    let cur = input;
+    for (const m of layers) cur = this.make(m, [cur], name);
+    return cur;
+  }
+  /** Records the entry's label; a block's output layer takes it when it has no label of its own. */
+  register(text, output, adopt2) {
+    if (text === void 0) return;
+    const label2 = this.label(text);
+    this.labels.set(label2, output);
+    const layer = this.out[output];
+    if (adopt2 && layer && layer.name === void 0) this.out[output] = { ...layer, name: label2 };
+  }
+  one(t, input) {
+    const name = t.name ? this.label(t.name.text) : void 0;
+    switch (t.t) {
+      case "chain": {
+        const out = this.chain(t.layers, input, name);
+        this.register(t.name?.text, out, false);
+        return out;
+      }
+      case "repeat": {
+        let cur = input;
+        for (let i = 1; i <= t.times; i++) {
+          this.iterations.push(i);
+          cur = this.list(t.body, cur);
+          this.iterations.pop();
+        }
+        this.register(t.name?.text, cur, true);
+        return cur;
+      }
+      case "sequence": {
+        const out = this.list(t.body, input);
+        this.register(t.name?.text, out, true);
+        return out;
+      }
+      case "merge": {
+        const ins = t.paths.map((p) => this.list(p, input));
+        for (const r of t.refs) ins.push(this.resolve(r));
+        const merged = this.make(t.merge, ins, name);
+        const out = this.chain(t.after, merged, void 0);
+        this.register(t.name?.text, out, false);
+        return out;
+      }
+    }
+  }
+  resolve(ref) {
+    const how = this.refs.get(ref);
+    if (!how) throw new Error(`layer expansion: the reference '${ref.text}' was not checked (a loader bug)`);
+    if (how.input) return INPUT;
+    const label2 = ref.base + this.iterations.slice(0, how.shared).map((i) => `[${i}]`).join("") + ref.copies.map((c) => `[${c}]`).join("");
+    const at = this.labels.get(label2);
+    if (at === void 0) throw new Error(`layer expansion: '${label2}' has no layer (a loader bug)`);
+    return at;
+  }
+};
 
 // src/config/build-layered.ts
 function buildLayeredModel(root, file, sink) {
-  const input = readInput(asMap(fieldOf(root, "input")));
+  const inputNode = asMap(fieldOf(root, "input"));
+  const input = readInput(inputNode, sink);
+  const output = readOutput(asMap(fieldOf(root, "output")));
   const ws = fieldOf(root, "weight_sharing");
   const weightSharing = ws === void 0 ? true : booleanOf(ws);
-  const inputNode = fieldOf(root, "input");
-  const shapeNode = inputNode?.kind === "map" ? fieldOf(inputNode, "shape") : void 0;
+  const shapeNode = inputNode ? fieldOf(inputNode, "shape") : void 0;
   const ctx = {
     sink,
     dims: input?.shape.length,
@@ -38265,121 +39746,12 @@ function buildLayeredModel(root, file, sink) {
     shapePath: shapeNode ? displayPath(shapeNode) : "the input shape"
   };
   const layersNode = fieldOf(root, "layers");
-  const templates = layersNode?.kind === "seq" ? readLayerList(layersNode, ctx) : void 0;
-  if (!input || weightSharing === void 0 || !templates || !layersNode) return void 0;
-  const layers = expandTemplates(templates, displayPath(layersNode), layersNode.span, sink);
+  const templates = layersNode ? readLayerList(layersNode, ctx) : void 0;
+  const refs = templates && checkNames(templates, sink);
+  if (!input || !output || weightSharing === void 0 || !templates || !refs || !layersNode) return void 0;
+  const layers = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
   if (!layers) return void 0;
-  return { kind: "layered", file, input, weightSharing, layers, span: root.span };
-}
-function readInput(node) {
-  if (!node) return void 0;
-  const shape = positiveIntegerListOf(fieldOf(node, "shape"));
-  const features = positiveIntegerOf(fieldOf(node, "features"));
-  if (!shape || shape.length < 1 || shape.length > 2 || features === void 0) return void 0;
-  return { shape, features, span: node.span, fieldSpans: fieldSpansOf(node, ["shape", "features"]) };
-}
-function readLayerList(list2, ctx) {
-  let ok = list2.items.length > 0;
-  const out = [];
-  for (const item of list2.items) {
-    const t = readLayer(item, ctx);
-    if (t) out.push(t);
-    else ok = false;
-  }
-  return ok ? out : void 0;
-}
-function readLayer(item, ctx) {
-  if (item.kind !== "map" || item.entries.length !== 1) return void 0;
-  const entry = item.entries[0];
-  const body = asMap(entry.value);
-  if (!isLayerKind(entry.key) || !body) return void 0;
-  const kind = entry.key;
-  const name = optionalName(body);
-  if (name === false) return void 0;
-  if (kind === "repeat") return readRepeat(body, ctx);
-  const base = {
-    path: pointerOf(item),
-    span: item.span,
-    fieldSpans: fieldSpansOf(body, LAYER_FIELDS.get(kind) ?? []),
-    ...name !== void 0 ? { name } : {}
-  };
-  const common = (index, repeatIteration) => ({
-    index,
-    ...base,
-    ...repeatIteration !== void 0 ? { repeatIteration } : {}
-  });
-  switch (kind) {
-    case "conv": {
-      const channels = positiveIntegerOf(fieldOf(body, "channels"));
-      const kernel = perDimension(body, "kernel", ctx);
-      const stride = perDimension(body, "stride", ctx);
-      const paddingNode = fieldOf(body, "padding");
-      const padding = paddingNode === void 0 ? "same" : stringOf(paddingNode);
-      if (channels === void 0 || !kernel || !stride || padding !== "same" && padding !== "valid") return void 0;
-      return { kind: "layer", make: (i, r) => ({ kind: "conv", ...common(i, r), channels, kernel, stride, padding }) };
-    }
-    case "pool": {
-      const globalNode = fieldOf(body, "global");
-      const global2 = globalNode === void 0 ? false : booleanOf(globalNode);
-      if (global2 === void 0) return void 0;
-      if (global2) {
-        if (fieldOf(body, "window")) return void 0;
-        return { kind: "layer", make: (i, r) => ({ kind: "pool", ...common(i, r), window: [], global: true }) };
-      }
-      if (!fieldOf(body, "window")) return void 0;
-      const window = perDimension(body, "window", ctx);
-      if (!window) return void 0;
-      return { kind: "layer", make: (i, r) => ({ kind: "pool", ...common(i, r), window, global: false }) };
-    }
-    case "dense": {
-      const units = positiveIntegerOf(fieldOf(body, "units"));
-      if (units === void 0) return void 0;
-      return { kind: "layer", make: (i, r) => ({ kind: "dense", ...common(i, r), units }) };
-    }
-    case "recurrent": {
-      const hidden = positiveIntegerOf(fieldOf(body, "hidden"));
-      const depthNode = fieldOf(body, "depth");
-      const depth = depthNode === void 0 ? 1 : positiveIntegerOf(depthNode);
-      let ok = hidden !== void 0 && depth !== void 0;
-      if (ctx.dims !== void 0 && ctx.dims !== 1) {
-        ctx.sink.error(
-          "config/recurrent-needs-1d",
-          `${displayPath(item)} is a recurrent layer, which needs a 1D input ([length]), but ${ctx.shapePath} is ${ctx.shapeText}`,
-          item.span
-        );
-        ok = false;
-      }
-      if (!ok || hidden === void 0 || depth === void 0) return void 0;
-      return { kind: "layer", make: (i, r) => ({ kind: "recurrent", ...common(i, r), hidden, depth }) };
-    }
-  }
-}
-function readRepeat(body, ctx) {
-  const timesNode = fieldOf(body, "times");
-  const times = positiveIntegerOf(timesNode);
-  const inner = fieldOf(body, "layers");
-  const templates = inner?.kind === "seq" ? readLayerList(inner, ctx) : void 0;
-  if (times === void 0 || !timesNode || !templates) return void 0;
-  return { kind: "repeat", times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body: templates };
-}
-function perDimension(body, field2, ctx) {
-  const node = fieldOf(body, field2);
-  if (ctx.dims === void 0) return void 0;
-  if (node === void 0) return new Array(ctx.dims).fill(1);
-  const scalar = positiveIntegerOf(node);
-  if (scalar !== void 0) return new Array(ctx.dims).fill(scalar);
-  const list2 = positiveIntegerListOf(node);
-  if (!list2 || list2.length < 1 || list2.length > 2) return void 0;
-  if (list2.length !== ctx.dims) {
-    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
-    ctx.sink.error(
-      "config/dimension-mismatch",
-      `${displayPath(node)} has ${list2.length} entries, but ${ctx.shapePath} is ${ctx.shapeText} (${ctx.dims}D); give one integer for every dimension or ${form}`,
-      node.span
-    );
-    return void 0;
-  }
-  return list2;
+  return { kind: "layered", file, input, weightSharing, layers, output, span: root.span };
 }
 
 // src/config/diagnostic-sink.ts
@@ -38411,25 +39783,24 @@ function compare(a, b) {
 }
 
 // src/config/field-aliases.ts
+var INPUT_ALIASES = /* @__PURE__ */ new Map([
+  ["features", "channels"],
+  ["in_channels", "channels"],
+  ["num_channels", "channels"]
+]);
+var INPUT_FIELDS = ["shape", "channels", "representation"];
 function normaliseFieldAliases(root, sink) {
   if (root.kind !== "map") return;
-  visitLayerList(fieldOf(root, "layers"), sink);
+  const input = fieldOf(root, "input");
+  if (input?.kind === "map") normaliseBody(input, INPUT_FIELDS, INPUT_ALIASES, sink);
 }
-function visitLayerList(list2, sink) {
-  if (list2?.kind !== "seq") return;
-  for (const item of list2.items) {
-    if (item.kind !== "map") continue;
-    for (const entry of item.entries) {
-      if (!isLayerKind(entry.key) || entry.value.kind !== "map") continue;
-      normaliseBody(entry.value, FIELD_ALIASES.get(entry.key) ?? /* @__PURE__ */ new Map(), sink);
-      if (entry.key === "repeat") visitLayerList(fieldOf(entry.value, "layers"), sink);
-    }
-  }
-}
-function normaliseBody(body, aliases, sink) {
+function normaliseBody(body, fields, aliases, sink) {
+  const bySpelling = /* @__PURE__ */ new Map();
+  for (const f2 of fields) bySpelling.set(normaliseWord(f2), f2);
+  for (const [alias, canonical] of aliases) bySpelling.set(normaliseWord(alias), canonical);
   const byCanonical = /* @__PURE__ */ new Map();
   for (const entry of body.entries) {
-    const canonical = aliases.get(entry.key) ?? entry.key;
+    const canonical = bySpelling.get(normaliseWord(entry.key)) ?? entry.key;
     const group2 = byCanonical.get(canonical) ?? [];
     group2.push(entry);
     byCanonical.set(canonical, group2);
@@ -38443,11 +39814,7 @@ function normaliseBody(body, aliases, sink) {
       dropped.add(extra);
       const spellings = group2.map((e) => `'${e.writtenKey}'`);
       const listed = spellings.length === 2 ? `${spellings.join(" and ")}, which both mean` : `${spellings.join(", ")}, which all mean`;
-      sink.error(
-        "config/alias-conflict",
-        `${displayPath(body)} gives ${listed} '${canonical}'; keep only one of them`,
-        extra.keySpan
-      );
+      sink.error("config/alias-conflict", `${displayPath(body)} gives ${listed} '${canonical}'; keep only one of them`, extra.keySpan);
     }
   }
   if (dropped.size > 0) {
@@ -38561,22 +39928,219 @@ function rangeOf(node) {
   return void 0;
 }
 
+// src/config/layer-entry-count.ts
+var LIST_KEYS = new Set(["layers", "body", "main", "path", "shortcut", "projection", "downsample", "skip"].map(normaliseWord));
+var PATHS_KEYS = new Set(["paths", "branches"].map(normaliseWord));
+function checkLayerEntryCount(root, sink) {
+  if (root.kind !== "map") return true;
+  const layers = fieldOf(root, "layers");
+  if (layers?.kind !== "seq") return true;
+  const count = countList(layers);
+  if (count <= MAX_EXPANDED_LAYERS) return true;
+  sink.error(
+    "config/too-many-layers",
+    `${displayPath(layers)} lists ${count} layers (counting those inside blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
+    layers.span
+  );
+  return false;
+}
+function countList(list3) {
+  if (list3.kind !== "seq") return 0;
+  let n = 0;
+  for (const item of list3.items) n += countEntry(item);
+  return n;
+}
+function countEntry(item) {
+  if (item.kind !== "map") return 1;
+  const maps = [item, ...item.entries.map((e) => e.value).filter((v) => v.kind === "map")];
+  let nested = 0;
+  let holds = false;
+  for (const m of maps) {
+    if (m.kind !== "map") continue;
+    for (const e of m.entries) {
+      const key = normaliseWord(e.key);
+      if (LIST_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        nested += countList(e.value);
+      } else if (PATHS_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        for (const p of e.value.items) nested += p.kind === "seq" ? countList(p) : countEntry(p);
+      }
+    }
+  }
+  return holds ? nested : 1;
+}
+
+// src/config/model-shapes.ts
+var MAX_WIDTH = 1 << 24;
+function inferShapes(model) {
+  const diagnostics = [];
+  const fail = (span, code, message) => {
+    diagnostics.push({ code, message, file: model.file, span, severity: "error" });
+    return { ok: false, diagnostics };
+  };
+  const m = representationOf(model);
+  if (m === void 0) {
+    return fail(
+      model.input.span,
+      "config/no-representation",
+      "no layer maps the input to a width, so the number of representation functions per position cannot be defaulted; set input.representation"
+    );
+  }
+  const out = [];
+  const groups = [];
+  const denseReading = [];
+  const rawInput = /* @__PURE__ */ new Set([INPUT]);
+  const inShape = (i) => i === INPUT ? { shape: model.input.shape, width: m } : out[i];
+  for (const layer of model.layers) {
+    const where2 = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
+    const ins = layer.inputs.map(inShape);
+    const first = ins[0];
+    const dims = first.shape.length;
+    let result2;
+    groups.push(1);
+    denseReading.push(void 0);
+    switch (layer.kind) {
+      case "conv": {
+        const axes = perAxis(layer, first.shape);
+        if (typeof axes === "string") return fail(layer.fieldSpans["kernel"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${axes}`);
+        if (layer.padding.mode === "causal" && dims !== 1) {
+          return fail(layer.fieldSpans["padding"] ?? layer.span, "config/causal-needs-1d", `${where2}: causal padding needs a 1D grid, but the grid is [${first.shape.join(", ")}]`);
+        }
+        const g = convGroups(layer, first.width);
+        if (typeof g === "string") return fail(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: ${g}`);
+        groups[layer.index] = g.groups;
+        result2 = { shape: axes, width: g.channels };
+        break;
+      }
+      case "conv-transpose": {
+        const shape = first.shape.map(
+          (n, a) => transposeLength(n, layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a], layer.outputPadding[a])
+        );
+        if (shape.some((n) => n < 1)) {
+          return fail(layer.fieldSpans["padding"] ?? layer.span, "config/window-does-not-fit", `${where2}: the output would have no positions ([${shape.join(", ")}]); reduce the padding`);
+        }
+        if (first.width % layer.groups !== 0 || layer.channels % layer.groups !== 0) {
+          return fail(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: groups ${layer.groups} must divide both the input width ${first.width} and the channels ${layer.channels}`);
+        }
+        groups[layer.index] = layer.groups;
+        result2 = { shape, width: layer.channels };
+        break;
+      }
+      case "pool": {
+        if (layer.global) {
+          result2 = { shape: first.shape.map(() => 1), width: first.width };
+          break;
+        }
+        const shape = [];
+        for (let a = 0; a < dims; a++) {
+          const plan = windowAxis(first.shape[a], layer.window[a], layer.stride[a], 1, layer.padding, a);
+          if (typeof plan === "string") return fail(layer.fieldSpans["window"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${plan}`);
+          shape.push(plan.out);
+        }
+        result2 = { shape, width: first.width };
+        break;
+      }
+      case "dense": {
+        const single = positionCount(first.shape) === 1;
+        const reading = single ? "vector" : layer.inputs.every((i) => rawInput.has(i)) ? "input" : "per-position";
+        denseReading[layer.index] = reading;
+        result2 = { shape: reading === "input" ? first.shape.map(() => 1) : first.shape, width: layer.units };
+        break;
+      }
+      case "flatten":
+        result2 = { shape: first.shape.map(() => 1), width: first.width * positionCount(first.shape) };
+        break;
+      case "upsample":
+        result2 = { shape: first.shape.map((n, a) => n * layer.factor[a]), width: first.width };
+        break;
+      case "recurrent":
+        if (dims !== 1) {
+          return fail(layer.span, "config/recurrent-needs-1d", `${where2}: a recurrent layer needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
+        }
+        result2 = { shape: [1], width: layer.hidden };
+        break;
+      case "pointwise":
+        result2 = first;
+        if (layer.inputs.every((i) => rawInput.has(i))) rawInput.add(layer.index);
+        break;
+      case "merge": {
+        const mismatch = ins.findIndex((s) => s.shape.length !== dims || s.shape.some((n, a) => n !== first.shape[a]));
+        if (mismatch >= 0) {
+          return fail(layer.span, "config/merge-shape", `${where2}: the paths it ${layer.mode === "sum" ? "adds" : "joins"} end on different grids: ${ins.map((s) => `[${s.shape.join(", ")}]`).join(" and ")}${describeInputs(model, layer)}`);
+        }
+        if (layer.mode === "sum") {
+          if (ins.some((s) => s.width !== first.width)) {
+            return fail(layer.span, "config/merge-width", `${where2}: the paths it adds have different widths ${ins.map((s) => s.width).join(" and ")}${describeInputs(model, layer)}; a sum needs equal widths (give the shortcut a 1×1 conv to the main path's width)`);
+          }
+          result2 = { shape: first.shape, width: first.width };
+        } else {
+          result2 = { shape: first.shape, width: ins.reduce((a, s) => a + s.width, 0) };
+        }
+        break;
+      }
+    }
+    if (result2.width > MAX_WIDTH) {
+      return fail(layer.span, "config/too-wide", `${where2}: its width ${result2.width} is above the limit of ${MAX_WIDTH}`);
+    }
+    out.push(result2);
+  }
+  const last = out[out.length - 1];
+  const output = outputPosition(model, last.shape);
+  if (typeof output === "string") return fail(model.output.span ?? model.span, "config/output-position", output);
+  return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, output } };
+}
+function perAxis(layer, shape) {
+  const res = [];
+  for (let a = 0; a < shape.length; a++) {
+    const plan = windowAxis(shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding, a);
+    if (typeof plan === "string") return plan;
+    res.push(plan.out);
+  }
+  return res;
+}
+function convGroups(layer, inWidth) {
+  if (layer.groups === "depthwise") {
+    const channels2 = layer.channels ?? inWidth * layer.depthMultiplier;
+    if (channels2 % inWidth !== 0) return `a depthwise conv needs channels that are a multiple of its input width ${inWidth}, but has ${channels2}`;
+    return { groups: inWidth, channels: channels2 };
+  }
+  const channels = layer.channels;
+  if (inWidth % layer.groups !== 0 || channels % layer.groups !== 0) {
+    return `groups ${layer.groups} must divide both the input width ${inWidth} and the channels ${channels}`;
+  }
+  return { groups: layer.groups, channels };
+}
+function describeInputs(model, layer) {
+  const names = layer.inputs.map((i) => i === INPUT ? "the input" : `layer ${layerLabel(model.layers[i])} (line ${model.layers[i].span.line})`);
+  return ` (from ${names.join(" and ")})`;
+}
+function outputPosition(model, shape) {
+  const given = model.output.position;
+  if (given) {
+    if (given.length !== shape.length) {
+      return `output.position has ${given.length} entries, but the last layer's grid [${shape.join(", ")}] has ${shape.length} axes`;
+    }
+    const outside = given.findIndex((p, a) => p < 0 || p >= shape[a]);
+    if (outside >= 0) return `output.position [${given.join(", ")}] is outside the last layer's grid [${shape.join(", ")}]`;
+    return { position: given, defaulted: false };
+  }
+  const convs = model.layers.filter((l) => l.kind === "conv");
+  const causal = shape.length === 1 && convs.length > 0 && convs.every((l) => l.kind === "conv" && l.padding.mode === "causal");
+  const position = shape.map((n) => causal ? n - 1 : Math.floor(n / 2));
+  return { position, defaulted: positionCount(shape) > 1 };
+}
+
 // src/config/schema-errors.ts
 var MODEL_EITHER_OR = "/allOf/1/else";
 var MODEL_NOT_BOTH = "/allOf/1/then";
-var POOL_NEEDS_WINDOW = "/definitions/pool/allOf/1/else";
-var POOL_NOT_BOTH = "/definitions/pool/allOf/1/then";
-var LAYER = "/definitions/layer";
 var LAYER_LIST = "/definitions/layerList";
-var EXACTLY_ONE = `a layer needs exactly one of ${KIND_LIST_TEXT}, e.g. '- conv: {channels: 64}'`;
+var INPUT2 = "/definitions/input";
 function reportSchemaErrors(errors, root, locations, sink) {
   const typeErrorAt = new Set(errors.filter((e) => e.keyword === "type").map((e) => e.instancePath));
-  const unknownKindAt = new Set(
-    errors.filter((e) => e.keyword === "additionalProperties" && where(e, locations) === LAYER).map((e) => e.instancePath)
-  );
   const suggested = /* @__PURE__ */ new Set();
   for (const e of errors) {
-    if (e.keyword !== "additionalProperties" || where(e, locations) === LAYER) continue;
+    if (e.keyword !== "additionalProperties") continue;
     const guess = suggestionFor(e, locations);
     if (guess) suggested.add(`${e.instancePath}\0${guess}`);
   }
@@ -38584,7 +40148,6 @@ function reportSchemaErrors(errors, root, locations, sink) {
   for (const e of errors) {
     if (e.keyword === "if") continue;
     if (e.keyword !== "type" && typeErrorAt.has(e.instancePath)) continue;
-    if (e.keyword === "maxProperties" && unknownKindAt.has(e.instancePath)) continue;
     if (e.keyword === "required") {
       if (suggested.has(`${e.instancePath}\0${String(e.params["missingProperty"])}`)) continue;
       const key = `${e.instancePath}\0${where(e, locations)}`;
@@ -38615,11 +40178,7 @@ function reportOne(e, root, locations, sink) {
     case "type": {
       const isNumber = typeof e.data === "number";
       const code = isNumber && typeIncludes(parent, "integer") ? "config/invalid-number" : "config/type";
-      let hint = "";
-      if (loc === LAYER && typeof e.data === "string" && isLayerKind(e.data)) {
-        hint = `; write '- ${e.data}: {...}' with the fields inside`;
-      }
-      sink.error(code, `${path6} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}${hint}`, at);
+      sink.error(code, `${path6} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}`, at);
       return;
     }
     case "minimum":
@@ -38658,35 +40217,18 @@ function reportOne(e, root, locations, sink) {
       sink.error("config/invalid-length", `${path6} must have ${lengthRule(parent)}, got ${count}${lengthHint(loc)}`, at);
       return;
     }
-    case "minProperties":
-      if (loc === LAYER) {
-        sink.error("config/layer-kind", `${path6} is an empty mapping; ${EXACTLY_ONE}`, at);
-        return;
-      }
-      break;
-    case "maxProperties":
-      if (loc === LAYER && node.kind === "map") {
-        const kinds = node.entries.map((x) => `'${x.writtenKey}'`).join(", ");
-        sink.error("config/layer-kind", `${path6} has ${node.entries.length} kinds (${kinds}); ${EXACTLY_ONE}`, at);
-        return;
-      }
-      break;
     case "additionalProperties": {
       reportUnknownKey(e, node, loc, parent, sink);
       return;
     }
     case "not": {
       if (loc === MODEL_NOT_BOTH && node.kind === "map") {
-        const layered = ["input", "layers", "weight_sharing"].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
+        const layered = ["input", "output", "layers", "weight_sharing"].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
         sink.error(
           "config/model-kind",
           `${path6} has both 'network' and ${layered.join(", ")}; a model is either layered ('input' + 'layers') or an explicit tensor network ('network'), not both`,
           at
         );
-        return;
-      }
-      if (loc === POOL_NOT_BOTH) {
-        sink.error("config/conflicting-fields", `${path6} has both 'window' and 'global: true'; give a window or pool globally, not both`, at);
         return;
       }
       break;
@@ -38705,13 +40247,6 @@ function reportUnknownKey(e, node, loc, parent, sink) {
     sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, at);
     return;
   }
-  if (loc === LAYER) {
-    const guess2 = closest(key, LAYER_KINDS);
-    const isField = [...LAYER_FIELDS.values()].some((fields) => fields.includes(key));
-    const fieldHint = isField && !guess2 ? `; fields such as '${key}' go inside the kind, e.g. '- conv: {channels: 64, name: stem}'` : "";
-    sink.error("config/unknown-layer-kind", `unknown layer kind '${key}' in ${path6}${guess2 ? ` (did you mean '${guess2}'?)` : ""}; ${EXACTLY_ONE}${fieldHint}`, at);
-    return;
-  }
   const allowed = Object.keys(parent["properties"] ?? {});
   const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
   sink.error(
@@ -38721,8 +40256,7 @@ function reportUnknownKey(e, node, loc, parent, sink) {
   );
 }
 function aliasesAt(loc) {
-  const kind = loc?.startsWith("/definitions/") ? loc.slice("/definitions/".length) : void 0;
-  return kind && isLayerKind(kind) ? [...FIELD_ALIASES.get(kind)?.keys() ?? []] : [];
+  return loc === INPUT2 ? [...INPUT_ALIASES.keys()] : [];
 }
 function suggestionFor(e, locations) {
   const key = String(e.params["additionalProperty"]);
@@ -38730,8 +40264,7 @@ function suggestionFor(e, locations) {
   const allowed = Object.keys(e.parentSchema?.["properties"] ?? {});
   const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
   if (!guess) return void 0;
-  const kind = loc?.startsWith("/definitions/") ? loc.slice("/definitions/".length) : void 0;
-  return (kind && isLayerKind(kind) ? FIELD_ALIASES.get(kind)?.get(guess) : void 0) ?? guess;
+  return (loc === INPUT2 ? INPUT_ALIASES.get(guess) : void 0) ?? guess;
 }
 function reportRequired(group2, root, locations, sink) {
   const first = group2[0];
@@ -38749,10 +40282,6 @@ function reportRequired(group2, root, locations, sink) {
     );
     return;
   }
-  if (loc === POOL_NEEDS_WINDOW) {
-    sink.error("config/missing-field", `${path6} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, node.span);
-    return;
-  }
   const properties = first.parentSchema?.["properties"] ?? {};
   const explained = missing2.map((m) => {
     const d = Object.hasOwn(properties, m) ? properties[m]?.description : void 0;
@@ -38765,7 +40294,6 @@ function typeIncludes(schema, type) {
   return t === type || Array.isArray(t) && t.includes(type);
 }
 function expected(schema, loc) {
-  if (loc === LAYER) return `a mapping with one layer kind (${KIND_LIST_TEXT})`;
   if (loc === LAYER_LIST) return "a list of layers";
   if (loc === "") return "a mapping (with 'input' and 'layers', or 'network')";
   const t = schema["type"];
@@ -38868,9 +40396,13 @@ function loadConfigText(text, file, options = {}) {
   let model;
   if (root.kind === "map") {
     const explicit = entryOf(root, "network") !== void 0;
-    const layered = ["input", "layers", "weight_sharing"].some((k) => entryOf(root, k) !== void 0);
+    const layered = ["input", "output", "layers", "weight_sharing"].some((k) => entryOf(root, k) !== void 0);
     if (explicit && !layered) model = buildExplicitModel(root, file, sink);
     else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
+  }
+  if (model?.kind === "layered" && sink.count === 0) {
+    const shapes = inferShapes(model);
+    if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
   }
   if (sink.count > 0 || !model) {
     if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
@@ -38887,11 +40419,17 @@ function tooLarge(sink, bytes) {
 }
 
 // src/config/model-diff.ts
+var same = (...names) => names.map((n) => [n, n]);
 var FIELDS = {
-  conv: ["channels", "kernel", "stride", "padding"],
-  pool: ["window", "global"],
-  dense: ["units"],
-  recurrent: ["hidden", "depth"]
+  conv: [...same("channels", "kernel", "stride", "dilation", "padding", "groups"), ["depthMultiplier", "depth_multiplier"]],
+  "conv-transpose": [...same("channels", "kernel", "stride", "dilation", "padding"), ["outputPadding", "output_padding"], ["groups", "groups"]],
+  pool: same("mode", "window", "stride", "padding", "global"),
+  dense: same("units"),
+  flatten: [],
+  upsample: same("factor", "mode"),
+  recurrent: same("hidden", "depth"),
+  pointwise: same("op"),
+  merge: same("mode")
 };
 function diffModels(base, head) {
   if (base.kind !== "layered" || head.kind !== "layered") {
@@ -38903,13 +40441,18 @@ function diffModels(base, head) {
     const b = show(to);
     if (a !== b) changes.push({ layer, field: name, from: a, to: b, span });
   };
-  field2("input", "shape", base.input.shape, head.input.shape, head.input.fieldSpans["shape"] ?? head.input.span);
-  field2("input", "features", base.input.features, head.input.features, head.input.fieldSpans["features"] ?? head.input.span);
+  for (const name of ["shape", "channels", "representation"]) {
+    field2("input", name, base.input[name], head.input[name], head.input.fieldSpans[name] ?? head.input.span);
+  }
   field2("model", "weight_sharing", base.weightSharing, head.weightSharing, head.span);
+  field2("output", "position", base.output.position, head.output.position, head.output.span ?? head.span);
   for (const [b, h] of align(base, head)) {
     if (b && h) {
-      for (const name of FIELDS[h.kind]) {
-        field2(layerLabel(h), name, b[name], h[name], h.fieldSpans[name] ?? h.span);
+      for (const [property, name] of FIELDS[h.kind]) {
+        field2(layerLabel(h), name, b[property], h[property], h.fieldSpans[name] ?? h.span);
+      }
+      if (b.kind === "merge" && h.kind === "merge" && h.origin === "skip") {
+        field2(layerLabel(h), "from", skipSources(base, b), skipSources(head, h), h.fieldSpans["from"] ?? h.span);
       }
     } else if (h) {
       changes.push({ layer: layerLabel(h), field: "layer", from: "(none)", to: h.kind, span: h.span });
@@ -38921,7 +40464,16 @@ function diffModels(base, head) {
   return changes;
 }
 function show(v) {
-  return Array.isArray(v) ? `[${v.join(", ")}]` : String(v);
+  if (v === void 0) return "(none)";
+  if (Array.isArray(v)) return `[${v.join(", ")}]`;
+  if (v && typeof v === "object" && "mode" in v) {
+    const p = v;
+    return p.mode === "explicit" ? `[${p.amount.join(", ")}]` : p.mode;
+  }
+  return String(v);
+}
+function skipSources(model, layer) {
+  return layer.inputs.slice(1).map((i) => i === INPUT ? "input" : String(layerLabel(model.layers[i])));
 }
 function align(base, head) {
   const a = base.layers;
@@ -38982,7 +40534,7 @@ function matcherFor(patterns) {
   const options = { dot: true, windows: false };
   const positive = patterns.filter((p) => !p.startsWith("!"));
   const negative = patterns.filter((p) => p.startsWith("!")).map((p) => p.slice(1));
-  const compile = (list2) => list2.length === 0 ? () => false : (0, import_picomatch.default)(list2, options);
+  const compile = (list3) => list3.length === 0 ? () => false : (0, import_picomatch.default)(list3, options);
   const made = { include: compile(positive), exclude: compile(negative) };
   matchers.set(patterns, made);
   return made;
@@ -39188,12 +40740,12 @@ function specOf(body, sink) {
   const kind = stringOf(fieldOf(body, "kind"));
   if (kind === void 0 || !isBuiltinKind(kind)) return void 0;
   const path6 = displayPath(body);
-  const present = BODY_FIELDS.filter((f) => entryOf(body, f) !== void 0);
+  const present = BODY_FIELDS.filter((f2) => entryOf(body, f2) !== void 0);
   const misplaced = (allowed, why) => {
     let bad = false;
-    for (const f of present) {
-      if (allowed.includes(f)) continue;
-      sink.error("policy/invalid-partition", `${path6} has '${f}', but ${why}`, entryOf(body, f).keySpan);
+    for (const f2 of present) {
+      if (allowed.includes(f2)) continue;
+      sink.error("policy/invalid-partition", `${path6} has '${f2}', but ${why}`, entryOf(body, f2).keySpan);
       bad = true;
     }
     return bad;
@@ -39201,30 +40753,30 @@ function specOf(body, sink) {
   switch (kind) {
     case "block": {
       if (misplaced(["rows", "cols", "range"], `a block takes 'rows' and 'cols' (2D) or 'range' (1D)`)) return void 0;
-      const has = (f) => present.includes(f);
+      const has = (f2) => present.includes(f2);
       const twoD = has("rows") && has("cols") && !has("range");
       const oneD = has("range") && !has("rows") && !has("cols");
       if (!twoD && !oneD) {
         sink.error(
           "policy/invalid-partition",
-          `${path6} is a block, which needs 'rows' and 'cols' (2D, e.g. {kind: block, rows: [8, 24], cols: [8, 24]}) or 'range' (1D, e.g. {kind: block, range: [0, 16]}), not ${present.length === 0 ? "none of them" : present.map((f) => `'${f}'`).join(" and ")}`,
+          `${path6} is a block, which needs 'rows' and 'cols' (2D, e.g. {kind: block, rows: [8, 24], cols: [8, 24]}) or 'range' (1D, e.g. {kind: block, range: [0, 16]}), not ${present.length === 0 ? "none of them" : present.map((f2) => `'${f2}'`).join(" and ")}`,
           body.span
         );
         return void 0;
       }
-      const ranges = (twoD ? ["rows", "cols"] : ["range"]).map((f) => rangeOf2(fieldOf(body, f), sink));
+      const ranges = (twoD ? ["rows", "cols"] : ["range"]).map((f2) => rangeOf2(fieldOf(body, f2), sink));
       if (ranges.some((r) => r === void 0)) return void 0;
       return `block:${ranges.map((r) => `${r[0]}-${r[1]}`).join(",")}`;
     }
     case "positions": {
       if (misplaced(["positions"], `the positions kind takes only 'positions'`)) return void 0;
-      const list2 = fieldOf(body, "positions");
-      if (!list2) {
+      const list3 = fieldOf(body, "positions");
+      if (!list3) {
         sink.error("policy/invalid-partition", `${path6} needs 'positions', the list of side-A positions, e.g. {kind: positions, positions: [0, 5, 9]}`, body.span);
         return void 0;
       }
-      if (list2.kind !== "seq" || list2.items.length === 0) return void 0;
-      const values = list2.items.map(nonNegativeIntegerOf);
+      if (list3.kind !== "seq" || list3.items.length === 0) return void 0;
+      const values = list3.items.map(nonNegativeIntegerOf);
       if (values.some((v) => v === void 0)) return void 0;
       return `positions:${values.join(",")}`;
     }
@@ -39437,11 +40989,11 @@ function bitLength2(n) {
 
 // src/policy/requirements.ts
 var MINIMUM_FIELDS = ["min_rank", "min_bits"];
-function readRequirements(list2, file, sourceOf, sink) {
+function readRequirements(list3, file, sourceOf, sink) {
   const requirements = [];
   const references = [];
   const firstLineByKey = /* @__PURE__ */ new Map();
-  for (const item of list2.items) {
+  for (const item of list3.items) {
     if (item.kind !== "map") continue;
     const partitionNode = fieldOf(item, "partition");
     const partition = stringOf(partitionNode)?.trim();
@@ -39986,193 +41538,364 @@ function grow(a, size) {
   return b;
 }
 
+// src/network/square-rule.ts
+var WEIGHTED = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent"]);
+function readPointwise2(model, shapes) {
+  const layers = model.layers;
+  const reachesWeighted = new Uint8Array(layers.length);
+  for (let i = layers.length - 1; i >= 0; i--) {
+    for (const j of layers[i].inputs) {
+      if (j === INPUT) continue;
+      if (WEIGHTED.has(layers[i].kind) || reachesWeighted[i]) reachesWeighted[j] = 1;
+    }
+  }
+  const nearest = (i) => {
+    let activation = false;
+    while (i !== INPUT && layers[i].kind === "pointwise") {
+      const l = layers[i];
+      if (l.kind === "pointwise" && l.family === "activation") activation = true;
+      i = l.inputs[0];
+    }
+    return { at: i, activation };
+  };
+  const positionsBefore = (i) => positionCount(i === INPUT ? model.input.shape : shapes.layers[i].shape);
+  const mixing = /* @__PURE__ */ new Set();
+  const squared = /* @__PURE__ */ new Set();
+  const ignored2 = /* @__PURE__ */ new Set();
+  const mixes = (i) => {
+    const { at } = nearest(i);
+    return at !== INPUT && mixing.has(at);
+  };
+  for (const layer of layers) {
+    if (layer.kind === "dense") {
+      const reading = shapes.denseReading[layer.index];
+      if (reading === "input") mixing.add(layer.index);
+      else if (reading === "vector") {
+        const { at } = nearest(layer.inputs[0]);
+        const above = at === INPUT ? void 0 : layers[at];
+        if (above?.kind === "flatten" && positionsBefore(above.inputs[0]) > 1) mixing.add(layer.index);
+        else if (above && mixing.has(above.index)) mixing.add(layer.index);
+      }
+    } else if (layer.kind === "merge") {
+      if (layer.inputs.every(mixes)) mixing.add(layer.index);
+    } else if (layer.kind === "pointwise") {
+      if (!reachesWeighted[layer.index]) {
+        ignored2.add(layer.index);
+        continue;
+      }
+      if (layer.family !== "activation") continue;
+      const { at, activation } = nearest(layer.inputs[0]);
+      if (!activation && at !== INPUT && mixing.has(at)) squared.add(layer.index);
+    }
+  }
+  return { squared, ignored: ignored2, mixing };
+}
+
 // src/network/build-circuit.ts
 var NODE_LIMIT = 4e6;
 function buildCircuit(model, options) {
   const limit = options.nodeLimit ?? NODE_LIMIT;
+  const shaped = inferShapes(model);
+  if (!shaped.ok) return shaped;
+  const shapes = shaped.shapes;
   const fail = (span, code, message) => ({
     ok: false,
     diagnostics: [{ code, message, file: model.file, span, severity: "error" }]
   });
-  const positions = positionCount(model.input.shape);
-  if (positions > limit) {
-    return fail(
-      model.input.fieldSpans["shape"] ?? model.input.span,
-      "network/too-large",
-      `the input has ${positions} positions; rankfloor builds networks of at most ${limit} nodes`
-    );
-  }
-  const notes = /* @__PURE__ */ new Set();
-  const b = new CircuitBuilder(positions, limit);
+  const tooLarge3 = () => fail(
+    model.input.fieldSpans["shape"] ?? model.input.span,
+    "network/too-large",
+    `this model's tensor network would exceed ${limit} nodes or ${limit * 4} links; analyse a smaller input shape`
+  );
+  let estimate = positionCount(model.input.shape);
+  for (const s of shapes.layers) estimate += positionCount(s.shape);
+  if (estimate > limit) return tooLarge3();
+  const pointwise = readPointwise2(model, shapes);
+  const notes = new Notes(model, shapes, pointwise, options.surrogate);
+  const b = new CircuitBuilder(positionCount(model.input.shape), limit);
   try {
     const inputTag = b.addTag({ label: "input", line: model.input.span.line, span: model.input.span, layerIndex: -1 });
-    const grid = { shape: [...model.input.shape], nodes: [], dim: model.input.features };
-    for (let p = 0; p < positions; p++) grid.nodes.push(b.add(OP_INPUT, grid.dim, inputTag, [], p));
+    const m = shapes.representation;
+    const input = { shape: model.input.shape, nodes: Array.from({ length: positionCount(model.input.shape) }, (_, p) => b.add(OP_INPUT, m, inputTag, [], p)), dim: m, flat: false };
+    const grids = [];
+    const gridOf = (i) => i === INPUT ? input : grids[i];
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const problem = applyLayer(b, grid, layer, tag, options.surrogate, notes);
-      if (problem) return fail(problem.span, problem.code, problem.message);
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
+      if ("code" in built) return fail(built.span, built.code, built.message);
+      grids.push(built);
     }
-    if (grid.nodes.length > 1) {
-      const last = model.layers[model.layers.length - 1];
-      notes.add(
-        `the ${grid.nodes.length} positions left after the last layer are joined by a global product pool before the head`
-      );
-      const tag = b.addTag({ label: layerLabel(last), line: last.span.line, span: last.span, layerIndex: last.index });
-      grid.nodes = [b.add(OP_PRODUCT, grid.dim, tag, grid.nodes)];
+    const last = grids[grids.length - 1];
+    const lastLayer = model.layers[model.layers.length - 1];
+    let top;
+    if (last.flat) {
+      const headTag = b.addTag({ label: layerLabel(lastLayer), line: lastLayer.span.line, span: lastLayer.span, layerIndex: lastLayer.index });
+      top = sumOf(b, 1, headTag, last.nodes);
+    } else {
+      top = last.nodes[flatIndex(last.shape, shapes.output.position)];
     }
-    return { ok: true, circuit: b.finish(grid.nodes[0]), notes: [...notes] };
-  } catch (e) {
-    if (e instanceof NetworkTooLarge) {
+    if (top === ZERO) {
       return fail(
-        model.input.fieldSpans["shape"] ?? model.input.span,
-        "network/too-large",
-        `this model's tensor network would exceed ${limit} nodes or ${limit * 4} links; analyse a smaller input shape`
+        lastLayer.span,
+        "network/zero-output",
+        `the analysed output is zero for every choice of weights: it reads only padding; reduce the padding or analyse another output position`
       );
     }
+    return { ok: true, circuit: b.finish(top), notes: notes.list(), shapes, pointwise };
+  } catch (e) {
+    if (e instanceof NetworkTooLarge) return tooLarge3();
     throw e;
   }
 }
-function applyLayer(b, grid, layer, tag, surrogate, notes) {
-  const where2 = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
+function flatIndex(shape, at) {
+  return shape.length === 1 ? at[0] : at[0] * shape[1] + at[1];
+}
+var ZERO = -2;
+function linearOf(b, dim, tag, v) {
+  return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
+}
+function productOf(b, dim, tag, children) {
+  if (children.includes(ZERO)) return ZERO;
+  return children.length === 1 ? children[0] : b.add(OP_PRODUCT, dim, tag, children);
+}
+function sumOf(b, dim, tag, children) {
+  const live = children.filter((v) => v !== ZERO);
+  if (live.length === 0) return ZERO;
+  return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
+}
+function materialise(b, g, tag) {
+  if (!g.flat) return g;
+  return { shape: g.shape, nodes: [sumOf(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
+}
+function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
+  const out = shapes.layers[layer.index];
+  const first = inputs[0];
+  const surrogate = options.surrogate;
+  const grouped = shapes.groups[layer.index] > 1 && options.groupedAsIdentity === true;
+  if (grouped && out.width !== first.dim) {
+    return { span: layer.span, code: "network/grouped-not-identity", message: `layer ${layerLabel(layer)}: a grouped map between widths ${first.dim} and ${out.width} is not the identity` };
+  }
   switch (layer.kind) {
-    case "conv": {
-      if (layer.stride.length !== grid.shape.length || layer.kernel.length !== grid.shape.length) {
-        return { span: layer.span, code: "network/rank-mismatch", message: `${where2}: kernel and stride need one entry per input dimension` };
-      }
-      if (surrogate === "overlap") return convOverlap(b, grid, layer, tag);
-      if (layer.kernel.some((k, i) => k > layer.stride[i])) {
-        notes.add("the tree surrogate uses each convolution as a per-position map: kernels wider than their stride are not used by the bound");
-      }
-      grid.nodes = grid.nodes.map((v) => b.add(OP_LINEAR, layer.channels, tag, [v]));
-      grid.dim = layer.channels;
-      if (layer.stride.some((s) => s > 1)) {
-        return productWindows(b, grid, layer.stride, tag, layer.fieldSpans["stride"] ?? layer.span, `${where2}: stride`);
-      }
-      return void 0;
+    case "pointwise": {
+      if (!pointwise.squared.has(layer.index)) return first;
+      const g = materialise(b, first, tag);
+      return { ...g, nodes: g.nodes.map((v) => productOf(b, g.dim, tag, [v, v])) };
     }
-    case "pool": {
-      const window = layer.global ? [...grid.shape] : [...layer.window];
-      if (window.length !== grid.shape.length) {
-        return { span: layer.fieldSpans["window"] ?? layer.span, code: "network/rank-mismatch", message: `${where2}: the window needs one entry per input dimension` };
-      }
-      return productWindows(b, grid, window, tag, layer.fieldSpans["window"] ?? layer.span, `${where2}: window`);
-    }
+    case "flatten":
+      return { shape: out.shape, nodes: first.nodes, dim: first.dim, flat: true };
     case "dense": {
-      if (grid.nodes.length !== 1) {
-        return {
-          span: layer.span,
-          code: "network/dense-too-early",
-          message: `${where2}: dense needs a single remaining position, but the grid is [${grid.shape.join(", ")}] here; add 'pool: {global: true}' before it`
-        };
-      }
-      notes.add("dense layers come after the last pooling, so they are part of the head: one class score is a linear functional of the last state");
-      return void 0;
+      const reading = shapes.denseReading[layer.index];
+      if (first.flat || reading === "input") return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
     }
-    case "recurrent": {
-      if (grid.shape.length !== 1) {
-        return {
-          span: layer.span,
-          code: "network/recurrent-needs-sequence",
-          message: `${where2}: a recurrent layer needs a 1D sequence, but the grid is [${grid.shape.join(", ")}] here`
-        };
-      }
-      let below2 = grid.nodes;
-      for (let l = 0; l < layer.depth; l++) {
-        let prev = b.add(OP_CONST, layer.hidden, tag, []);
-        const states = [];
-        for (const x of below2) {
-          const carried = b.add(OP_LINEAR, layer.hidden, tag, [prev]);
-          const fed = b.add(OP_LINEAR, layer.hidden, tag, [x]);
-          prev = b.add(OP_PRODUCT, layer.hidden, tag, [carried, fed]);
-          states.push(prev);
-        }
-        below2 = states;
-      }
-      grid.nodes = [below2[below2.length - 1]];
-      grid.shape = [1];
-      grid.dim = layer.hidden;
-      return void 0;
+    case "merge": {
+      const grids = inputs.map((g) => materialise(b, g, tag));
+      const nodes = grids[0].nodes.map((_, p) => sumOf(b, out.width, tag, grids.map((g) => g.nodes[p])));
+      return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
+    case "recurrent":
+      return recurrent(b, materialise(b, first, tag), layer.hidden, layer.depth, tag);
+    case "pool":
+      return pool(b, materialise(b, first, tag), layer, out.shape, tag);
+    case "upsample":
+      return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
+    case "conv":
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
+    case "conv-transpose":
+      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
 }
-function productWindows(b, grid, window, tag, span, what) {
-  if (window.some((w, i) => grid.shape[i] % w !== 0)) {
-    return {
-      span,
-      code: "network/window-does-not-tile",
-      message: `${what} [${window.join(", ")}] does not tile the grid [${grid.shape.join(", ")}] that reaches it; use a window that divides every side`
-    };
+function recurrent(b, g, hidden, depth, tag) {
+  let below2 = g.nodes;
+  for (let l = 0; l < depth; l++) {
+    let prev = b.add(OP_CONST, hidden, tag, []);
+    const states = [];
+    for (const x of below2) {
+      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
+      states.push(prev);
+    }
+    below2 = states;
   }
-  if (window.every((w) => w === 1)) return void 0;
-  const out = grid.shape.map((n, i) => n / window[i]);
-  const nodes = [];
-  if (grid.shape.length === 1) {
-    const w = window[0];
-    for (let j = 0; j < out[0]; j++) nodes.push(b.add(OP_PRODUCT, grid.dim, tag, grid.nodes.slice(j * w, j * w + w)));
-  } else {
-    const [wh, ww] = [window[0], window[1]];
-    const width = grid.shape[1];
-    for (let i = 0; i < out[0]; i++) {
-      for (let j = 0; j < out[1]; j++) {
-        const children = [];
-        for (let a = 0; a < wh; a++) for (let c = 0; c < ww; c++) children.push(grid.nodes[(i * wh + a) * width + j * ww + c]);
-        nodes.push(b.add(OP_PRODUCT, grid.dim, tag, children));
-      }
+  return { shape: [1], nodes: [below2[below2.length - 1]], dim: hidden, flat: false };
+}
+function eachOutput(inShape, outShape, axisList, visit3) {
+  const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
+  if (outShape.length === 1) {
+    for (let j = 0; j < outShape[0]; j++) {
+      const problem = visit3(lists[0][j], [j]);
+      if (problem) return problem;
+    }
+    return void 0;
+  }
+  const width = inShape[1];
+  for (let i = 0; i < outShape[0]; i++) {
+    const rows = lists[0][i];
+    for (let j = 0; j < outShape[1]; j++) {
+      const cols = lists[1][j];
+      const positions = new Array(rows.length * cols.length);
+      let k = 0;
+      for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
+      const problem = visit3(positions, [i, j]);
+      if (problem) return problem;
     }
   }
-  grid.nodes = nodes;
-  grid.shape = out;
   return void 0;
 }
-function axisPlan(n, k, s, padding) {
-  if (padding === "valid") {
-    if (n < k) return void 0;
-    return { out: Math.floor((n - k) / s) + 1, left: 0 };
-  }
-  const out = Math.ceil(n / s);
-  const total = Math.max((out - 1) * s + k - n, 0);
-  return { out, left: Math.floor(total / 2) };
+function plans(g, k, s, d, layer) {
+  return g.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
 }
-function convOverlap(b, grid, layer, tag) {
-  const plans = grid.shape.map((n, i) => axisPlan(n, layer.kernel[i], layer.stride[i], layer.padding));
-  if (plans.some((p2) => p2 === void 0)) {
-    return {
-      span: layer.fieldSpans["kernel"] ?? layer.span,
-      code: "network/kernel-too-large",
-      message: `layer ${layerLabel(layer)} (line ${layer.span.line}): kernel [${layer.kernel.join(", ")}] with valid padding is larger than the grid [${grid.shape.join(", ")}] that reaches it`
-    };
-  }
-  const p = plans;
-  const nodes = [];
-  const taps = (axis, j) => {
-    const res = [];
-    for (let t = 0; t < layer.kernel[axis]; t++) {
-      const at = j * layer.stride[axis] + t - p[axis].left;
-      if (at >= 0 && at < grid.shape[axis]) res.push(at);
-    }
-    return res;
+function emptyWindow(layer, at) {
+  return {
+    span: layer.fieldSpans["padding"] ?? layer.span,
+    code: "network/empty-window",
+    message: `layer ${layerLabel(layer)} (line ${layer.span.line}): output position [${at.join(", ")}] reads only padding; reduce the padding or the stride`
   };
-  if (grid.shape.length === 1) {
-    for (let j = 0; j < p[0].out; j++) {
-      nodes.push(b.add(OP_SUM, layer.channels, tag, taps(0, j).map((at) => grid.nodes[at])));
+}
+function pool(b, g, layer, shape, tag) {
+  if (layer.global) {
+    return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
+  }
+  const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
+  const nodes = [];
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans[a].left),
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
     }
-  } else {
-    const width = grid.shape[1];
-    for (let i = 0; i < p[0].out; i++) {
-      const rows = taps(0, i);
-      for (let j = 0; j < p[1].out; j++) {
-        const cols = taps(1, j);
-        const children = [];
-        for (const r of rows) for (const c of cols) children.push(grid.nodes[r * width + c]);
-        nodes.push(b.add(OP_SUM, layer.channels, tag, children));
+  );
+  return problem ?? { shape, nodes, dim: g.dim, flat: false };
+}
+function upsample(b, g, layer, shape, tag) {
+  const nodes = [];
+  eachOutput(
+    g.shape,
+    shape,
+    (a, j) => {
+      const f2 = layer.factor[a];
+      if (layer.mode === "nearest") return [Math.floor(j / f2)];
+      const src = linearSources(j, g.shape[a], f2);
+      return src.num === 0 ? [src.i0] : [src.i0, src.i1];
+    },
+    (positions) => {
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
+    }
+  );
+  return { shape, nodes, dim: g.dim, flat: false };
+}
+function conv(b, g, layer, shape, width, tag, surrogate, identity) {
+  const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
+  const causal = layer.padding.mode === "causal";
+  const nodes = [];
+  if (surrogate === "overlap") {
+    const problem2 = eachOutput(
+      g.shape,
+      shape,
+      (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a].left),
+      (positions) => {
+        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p])));
+        return void 0;
+      }
+    );
+    return problem2 ?? { shape, nodes, dim: width, flat: false };
+  }
+  const mapped = new Int32Array(g.nodes.length).fill(-1);
+  const mapOf = (p) => {
+    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p] : linearOf(b, width, tag, g.nodes[p]);
+    return mapped[p];
+  };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a], causal),
+    (positions) => {
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
+      return void 0;
+    }
+  );
+  return problem ?? { shape, nodes, dim: width, flat: false };
+}
+function convTranspose(b, g, layer, shape, tag, surrogate, identity) {
+  const nodes = [];
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => surrogate === "overlap" ? transposeSources(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]).map(([i]) => i) : [treeTransposeSource(j, g.shape[a], layer.stride[a])[0]],
+    (positions) => {
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p])));
+      return void 0;
+    }
+  );
+  return problem ?? { shape, nodes, dim: layer.channels, flat: false };
+}
+var Notes = class {
+  out = [];
+  constructor(model, shapes, pointwise, surrogate) {
+    const where2 = (l) => `${l.kind === "pointwise" ? l.op : `layer ${layerLabel(l)}`} (line ${l.span.line})`;
+    const input = model.input;
+    if (input.representation === void 0) {
+      const from = firstMaps(model).find((l) => layerWidth(l) === shapes.representation);
+      const which2 = from ? `layer ${layerLabel(from)} (line ${from.span.line})` : "the first layer";
+      this.out.push(
+        `M = ${shapes.representation} representation functions per input position: the width of ${which2}, the first layer that maps the input; set input.representation to choose M`
+      );
+    }
+    if (input.featuresAsChannels) {
+      const line = input.fieldSpans["channels"]?.line ?? input.span.line;
+      this.out.push(
+        `input.features (line ${line}) is read as the data's raw channel count, which does not limit the bound; earlier versions of rankfloor read it as M, which is now input.representation`
+      );
+    }
+    if (surrogate === "tree" && model.layers.some((l) => (l.kind === "conv" || l.kind === "conv-transpose") && l.kernel.some((k, a) => k > l.stride[a]))) {
+      this.out.push("the tree surrogate uses each convolution as a per-position map: kernels wider than their stride are not used by the bound");
+    }
+    const modes = [...new Set(model.layers.flatMap((l) => l.kind === "pool" && l.mode !== "product" ? [l.mode] : []))].sort();
+    if (modes.length > 0) this.out.push(`${modes.join(" and ")} pooling is a product over each window in the arithmetic surrogate`);
+    const identity = model.layers.filter((l) => l.kind === "pointwise" && !pointwise.squared.has(l.index) && !pointwise.ignored.has(l.index));
+    if (identity.length > 0) {
+      this.out.push(
+        `pointwise layers read as the identity (in the arithmetic surrogate the only non-linearity is the product of pooling and recurrence): ${list(identity.map(where2))}`
+      );
+    }
+    const squared = model.layers.filter((l) => pointwise.squared.has(l.index));
+    if (squared.length > 0) {
+      this.out.push(`activations after dense layers that mix positions are read as the elementwise square v ⊙ v, so that the fully connected part keeps a non-linearity: ${list(squared.map(where2))}`);
+    }
+    const ignored2 = model.layers.filter((l) => pointwise.ignored.has(l.index));
+    if (ignored2.length > 0) this.out.push(`pointwise layers after the last weighted layer are not part of the analysed score: ${list(ignored2.map(where2))}`);
+    for (const l of model.layers) {
+      if (l.kind !== "dense") continue;
+      const reading = shapes.denseReading[l.index];
+      const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]].shape;
+      if (reading === "per-position") {
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution; put flatten before it to read them all at once`);
+      } else if (reading === "input") {
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads all ${positionCount(before)} input positions at once (a fully connected layer on the raw input)`);
       }
     }
+    if (model.layers.some((l) => l.kind === "upsample" && l.mode === "linear")) {
+      this.out.push("linear upsampling is a fixed sum of neighbouring positions: no lower bound is claimed through it");
+    }
+    if (shapes.output.defaulted) {
+      const last = shapes.layers[shapes.layers.length - 1].shape;
+      this.out.push(
+        `the analysed output is position [${shapes.output.position.join(", ")}] of the last layer's grid [${last.join(", ")}] (the default); set output.position to analyse another, or add a global pool`
+      );
+    } else if (model.output.position) {
+      this.out.push(`the analysed output is position [${shapes.output.position.join(", ")}] (output.position)`);
+    }
   }
-  grid.nodes = nodes;
-  grid.shape = p.map((a) => a.out);
-  grid.dim = layer.channels;
-  return void 0;
+  list() {
+    return this.out;
+  }
+};
+function list(items) {
+  const max = 8;
+  return items.length <= max ? items.join(", ") : `${items.slice(0, max).join(", ")} and ${items.length - max} more`;
 }
 
 // src/cut/degree-bound.ts
@@ -40339,7 +42062,13 @@ function treeMinCut(c, side, weight, options = {}) {
   const headB = link(top, B);
   const value = Math.min(headA, headB);
   if (!Number.isFinite(value)) throw new Error("tree min-cut: no finite cut (a bug in the circuit)");
-  return { value, counts: recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B, sym) };
+  let counts;
+  return {
+    value,
+    get counts() {
+      return counts ??= recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B, sym);
+    }
+  };
 }
 function symmetricGroupDim(d, a) {
   const r = binomial(d + a - 1, a);
@@ -40391,13 +42120,13 @@ var SymmetricGroups = class {
     return best;
   }
   /** The cost of window v with its members on side s: the plain sum, or the group cut if cheaper. */
-  choose(v, s, plain, f) {
+  choose(v, s, plain, f2) {
     const g = this.group(v, s);
     if (!g) return plain;
     const dim = symmetricGroupDim(this.c.dim[this.narrowest(g[0])], g.length);
     if (dim === void 0) return plain;
     let groupOnS = 0;
-    for (const ch of g) groupOnS += f[ch];
+    for (const ch of g) groupOnS += f2[ch];
     const alt = plain - groupOnS + Math.log2(dim);
     if (alt < plain - 1e-9) {
       this.used[s][v] = 1;
@@ -40504,18 +42233,18 @@ function recoverCut(c, weight, fa, fb, free, headSide, sym) {
 // src/cut/power-rounding.ts
 var MAX_CANDIDATES = 64;
 function floorLog(d, q) {
-  const big = BigInt(d);
+  const big2 = BigInt(d);
   const base = BigInt(q);
   let e = 0;
-  for (let p = base; p <= big; p *= base) e++;
+  for (let p = base; p <= big2; p *= base) e++;
   return e;
 }
 function integerRoot(d, k) {
-  const big = BigInt(d);
+  const big2 = BigInt(d);
   const kk = BigInt(k);
   let r = Math.max(1, Math.floor(Math.pow(d, 1 / k)));
-  while (BigInt(r + 1) ** kk <= big) r++;
-  while (r > 1 && BigInt(r) ** kk > big) r--;
+  while (BigInt(r + 1) ** kk <= big2) r++;
+  while (r > 1 && BigInt(r) ** kk > big2) r--;
   return r;
 }
 function powerCandidates(dims) {
@@ -40626,17 +42355,17 @@ var FlowNetwork = class {
       let u = s;
       for (; ; ) {
         if (u === t) {
-          let f = Infinity;
-          for (let k = 0; k < depth; k++) f = Math.min(f, res[path6[k]]);
-          if (f === Infinity) {
+          let f2 = Infinity;
+          for (let k = 0; k < depth; k++) f2 = Math.min(f2, res[path6[k]]);
+          if (f2 === Infinity) {
             return { value: Infinity, sourceSide: this.reach(s, res, eps) };
           }
-          value += f;
+          value += f2;
           let back = -1;
           for (let k = 0; k < depth; k++) {
             const e2 = path6[k];
-            res[e2] = res[e2] - f;
-            res[e2 ^ 1] = res[e2 ^ 1] + f;
+            res[e2] = res[e2] - f2;
+            res[e2 ^ 1] = res[e2 ^ 1] + f2;
             if (back < 0 && res[e2] <= eps) back = k;
           }
           depth = back;
@@ -40941,8 +42670,432 @@ function spans(c) {
   return s;
 }
 
+// src/cut/rank-propagation.ts
+var SAFE2 = 2 ** 53;
+function big(x) {
+  return typeof x === "bigint" ? x : BigInt(x);
+}
+var EXACT = {
+  one: 1,
+  ones: (n) => new Array(n).fill(1),
+  of: (n) => n,
+  mul: (a, b) => {
+    if (typeof a === "number" && typeof b === "number") {
+      const r = a * b;
+      if (r < SAFE2) return r;
+    }
+    return big(a) * big(b);
+  },
+  add: (a, b) => {
+    if (typeof a === "number" && typeof b === "number") {
+      const r = a + b;
+      if (r < SAFE2) return r;
+    }
+    return big(a) + big(b);
+  },
+  le: (a, b) => a <= b,
+  symPow: (x, a) => {
+    if (a === 1) return x;
+    const n = big(x) + BigInt(a - 1);
+    let r = 1n;
+    for (let i = 0; i < a; i++) r = r * (n - BigInt(i)) / BigInt(i + 1);
+    return r < BigInt(SAFE2) ? Number(r) : r;
+  }
+};
+var LOG = {
+  one: 0,
+  ones: (n) => new Float64Array(n),
+  of: (n) => Math.log2(n),
+  mul: (a, b) => a + b,
+  add: (a, b) => Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
+  le: (a, b) => a <= b,
+  symPow: (x, a) => {
+    let r = 0;
+    for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
+    return r;
+  }
+};
+var FROM_CHILDREN = 0;
+var FROM_DIM_OTHER = 1;
+var FROM_DIM_KAPPA = 2;
+var FROM_PURE = 3;
+var FROM_SIDE_A = 4;
+var FROM_SIDE_B = 5;
+var MAX_BITS = 4e6;
+function rankPropagation(c, side) {
+  const plan = planOf(c);
+  const logs = propagate(c, plan, side, LOG);
+  let largest = 0;
+  for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v], logs.rb[v]);
+  const rank = () => largest > MAX_BITS ? void 0 : big(propagate(c, plan, side, EXACT).lam[c.top]);
+  return { log2: logs.lam[c.top], rank, counts: recordWidths(c, plan, logs) };
+}
+var plans2 = /* @__PURE__ */ new WeakMap();
+function planOf(c) {
+  const hit = plans2.get(c);
+  if (hit) return hit;
+  const { op, childStart, childList } = c;
+  const source = new Int32Array(c.size);
+  const start = new Int32Array(c.size + 1);
+  const childOf = [];
+  const times = [];
+  const mStart = [0];
+  const members = [];
+  for (let v = 0; v < c.size; v++) {
+    start[v] = childOf.length;
+    source[v] = op[v] === OP_LINEAR ? source[childList[childStart[v]]] : v;
+    if (op[v] !== OP_PRODUCT && op[v] !== OP_SUM) continue;
+    const counts = /* @__PURE__ */ new Map();
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) counts.set(childList[i], (counts.get(childList[i]) ?? 0) + 1);
+    if (op[v] === OP_PRODUCT) {
+      for (const [ch, k] of counts) {
+        childOf.push(ch);
+        times.push(k);
+        mStart.push(members.length);
+      }
+      continue;
+    }
+    const bySource = /* @__PURE__ */ new Map();
+    for (const ch of counts.keys()) {
+      const g = bySource.get(source[ch]);
+      if (g) g.push(ch);
+      else bySource.set(source[ch], [ch]);
+    }
+    for (const [src, group2] of bySource) {
+      childOf.push(group2.length === 1 ? group2[0] : src);
+      times.push(1);
+      if (group2.length > 1) members.push(...group2);
+      mStart.push(members.length);
+    }
+  }
+  start[c.size] = childOf.length;
+  const plan = {
+    source,
+    start,
+    childOf: Int32Array.from(childOf),
+    times: Int32Array.from(times),
+    mStart: Int32Array.from(mStart),
+    members: Int32Array.from(members)
+  };
+  plans2.set(c, plan);
+  return plan;
+}
+function propagate(c, plan, side, ar) {
+  const n = c.size;
+  const { op, dim, childStart, childList } = c;
+  const { start, childOf, times } = plan;
+  const dep = new Uint8Array(n);
+  const ra = ar.ones(n);
+  const rb = ar.ones(n);
+  const kap = ar.ones(n);
+  const lam = ar.ones(n);
+  const whyA = new Uint8Array(n).fill(FROM_PURE);
+  const whyB = new Uint8Array(n).fill(FROM_PURE);
+  const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const min = (a, b) => ar.le(a, b) ? a : b;
+  for (let v = 0; v < n; v++) {
+    const kind = op[v];
+    if (kind === OP_INPUT) {
+      const onA = side[c.position[v]] === 1;
+      dep[v] = onA ? 1 : 2;
+      if (onA) rb[v] = ar.of(dim[v]);
+      else ra[v] = ar.of(dim[v]);
+      continue;
+    }
+    if (kind === OP_CONST) continue;
+    let d = 0;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) d |= dep[childList[i]];
+    dep[v] = d;
+    if (d !== 3) {
+      const own = kind === OP_LINEAR ? childList[childStart[v]] : -1;
+      if (d === 1) rb[v] = own >= 0 ? min(rb[own], ar.of(dim[v])) : ar.of(dim[v]);
+      if (d === 2) ra[v] = own >= 0 ? min(ra[own], ar.of(dim[v])) : ar.of(dim[v]);
+      continue;
+    }
+    const D = ar.of(dim[v]);
+    let a;
+    let b;
+    let k;
+    let l;
+    let lWhy = FROM_CHILDREN;
+    if (kind === OP_LINEAR) {
+      const ch = childList[childStart[v]];
+      a = ra[ch];
+      b = rb[ch];
+      l = lam[ch];
+      k = l;
+    } else if (kind === OP_PRODUCT) {
+      a = ar.one;
+      b = ar.one;
+      k = ar.one;
+      for (let t = start[v]; t < start[v + 1]; t++) {
+        const ch = childOf[t];
+        const m = times[t];
+        a = ar.mul(a, m === 1 ? ra[ch] : ar.symPow(ra[ch], m));
+        b = ar.mul(b, m === 1 ? rb[ch] : ar.symPow(rb[ch], m));
+        k = ar.mul(k, m === 1 ? kap[ch] : ar.symPow(kap[ch], m));
+      }
+      l = ar.mul(D, k);
+      lWhy = FROM_DIM_KAPPA;
+    } else if (kind === OP_SUM) {
+      ({ a, b, l } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      k = l;
+    } else {
+      throw new Error(`rank propagation: unknown node kind ${kind}`);
+    }
+    whyA[v] = FROM_CHILDREN;
+    whyB[v] = FROM_CHILDREN;
+    whyL[v] = lWhy;
+    const viaB = ar.mul(D, b);
+    const viaA = ar.mul(D, a);
+    const viaK = ar.mul(D, k);
+    if (!ar.le(a, min(viaB, viaK))) {
+      whyA[v] = ar.le(viaB, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      a = min(viaB, viaK);
+    }
+    if (!ar.le(b, min(viaA, viaK))) {
+      whyB[v] = ar.le(viaA, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      b = min(viaA, viaK);
+    }
+    if (!ar.le(l, min(a, b))) {
+      whyL[v] = ar.le(a, b) ? FROM_SIDE_A : FROM_SIDE_B;
+      l = min(a, b);
+    }
+    ra[v] = a;
+    rb[v] = b;
+    lam[v] = l;
+    kap[v] = min(k, l);
+  }
+  return { dep, ra, rb, lam, whyA, whyB, whyL };
+}
+function termRank(plan, t, r, ar) {
+  const { childOf, mStart, members } = plan;
+  const node = childOf[t];
+  if (mStart[t + 1] === mStart[t]) return r[node];
+  let sum = r[members[mStart[t]]];
+  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = ar.add(sum, r[members[i]]);
+  return ar.le(r[node], sum) ? r[node] : sum;
+}
+function sumRule(plan, v, D, dep, ra, rb, lam, ar) {
+  const min = (x, y) => ar.le(x, y) ? x : y;
+  let a;
+  let b;
+  let l;
+  const plus = (x, y) => x === void 0 ? y : ar.add(x, y);
+  let pureA = false;
+  let pureB = false;
+  let constant = false;
+  let pureAonB;
+  let pureBonA;
+  for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
+    const d = dep[plan.childOf[t]];
+    if (d === 0) constant = true;
+    else if (d === 1) {
+      pureA = true;
+      pureAonB = plus(pureAonB, termRank(plan, t, rb, ar));
+    } else if (d === 2) {
+      pureB = true;
+      pureBonA = plus(pureBonA, termRank(plan, t, ra, ar));
+    } else {
+      a = plus(a, termRank(plan, t, ra, ar));
+      b = plus(b, termRank(plan, t, rb, ar));
+      l = plus(l, termRank(plan, t, lam, ar));
+    }
+  }
+  if (constant && !pureA && !pureB) {
+    a = plus(a, ar.one);
+    b = plus(b, ar.one);
+    l = plus(l, ar.one);
+  }
+  if (pureA) {
+    a = plus(a, ar.one);
+    b = plus(b, min(D, pureAonB));
+    l = plus(l, ar.one);
+  }
+  if (pureB) {
+    a = plus(a, min(D, pureBonA));
+    b = plus(b, ar.one);
+    l = plus(l, ar.one);
+  }
+  return { a: a ?? ar.one, b: b ?? ar.one, l: l ?? ar.one };
+}
+function recordWidths(c, plan, p) {
+  const { dep, whyA, whyB, whyL } = p;
+  const counts = /* @__PURE__ */ new Map();
+  const seen = /* @__PURE__ */ new Set();
+  const note = (v) => {
+    const tag = c.bondTag[v];
+    let byDim = counts.get(tag);
+    if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
+    byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
+  };
+  const A2 = 0;
+  const B2 = 1;
+  const K = 2;
+  const L = 3;
+  const farSide = (v, which2) => which2 === A2 && dep[v] === 2 || which2 === B2 && dep[v] === 1;
+  const stack = [[c.top, L]];
+  while (stack.length > 0) {
+    const [v, which2] = stack.pop();
+    const key = v * 4 + which2;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    const kind = c.op[v];
+    if (kind === OP_CONST) continue;
+    const why = which2 === A2 ? whyA[v] : which2 === B2 ? whyB[v] : which2 === L ? whyL[v] : FROM_CHILDREN;
+    if (kind === OP_INPUT || dep[v] !== 3 || why === FROM_PURE) {
+      if (farSide(v, which2)) note(v);
+      continue;
+    }
+    if (why === FROM_SIDE_A || why === FROM_SIDE_B) {
+      stack.push([v, why === FROM_SIDE_A ? A2 : B2]);
+      continue;
+    }
+    if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {
+      note(v);
+      stack.push([v, why === FROM_DIM_KAPPA ? K : which2 === A2 ? B2 : A2]);
+      continue;
+    }
+    if (kind === OP_SUM) {
+      const sub = which2 === K ? L : which2;
+      for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
+        const node = plan.childOf[t];
+        if (dep[node] === 3) stack.push([node, sub]);
+        else if (farSide(node, sub)) note(v);
+      }
+      continue;
+    }
+    if (kind === OP_PRODUCT) {
+      for (let t = plan.start[v]; t < plan.start[v + 1]; t++) stack.push([plan.childOf[t], which2]);
+      continue;
+    }
+    stack.push([c.childList[c.childStart[v]], which2 === K ? L : which2]);
+  }
+  return counts;
+}
+
+// src/cut/special-cases.ts
+var WEIGHTED2 = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent"]);
+var ZERO_PRESERVING = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten"]);
+function specialCases(model, surrogate, shapes, reading) {
+  let under = surrogate;
+  const steps = [];
+  if (surrogate === "overlap") {
+    if (!treeIsSpecialCase(model, shapes)) return [];
+    under = "tree";
+    steps.push("off-centre taps zeroed");
+  }
+  const pinned = {
+    ...model,
+    input: { ...model.input, representation: shapes.representation },
+    output: { ...model.output, position: shapes.output.position }
+  };
+  if (!model.layers.some((l) => l.kind === "merge")) return [{ model: pinned, surrogate: under, how: steps.join(", ") }];
+  const cases = [];
+  for (const pick of ["first", "last"]) {
+    const reduced = keepOneInput(pinned, pick, reading, shapes);
+    if (reduced) cases.push({ model: reduced, surrogate: under, how: [...steps, `merges keep their ${pick} input where the others can be zeroed`].join(", ") });
+  }
+  return cases;
+}
+function treeIsSpecialCase(model, shapes) {
+  for (const l of model.layers) {
+    if (l.kind === "conv") {
+      if (l.stride.some((s) => s !== 1)) return false;
+      if (l.padding.mode === "causal") continue;
+      if (l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]) - 1) / 2) % l.dilation[a] !== 0)) return false;
+    } else if (l.kind === "conv-transpose") {
+      const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]].shape;
+      const after = shapes.layers[l.index].shape;
+      for (let a = 0; a < after.length; a++) {
+        const s = l.stride[a];
+        const d = l.dilation[a];
+        const p = l.padding[a];
+        if (after[a] > before[a] * s) return false;
+        for (let u = 0; u < Math.min(s, after[a]); u++) {
+          if ((u + p) % d !== 0 || (u + p) / d >= l.kernel[a]) return false;
+        }
+      }
+    } else if (l.kind === "upsample" && l.mode === "linear") {
+      return false;
+    }
+  }
+  return true;
+}
+function keepOneInput(model, pick, reading, shapes) {
+  const layers = model.layers;
+  const consumers = layers.map(() => []);
+  for (const l of layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
+  const replaced = /* @__PURE__ */ new Map();
+  const resolve9 = (i) => replaced.get(i) ?? i;
+  for (const l of layers) {
+    if (l.kind !== "merge") continue;
+    const coordinatewise = l.mode === "concat" && onlyCoordinatewiseUntilWeighted(layers, consumers, l.index);
+    const canKeep = (keptAt2) => coordinatewise || l.inputs.every((d, k) => k === keptAt2 || zeroable(layers, consumers, d, l.index));
+    const ends = pick === "first" ? [0, l.inputs.length - 1] : [l.inputs.length - 1, 0];
+    const keptAt = ends.find(canKeep);
+    if (keptAt === void 0) return void 0;
+    replaced.set(l.index, resolve9(l.inputs[keptAt]));
+  }
+  const last = resolve9(layers.length - 1);
+  const live = /* @__PURE__ */ new Set();
+  const stack = [last];
+  while (stack.length > 0) {
+    const i = stack.pop();
+    if (i === INPUT || live.has(i)) continue;
+    live.add(i);
+    for (const j of layers[i].inputs) stack.push(resolve9(j));
+  }
+  const order = layers.filter((l) => live.has(l.index) && l.kind !== "merge");
+  const newIndex = new Map(order.map((l, k) => [l.index, k]));
+  const kept = order.map((l, k) => ({
+    ...l,
+    index: k,
+    inputs: l.inputs.map((j) => j === INPUT ? INPUT : newIndex.get(resolve9(j)))
+  }));
+  const reduced = { ...model, layers: kept };
+  const shaped = inferShapes(reduced);
+  if (!shaped.ok) return void 0;
+  const again = readPointwise2(reduced, shaped.shapes);
+  for (const l of order) {
+    const k = newIndex.get(l.index);
+    if (reading.squared.has(l.index) !== again.squared.has(k) || reading.ignored.has(l.index) !== again.ignored.has(k)) return void 0;
+    if (shapes.denseReading[l.index] !== shaped.shapes.denseReading[k]) return void 0;
+  }
+  return reduced;
+}
+function zeroable(layers, consumers, input, merge) {
+  let at = input;
+  let reader = merge;
+  for (; ; ) {
+    if (at === INPUT) return false;
+    const uses = consumers[at];
+    if (uses.length !== 1 || uses[0] !== reader) return false;
+    const l = layers[at];
+    if (WEIGHTED2.has(l.kind)) return true;
+    if (!ZERO_PRESERVING.has(l.kind)) return false;
+    reader = at;
+    at = l.inputs[0];
+  }
+}
+function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
+  const stack = [from];
+  const seen = /* @__PURE__ */ new Set();
+  while (stack.length > 0) {
+    const i = stack.pop();
+    if (seen.has(i)) continue;
+    seen.add(i);
+    for (const c of consumers[i]) {
+      const l = layers[c];
+      if (WEIGHTED2.has(l.kind)) continue;
+      if (!ZERO_PRESERVING.has(l.kind)) return false;
+      stack.push(c);
+    }
+  }
+  return true;
+}
+
 // src/cut/bounds.ts
-var MAX_RANK_BITS = 4e6;
 function computeBounds(model, partitions, options) {
   if (model.kind === "explicit") {
     const results2 = partitions.map((p) => finish(p.label, explicitBounds(model, p)));
@@ -40964,59 +43117,86 @@ function analyseLayered(model, options) {
   if (!built.ok) return built;
   const circuit = built.circuit;
   const notes = [...built.notes];
-  let lowerCircuit = circuit.sums ? void 0 : circuit;
   if (circuit.sums) {
-    const keepsGrid = model.layers.every(
-      (l) => l.kind !== "conv" || l.stride.every((s) => s === 1) && (l.padding === "same" || l.kernel.every((k) => k === 1))
-    );
-    if (keepsGrid) {
-      const tree = buildCircuit(model, { ...options, surrogate: "tree" });
-      if (tree.ok) lowerCircuit = tree.circuit;
-    }
-    notes.push("overlap surrogate: each index of the min-cut carries one extra constant coordinate (dimension + 1), so that window sums are contractions");
+    notes.push("the network has sums (overlapping windows, merges, flatten + dense): a min-cut index carries one extra constant coordinate (dimension + 1), and rank propagation adds the ranks of summed terms");
   }
   const augment = circuit.sums ? 1 : 0;
   const upperWeights = new Float64Array(circuit.size);
   for (let v = 0; v < circuit.size; v++) upperWeights[v] = Math.log2(circuit.dim[v] + augment);
   const hasRecurrent = model.layers.some((l) => l.kind === "recurrent");
-  const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : void 0;
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
+  const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
   const bounds = (p) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    const useDegree = deg !== null && deg.log2 < cut2.value - 1e-9;
-    if (Math.min(cut2.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
-      return {
-        diagnostic: {
-          code: "network/rank-too-large",
-          message: `the bound for partition '${p.label}' has more than ${MAX_RANK_BITS} bits; analyse a smaller input`,
-          file: model.file,
-          span: model.span,
-          severity: "error"
+    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
+    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    if (best > MAX_RANK_BITS) {
+      const counts = best === cut2.value ? cut2.counts : best === prop?.log2 ? prop.counts : deg.counts;
+      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : "degree";
+      const upper2 = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === "min-cut" ? augment : 0) };
+      return finish(p.label, { upper: upper2, lower: bestLower(p) });
+    }
+    const candidates2 = [
+      { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
+    ];
+    if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
+    if (prop) {
+      candidates2.push({
+        log2: prop.log2,
+        make: () => {
+          const rank = prop.rank();
+          return rank === void 0 ? void 0 : makeBound(rank, "rank propagation", circuit, prop.counts, 0);
         }
-      };
+      });
     }
-    let upper = useDegree ? makeBound(deg.rank(), "degree", circuit, deg.counts, 0) : makeBound(productOf(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment);
-    if (deg && !useDegree && cut2.value - deg.log2 < 1) {
-      const exact = deg.rank();
-      if (exact < upper.rank) upper = makeBound(exact, "degree", circuit, deg.counts, 0);
+    let upper;
+    for (const c of candidates2) {
+      if (c.log2 > best + 1) continue;
+      const b = c.make();
+      if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
+    return finish(p.label, { upper, lower: bestLower(p) });
+  };
+  const bestLower = (p) => {
     const lowers = [];
-    if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
-    else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit, p.side));
-    if (lowerCircuit && model.weightSharing && !hasRecurrent) {
-      const top = topWindowLower(lowerCircuit, p.side);
-      if (top !== void 0) lowers.push({ rank: top, log2: log2Big(top), method: "top-window span", cut: [] });
-    }
+    for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
     const shallow = shallowRecurrentLower(model, p);
     if (shallow) lowers.push(shallow);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
-    return finish(p.label, { upper, lower });
+    return lower;
   };
   return { ok: true, notes, bounds };
+}
+function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
+  const out = [];
+  for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
+    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate, groupedAsIdentity: true });
+    if (!built.ok || built.circuit.sums) continue;
+    let top = built.circuit.top;
+    while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]];
+    const c = { ...built.circuit, top };
+    const suffix = sc.how ? ` (${sc.how})` : "";
+    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : void 0;
+    const topWindow = model.weightSharing && !hasRecurrent && !c.reuse;
+    out.push({
+      lower: (side) => {
+        const found2 = [];
+        const tag = (b) => ({ ...b, method: b.method + suffix });
+        if (rounding) found2.push(tag(roundingLower(c, side, rounding)));
+        found2.push(tag(diagonalLower(c, side)));
+        if (topWindow) {
+          const top2 = topWindowLower(c, side);
+          if (top2 !== void 0) found2.push(tag({ rank: top2, log2: log2Big(top2), method: "top-window span", cut: [] }));
+        }
+        return found2;
+      }
+    });
+  }
+  return out;
 }
 function finish(label2, b) {
   if (b.lower && b.lower.rank > b.upper.rank) {
@@ -41025,7 +43205,7 @@ function finish(label2, b) {
   const status = !b.lower ? "upper-only" : b.lower.rank === b.upper.rank ? "exact" : "bounded";
   return { partition: label2, upper: b.upper, lower: b.lower, status };
 }
-function productOf(counts, augment) {
+function productOf2(counts, augment) {
   const byDim = /* @__PURE__ */ new Map();
   for (const m of counts.values()) {
     for (const [dim, k] of m) {
@@ -41090,28 +43270,26 @@ function diagonalLower(c, side) {
   return { rank, log2: log2Big(rank), method: "diagonal", cut: [] };
 }
 function publishedRecurrentLower(model, p) {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== "recurrent" || first.depth !== 2) return void 0;
-  if (rest.some((l) => l.kind !== "dense")) return void 0;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 2) return void 0;
   if (model.input.shape.length !== 1) return void 0;
   const t = model.input.shape[0];
   if (t % 2 !== 0) return void 0;
   const startEnd = resolvePartition("start-end", model.input.shape);
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return void 0;
-  const m = Math.min(model.input.features, first.hidden);
+  const m = Math.min(representationOf(model), first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: "published depth-2 recurrent", cut: [] };
 }
 function shallowRecurrentLower(model, p) {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== "recurrent" || first.depth !== 1) return void 0;
-  if (rest.some((l) => l.kind !== "dense")) return void 0;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 1) return void 0;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return void 0;
   const r = BigInt(first.hidden);
-  const m = model.input.features;
+  const m = representationOf(model);
   const span = (count) => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
@@ -41120,6 +43298,12 @@ function shallowRecurrentLower(model, p) {
   if (bound <= 1n) return void 0;
   return { rank: bound, log2: log2Big(bound), method: "shallow recurrent span", cut: [] };
 }
+function recurrentOnInput(model) {
+  const [first, ...rest] = model.layers;
+  if (!first || first.kind !== "recurrent" || first.inputs[0] !== INPUT) return void 0;
+  if (rest.some((l) => l.kind !== "dense" && l.kind !== "pointwise")) return void 0;
+  return first;
+}
 function sameMask(a, b) {
   if (a.length !== b.length) return false;
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
@@ -41127,41 +43311,71 @@ function sameMask(a, b) {
 }
 
 // src/policy/parameters.ts
+var AFFINE_NORMS = /* @__PURE__ */ new Set(["batch_norm", "layer_norm", "group_norm", "instance_norm"]);
 function parameterCount(model) {
-  let shape = [...model.input.shape];
-  let dim = model.input.features;
+  const inferred = inferShapes(model);
+  if (!inferred.ok) throw new Error(`parameter count: the shapes of ${model.file} do not infer: ${inferred.diagnostics[0]?.message ?? ""}`);
+  const shapes = inferred.shapes;
+  const inputWidth = model.input.channels ?? shapes.representation;
+  const widths = [];
+  const width = (i) => i === INPUT ? inputWidth : widths[i];
+  const grid = (i) => i === INPUT ? model.input.shape : shapes.layers[i].shape;
   let total = 0n;
-  const positions = () => BigInt(shape.reduce((a, b) => a * b, 1));
   for (const layer of model.layers) {
-    switch (layer.kind) {
-      case "conv": {
-        shape = shape.map((n, i) => {
-          const s = layer.stride[i];
-          return layer.padding === "same" ? Math.ceil(n / s) : Math.max(1, Math.floor((n - layer.kernel[i]) / s) + 1);
-        });
-        const perPosition = BigInt(layer.kernel.reduce((a, b) => a * b, 1) * dim) * BigInt(layer.channels) + BigInt(layer.channels);
-        total += model.weightSharing ? perPosition : perPosition * positions();
-        dim = layer.channels;
-        break;
-      }
-      case "pool":
-        shape = layer.global ? shape.map(() => 1) : shape.map((n, i) => Math.max(1, Math.floor(n / layer.window[i])));
-        break;
-      case "dense":
-        total += BigInt(dim) * BigInt(layer.units) + BigInt(layer.units);
-        dim = layer.units;
-        break;
-      case "recurrent":
-        for (let l = 0; l < layer.depth; l++) {
-          const h = BigInt(layer.hidden);
-          total += h * h + h * BigInt(l === 0 ? dim : layer.hidden) + h;
-        }
-        shape = [1];
-        dim = layer.hidden;
-        break;
-    }
+    const d = width(layer.inputs[0]);
+    const w = outWidth(layer, d, layer.inputs.map(width), grid(layer.inputs[0]));
+    widths.push(w);
+    total += countOf(layer, d, w, model, shapes, grid(layer.inputs[0]));
   }
   return total;
+}
+function outWidth(layer, d, ins, inGrid) {
+  const own = layerWidth(layer);
+  if (own !== void 0) return own;
+  switch (layer.kind) {
+    case "conv":
+      return layer.groups === "depthwise" ? d * layer.depthMultiplier : d;
+    case "flatten":
+      return d * positionCount(inGrid);
+    case "merge":
+      return layer.mode === "sum" ? d : ins.reduce((a, b) => a + b, 0);
+    default:
+      return d;
+  }
+}
+function countOf(layer, d, w, model, shapes, inGrid) {
+  const outPositions = BigInt(positionCount(shapes.layers[layer.index].shape));
+  const copies = (perPosition, positions) => model.weightSharing ? perPosition : perPosition * positions;
+  const bias = (b) => b.bias === false ? 0n : BigInt(w);
+  switch (layer.kind) {
+    case "conv": {
+      const groups = layer.groups === "depthwise" ? d : layer.groups;
+      const taps = BigInt(layer.kernel.reduce((a, b) => a * b, 1));
+      return copies(taps * BigInt(Math.ceil(d / groups)) * BigInt(w) + bias(layer), outPositions);
+    }
+    case "conv-transpose": {
+      const taps = BigInt(layer.kernel.reduce((a, b) => a * b, 1));
+      return copies(taps * BigInt(Math.ceil(d / layer.groups)) * BigInt(w) + bias(layer), outPositions);
+    }
+    case "dense": {
+      const reading = shapes.denseReading[layer.index];
+      const inWidth = reading === "input" ? d * positionCount(inGrid) : d;
+      const one = BigInt(inWidth) * BigInt(w) + bias(layer);
+      return reading === "per-position" ? copies(one, outPositions) : one;
+    }
+    case "recurrent": {
+      let total = 0n;
+      const h = BigInt(layer.hidden);
+      for (let l = 0; l < layer.depth; l++) total += h * h + h * BigInt(l === 0 ? d : layer.hidden) + h;
+      return total;
+    }
+    case "pointwise":
+      if (AFFINE_NORMS.has(layer.op)) return 2n * BigInt(d);
+      if (layer.op === "rms_norm" || layer.op === "prelu") return BigInt(d);
+      return 0n;
+    default:
+      return 0n;
+  }
 }
 
 // src/policy/fix-search.ts
@@ -41169,7 +43383,7 @@ function restores(b, minRank, unproven) {
   if (b.upper.rank < minRank) return false;
   return unproven === "warn" || b.lower !== null && b.lower.rank >= minRank;
 }
-var MAX_WIDTH = 1 << 16;
+var MAX_WIDTH2 = 1 << 16;
 var MAX_DEPTH = 64;
 function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers) {
   const judge = (m) => {
@@ -41220,11 +43434,15 @@ function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers) 
 }
 function candidates(model, cutLayers) {
   const near = /* @__PURE__ */ new Set();
-  model.layers.forEach((l, i) => {
-    if (cutLayers.has(layerLabel(l))) {
-      for (const j of [i - 1, i, i + 1]) if (j >= 0 && j < model.layers.length) near.add(j);
-    }
-  });
+  const consumers = model.layers.map(() => []);
+  for (const l of model.layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
+  for (const l of model.layers) {
+    if (!cutLayers.has(layerLabel(l))) continue;
+    near.add(l.index);
+    for (const i of l.inputs) if (i !== INPUT) near.add(i);
+    for (const c of consumers[l.index]) near.add(c);
+  }
+  if (cutLayers.has("input") && model.input.representation === void 0) for (const l of firstMaps(model)) near.add(l.index);
   const seen = /* @__PURE__ */ new Set();
   const out = [];
   for (const i of [...near].sort((a, b) => a - b)) {
@@ -41238,27 +43456,21 @@ function candidates(model, cutLayers) {
         field: field2,
         span: layer.fieldSpans[field2] ?? layer.span,
         from: fieldValue(layer, field2),
-        max: field2 === "depth" ? MAX_DEPTH : MAX_WIDTH,
+        max: field2 === "depth" ? MAX_DEPTH : MAX_WIDTH2,
         apply: (m, v) => ({ ...m, layers: m.layers.map((l) => l.path === layer.path ? withField(l, field2, v) : l) })
       });
     }
-  }
-  if (cutLayers.has("input")) {
-    out.push({
-      layer: "input",
-      field: "features",
-      span: model.input.fieldSpans["features"] ?? model.input.span,
-      from: model.input.features,
-      max: MAX_WIDTH,
-      apply: (m, v) => ({ ...m, input: { ...m.input, features: v } })
-    });
   }
   return out;
 }
 function widthFields(layer) {
   switch (layer.kind) {
     case "conv":
+      return layer.channels === void 0 ? [] : ["channels"];
+    case "conv-transpose":
       return ["channels"];
+    case "dense":
+      return ["units"];
     case "recurrent":
       return ["hidden", "depth"];
     default:
@@ -41645,7 +43857,7 @@ function untrackedFiles(repo) {
   return out.split("\0").filter((p) => p !== "" && !p.endsWith("/"));
 }
 function addUntracked(tracked, untracked) {
-  const files = new Map(tracked.map((f) => [f.path, f.status]));
+  const files = new Map(tracked.map((f2) => [f2.path, f2.status]));
   for (const path6 of untracked) {
     files.set(path6, files.get(path6) === "D" ? "M" : files.get(path6) ?? "A");
   }
@@ -41689,23 +43901,23 @@ function runCheck(req) {
   const candidates2 = /* @__PURE__ */ new Set();
   if (req.configs.length > 0) for (const c of req.configs) candidates2.add(toRootRelative(root, resolve7(req.cwd, c)));
   else {
-    for (const f of req.staged ? stagedFiles(repo).map((s) => s.path) : listYamlFiles(root)) candidates2.add(f);
+    for (const f2 of req.staged ? stagedFiles(repo).map((s) => s.path) : listYamlFiles(root)) candidates2.add(f2);
     if (base && !req.staged) {
-      for (const f of listFilesAtRevision(repo, base, "")) if (/\.ya?ml$/i.test(f)) candidates2.add(f);
+      for (const f2 of listFilesAtRevision(repo, base, "")) if (/\.ya?ml$/i.test(f2)) candidates2.add(f2);
     }
   }
   let selected = [...candidates2].sort();
   if ((req.changed || req.staged) && base && repo) {
     const changed = new Set((req.staged ? stagedFiles(repo) : changedFiles(repo, base, { against: "worktree" })).map((c) => c.path));
-    const policyChanged = (p) => p.chain.some((f) => changed.has(toRootRelative(root, resolve7(req.cwd, f))));
-    selected = selected.filter((f) => changed.has(f) || policies.some((p) => policyChanged(p) && policyApplies(p, f)));
+    const policyChanged = (p) => p.chain.some((f2) => changed.has(toRootRelative(root, resolve7(req.cwd, f2))));
+    selected = selected.filter((f2) => changed.has(f2) || policies.some((p) => policyChanged(p) && policyApplies(p, f2)));
   }
   const checked = [];
   for (const path6 of selected) {
     for (const policy of policies) {
       const explicit = req.configs.length > 0 && singleFile;
       if (!explicit && !policyApplies(policy, path6)) continue;
-      if (path6 === policyRel || policy.chain.some((f) => toRootRelative(root, resolve7(req.cwd, f)) === path6)) continue;
+      if (path6 === policyRel || policy.chain.some((f2) => toRootRelative(root, resolve7(req.cwd, f2)) === path6)) continue;
       const one = checkOne(path6, display(path6), policy, sources, errors);
       if (one) checked.push(one);
     }
@@ -41736,7 +43948,7 @@ function isDirectoryAnywhere(root, policyRel, s) {
     if (statSync4(resolve7(root, policyRel)).isDirectory()) return true;
   } catch {
   }
-  return s.repo && s.base ? listFilesAtRevision(s.repo, s.base, policyRel).some((f) => f !== policyRel) : false;
+  return s.repo && s.base ? listFilesAtRevision(s.repo, s.base, policyRel).some((f2) => f2 !== policyRel) : false;
 }
 function loadPolicies(req, root, policyRel, s, display, errors, notices) {
   const policyPath = resolve7(req.cwd, req.policy);
@@ -41763,17 +43975,17 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
   const isDir = isDirectoryAnywhere(root, policyRel, s);
   const files = /* @__PURE__ */ new Set();
   if (isDir) {
-    for (const f of listFilesAtRevision(repo, base, policyRel)) if (isDirectChild(policyRel, f)) files.add(f);
+    for (const f2 of listFilesAtRevision(repo, base, policyRel)) if (isDirectChild(policyRel, f2)) files.add(f2);
     try {
-      for (const f of listYamlFiles(resolve7(root, policyRel))) if (!f.includes("/")) files.add(`${policyRel}/${f}`);
+      for (const f2 of listYamlFiles(resolve7(root, policyRel))) if (!f2.includes("/")) files.add(`${policyRel}/${f2}`);
     } catch {
     }
   } else files.add(policyRel);
   const policies = [];
   const ids = /* @__PURE__ */ new Map();
-  for (const f of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
-    const headText = s.head(f) ?? readWorkTree(root, f);
-    const baseText = readAtRevision(repo, base, f);
+  for (const f2 of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
+    const headText = s.head(f2) ?? readWorkTree(root, f2);
+    const baseText = readAtRevision(repo, base, f2);
     const useBase = fromBase && baseText !== null;
     const text = useBase ? baseText : headText;
     if (text === null) {
@@ -41782,8 +43994,8 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
     }
     if (useBase && headText !== null && headText !== baseText) {
       notices.push({
-        file: display(f),
-        path: f,
+        file: display(f2),
+        path: f2,
         line: firstDifferentLine(baseText, headText),
         message: `the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)`
       });
@@ -41794,17 +44006,17 @@ function loadPolicies(req, root, policyRel, s, display, errors, notices) {
       if (t === null) throw Object.assign(new Error(`${rel} does not exist`), { code: "ENOENT" });
       return t;
     };
-    const loaded = loadPolicyText(text, loaderPath(f), { repoRoot: root }, readAt);
+    const loaded = loadPolicyText(text, loaderPath(f2), { repoRoot: root }, readAt);
     if (!loaded.ok) {
       errors.push(...loaded.diagnostics);
       continue;
     }
     const earlier = ids.get(loaded.policy.id);
     if (earlier !== void 0) {
-      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f), loaded.policy.span));
+      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f2), loaded.policy.span));
       continue;
     }
-    ids.set(loaded.policy.id, display(f));
+    ids.set(loaded.policy.id, display(f2));
     policies.push(loaded.policy);
   }
   return policies;
@@ -41880,7 +44092,7 @@ function maxDrop(r, p) {
 
 // src/report/bounds-json.ts
 function boundJson(b) {
-  return { rank: b.rank.toString(), log2: roundLog(b.log2) };
+  return { rank: b.huge ? null : b.rank.toString(), log2: roundLog(b.log2) };
 }
 function cutJson(cut2) {
   return cut2.map((c) => ({ layer: c.layer, line: c.line, dim: c.dim, count: c.count }));
@@ -41916,15 +44128,15 @@ function checkJson(outcome) {
             status: q.bounds.status,
             verdict: q.verdict,
             cut: cutJson(q.bounds.upper.cut),
-            fix: (q.failing ? q.fixes : d?.dropFails ? d.fixes : []).map((f) => ({
-              layer: f.layer,
-              field: f.field,
-              line: f.line,
-              column: f.column,
-              from: f.from,
-              to: f.to,
-              added_parameters: f.addedParameters.toString(),
-              verdict: f.verdict
+            fix: (q.failing ? q.fixes : d?.dropFails ? d.fixes : []).map((f2) => ({
+              layer: f2.layer,
+              field: f2.field,
+              line: f2.line,
+              column: f2.column,
+              from: f2.from,
+              to: f2.to,
+              added_parameters: f2.addedParameters.toString(),
+              verdict: f2.verdict
             })),
             ...d ? {
               base: d.base ? { upper: boundJson(d.base.upper), lower: d.base.lower ? boundJson(d.base.lower) : null } : null,
@@ -42019,39 +44231,39 @@ function sarifLog(findings, tool) {
 function sarifText(findings, tool) {
   return JSON.stringify(sarifLog(findings, tool), null, 2) + "\n";
 }
-function result(f) {
-  const index = RULE_INDEX.get(f.rule);
-  if (index === void 0) throw new Error(`no SARIF rule for finding rule '${String(f.rule)}'`);
+function result(f2) {
+  const index = RULE_INDEX.get(f2.rule);
+  if (index === void 0) throw new Error(`no SARIF rule for finding rule '${String(f2.rule)}'`);
   const out = {
-    ruleId: ruleId(f.rule),
+    ruleId: ruleId(f2.rule),
     ruleIndex: index,
-    level: sarifLevel(f.level),
-    message: { text: messageText(f) }
+    level: sarifLevel(f2.level),
+    message: { text: messageText(f2) }
   };
-  const location = physicalLocation(f);
+  const location = physicalLocation(f2);
   if (location) out["locations"] = [{ physicalLocation: location }];
-  out["partialFingerprints"] = { [FINGERPRINT_KEY]: f.fingerprint };
+  out["partialFingerprints"] = { [FINGERPRINT_KEY]: f2.fingerprint };
   return out;
 }
 function sarifLevel(level) {
   return level === "notice" ? "note" : level;
 }
-function messageText(f) {
-  const title = f.title.trim();
-  const body = f.message.trim();
+function messageText(f2) {
+  const title = f2.title.trim();
+  const body = f2.message.trim();
   if (body === "" || body === title) return title;
   if (title === "") return body;
   return `${title}
 
 ${body}`;
 }
-function physicalLocation(f) {
-  const uri = relativeUri(f.file);
+function physicalLocation(f2) {
+  const uri = relativeUri(f2.file);
   if (uri === "") return null;
   const region = {};
-  if (Number.isInteger(f.line) && f.line >= 1) {
-    region["startLine"] = f.line;
-    if (Number.isInteger(f.column) && f.column >= 1) region["startColumn"] = f.column;
+  if (Number.isInteger(f2.line) && f2.line >= 1) {
+    region["startLine"] = f2.line;
+    if (Number.isInteger(f2.column) && f2.column >= 1) region["startColumn"] = f2.column;
   }
   const location = { artifactLocation: { uri, uriBaseId: SRCROOT } };
   if (Object.keys(region).length > 0) location["region"] = region;
@@ -42222,12 +44434,12 @@ function writeJobSummary(sink, outcome, verdict, overflow) {
   for (const c of outcome.checked) writeConfig(sink, c);
   if (outcome.notices.length > 0) {
     sink.addHeading("Policy notices", 3);
-    sink.addRaw(list(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)), true);
+    sink.addRaw(list2(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)), true);
   }
   const errors = outcome.errors.filter((e) => e.severity === "error");
   if (errors.length > 0) {
     sink.addHeading("Input errors", 3);
-    sink.addRaw(list(errors.map(formatDiagnosticLine)), true);
+    sink.addRaw(list2(errors.map(formatDiagnosticLine)), true);
   }
   if (overflow.length > 0) {
     sink.addHeading("Not shown as annotations", 3);
@@ -42235,7 +44447,7 @@ function writeJobSummary(sink, outcome, verdict, overflow) {
       const rest = overflow.filter((o) => o.kind === kind);
       if (rest.length === 0) continue;
       sink.addRaw(`<p>${rest.length} more ${KIND_WORDS[kind][rest.length === 1 ? 0 : 1]}:</p>`, true);
-      sink.addRaw(list(rest.map(({ finding: f }) => `${f.file}:${f.line}:${f.column}: ${f.title}`)), true);
+      sink.addRaw(list2(rest.map(({ finding: f2 }) => `${f2.file}:${f2.line}:${f2.column}: ${f2.title}`)), true);
     }
   }
 }
@@ -42256,7 +44468,7 @@ function writeConfig(sink, c) {
     return;
   }
   if (c.comparison === "new") sink.addRaw("<p>New config: no base version to compare with.</p>", true);
-  const rows = r.requirements.map((q, i) => row(q, c.deltas?.[i]));
+  const rows = r.requirements.map((q, i) => row2(q, c.deltas?.[i]));
   sink.addTable([TABLE_HEAD, ...rows]);
   r.requirements.forEach((q, i) => {
     const d = c.deltas?.[i];
@@ -42265,7 +44477,7 @@ function writeConfig(sink, c) {
     sink.addDetails(escapeHtml(`${q.requirement.partition}: ${label2} — why, and what restores it`), `<pre>${escapeHtml(explainRequirement(q, d).join("\n"))}</pre>`);
   });
 }
-function row(q, d) {
+function row2(q, d) {
   const head = capacity(q.bounds.upper, q.bounds.lower);
   const base = d?.base ? capacity(d.base.upper, d.base.lower) : NONE;
   const change2 = d?.changeBits === null || d?.changeBits === void 0 ? NONE : signed(d.changeBits);
@@ -42280,7 +44492,7 @@ function signed(x) {
   const s = bits(x);
   return x > 0 ? `+${s}` : s === "-0.00" ? "0.00" : s;
 }
-function list(items) {
+function list2(items) {
   return `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`;
 }
 function escapeHtml(s) {

@@ -1,32 +1,209 @@
 /**
- * The words a layered config may use: the layer kinds, each kind's canonical fields, and the
- * alias spellings other frameworks use for them. The schema checks structure; this table is what
- * alias normalisation and "did you mean" hints read, so the two stay in one place.
+ * The fields each layer kind reads, with the spellings teams use for them, in one table: the
+ * field resolver, "did you mean" hints, and the README's layer table (checked by a test) all read
+ * it. Field names are compared like kind names (case, `_` and `-` ignored), so `kernelSize` is
+ * `kernel_size`. Fields marked `ignored` are accepted because real configs carry them, and have
+ * no effect on the bounds (the surrogate has no biases, initialisers or regularisers).
  */
+import type { ReaderKind } from './kind-names.js';
 
-export const LAYER_KINDS = ['conv', 'pool', 'dense', 'recurrent', 'repeat'] as const;
-export type LayerKindName = (typeof LAYER_KINDS)[number];
-
-export function isLayerKind(word: string): word is LayerKindName {
-  return (LAYER_KINDS as readonly string[]).includes(word);
+export interface FieldSpec {
+  /** Canonical name: the key of the layer's `fieldSpans`, and how reports name the field. */
+  readonly name: string;
+  readonly aliases?: readonly string[];
+  readonly doc: string;
+  /** Accepted and not used. */
+  readonly ignored?: boolean;
+  /** Refused with this explanation (a spelling that means different things in different frameworks). */
+  readonly refused?: string;
 }
 
-/** Canonical fields of each kind's body, in the order reports list them. */
-export const LAYER_FIELDS: ReadonlyMap<LayerKindName, readonly string[]> = new Map<LayerKindName, readonly string[]>([
-  ['conv', ['channels', 'kernel', 'stride', 'padding', 'name']],
-  ['pool', ['window', 'global', 'name']],
-  ['dense', ['units', 'name']],
-  ['recurrent', ['hidden', 'depth', 'name']],
-  ['repeat', ['times', 'layers', 'name']],
+const f = (name: string, doc: string, aliases: string[] = []): FieldSpec => ({ name, doc, aliases });
+const ignored = (name: string, doc: string, aliases: string[] = []): FieldSpec => ({ name, doc, aliases, ignored: true });
+
+const NAME = f('name', 'a label for reports, and the name that `add`/`concat` `from:` refers to');
+
+/** Pointwise layers written as fields of a weighted layer or a block; they follow it in this order. */
+export const SHORTCUT_FIELDS: readonly FieldSpec[] = [
+  f('norm', 'a normalisation after the layer: batch, layer, group, instance, …', ['normalization', 'normalisation']),
+  f('batch_norm', 'true: a batch normalisation after the layer', ['bn', 'use_bn', 'use_batch_norm', 'batch_normalization']),
+  f('layer_norm', 'true: a layer normalisation after the layer', ['use_layer_norm']),
+  f('activation', 'an activation after the normalisation: relu, gelu, …; `linear`/`none`: no activation', ['act']),
+  f('dropout', 'a dropout (of this rate) after the activation', ['dropout_rate']),
+];
+
+/** Fields of weighted layers that only training reads. */
+const TRAINING_ONLY: readonly FieldSpec[] = [
+  ignored('kernel_initializer', 'accepted, ignored', ['weight_init', 'init']),
+  ignored('bias_initializer', 'accepted, ignored'),
+  ignored('kernel_regularizer', 'accepted, ignored'),
+  ignored('bias_regularizer', 'accepted, ignored'),
+  ignored('activity_regularizer', 'accepted, ignored'),
+  ignored('kernel_constraint', 'accepted, ignored'),
+  ignored('bias_constraint', 'accepted, ignored'),
+  ignored('trainable', 'accepted, ignored'),
+  ignored('dtype', 'accepted, ignored'),
+  ignored('data_format', 'accepted, ignored (grids are [length] or [height, width]; channels are the width)'),
+];
+
+/** Read by the parameter count only: the surrogate has no biases. */
+const BIAS = f('bias', 'false: the real layer has no bias (only the parameter count reads it; default true)', ['use_bias']);
+
+const IN_CHANNELS = ignored('in_channels', 'accepted, ignored: the input width follows from the previous layer', ['in_features', 'input_dim']);
+
+const WINDOW_CONV: readonly FieldSpec[] = [
+  f('kernel', 'window size per axis (default 1)', ['kernel_size']),
+  f('stride', 'per axis (default 1)', ['strides']),
+  f('dilation', 'spacing of the kernel taps per axis (default 1)', ['dilation_rate']),
+];
+
+const POINTWISE_PARAMS: Record<string, readonly string[]> = {
+  activation: ['inplace', 'negative_slope', 'alpha', 'approximate', 'beta', 'threshold', 'dim', 'axis', 'num_parameters', 'max_value', 'min_val', 'max_val', 'lower', 'upper'],
+  normalisation: ['num_features', 'eps', 'epsilon', 'momentum', 'affine', 'track_running_stats', 'num_groups', 'groups', 'num_channels', 'normalized_shape', 'elementwise_affine', 'axis', 'center', 'scale', 'size', 'alpha', 'beta', 'k'],
+  dropout: ['inplace', 'noise_shape', 'seed'],
+  scaling: ['scale', 'offset', 'dim', 'value'],
+};
+
+/** Parameters of a pointwise function that the surrogate does not read (`momentum`, `negative_slope`). */
+export function pointwiseFields(family: string): FieldSpec[] {
+  const params = (POINTWISE_PARAMS[family] ?? []).map((p) => ignored(p, 'accepted, ignored'));
+  const rate = family === 'dropout' ? [f('rate', 'the dropout rate (accepted; dropout is the identity at inference)', ['p'])] : [];
+  return [...rate, ...params, NAME];
+}
+
+export const LAYER_FIELDS: ReadonlyMap<ReaderKind, readonly FieldSpec[]> = new Map<ReaderKind, readonly FieldSpec[]>([
+  [
+    'conv',
+    [
+      f('channels', 'output channels (required unless depthwise)', ['out_channels', 'filters']),
+      ...WINDOW_CONV,
+      f('padding', '`same` (default), `valid`, `causal` (1D), or zeros per side: an integer or [h, w]'),
+      f('groups', 'grouped conv: an integer dividing both widths, or `depthwise` (default 1)'),
+      f('depthwise', 'true: one group per input channel', []),
+      f('depth_multiplier', 'output channels per input channel of a depthwise conv (default 1)'),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  [
+    'conv_transpose',
+    [
+      f('channels', 'output channels', ['out_channels', 'filters']),
+      ...WINDOW_CONV,
+      f('padding', 'zeros removed from both ends per axis (default 0), or `same` (output n·stride) or `valid`'),
+      f('output_padding', 'positions added at the end per axis (default 0)'),
+      f('groups', 'grouped transposed conv (default 1)'),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  [
+    'separable_conv',
+    [
+      f('channels', 'output channels of the 1×1 conv that follows the depthwise conv', ['out_channels', 'filters']),
+      ...WINDOW_CONV,
+      f('padding', 'as for conv, of the depthwise conv'),
+      f('depth_multiplier', 'as for conv (default 1)'),
+      IN_CHANNELS,
+      BIAS,
+      ignored('depthwise_initializer', 'accepted, ignored'),
+      ignored('pointwise_initializer', 'accepted, ignored'),
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  [
+    'pool',
+    [
+      f('window', 'window per axis (required unless global)', ['pool_size', 'kernel_size']),
+      f('stride', 'per axis (default: the window)', ['strides']),
+      f('padding', '`valid` (default), `same`, or zeros per side'),
+      f('mode', '`max` (default), `average`/`avg`/`mean`, `sum`, `product`, `lp`'),
+      f('global', 'true: one position pooled from all that are left'),
+      f('output_size', 'adaptive pooling: only 1 (a global pool) is read'),
+      { name: 'ceil_mode', doc: 'only false is read', aliases: [] },
+      ignored('count_include_pad', 'accepted, ignored'),
+      ignored('keepdims', 'accepted, ignored'),
+      ignored('data_format', 'accepted, ignored'),
+      NAME,
+    ],
+  ],
+  ['dense', [f('units', 'output units', ['out_features', 'features', 'output_dim']), IN_CHANNELS, BIAS, ...TRAINING_ONLY, ...SHORTCUT_FIELDS, NAME]],
+  ['flatten', [ignored('start_dim', 'accepted, ignored'), ignored('end_dim', 'accepted, ignored'), ignored('data_format', 'accepted, ignored'), NAME]],
+  [
+    'upsample',
+    [
+      f('factor', 'integer factor per axis (default 2)', ['scale_factor']),
+      f('mode', '`nearest` (default) or `linear` (`bilinear`)', ['interpolation']),
+      { name: 'align_corners', doc: 'only false is read', aliases: [] },
+      {
+        name: 'size',
+        doc: 'refused',
+        aliases: [],
+        refused: "'size' is a factor in some frameworks and an output size in others; write 'factor' (the integer factor per axis)",
+      },
+      ignored('data_format', 'accepted, ignored'),
+      NAME,
+    ],
+  ],
+  [
+    'recurrent',
+    [
+      f('hidden', 'hidden state size', ['hidden_size', 'units']),
+      f('depth', 'stacked layers (default 1)', ['num_layers']),
+      { name: 'bidirectional', doc: 'only false is read', aliases: [] },
+      { name: 'return_sequences', doc: 'only false is read (the layer ends on its last state)', aliases: [] },
+      ignored('input_size', 'accepted, ignored'),
+      ignored('nonlinearity', 'accepted, ignored (the surrogate integrates multiplicatively)', ['activation']),
+      ignored('dropout', 'accepted, ignored', ['recurrent_dropout']),
+      ignored('batch_first', 'accepted, ignored'),
+      ignored('bias', 'accepted, ignored', ['use_bias']),
+      ...TRAINING_ONLY,
+      NAME,
+    ],
+  ],
+  ['repeat', [f('times', 'how many copies (required)', ['count', 'repeats']), f('layers', 'the layers repeated, in order'), NAME]],
+  [
+    'residual',
+    [
+      f('layers', 'the main path', ['body', 'main', 'path']),
+      f('shortcut', 'the shortcut path (absent or empty: the identity)', ['projection', 'downsample', 'skip']),
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  [
+    'branches',
+    [
+      f('paths', 'a list of paths, each a list of layers (empty: the identity); at least two', ['branches']),
+      f('merge', '`concat` (default) or `sum`', ['mode']),
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  ['add', [f('from', 'the name (or list of names) of earlier layers added to the current grid'), ...SHORTCUT_FIELDS, NAME]],
+  [
+    'concat',
+    [
+      f('from', 'the name (or list of names) of earlier layers joined to the current grid'),
+      ignored('axis', 'accepted, ignored (always the channels)', ['dim']),
+      ...SHORTCUT_FIELDS,
+      NAME,
+    ],
+  ],
+  ['sequence', [f('layers', 'the layers, in order'), NAME]],
+  ['activation', [f('fn', 'the function: relu, gelu, …', ['function', 'activation']), ...pointwiseFields('activation').filter((s) => s.name !== 'name'), NAME]],
 ]);
 
-/** Alias → canonical field, per kind. */
-export const FIELD_ALIASES: ReadonlyMap<LayerKindName, ReadonlyMap<string, string>> = new Map<LayerKindName, ReadonlyMap<string, string>>([
-  ['conv', new Map([['out_channels', 'channels'], ['filters', 'channels'], ['kernel_size', 'kernel']])],
-  ['pool', new Map([['pool_size', 'window']])],
-  ['dense', new Map()],
-  ['recurrent', new Map([['hidden_size', 'hidden'], ['num_layers', 'depth']])],
-  ['repeat', new Map()],
-]);
-
-export const KIND_LIST_TEXT = LAYER_KINDS.join(', ');
+/** Fields of a kind (the pointwise ops depend on their family). */
+export function fieldsOf(kind: ReaderKind, family?: string): readonly FieldSpec[] {
+  if (kind === 'pointwise') return pointwiseFields(family ?? 'activation');
+  return LAYER_FIELDS.get(kind) ?? [NAME];
+}

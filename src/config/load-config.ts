@@ -1,9 +1,10 @@
 /**
  * The config loader: YAML text → normalised `Model`, or the full list of problems as diagnostics.
  * Stages, each of which can stop the load with diagnostics: size cap, YAML syntax, the model path,
- * reading the model subtree (alias and depth caps), alias-field normalisation, the structural
- * schema, and the semantic checks and repeat expansion of the builders. Problems in the user's
- * file never throw; a missing schema file (a broken installation) does.
+ * reading the model subtree (alias and depth caps), input-alias normalisation, the structural
+ * schema of the model around its layers, the layer reader and expansion of the builders, and
+ * shape inference of a layered model. Problems in the user's file never throw; a missing schema
+ * file (a broken installation) does.
  */
 import { readFileSync, statSync } from 'node:fs';
 import { LineCounter, parseDocument } from 'yaml';
@@ -18,7 +19,8 @@ import { MAX_DOCUMENT_BYTES } from './limits.js';
 import { convertNode, entryOf, toPlain } from './located-value.js';
 import { compiledModelSchema, validateAgainstSchema } from './model-schema.js';
 import { resolveModelNode } from './model-pointer.js';
-import { checkLayerEntryCount } from './repeat-expansion.js';
+import { checkLayerEntryCount } from './layer-entry-count.js';
+import { inferShapes } from './model-shapes.js';
 import { reportSchemaErrors } from './schema-errors.js';
 import { reportYamlErrors } from './yaml-errors.js';
 
@@ -80,9 +82,13 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
   let model: Model | undefined;
   if (root.kind === 'map') {
     const explicit = entryOf(root, 'network') !== undefined;
-    const layered = ['input', 'layers', 'weight_sharing'].some((k) => entryOf(root, k) !== undefined);
+    const layered = ['input', 'output', 'layers', 'weight_sharing'].some((k) => entryOf(root, k) !== undefined);
     if (explicit && !layered) model = buildExplicitModel(root, file, sink);
     else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
+  }
+  if (model?.kind === 'layered' && sink.count === 0) {
+    const shapes = inferShapes(model);
+    if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
   }
   if (sink.count > 0 || !model) {
     if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);

@@ -38,14 +38,6 @@ export function positiveIntegerListOf(node: Located | undefined): number[] | und
   return out;
 }
 
-/** The optional `name` of a layer: absent is fine, malformed is `false`. */
-export function optionalName(body: LocatedMap): string | undefined | false {
-  const node = fieldOf(body, 'name');
-  if (!node) return undefined;
-  const s = stringOf(node);
-  return s !== undefined && s.length > 0 ? s : false;
-}
-
 /** The value spans of the given canonical fields that are present. */
 export function fieldSpansOf(body: LocatedMap, fields: readonly string[]): Record<string, Span> {
   const out: Record<string, Span> = {};

@@ -2,14 +2,16 @@
  * What a pull request changed in an architecture: the normalised base and head models compared
  * field by field, each change carrying the span of the head's YAML, so that a failing check can
  * point at the line that shrank the capacity. Layers are aligned by a longest common subsequence
- * of their kinds, so inserting or deleting a layer does not make every later layer look changed.
+ * of their kinds over the topological layer list, so inserting or deleting a layer does not make
+ * every later layer look changed. Fields are named as the YAML's canonical fields
+ * (`depth_multiplier`, not the model's `depthMultiplier`).
  */
 import type { Span } from '../diagnostic.js';
-import type { Layer, LayeredModel, Model } from './model.js';
-import { layerLabel } from './model.js';
+import type { Layer, LayeredModel, Model, Padding } from './model.js';
+import { INPUT, layerLabel } from './model.js';
 
 export interface FieldChange {
-  /** Layer label in the head (`input` for input fields, `model` for model-wide ones). */
+  /** Layer label in the head (`input`/`output` for their fields, `model` for model-wide ones). */
   readonly layer: number | string;
   /** Canonical field name, or `layer` for an added or removed layer. */
   readonly field: string;
@@ -19,11 +21,20 @@ export interface FieldChange {
   readonly span: Span;
 }
 
-const FIELDS: Record<Layer['kind'], readonly string[]> = {
-  conv: ['channels', 'kernel', 'stride', 'padding'],
-  pool: ['window', 'global'],
-  dense: ['units'],
-  recurrent: ['hidden', 'depth'],
+/** Compared fields per kind: the model's property, and the YAML field reports name (and spans key). */
+type Compared = readonly (readonly [property: string, field: string])[];
+const same = (...names: string[]): [string, string][] => names.map((n) => [n, n]);
+
+const FIELDS: Record<Layer['kind'], Compared> = {
+  conv: [...same('channels', 'kernel', 'stride', 'dilation', 'padding', 'groups'), ['depthMultiplier', 'depth_multiplier']],
+  'conv-transpose': [...same('channels', 'kernel', 'stride', 'dilation', 'padding'), ['outputPadding', 'output_padding'], ['groups', 'groups']],
+  pool: same('mode', 'window', 'stride', 'padding', 'global'),
+  dense: same('units'),
+  flatten: [],
+  upsample: same('factor', 'mode'),
+  recurrent: same('hidden', 'depth'),
+  pointwise: same('op'),
+  merge: same('mode'),
 };
 
 export function diffModels(base: Model, head: Model): FieldChange[] {
@@ -38,13 +49,18 @@ export function diffModels(base: Model, head: Model): FieldChange[] {
     const b = show(to);
     if (a !== b) changes.push({ layer, field: name, from: a, to: b, span });
   };
-  field('input', 'shape', base.input.shape, head.input.shape, head.input.fieldSpans['shape'] ?? head.input.span);
-  field('input', 'features', base.input.features, head.input.features, head.input.fieldSpans['features'] ?? head.input.span);
+  for (const name of ['shape', 'channels', 'representation'] as const) {
+    field('input', name, base.input[name], head.input[name], head.input.fieldSpans[name] ?? head.input.span);
+  }
   field('model', 'weight_sharing', base.weightSharing, head.weightSharing, head.span);
+  field('output', 'position', base.output.position, head.output.position, head.output.span ?? head.span);
   for (const [b, h] of align(base, head)) {
     if (b && h) {
-      for (const name of FIELDS[h.kind]) {
-        field(layerLabel(h), name, (b as unknown as Record<string, unknown>)[name], (h as unknown as Record<string, unknown>)[name], h.fieldSpans[name] ?? h.span);
+      for (const [property, name] of FIELDS[h.kind]) {
+        field(layerLabel(h), name, (b as unknown as Record<string, unknown>)[property], (h as unknown as Record<string, unknown>)[property], h.fieldSpans[name] ?? h.span);
+      }
+      if (b.kind === 'merge' && h.kind === 'merge' && h.origin === 'skip') {
+        field(layerLabel(h), 'from', skipSources(base, b), skipSources(head, h), h.fieldSpans['from'] ?? h.span);
       }
     } else if (h) {
       changes.push({ layer: layerLabel(h), field: 'layer', from: '(none)', to: h.kind, span: h.span });
@@ -57,7 +73,18 @@ export function diffModels(base: Model, head: Model): FieldChange[] {
 }
 
 function show(v: unknown): string {
-  return Array.isArray(v) ? `[${v.join(', ')}]` : String(v);
+  if (v === undefined) return '(none)';
+  if (Array.isArray(v)) return `[${v.join(', ')}]`;
+  if (v && typeof v === 'object' && 'mode' in v) {
+    const p = v as Padding;
+    return p.mode === 'explicit' ? `[${p.amount.join(', ')}]` : p.mode;
+  }
+  return String(v);
+}
+
+/** The labels of the earlier layers a skip merges with (its inputs after the current grid). */
+function skipSources(model: LayeredModel, layer: Layer): string[] {
+  return layer.inputs.slice(1).map((i) => (i === INPUT ? 'input' : String(layerLabel(model.layers[i]!))));
 }
 
 /** Pairs of aligned layers; a missing side is a layer added to or removed from the head. */

@@ -1,58 +1,159 @@
 /**
  * The normalised architecture that every later stage reads. The config loader produces it from
- * YAML (aliases resolved, defaults filled, `repeat` blocks expanded); nothing after the loader
- * sees raw YAML. Each layer keeps the span of the YAML it came from so that bounds, verdicts and
- * fixes can point at the line a reviewer must look at.
+ * YAML (aliases resolved, defaults filled, `repeat` blocks expanded, blocks such as `residual`
+ * and `branches` turned into merge nodes); nothing after the loader sees raw YAML.
+ *
+ * A layered model is a small directed acyclic graph: `layers` is in topological order and every
+ * layer names the layers it reads (`inputs`), `INPUT` standing for the model's input grid. A plain
+ * YAML list of layers becomes a chain (each layer reads the one before it), so the common case
+ * reads exactly as the file does. Each layer keeps the span of the YAML it came from so that
+ * bounds, verdicts and fixes can point at the line a reviewer must look at. The exact function of
+ * every kind under each surrogate is written in DEVELOPERS.md.
  */
 import type { Span } from '../diagnostic.js';
 
 /** `[length]` for sequences and 1D signals, `[height, width]` for images. */
 export type Shape = readonly number[];
 
+/** Stands in a layer's `inputs` for the model's input grid. */
+export const INPUT = -1;
+
 export interface InputSpec {
   readonly shape: Shape;
-  /** M: representation functions per position, the dimension of each open leg. */
-  readonly features: number;
+  /**
+   * M, the number of representation functions per position (the dimension of each open leg),
+   * when the config sets it (`input.representation`). When absent, M is the width of the first
+   * layer that reads the input: see `representationOf`.
+   */
+  readonly representation?: number;
+  /** The data's raw channel count (1 for grayscale, 3 for RGB), when the config states it. Not M. */
+  readonly channels?: number;
+  /** The config gave the raw channels under `features`, which earlier versions read as M. */
+  readonly featuresAsChannels?: boolean;
   readonly span: Span;
-  /** Spans of the individual fields (`shape`, `features`) for fix suggestions. */
+  /** Spans of the individual fields (`shape`, `representation`, `channels`) for reports. */
   readonly fieldSpans: Readonly<Record<string, Span>>;
+}
+
+/** Which output a dense-prediction model is analysed at. */
+export interface OutputSpec {
+  /** One index per axis of the last layer's grid; absent: the documented default. */
+  readonly position?: readonly number[];
+  readonly span?: Span;
 }
 
 interface LayerBase {
-  /** Position in the flattened layer list (after `repeat` expansion), from 0. */
+  /** Position in `layers` (topological order), from 0. */
   readonly index: number;
-  /** Optional user-given name; reports show it instead of the index. */
+  /** Layers this one reads, by index; `INPUT` for the model input. Merges read two or more. */
+  readonly inputs: readonly number[];
+  /**
+   * User-given name, unique in the model. Copies made by `repeat` get the iteration appended
+   * (`stage[2]`, nested: `stage[2][1]`) so that every layer has one label.
+   */
   readonly name?: string;
-  /** JSON-pointer-like path of the YAML node, e.g. `/model/layers/2/repeat/layers/0`. */
+  /** JSON-pointer-like path of the YAML node, e.g. `/model/layers/2/residual/layers/0`. */
   readonly path: string;
-  /** Span of the whole layer entry. */
+  /** Span of the whole layer entry (for a field such as `activation: relu`: of that field). */
   readonly span: Span;
   /** Span of each field's value, keyed by canonical field name (`channels`, `window`, ...). */
   readonly fieldSpans: Readonly<Record<string, Span>>;
-  /** For layers produced by `repeat`: the 0-based iteration, else undefined. */
+  /** For layers produced by `repeat`: the 0-based iteration of the innermost repeat, else undefined. */
   readonly repeatIteration?: number;
 }
 
+/**
+ * How a window op pads its grid. `same`: output length ⌈n/s⌉ with the padding split as evenly as
+ * possible (left gets the smaller half); `valid`: no padding; `causal` (1D): all padding on the
+ * left, so no output reads a later position; `explicit`: `amount[axis]` zeros on both sides.
+ */
+export type Padding =
+  | { readonly mode: 'same' }
+  | { readonly mode: 'valid' }
+  | { readonly mode: 'causal' }
+  | { readonly mode: 'explicit'; readonly amount: readonly number[] };
+
 export interface ConvLayer extends LayerBase {
   readonly kind: 'conv';
-  readonly channels: number;
-  /** One entry per input dimension (a scalar in YAML is broadcast). */
+  /**
+   * Output channels. Absent only for a depthwise conv that gives none: it then has the input
+   * width times `depthMultiplier` (resolved by `inferShapes`).
+   */
+  readonly channels?: number;
+  /** One entry per grid axis (a scalar in YAML is broadcast); likewise stride and dilation. */
   readonly kernel: readonly number[];
   readonly stride: readonly number[];
-  readonly padding: 'same' | 'valid';
+  readonly dilation: readonly number[];
+  readonly padding: Padding;
+  /**
+   * Input and output channels split into this many blocks, block b of the output reading block b
+   * of the input; `depthwise`: one group per input channel.
+   */
+  readonly groups: number | 'depthwise';
+  /** Output channels per input channel of a depthwise conv (1 unless the config says otherwise). */
+  readonly depthMultiplier: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
+
+export interface ConvTransposeLayer extends LayerBase {
+  readonly kind: 'conv-transpose';
+  readonly channels: number;
+  readonly kernel: readonly number[];
+  readonly stride: readonly number[];
+  readonly dilation: readonly number[];
+  /** Zeros removed from both ends of the output, per axis (the usual `padding` of a transposed conv). */
+  readonly padding: readonly number[];
+  /** Extra positions added at the end of each axis. */
+  readonly outputPadding: readonly number[];
+  readonly groups: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
+}
+
+/** What the real network computes in a pool; every mode is a product in the arithmetic surrogate. */
+export type PoolMode = 'max' | 'average' | 'sum' | 'product' | 'other';
 
 export interface PoolLayer extends LayerBase {
   readonly kind: 'pool';
-  /** One entry per input dimension; stride equals the window. Empty when `global`. */
+  readonly mode: PoolMode;
+  /** One entry per grid axis. Empty when `global`. */
   readonly window: readonly number[];
-  /** Pools every position that is left. */
+  /** One entry per grid axis; equals the window unless the config says otherwise. Empty when `global`. */
+  readonly stride: readonly number[];
+  /** `valid` unless the config says otherwise (`causal` is not allowed for pools). */
+  readonly padding: Padding;
+  /** Pools every position that is left into one. */
   readonly global: boolean;
 }
 
 export interface DenseLayer extends LayerBase {
   readonly kind: 'dense';
   readonly units: number;
+  /**
+   * The real layer's bias, when the config turns it off (`bias: false`); absent means it has one.
+   * The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
+}
+
+/** Turns the grid into one position holding every position's vector, in row-major order. */
+export interface FlattenLayer extends LayerBase {
+  readonly kind: 'flatten';
+}
+
+export interface UpsampleLayer extends LayerBase {
+  readonly kind: 'upsample';
+  /** Integer factor per grid axis. */
+  readonly factor: readonly number[];
+  /** `nearest` copies; `linear` interpolates between the two nearest positions per axis. */
+  readonly mode: 'nearest' | 'linear';
 }
 
 export interface RecurrentLayer extends LayerBase {
@@ -61,7 +162,47 @@ export interface RecurrentLayer extends LayerBase {
   readonly depth: number;
 }
 
-export type Layer = ConvLayer | PoolLayer | DenseLayer | RecurrentLayer;
+/**
+ * Layers that act on each value or each position alone and carry no width: activation functions,
+ * normalisation, dropout, scaling. Kept in the model so that reports can say how the surrogate
+ * read them.
+ */
+export type PointwiseFamily = 'activation' | 'normalisation' | 'dropout' | 'scaling';
+
+export interface PointwiseLayer extends LayerBase {
+  readonly kind: 'pointwise';
+  readonly family: PointwiseFamily;
+  /** The function as the config names it, lower case (`relu`, `batch_norm`, `dropout`). */
+  readonly op: string;
+}
+
+/**
+ * Where two or more paths meet: `sum` adds vectors of equal width (residual blocks, summed
+ * branches, additive skips), `concat` joins the vectors of each position (widths add).
+ */
+export interface MergeLayer extends LayerBase {
+  readonly kind: 'merge';
+  readonly mode: 'sum' | 'concat';
+  /**
+   * The YAML construct that made it, for reports. Input order: a residual block reads
+   * [main path, shortcut]; branches read their paths in order; a skip reads [the current grid,
+   * the named layer].
+   */
+  readonly origin: 'residual' | 'branches' | 'skip';
+}
+
+export type Layer =
+  | ConvLayer
+  | ConvTransposeLayer
+  | PoolLayer
+  | DenseLayer
+  | FlattenLayer
+  | UpsampleLayer
+  | RecurrentLayer
+  | PointwiseLayer
+  | MergeLayer;
+
+export type LayerKind = Layer['kind'];
 
 export interface LayeredModel {
   readonly kind: 'layered';
@@ -69,7 +210,9 @@ export interface LayeredModel {
   readonly input: InputSpec;
   /** true: convolution (one weight set per layer); false: locally connected. */
   readonly weightSharing: boolean;
+  /** Topological order; the last layer produces the model's output. */
   readonly layers: readonly Layer[];
+  readonly output: OutputSpec;
   /** Span of the `model` mapping (or of the node the model path points at). */
   readonly span: Span;
 }
@@ -113,7 +256,57 @@ export function positionCount(shape: Shape): number {
   return shape.reduce((a, b) => a * b, 1);
 }
 
-/** How a layer is named in reports: its user-given name, else its flattened index. */
+/** How a layer is named in reports: its user-given name, else its index. */
 export function layerLabel(layer: Layer): string | number {
   return layer.name ?? layer.index;
+}
+
+/** The width a layer maps to, for kinds that have one (`channels`, `units`, `hidden`). */
+export function layerWidth(layer: Layer): number | undefined {
+  switch (layer.kind) {
+    case 'conv':
+    case 'conv-transpose':
+      return layer.channels;
+    case 'dense':
+      return layer.units;
+    case 'recurrent':
+      return layer.hidden;
+    default:
+      return undefined;
+  }
+}
+
+/** Kinds a value passes through unchanged in width on its way from the input to the first map. */
+const PASS_THROUGH: ReadonlySet<LayerKind> = new Set<LayerKind>(['pointwise', 'pool', 'upsample', 'flatten']);
+
+/**
+ * The layers that first map the input to a width: reached from the input through pointwise,
+ * pool, upsample and flatten layers only. Merges stop the walk (a merge reading the raw input
+ * beside a mapped path takes its width from that path).
+ */
+export function firstMaps(model: LayeredModel): Layer[] {
+  const reached = new Set<number>([INPUT]);
+  const maps: Layer[] = [];
+  for (const layer of model.layers) {
+    if (layer.kind === 'merge' || !layer.inputs.some((i) => reached.has(i))) continue;
+    if (PASS_THROUGH.has(layer.kind)) reached.add(layer.index);
+    else if (layerWidth(layer) !== undefined) maps.push(layer);
+  }
+  return maps;
+}
+
+/**
+ * M: `input.representation` when the config sets it, else the largest width among the first
+ * layers that map the input (the representation layer of the real network: a continuous value
+ * supports any number of functions, and the first layer with its non-linearity computes them).
+ * Undefined when no layer maps the input (the loader reports that).
+ */
+export function representationOf(model: LayeredModel): number | undefined {
+  if (model.input.representation !== undefined) return model.input.representation;
+  let best: number | undefined;
+  for (const layer of firstMaps(model)) {
+    const w = layerWidth(layer)!;
+    if (best === undefined || w > best) best = w;
+  }
+  return best;
 }

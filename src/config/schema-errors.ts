@@ -1,25 +1,21 @@
 /**
  * Turns the validator's errors into diagnostics a person can act on: each one is placed on the
  * YAML node its `instancePath` names, says which field is wrong and what is allowed, and the
- * follow-on errors that one mistake causes (the `if` of a conditional, a missing-kind error next
- * to an unknown kind, checks on a value of the wrong type) are left out.
+ * follow-on errors that one mistake causes (the `if` of a conditional, checks on a value of the
+ * wrong type) are left out. Layer entries are not schema-checked: the layer reader reports them.
  */
 import type { ErrorObject } from 'ajv';
 import type { Span } from '../diagnostic.js';
 import { closest } from '../text/suggest.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { describeScalar, displayPath, entryOf, locate, type Located } from './located-value.js';
-import { FIELD_ALIASES, KIND_LIST_TEXT, LAYER_FIELDS, LAYER_KINDS, isLayerKind } from './layer-vocabulary.js';
+import { INPUT_ALIASES } from './field-aliases.js';
 
 /** Schema locations with their own wording (see schema/model.schema.json). */
 const MODEL_EITHER_OR = '/allOf/1/else';
 const MODEL_NOT_BOTH = '/allOf/1/then';
-const POOL_NEEDS_WINDOW = '/definitions/pool/allOf/1/else';
-const POOL_NOT_BOTH = '/definitions/pool/allOf/1/then';
-const LAYER = '/definitions/layer';
 const LAYER_LIST = '/definitions/layerList';
-
-const EXACTLY_ONE = `a layer needs exactly one of ${KIND_LIST_TEXT}, e.g. '- conv: {channels: 64}'`;
+const INPUT = '/definitions/input';
 
 export function reportSchemaErrors(
   errors: readonly ErrorObject[],
@@ -28,14 +24,11 @@ export function reportSchemaErrors(
   sink: DiagnosticSink,
 ): void {
   const typeErrorAt = new Set(errors.filter((e) => e.keyword === 'type').map((e) => e.instancePath));
-  const unknownKindAt = new Set(
-    errors.filter((e) => e.keyword === 'additionalProperties' && where(e, locations) === LAYER).map((e) => e.instancePath),
-  );
   // A misspelt required field shows up twice: as an unknown key and as a missing field. The
   // unknown-key message names the field, so the missing-field one is dropped.
   const suggested = new Set<string>();
   for (const e of errors) {
-    if (e.keyword !== 'additionalProperties' || where(e, locations) === LAYER) continue;
+    if (e.keyword !== 'additionalProperties') continue;
     const guess = suggestionFor(e, locations);
     if (guess) suggested.add(`${e.instancePath}\u0000${guess}`);
   }
@@ -43,7 +36,6 @@ export function reportSchemaErrors(
   for (const e of errors) {
     if (e.keyword === 'if') continue;
     if (e.keyword !== 'type' && typeErrorAt.has(e.instancePath)) continue;
-    if (e.keyword === 'maxProperties' && unknownKindAt.has(e.instancePath)) continue;
     if (e.keyword === 'required') {
       if (suggested.has(`${e.instancePath}\u0000${String((e.params as Record<string, unknown>)['missingProperty'])}`)) continue;
       const key = `${e.instancePath}\u0000${where(e, locations)}`;
@@ -80,11 +72,7 @@ function reportOne(e: ErrorObject, root: Located, locations: ReadonlyMap<object,
     case 'type': {
       const isNumber = typeof e.data === 'number';
       const code = isNumber && typeIncludes(parent, 'integer') ? 'config/invalid-number' : 'config/type';
-      let hint = '';
-      if (loc === LAYER && typeof e.data === 'string' && isLayerKind(e.data)) {
-        hint = `; write '- ${e.data}: {...}' with the fields inside`;
-      }
-      sink.error(code, `${path} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}${hint}`, at);
+      sink.error(code, `${path} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}`, at);
       return;
     }
     case 'minimum':
@@ -128,35 +116,18 @@ function reportOne(e: ErrorObject, root: Located, locations: ReadonlyMap<object,
       sink.error('config/invalid-length', `${path} must have ${lengthRule(parent)}, got ${count}${lengthHint(loc)}`, at);
       return;
     }
-    case 'minProperties':
-      if (loc === LAYER) {
-        sink.error('config/layer-kind', `${path} is an empty mapping; ${EXACTLY_ONE}`, at);
-        return;
-      }
-      break;
-    case 'maxProperties':
-      if (loc === LAYER && node.kind === 'map') {
-        const kinds = node.entries.map((x) => `'${x.writtenKey}'`).join(', ');
-        sink.error('config/layer-kind', `${path} has ${node.entries.length} kinds (${kinds}); ${EXACTLY_ONE}`, at);
-        return;
-      }
-      break;
     case 'additionalProperties': {
       reportUnknownKey(e, node, loc, parent, sink);
       return;
     }
     case 'not': {
       if (loc === MODEL_NOT_BOTH && node.kind === 'map') {
-        const layered = ['input', 'layers', 'weight_sharing'].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
+        const layered = ['input', 'output', 'layers', 'weight_sharing'].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
         sink.error(
           'config/model-kind',
           `${path} has both 'network' and ${layered.join(', ')}; a model is either layered ('input' + 'layers') or an explicit tensor network ('network'), not both`,
           at,
         );
-        return;
-      }
-      if (loc === POOL_NOT_BOTH) {
-        sink.error('config/conflicting-fields', `${path} has both 'window' and 'global: true'; give a window or pool globally, not both`, at);
         return;
       }
       break;
@@ -182,13 +153,6 @@ function reportUnknownKey(
     sink.error('config/unknown-field', `${path} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, at);
     return;
   }
-  if (loc === LAYER) {
-    const guess = closest(key, LAYER_KINDS);
-    const isField = [...LAYER_FIELDS.values()].some((fields) => fields.includes(key));
-    const fieldHint = isField && !guess ? `; fields such as '${key}' go inside the kind, e.g. '- conv: {channels: 64, name: stem}'` : '';
-    sink.error('config/unknown-layer-kind', `unknown layer kind '${key}' in ${path}${guess ? ` (did you mean '${guess}'?)` : ''}; ${EXACTLY_ONE}${fieldHint}`, at);
-    return;
-  }
   const allowed = Object.keys((parent['properties'] ?? {}) as Record<string, unknown>);
   const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
   sink.error(
@@ -199,8 +163,7 @@ function reportUnknownKey(
 }
 
 function aliasesAt(loc: string | undefined): string[] {
-  const kind = loc?.startsWith('/definitions/') ? loc.slice('/definitions/'.length) : undefined;
-  return kind && isLayerKind(kind) ? [...(FIELD_ALIASES.get(kind)?.keys() ?? [])] : [];
+  return loc === INPUT ? [...INPUT_ALIASES.keys()] : [];
 }
 
 /** The canonical field an unknown key is probably a misspelling of. */
@@ -210,8 +173,7 @@ function suggestionFor(e: ErrorObject, locations: ReadonlyMap<object, string>): 
   const allowed = Object.keys(((e.parentSchema as Record<string, unknown> | undefined)?.['properties'] ?? {}) as Record<string, unknown>);
   const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
   if (!guess) return undefined;
-  const kind = loc?.startsWith('/definitions/') ? loc.slice('/definitions/'.length) : undefined;
-  return (kind && isLayerKind(kind) ? FIELD_ALIASES.get(kind)?.get(guess) : undefined) ?? guess;
+  return (loc === INPUT ? INPUT_ALIASES.get(guess) : undefined) ?? guess;
 }
 
 function reportRequired(group: readonly ErrorObject[], root: Located, locations: ReadonlyMap<object, string>, sink: DiagnosticSink): void {
@@ -230,10 +192,6 @@ function reportRequired(group: readonly ErrorObject[], root: Located, locations:
     );
     return;
   }
-  if (loc === POOL_NEEDS_WINDOW) {
-    sink.error('config/missing-field', `${path} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, node.span);
-    return;
-  }
   const properties = ((first.parentSchema as Record<string, unknown> | undefined)?.['properties'] ?? {}) as Record<string, { description?: unknown }>;
   const explained = missing.map((m) => {
     const d = Object.hasOwn(properties, m) ? properties[m]?.description : undefined;
@@ -249,7 +207,6 @@ function typeIncludes(schema: Record<string, unknown>, type: string): boolean {
 
 /** What a schema accepts, in words. */
 function expected(schema: Record<string, unknown>, loc: string | undefined): string {
-  if (loc === LAYER) return `a mapping with one layer kind (${KIND_LIST_TEXT})`;
   if (loc === LAYER_LIST) return 'a list of layers';
   if (loc === '') return "a mapping (with 'input' and 'layers', or 'network')";
   const t = schema['type'];

@@ -23,3 +23,9 @@ export function spanOfRange(lines: LineCounter, range: readonly [number, number,
   if (!range) return undefined;
   return spanFromOffsets(lines, range[0], range[1]);
 }
+
+/** From the start of `first` to the end of `last` (a key and its value). */
+export function spanJoin(first: Span, last: Span): Span {
+  if (last.endOffset < first.offset) return first;
+  return { offset: first.offset, line: first.line, column: first.column, endOffset: last.endOffset, endLine: last.endLine, endColumn: last.endColumn };
+}

@@ -4,18 +4,22 @@
  * here is sound on its own; when none proves a lower bound, the partition is `upper-only`.
  */
 import type { Diagnostic } from '../diagnostic.js';
-import type { LayeredModel, Model } from '../config/model.js';
+import { INPUT, representationOf, type LayeredModel, type Model, type RecurrentLayer } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
-import { OP_INPUT, type Circuit } from '../network/circuit.js';
+import { OP_INPUT, OP_LINEAR, type Circuit } from '../network/circuit.js';
 import { buildCircuit } from '../network/build-circuit.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial } from './degree-bound.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
+import { rankPropagation } from './rank-propagation.js';
+import { specialCases } from './special-cases.js';
+import type { ModelShapes } from '../config/model-shapes.js';
+import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
-import { log2Big } from './types.js';
+import { HUGE_RANK, MAX_RANK_BITS, log2Big } from './types.js';
 
 export interface BoundsOptions {
   readonly surrogate: Surrogate;
@@ -24,8 +28,7 @@ export interface BoundsOptions {
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };
 
-/** Ranks above this many bits are not written out as integers. */
-export const MAX_RANK_BITS = 4_000_000;
+export { MAX_RANK_BITS } from './types.js';
 
 export function computeBounds(model: Model, partitions: readonly Partition[], options: BoundsOptions): BoundsOutcome {
   if (model.kind === 'explicit') {
@@ -54,65 +57,104 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   if (!built.ok) return built;
   const circuit = built.circuit;
   const notes = [...built.notes];
-  // Lower bounds are proven on a tree network: the model's own, or for `overlap` its kernel-1
-  // special case (zero every off-centre tap), which exists when every conv keeps the grid.
-  let lowerCircuit: Circuit | undefined = circuit.sums ? undefined : circuit;
   if (circuit.sums) {
-    const keepsGrid = model.layers.every(
-      (l) => l.kind !== 'conv' || (l.stride.every((s) => s === 1) && (l.padding === 'same' || l.kernel.every((k) => k === 1))),
-    );
-    if (keepsGrid) {
-      const tree = buildCircuit(model, { ...options, surrogate: 'tree' });
-      if (tree.ok) lowerCircuit = tree.circuit;
-    }
-    notes.push('overlap surrogate: each index of the min-cut carries one extra constant coordinate (dimension + 1), so that window sums are contractions');
+    notes.push('the network has sums (overlapping windows, merges, flatten + dense): a min-cut index carries one extra constant coordinate (dimension + 1), and rank propagation adds the ranks of summed terms');
   }
   const augment = circuit.sums ? 1 : 0;
   const upperWeights = new Float64Array(circuit.size);
   for (let v = 0; v < circuit.size; v++) upperWeights[v] = Math.log2(circuit.dim[v]! + augment);
   const hasRecurrent = model.layers.some((l) => l.kind === 'recurrent');
-  const rounding = lowerCircuit && !model.weightSharing && !hasRecurrent ? roundingPlan(lowerCircuit) : undefined;
   // Sibling subtrees compute the same function only with shared weights in a uniform tree.
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
+  const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    // Choose by log2 first: the loser may have millions of digits and is never written out.
-    const useDegree = deg !== null && deg.log2 < cut.value - 1e-9;
-    if (Math.min(cut.value, deg?.log2 ?? Infinity) > MAX_RANK_BITS) {
-      return {
-        diagnostic: {
-          code: 'network/rank-too-large',
-          message: `the bound for partition '${p.label}' has more than ${MAX_RANK_BITS} bits; analyse a smaller input`,
-          file: model.file,
-          span: model.span,
-          severity: 'error',
+    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
+    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    if (best > MAX_RANK_BITS) {
+      // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
+      const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
+      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
+      const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
+      return finish(p.label, { upper, lower: bestLower(p) });
+    }
+    // Choose by log2 first: the losers may have millions of digits and are never written out.
+    // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
+    const candidates: { log2: number; make: () => Bound | undefined }[] = [
+      { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
+    ];
+    if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
+    if (prop) {
+      candidates.push({
+        log2: prop.log2,
+        make: () => {
+          const rank = prop.rank();
+          return rank === undefined ? undefined : makeBound(rank, 'rank propagation', circuit, prop.counts, 0);
         },
-      };
+      });
     }
-    let upper = useDegree ? makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) : makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment);
-    if (deg && !useDegree && cut.value - deg.log2 < 1) {
-      // Close call in log2 (log-gamma is approximate): compare the exact values.
-      const exact = deg.rank();
-      if (exact < upper.rank) upper = makeBound(exact, 'degree', circuit, deg.counts, 0);
+    let upper: Bound | undefined;
+    for (const c of candidates) {
+      if (c.log2 > best + 1) continue;
+      const b = c.make();
+      if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
+    return finish(p.label, { upper: upper!, lower: bestLower(p) });
+  };
+  const bestLower = (p: Partition): Bound | null => {
     const lowers: Bound[] = [];
-    if (rounding && lowerCircuit) lowers.push(roundingLower(lowerCircuit, p.side, rounding));
-    else if (lowerCircuit) lowers.push(diagonalLower(lowerCircuit, p.side));
-    if (lowerCircuit && model.weightSharing && !hasRecurrent) {
-      const top = topWindowLower(lowerCircuit, p.side);
-      if (top !== undefined) lowers.push({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] });
-    }
+    for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
     if (published) lowers.push(published);
     const shallow = shallowRecurrentLower(model, p);
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
-    return finish(p.label, { upper, lower });
+    return lower;
   };
   return { ok: true, notes, bounds };
+}
+
+interface LowerNetwork {
+  readonly lower: (side: Uint8Array) => Bound[];
+}
+
+/**
+ * The sum-free networks whose lower bounds are lower bounds of the model: the model's own network
+ * when it has no sums, else its special cases (special-cases.ts) that have none.
+ */
+function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: ModelShapes, reading: PointwiseReading, hasRecurrent: boolean): LowerNetwork[] {
+  const out: LowerNetwork[] = [];
+  for (const sc of specialCases(model, options.surrogate, shapes, reading)) {
+    // Grouped maps are not generic: the rules run on the special case where they are identities.
+    const built = buildCircuit(sc.model, { ...options, surrogate: sc.surrogate, groupedAsIdentity: true });
+    if (!built.ok || built.circuit.sums) continue;
+    // h = ⟨w, L_k⋯L_1 v⟩ = ⟨w', v⟩, and w' = L_1ᵀ⋯L_kᵀw can be any vector (generic maps, even
+    // of width 1): the lower-bound rules read the head from the last node that is not a linear map.
+    let top = built.circuit.top;
+    while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]!]!;
+    const c: Circuit = { ...built.circuit, top };
+    const suffix = sc.how ? ` (${sc.how})` : '';
+    // Power rounding needs a tensor network: no reuse, no shared weights, no recurrence.
+    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : undefined;
+    const topWindow = model.weightSharing && !hasRecurrent && !c.reuse;
+    out.push({
+      lower: (side) => {
+        const found: Bound[] = [];
+        const tag = (b: Bound): Bound => ({ ...b, method: b.method + suffix });
+        if (rounding) found.push(tag(roundingLower(c, side, rounding)));
+        found.push(tag(diagonalLower(c, side)));
+        if (topWindow) {
+          const top = topWindowLower(c, side);
+          if (top !== undefined) found.push(tag({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] }));
+        }
+        return found;
+      },
+    });
+  }
+  return out;
 }
 
 function finish(label: string, b: { upper: Bound; lower: Bound | null }): PartitionBounds {
@@ -212,15 +254,14 @@ function diagonalLower(c: Circuit, side: Uint8Array): Bound {
  * depth for long-term memory of recurrent networks").
  */
 function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== 'recurrent' || first.depth !== 2) return undefined;
-  if (rest.some((l) => l.kind !== 'dense')) return undefined;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 2) return undefined;
   if (model.input.shape.length !== 1) return undefined;
   const t = model.input.shape[0]!;
   if (t % 2 !== 0) return undefined;
   const startEnd = resolvePartition('start-end', model.input.shape);
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return undefined;
-  const m = Math.min(model.input.features, first.hidden);
+  const m = Math.min(representationOf(model)!, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: 'published depth-2 recurrent', cut: [] };
 }
@@ -233,15 +274,14 @@ function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | und
  * by Sylvester's inequality rank ≥ ρ_A + ρ_B − R. One weight choice suffices for a lower bound.
  */
 function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== 'recurrent' || first.depth !== 1) return undefined;
-  if (rest.some((l) => l.kind !== 'dense')) return undefined;
+  const first = recurrentOnInput(model);
+  if (!first || first.depth !== 1) return undefined;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
-  const m = model.input.features;
+  const m = representationOf(model)!;
   const span = (count: number): bigint => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
@@ -249,6 +289,17 @@ function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undef
   const bound = span(a) + span(b) - r;
   if (bound <= 1n) return undefined;
   return { rank: bound, log2: log2Big(bound), method: 'shallow recurrent span', cut: [] };
+}
+
+/**
+ * The recurrent layer of a model that is one recurrent layer on the raw input followed only by a
+ * head (dense and pointwise layers on its single output position, all linear there).
+ */
+function recurrentOnInput(model: LayeredModel): RecurrentLayer | undefined {
+  const [first, ...rest] = model.layers;
+  if (!first || first.kind !== 'recurrent' || first.inputs[0] !== INPUT) return undefined;
+  if (rest.some((l) => l.kind !== 'dense' && l.kind !== 'pointwise')) return undefined;
+  return first;
 }
 
 function sameMask(a: Uint8Array, b: Uint8Array): boolean {

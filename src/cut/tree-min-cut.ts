@@ -18,7 +18,7 @@ export type CutCounts = Map<number, Map<number, number>>;
 export interface TreeCut {
   /** Sum of the weights of the cut indices. */
   readonly value: number;
-  /** Which indices were cut, keyed by the node that produces them: tag → node dim → count. */
+  /** Which indices were cut, keyed by the node that produces them: tag → node dim → count (recovered on first use). */
   readonly counts: CutCounts;
 }
 
@@ -91,7 +91,13 @@ export function treeMinCut(c: Circuit, side: Uint8Array, weight: Float64Array, o
   const headB = link(top, B);
   const value = Math.min(headA, headB);
   if (!Number.isFinite(value)) throw new Error('tree min-cut: no finite cut (a bug in the circuit)');
-  return { value, counts: recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B, sym) };
+  let counts: CutCounts | undefined;
+  return {
+    value,
+    get counts(): CutCounts {
+      return (counts ??= recoverCut(c, weight, fa, fb, free, headA <= headB ? A : B, sym));
+    },
+  };
 }
 
 /**

@@ -16,9 +16,22 @@ export interface CutEntry {
   readonly count: number;
 }
 
+/** Bounds with more bits than this are not written out as integers. */
+export const MAX_RANK_BITS = 4_000_000;
+
+/**
+ * The `rank` of a huge bound: 2^MAX_RANK_BITS. It is below the bound itself but above every
+ * minimum a policy can state (at most 2^1,000,000), so verdicts against minimums stay exact;
+ * reports show "more than N bits" and the bound's log2 instead of this number.
+ */
+export const HUGE_RANK = 1n << BigInt(MAX_RANK_BITS);
+
 export interface Bound {
+  /** The bound; `HUGE_RANK` when `huge`. */
   readonly rank: bigint;
   readonly log2: number;
+  /** The bound has more than MAX_RANK_BITS bits: only its log2 is known, and `rank` is HUGE_RANK. */
+  readonly huge?: boolean;
   /** Which rule gave it, e.g. `min-cut`, `degree`, `power-rounding q=2`, `diagonal`. */
   readonly method: string;
   readonly cut: readonly CutEntry[];

@@ -1,22 +1,38 @@
 /**
- * Model → tensor network of the chosen surrogate (see DEVELOPERS.md for the exact functions).
- * This is where shapes are followed layer by layer, so this is also where a model whose windows
- * do not tile its grid, or whose head comes too early, is rejected with the span of the layer.
+ * Model → circuit of the chosen surrogate (DEVELOPERS.md states the exact functions). Shapes come
+ * from `inferShapes`, which has already checked that every window fits and every merge agrees, so
+ * this module only follows the grids layer by layer and emits nodes: per-position maps, product
+ * windows (copy tensors), sums (overlapping windows, merges, flatten + dense) and reused nodes
+ * (upsampling, overlapping pools, skips). It also writes the notes that tell a reader how the
+ * config was read (pointwise layers, the analysed output, M).
  */
 import type { Diagnostic, Span } from '../diagnostic.js';
-import type { ConvLayer, Layer, LayeredModel } from '../config/model.js';
-import { layerLabel, positionCount } from '../config/model.js';
-import type { Surrogate } from '../cut/types.js';
 import {
-  CircuitBuilder,
-  NetworkTooLarge,
-  OP_CONST,
-  OP_INPUT,
-  OP_LINEAR,
-  OP_PRODUCT,
-  OP_SUM,
-  type Circuit,
-} from './circuit.js';
+  INPUT,
+  firstMaps,
+  layerLabel,
+  layerWidth,
+  positionCount,
+  type ConvLayer,
+  type ConvTransposeLayer,
+  type Layer,
+  type LayeredModel,
+  type PoolLayer,
+  type UpsampleLayer,
+} from '../config/model.js';
+import { inferShapes, type ModelShapes } from '../config/model-shapes.js';
+import {
+  linearSources,
+  transposeSources,
+  treeConvPositions,
+  treeTransposeSource,
+  windowAxis,
+  windowTaps,
+  type AxisPlan,
+} from '../config/grid-geometry.js';
+import type { Surrogate } from '../cut/types.js';
+import { CircuitBuilder, NetworkTooLarge, OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from './circuit.js';
+import { readPointwise, type PointwiseReading } from './square-rule.js';
 
 /** Largest network (in nodes) that rankfloor builds; child links may be four times as many. */
 export const NODE_LIMIT = 4_000_000;
@@ -24,63 +40,29 @@ export const NODE_LIMIT = 4_000_000;
 export interface BuildOptions {
   readonly surrogate: Surrogate;
   readonly nodeLimit?: number;
+  /**
+   * For lower bounds: build the special case in which every grouped map is the identity (its
+   * blocks identity matrices), which needs equal input and output widths; a grouped map between
+   * different widths makes the build fail with `network/grouped-not-identity`.
+   */
+  readonly groupedAsIdentity?: boolean;
 }
 
 export type BuildResult =
-  | { ok: true; circuit: Circuit; notes: string[] }
+  | { ok: true; circuit: Circuit; notes: string[]; shapes: ModelShapes; pointwise: PointwiseReading }
   | { ok: false; diagnostics: Diagnostic[] };
 
+/**
+ * The output of a layer: one node per position. A flattened grid stays a list of its positions'
+ * nodes (`flat`), so that the dense layer after it can read them as one sum instead of through a
+ * concatenation of every position's width.
+ */
 interface Grid {
-  shape: number[];
-  nodes: number[];
-  dim: number;
-}
-
-export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildResult {
-  const limit = options.nodeLimit ?? NODE_LIMIT;
-  const fail = (span: Span, code: string, message: string): BuildResult => ({
-    ok: false,
-    diagnostics: [{ code, message, file: model.file, span, severity: 'error' }],
-  });
-  const positions = positionCount(model.input.shape);
-  if (positions > limit) {
-    return fail(
-      model.input.fieldSpans['shape'] ?? model.input.span,
-      'network/too-large',
-      `the input has ${positions} positions; rankfloor builds networks of at most ${limit} nodes`,
-    );
-  }
-  const notes = new Set<string>();
-  const b = new CircuitBuilder(positions, limit);
-  try {
-    const inputTag = b.addTag({ label: 'input', line: model.input.span.line, span: model.input.span, layerIndex: -1 });
-    const grid: Grid = { shape: [...model.input.shape], nodes: [], dim: model.input.features };
-    for (let p = 0; p < positions; p++) grid.nodes.push(b.add(OP_INPUT, grid.dim, inputTag, [], p));
-
-    for (const layer of model.layers) {
-      const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const problem = applyLayer(b, grid, layer, tag, options.surrogate, notes);
-      if (problem) return fail(problem.span, problem.code, problem.message);
-    }
-    if (grid.nodes.length > 1) {
-      const last = model.layers[model.layers.length - 1]!;
-      notes.add(
-        `the ${grid.nodes.length} positions left after the last layer are joined by a global product pool before the head`,
-      );
-      const tag = b.addTag({ label: layerLabel(last), line: last.span.line, span: last.span, layerIndex: last.index });
-      grid.nodes = [b.add(OP_PRODUCT, grid.dim, tag, grid.nodes)];
-    }
-    return { ok: true, circuit: b.finish(grid.nodes[0]!), notes: [...notes] };
-  } catch (e) {
-    if (e instanceof NetworkTooLarge) {
-      return fail(
-        model.input.fieldSpans['shape'] ?? model.input.span,
-        'network/too-large',
-        `this model's tensor network would exceed ${limit} nodes or ${limit * 4} links; analyse a smaller input shape`,
-      );
-    }
-    throw e;
-  }
+  readonly shape: readonly number[];
+  readonly nodes: readonly number[];
+  /** Dimension of each position's vector (of each listed node when flat). */
+  readonly dim: number;
+  readonly flat: boolean;
 }
 
 interface Problem {
@@ -89,163 +71,361 @@ interface Problem {
   message: string;
 }
 
-function applyLayer(
+export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildResult {
+  const limit = options.nodeLimit ?? NODE_LIMIT;
+  const shaped = inferShapes(model);
+  if (!shaped.ok) return shaped;
+  const shapes = shaped.shapes;
+  const fail = (span: Span, code: string, message: string): BuildResult => ({
+    ok: false,
+    diagnostics: [{ code, message, file: model.file, span, severity: 'error' }],
+  });
+  const tooLarge = (): BuildResult =>
+    fail(
+      model.input.fieldSpans['shape'] ?? model.input.span,
+      'network/too-large',
+      `this model's tensor network would exceed ${limit} nodes or ${limit * 4} links; analyse a smaller input shape`,
+    );
+  // Arithmetic first: every layer makes at least one node per output position.
+  let estimate = positionCount(model.input.shape);
+  for (const s of shapes.layers) estimate += positionCount(s.shape);
+  if (estimate > limit) return tooLarge();
+
+  const pointwise = readPointwise(model, shapes);
+  const notes = new Notes(model, shapes, pointwise, options.surrogate);
+  const b = new CircuitBuilder(positionCount(model.input.shape), limit);
+  try {
+    const inputTag = b.addTag({ label: 'input', line: model.input.span.line, span: model.input.span, layerIndex: -1 });
+    const m = shapes.representation;
+    const input: Grid = { shape: model.input.shape, nodes: Array.from({ length: positionCount(model.input.shape) }, (_, p) => b.add(OP_INPUT, m, inputTag, [], p)), dim: m, flat: false };
+    const grids: Grid[] = [];
+    const gridOf = (i: number): Grid => (i === INPUT ? input : grids[i]!);
+    for (const layer of model.layers) {
+      const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
+      if ('code' in built) return fail(built.span, built.code, built.message);
+      grids.push(built);
+    }
+    const last = grids[grids.length - 1]!;
+    const lastLayer = model.layers[model.layers.length - 1]!;
+    let top: number;
+    if (last.flat) {
+      const headTag = b.addTag({ label: layerLabel(lastLayer), line: lastLayer.span.line, span: lastLayer.span, layerIndex: lastLayer.index });
+      top = sumOf(b, 1, headTag, last.nodes);
+    } else {
+      top = last.nodes[flatIndex(last.shape, shapes.output.position)]!;
+    }
+    if (top === ZERO) {
+      return fail(
+        lastLayer.span,
+        'network/zero-output',
+        `the analysed output is zero for every choice of weights: it reads only padding; reduce the padding or analyse another output position`,
+      );
+    }
+    return { ok: true, circuit: b.finish(top), notes: notes.list(), shapes, pointwise };
+  } catch (e) {
+    if (e instanceof NetworkTooLarge) return tooLarge();
+    throw e;
+  }
+}
+
+function flatIndex(shape: readonly number[], at: readonly number[]): number {
+  return shape.length === 1 ? at[0]! : at[0]! * shape[1]! + at[1]!;
+}
+
+/**
+ * Stands in a grid for a vector that is zero for every choice of weights (a conv output that
+ * reads only padding); it is not a node. The three constructors below keep zeros out of the
+ * circuit: a map or a product of zero is zero, and a sum leaves zero terms out.
+ */
+const ZERO = -2;
+
+function linearOf(b: CircuitBuilder, dim: number, tag: number, v: number): number {
+  return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
+}
+
+function productOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
+  if (children.includes(ZERO)) return ZERO;
+  return children.length === 1 ? children[0]! : b.add(OP_PRODUCT, dim, tag, children);
+}
+
+/** A node of dimension `dim` reading `children` through maps: a linear node for one child. */
+function sumOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
+  const live = children.filter((v) => v !== ZERO);
+  if (live.length === 0) return ZERO;
+  return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
+}
+
+/** One node per position of a grid (a flattened grid becomes its concatenation). */
+function materialise(b: CircuitBuilder, g: Grid, tag: number): Grid {
+  if (!g.flat) return g;
+  return { shape: g.shape, nodes: [sumOf(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
+}
+
+function buildLayer(
   b: CircuitBuilder,
-  grid: Grid,
   layer: Layer,
+  inputs: Grid[],
   tag: number,
-  surrogate: Surrogate,
-  notes: Set<string>,
-): Problem | undefined {
-  const where = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
+  options: BuildOptions,
+  shapes: ModelShapes,
+  pointwise: PointwiseReading,
+): Grid | Problem {
+  const out = shapes.layers[layer.index]!;
+  const first = inputs[0]!;
+  const surrogate = options.surrogate;
+  // In the identity special case a grouped map reads its input unchanged (no node).
+  const grouped = shapes.groups[layer.index]! > 1 && options.groupedAsIdentity === true;
+  if (grouped && out.width !== first.dim) {
+    return { span: layer.span, code: 'network/grouped-not-identity', message: `layer ${layerLabel(layer)}: a grouped map between widths ${first.dim} and ${out.width} is not the identity` };
+  }
   switch (layer.kind) {
-    case 'conv': {
-      if (layer.stride.length !== grid.shape.length || layer.kernel.length !== grid.shape.length) {
-        return { span: layer.span, code: 'network/rank-mismatch', message: `${where}: kernel and stride need one entry per input dimension` };
-      }
-      if (surrogate === 'overlap') return convOverlap(b, grid, layer, tag);
-      if (layer.kernel.some((k, i) => k > (layer.stride[i] as number))) {
-        notes.add('the tree surrogate uses each convolution as a per-position map: kernels wider than their stride are not used by the bound');
-      }
-      grid.nodes = grid.nodes.map((v) => b.add(OP_LINEAR, layer.channels, tag, [v]));
-      grid.dim = layer.channels;
-      if (layer.stride.some((s) => s > 1)) {
-        return productWindows(b, grid, layer.stride, tag, layer.fieldSpans['stride'] ?? layer.span, `${where}: stride`);
-      }
-      return undefined;
+    case 'pointwise': {
+      if (!pointwise.squared.has(layer.index)) return first;
+      const g = materialise(b, first, tag);
+      return { ...g, nodes: g.nodes.map((v) => productOf(b, g.dim, tag, [v, v])) };
     }
-    case 'pool': {
-      const window = layer.global ? [...grid.shape] : [...layer.window];
-      if (window.length !== grid.shape.length) {
-        return { span: layer.fieldSpans['window'] ?? layer.span, code: 'network/rank-mismatch', message: `${where}: the window needs one entry per input dimension` };
-      }
-      return productWindows(b, grid, window, tag, layer.fieldSpans['window'] ?? layer.span, `${where}: window`);
-    }
+    case 'flatten':
+      // A flattened grid flattened again is the same list of positions.
+      return { shape: out.shape, nodes: first.nodes, dim: first.dim, flat: true };
     case 'dense': {
-      if (grid.nodes.length !== 1) {
-        return {
-          span: layer.span,
-          code: 'network/dense-too-early',
-          message: `${where}: dense needs a single remaining position, but the grid is [${grid.shape.join(', ')}] here; add 'pool: {global: true}' before it`,
-        };
-      }
-      // One class score is a linear functional of the last state whatever the head's widths
-      // (w^T W_k … W_1 is an arbitrary vector), so dense layers are part of the head vector.
-      notes.add('dense layers come after the last pooling, so they are part of the head: one class score is a linear functional of the last state');
-      return undefined;
+      const reading = shapes.denseReading[layer.index];
+      if (first.flat || reading === 'input') return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
     }
-    case 'recurrent': {
-      if (grid.shape.length !== 1) {
-        return {
-          span: layer.span,
-          code: 'network/recurrent-needs-sequence',
-          message: `${where}: a recurrent layer needs a 1D sequence, but the grid is [${grid.shape.join(', ')}] here`,
-        };
-      }
-      let below = grid.nodes;
-      for (let l = 0; l < layer.depth; l++) {
-        let prev = b.add(OP_CONST, layer.hidden, tag, []);
-        const states: number[] = [];
-        for (const x of below) {
-          const carried = b.add(OP_LINEAR, layer.hidden, tag, [prev]);
-          const fed = b.add(OP_LINEAR, layer.hidden, tag, [x]);
-          prev = b.add(OP_PRODUCT, layer.hidden, tag, [carried, fed]);
-          states.push(prev);
-        }
-        below = states;
-      }
-      grid.nodes = [below[below.length - 1]!];
-      grid.shape = [1];
-      grid.dim = layer.hidden;
-      return undefined;
+    case 'merge': {
+      const grids = inputs.map((g) => materialise(b, g, tag));
+      const nodes = grids[0]!.nodes.map((_, p) => sumOf(b, out.width, tag, grids.map((g) => g.nodes[p]!)));
+      return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
+    case 'recurrent':
+      return recurrent(b, materialise(b, first, tag), layer.hidden, layer.depth, tag);
+    case 'pool':
+      return pool(b, materialise(b, first, tag), layer, out.shape, tag);
+    case 'upsample':
+      return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
+    case 'conv':
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
+    case 'conv-transpose':
+      return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
 }
 
-/** Non-overlapping product windows (δ tensors); the window must tile the grid exactly. */
-function productWindows(b: CircuitBuilder, grid: Grid, window: readonly number[], tag: number, span: Span, what: string): Problem | undefined {
-  if (window.some((w, i) => (grid.shape[i] as number) % w !== 0)) {
-    return {
-      span,
-      code: 'network/window-does-not-tile',
-      message: `${what} [${window.join(', ')}] does not tile the grid [${grid.shape.join(', ')}] that reaches it; use a window that divides every side`,
-    };
+function recurrent(b: CircuitBuilder, g: Grid, hidden: number, depth: number, tag: number): Grid {
+  let below = g.nodes;
+  for (let l = 0; l < depth; l++) {
+    let prev = b.add(OP_CONST, hidden, tag, []);
+    const states: number[] = [];
+    for (const x of below) {
+      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
+      states.push(prev);
+    }
+    below = states;
   }
-  if (window.every((w) => w === 1)) return undefined;
-  const out = grid.shape.map((n, i) => n / (window[i] as number));
-  const nodes: number[] = [];
-  if (grid.shape.length === 1) {
-    const w = window[0]!;
-    for (let j = 0; j < out[0]!; j++) nodes.push(b.add(OP_PRODUCT, grid.dim, tag, grid.nodes.slice(j * w, j * w + w)));
-  } else {
-    const [wh, ww] = [window[0]!, window[1]!];
-    const width = grid.shape[1]!;
-    for (let i = 0; i < out[0]!; i++) {
-      for (let j = 0; j < out[1]!; j++) {
-        const children: number[] = [];
-        for (let a = 0; a < wh; a++) for (let c = 0; c < ww; c++) children.push(grid.nodes[(i * wh + a) * width + j * ww + c]!);
-        nodes.push(b.add(OP_PRODUCT, grid.dim, tag, children));
-      }
+  return { shape: [1], nodes: [below[below.length - 1]!], dim: hidden, flat: false };
+}
+
+/**
+ * Visits every output position of a window layer in row-major order with the input positions it
+ * reads: the product set of per-axis lists, each list computed once per axis index (so a layer
+ * costs one small array per output, not one per axis and output). `visit` returns a problem to stop.
+ */
+function eachOutput(
+  inShape: readonly number[],
+  outShape: readonly number[],
+  axisList: (axis: number, j: number) => readonly number[],
+  visit: (positions: readonly number[], at: readonly number[]) => Problem | undefined,
+): Problem | undefined {
+  const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
+  if (outShape.length === 1) {
+    for (let j = 0; j < outShape[0]!; j++) {
+      const problem = visit(lists[0]![j]!, [j]);
+      if (problem) return problem;
+    }
+    return undefined;
+  }
+  const width = inShape[1]!;
+  for (let i = 0; i < outShape[0]!; i++) {
+    const rows = lists[0]![i]!;
+    for (let j = 0; j < outShape[1]!; j++) {
+      const cols = lists[1]![j]!;
+      const positions = new Array<number>(rows.length * cols.length);
+      let k = 0;
+      for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
+      const problem = visit(positions, [i, j]);
+      if (problem) return problem;
     }
   }
-  grid.nodes = nodes;
-  grid.shape = out;
   return undefined;
 }
 
-interface AxisPlan {
-  out: number;
-  left: number;
+function plans(g: Grid, k: readonly number[], s: readonly number[], d: readonly number[], layer: ConvLayer | PoolLayer): AxisPlan[] {
+  return g.shape.map((n, a) => windowAxis(n, k[a]!, s[a]!, d[a]!, layer.padding, a) as AxisPlan);
 }
 
-/** Output length and left padding along one axis, as DEVELOPERS.md defines them. */
-function axisPlan(n: number, k: number, s: number, padding: 'same' | 'valid'): AxisPlan | undefined {
-  if (padding === 'valid') {
-    if (n < k) return undefined;
-    return { out: Math.floor((n - k) / s) + 1, left: 0 };
-  }
-  const out = Math.ceil(n / s);
-  const total = Math.max((out - 1) * s + k - n, 0);
-  return { out, left: Math.floor(total / 2) };
-}
-
-function convOverlap(b: CircuitBuilder, grid: Grid, layer: ConvLayer, tag: number): Problem | undefined {
-  const plans = grid.shape.map((n, i) => axisPlan(n, layer.kernel[i]!, layer.stride[i]!, layer.padding));
-  if (plans.some((p) => p === undefined)) {
-    return {
-      span: layer.fieldSpans['kernel'] ?? layer.span,
-      code: 'network/kernel-too-large',
-      message: `layer ${layerLabel(layer)} (line ${layer.span.line}): kernel [${layer.kernel.join(', ')}] with valid padding is larger than the grid [${grid.shape.join(', ')}] that reaches it`,
-    };
-  }
-  const p = plans as AxisPlan[];
-  const nodes: number[] = [];
-  const taps = (axis: number, j: number): number[] => {
-    const res: number[] = [];
-    for (let t = 0; t < layer.kernel[axis]!; t++) {
-      const at = j * layer.stride[axis]! + t - p[axis]!.left;
-      if (at >= 0 && at < grid.shape[axis]!) res.push(at);
-    }
-    return res;
+function emptyWindow(layer: Layer, at: readonly number[]): Problem {
+  return {
+    span: layer.fieldSpans['padding'] ?? layer.span,
+    code: 'network/empty-window',
+    message: `layer ${layerLabel(layer)} (line ${layer.span.line}): output position [${at.join(', ')}] reads only padding; reduce the padding or the stride`,
   };
-  if (grid.shape.length === 1) {
-    for (let j = 0; j < p[0]!.out; j++) {
-      nodes.push(b.add(OP_SUM, layer.channels, tag, taps(0, j).map((at) => grid.nodes[at]!)));
+}
+
+function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly number[], tag: number): Grid | Problem {
+  if (layer.global) {
+    return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
+  }
+  const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
+  const nodes: number[] = [];
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left),
+    (positions, at) => {
+      if (positions.length === 0) return emptyWindow(layer, at);
+      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: g.dim, flat: false };
+}
+
+function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: readonly number[], tag: number): Grid {
+  const nodes: number[] = [];
+  eachOutput(
+    g.shape,
+    shape,
+    (a, j) => {
+      const f = layer.factor[a]!;
+      if (layer.mode === 'nearest') return [Math.floor(j / f)];
+      const src = linearSources(j, g.shape[a]!, f);
+      return src.num === 0 ? [src.i0] : [src.i0, src.i1];
+    },
+    (positions) => {
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
+  return { shape, nodes, dim: g.dim, flat: false };
+}
+
+function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
+  const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
+  const causal = layer.padding.mode === 'causal';
+  const nodes: number[] = [];
+  if (surrogate === 'overlap') {
+    const problem = eachOutput(
+      g.shape,
+      shape,
+      (a, j) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left),
+      (positions) => {
+        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p]!)));
+        return undefined;
+      },
+    );
+    return problem ?? { shape, nodes, dim: width, flat: false };
+  }
+  // Each input position is mapped once (it lies in at most one window, since min(k, s) ≤ s).
+  const mapped = new Int32Array(g.nodes.length).fill(-1);
+  const mapOf = (p: number): number => {
+    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p]! : linearOf(b, width, tag, g.nodes[p]!);
+    return mapped[p]!;
+  };
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) => treeConvPositions(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!, causal),
+    (positions) => {
+      // A window of padding only reads nothing: the zero vector, as in the real network.
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: width, flat: false };
+}
+
+function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, shape: readonly number[], tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
+  const nodes: number[] = [];
+  const problem = eachOutput(
+    g.shape,
+    shape,
+    (a, j) =>
+      surrogate === 'overlap'
+        ? transposeSources(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, layer.padding[a]!).map(([i]) => i)
+        : [treeTransposeSource(j, g.shape[a]!, layer.stride[a]!)[0]],
+    (positions) => {
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p]!)));
+      return undefined;
+    },
+  );
+  return problem ?? { shape, nodes, dim: layer.channels, flat: false };
+}
+
+/** The statements every report carries about how this model was read; each said once. */
+class Notes {
+  private readonly out: string[] = [];
+  constructor(model: LayeredModel, shapes: ModelShapes, pointwise: PointwiseReading, surrogate: Surrogate) {
+    const where = (l: Layer): string => `${l.kind === 'pointwise' ? l.op : `layer ${layerLabel(l)}`} (line ${l.span.line})`;
+    const input = model.input;
+    if (input.representation === undefined) {
+      const from = firstMaps(model).find((l) => layerWidth(l) === shapes.representation);
+      const which = from ? `layer ${layerLabel(from)} (line ${from.span.line})` : 'the first layer';
+      this.out.push(
+        `M = ${shapes.representation} representation functions per input position: the width of ${which}, the first layer that maps the input; set input.representation to choose M`,
+      );
     }
-  } else {
-    const width = grid.shape[1]!;
-    for (let i = 0; i < p[0]!.out; i++) {
-      const rows = taps(0, i);
-      for (let j = 0; j < p[1]!.out; j++) {
-        const cols = taps(1, j);
-        const children: number[] = [];
-        for (const r of rows) for (const c of cols) children.push(grid.nodes[r * width + c]!);
-        nodes.push(b.add(OP_SUM, layer.channels, tag, children));
+    if (input.featuresAsChannels) {
+      const line = input.fieldSpans['channels']?.line ?? input.span.line;
+      this.out.push(
+        `input.features (line ${line}) is read as the data's raw channel count, which does not limit the bound; earlier versions of rankfloor read it as M, which is now input.representation`,
+      );
+    }
+    if (surrogate === 'tree' && model.layers.some((l) => (l.kind === 'conv' || l.kind === 'conv-transpose') && l.kernel.some((k, a) => k > l.stride[a]!))) {
+      this.out.push('the tree surrogate uses each convolution as a per-position map: kernels wider than their stride are not used by the bound');
+    }
+    const modes = [...new Set(model.layers.flatMap((l) => (l.kind === 'pool' && l.mode !== 'product' ? [l.mode] : [])))].sort();
+    if (modes.length > 0) this.out.push(`${modes.join(' and ')} pooling is a product over each window in the arithmetic surrogate`);
+    const identity = model.layers.filter((l) => l.kind === 'pointwise' && !pointwise.squared.has(l.index) && !pointwise.ignored.has(l.index));
+    if (identity.length > 0) {
+      this.out.push(
+        `pointwise layers read as the identity (in the arithmetic surrogate the only non-linearity is the product of pooling and recurrence): ${list(identity.map(where))}`,
+      );
+    }
+    const squared = model.layers.filter((l) => pointwise.squared.has(l.index));
+    if (squared.length > 0) {
+      this.out.push(`activations after dense layers that mix positions are read as the elementwise square v ⊙ v, so that the fully connected part keeps a non-linearity: ${list(squared.map(where))}`);
+    }
+    const ignored = model.layers.filter((l) => pointwise.ignored.has(l.index));
+    if (ignored.length > 0) this.out.push(`pointwise layers after the last weighted layer are not part of the analysed score: ${list(ignored.map(where))}`);
+    for (const l of model.layers) {
+      if (l.kind !== 'dense') continue;
+      const reading = shapes.denseReading[l.index];
+      const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]!]!.shape;
+      if (reading === 'per-position') {
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution; put flatten before it to read them all at once`);
+      } else if (reading === 'input') {
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads all ${positionCount(before)} input positions at once (a fully connected layer on the raw input)`);
       }
     }
+    if (model.layers.some((l) => l.kind === 'upsample' && l.mode === 'linear')) {
+      this.out.push('linear upsampling is a fixed sum of neighbouring positions: no lower bound is claimed through it');
+    }
+    if (shapes.output.defaulted) {
+      const last = shapes.layers[shapes.layers.length - 1]!.shape;
+      this.out.push(
+        `the analysed output is position [${shapes.output.position.join(', ')}] of the last layer's grid [${last.join(', ')}] (the default); set output.position to analyse another, or add a global pool`,
+      );
+    } else if (model.output.position) {
+      this.out.push(`the analysed output is position [${shapes.output.position.join(', ')}] (output.position)`);
+    }
   }
-  grid.nodes = nodes;
-  grid.shape = p.map((a) => a.out);
-  grid.dim = layer.channels;
-  return undefined;
+
+  list(): string[] {
+    return this.out;
+  }
+}
+
+function list(items: readonly string[]): string {
+  const max = 8;
+  return items.length <= max ? items.join(', ') : `${items.slice(0, max).join(', ')} and ${items.length - max} more`;
 }

@@ -5,7 +5,7 @@
  * when a width grows, so a doubling probe followed by bisection finds the smallest value.
  */
 import type { Layer, LayeredModel } from '../config/model.js';
-import { layerLabel } from '../config/model.js';
+import { INPUT, firstMaps, layerLabel } from '../config/model.js';
 import type { Span } from '../diagnostic.js';
 import type { Partition } from '../partition/partition.js';
 import { analyseLayered } from '../cut/bounds.js';
@@ -14,9 +14,9 @@ import { parameterCount } from './parameters.js';
 import type { UnprovenMode } from './policy.js';
 
 export interface Fix {
-  /** Layer label (name or index), or `input`. */
+  /** Layer label (name or index). */
   readonly layer: number | string;
-  /** Canonical field name: `channels`, `hidden`, `depth`, `features`. */
+  /** Canonical field name: `channels`, `units`, `hidden`, `depth`. */
   readonly field: string;
   readonly line: number;
   readonly column: number;
@@ -100,12 +100,23 @@ export function searchFixes(
   return fixes.sort((a, b) => (a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line));
 }
 
-/** Width fields of the layers the cut crosses and of their neighbours; input features if its legs are cut. */
+/**
+ * Width fields of the layers the cut crosses and of their neighbours in the layer graph (the
+ * layers they read and the layers that read them). When the input legs are cut and M follows the
+ * first layer's width, that layer's width is a candidate; the data's raw channels and an M set by
+ * the config are never proposed (they are not the architecture's to change).
+ */
 function candidates(model: LayeredModel, cutLayers: ReadonlySet<number | string>): Candidate[] {
   const near = new Set<number>();
-  model.layers.forEach((l, i) => {
-    if (cutLayers.has(layerLabel(l))) for (const j of [i - 1, i, i + 1]) if (j >= 0 && j < model.layers.length) near.add(j);
-  });
+  const consumers: number[][] = model.layers.map(() => []);
+  for (const l of model.layers) for (const i of l.inputs) if (i !== INPUT) consumers[i]!.push(l.index);
+  for (const l of model.layers) {
+    if (!cutLayers.has(layerLabel(l))) continue;
+    near.add(l.index);
+    for (const i of l.inputs) if (i !== INPUT) near.add(i);
+    for (const c of consumers[l.index]!) near.add(c);
+  }
+  if (cutLayers.has('input') && model.input.representation === undefined) for (const l of firstMaps(model)) near.add(l.index);
   const seen = new Set<string>();
   const out: Candidate[] = [];
   for (const i of [...near].sort((a, b) => a - b)) {
@@ -125,23 +136,17 @@ function candidates(model: LayeredModel, cutLayers: ReadonlySet<number | string>
       });
     }
   }
-  if (cutLayers.has('input')) {
-    out.push({
-      layer: 'input',
-      field: 'features',
-      span: model.input.fieldSpans['features'] ?? model.input.span,
-      from: model.input.features,
-      max: MAX_WIDTH,
-      apply: (m, v) => ({ ...m, input: { ...m.input, features: v } }),
-    });
-  }
   return out;
 }
 
 function widthFields(layer: Layer): string[] {
   switch (layer.kind) {
     case 'conv':
+      return layer.channels === undefined ? [] : ['channels'];
+    case 'conv-transpose':
       return ['channels'];
+    case 'dense':
+      return ['units'];
     case 'recurrent':
       return ['hidden', 'depth'];
     default:

@@ -5,12 +5,13 @@
 import type { Bound, BoundsResult, CutEntry } from '../cut/types.js';
 
 export interface BoundJson {
-  rank: string;
+  /** Decimal digits; null for a huge bound (more than MAX_RANK_BITS bits), known by its log2 only. */
+  rank: string | null;
   log2: number;
 }
 
 export function boundJson(b: Bound): BoundJson {
-  return { rank: b.rank.toString(), log2: roundLog(b.log2) };
+  return { rank: b.huge ? null : b.rank.toString(), log2: roundLog(b.log2) };
 }
 
 export function cutJson(cut: readonly CutEntry[]): { layer: number | string; line: number; dim: number; count: number }[] {

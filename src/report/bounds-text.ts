@@ -2,7 +2,7 @@
  * The terminal form of `rankfloor bounds`: a table with bits and ranks per partition, the
  * bottleneck layers of the minimal cut, and the notes on how the config was read.
  */
-import type { BoundsResult, CutEntry, PartitionBounds } from '../cut/types.js';
+import { MAX_RANK_BITS, type Bound, type BoundsResult, type CutEntry, type PartitionBounds } from '../cut/types.js';
 
 const SURROGATE_WORDS = {
   tree: 'tree (arithmetic surrogate: per-position linear maps, product pooling)',
@@ -27,7 +27,7 @@ function row(p: PartitionBounds): string[] {
   return [
     p.partition,
     bits(p.upper.log2),
-    shortRank(p.upper.rank, p.upper.log2),
+    boundRank(p.upper),
     p.lower ? bits(p.lower.log2) : '-',
     p.status,
     describeCut(p.upper.cut, p.upper.method),
@@ -39,14 +39,29 @@ export function bits(x: number): string {
 }
 
 /** Ranks up to 15 digits in full, larger ones by their size. */
+/** A bound's rank as text: the integer, ≈2^x for long ones, or "more than N bits" for huge ones. */
+export function boundRank(b: Bound): string {
+  return b.huge ? `more than 2^${MAX_RANK_BITS.toLocaleString('en-US')} (≈2^${b.log2.toFixed(1)})` : shortRank(b.rank, b.log2);
+}
+
 export function shortRank(r: bigint, log2: number): string {
+  // Digits from the size, not from the string: a bound of millions of bits prints in no time.
+  if (log2 > 100_000) return `≈2^${log2.toFixed(1)} (${Math.floor(log2 * Math.log10(2)) + 1} digits)`;
   const s = r.toString();
   return s.length <= 15 ? s : `≈2^${log2.toFixed(1)} (${s.length} digits)`;
 }
 
+/** Cut groups shown per bound; the rest are counted. */
+const SHOWN_CUT_GROUPS = 6;
+
 export function describeCut(cut: readonly CutEntry[], method: string): string {
   if (cut.length === 0) return method;
-  const parts = cut.map((c) => `${cutLabel(c.layer)} (line ${c.line}): ${c.count} × ${c.dim}`);
+  // The groups that contribute most bits, in file order.
+  const kept = new Set(
+    [...cut].sort((a, b) => b.count * Math.log2(b.dim) - a.count * Math.log2(a.dim) || a.line - b.line).slice(0, SHOWN_CUT_GROUPS),
+  );
+  const parts = cut.filter((c) => kept.has(c)).map((c) => `${cutLabel(c.layer)} (line ${c.line}): ${c.count} × ${c.dim}`);
+  if (cut.length > kept.size) parts.push(`${cut.length - kept.size} more`);
   return method === 'min-cut' ? parts.join('; ') : `${method}: ${parts.join('; ')}`;
 }
 

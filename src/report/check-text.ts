@@ -8,7 +8,7 @@
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
-import { bits, cutLabel, shortRank } from './bounds-text.js';
+import { bits, boundRank, cutLabel, shortRank } from './bounds-text.js';
 
 export interface TextOptions {
   readonly color: boolean;
@@ -85,7 +85,7 @@ function needs(q: RequirementResult): string {
 
 function range(q: RequirementResult): string {
   const b = q.bounds;
-  const upper = `${shortRank(b.upper.rank, b.upper.log2)} (${bits(b.upper.log2)} bits)`;
+  const upper = `${boundRank(b.upper)} (${bits(b.upper.log2)} bits)`;
   if (b.status === 'exact') return `exactly ${upper}`;
   if (!b.lower) return `at most ${upper}; no lower bound proven`;
   return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;

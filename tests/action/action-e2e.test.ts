@@ -136,7 +136,7 @@ test('a malformed head config is annotated at its position and exits 2', () => {
   expect(r.stderr).toBe('');
   expect(r.code).toBe(2);
   const message =
-    "unknown field 'chanels' in model.layers[8].conv (did you mean 'channels'?); allowed: channels, kernel, stride, padding, name [config/unknown-field]";
+    "unknown field 'chanels' in model.layers[8].conv (did you mean 'channels'?); it reads channels, kernel, stride, dilation, padding, groups, depthwise, depth_multiplier, bias, norm, batch_norm, layer_norm, activation, dropout, name [config/unknown-field]";
   expect(commandLines(r.stdout, 'error')).toEqual([
     `::error title=cannot check models/renal-pair-net.yaml,file=models/renal-pair-net.yaml,line=18,col=14::${message}`,
     `::error::rankfloor: cannot check every config: models/renal-pair-net.yaml:18:14: error: ${message}`,

@@ -4,7 +4,7 @@
  */
 import { expect } from 'vitest';
 import type { Diagnostic } from '../../src/diagnostic.js';
-import type { Model, LayeredModel, ExplicitModel } from '../../src/config/model.js';
+import type { ExplicitModel, Layer, LayeredModel, Model } from '../../src/config/model.js';
 import { loadConfigText, type LoadOptions } from '../../src/config/load-config.js';
 
 export function load(text: string, options?: LoadOptions): Model {
@@ -47,4 +47,22 @@ export function where(d: Diagnostic): string {
 /** A layered model around the given layer lines (each already indented by 4 spaces). */
 export function layered(layerLines: string, shape = '[32, 32]'): string {
   return `model:\n  input:\n    shape: ${shape}\n    features: 3\n  layers:\n${layerLines}`;
+}
+
+/**
+ * A model whose first layer is `- conv: {channels: 4}` (so M defaults to 4) followed by the given
+ * entries (each a YAML list item without the dash); returns the layers after the first.
+ */
+export function afterConv(entries: readonly string[], shape = '[8, 8]'): Layer[] {
+  return loadLayered(withConv(entries, shape)).layers.slice(1);
+}
+
+export function withConv(entries: readonly string[], shape = '[8, 8]'): string {
+  return layered(['    - conv: {channels: 4}', ...entries.map((e) => `    - ${e}`)].join('\n') + '\n', shape);
+}
+
+/** The layer without its position in the file (index, inputs, path, spans). */
+export function bodyOf(layer: Layer): Record<string, unknown> {
+  const { index: _i, inputs: _n, path: _p, span: _s, fieldSpans: _f, ...rest } = layer;
+  return rest;
 }

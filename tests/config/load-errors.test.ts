@@ -35,7 +35,7 @@ describe('unknown names', () => {
     const d = diagnostics(layered('    - conv: {chanels: 64}\n'));
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/unknown-field@6:14']);
     expect(d[0]!.message).toBe(
-      "unknown field 'chanels' in model.layers[0].conv (did you mean 'channels'?); allowed: channels, kernel, stride, padding, name",
+      "unknown field 'chanels' in model.layers[0].conv (did you mean 'channels'?); it reads channels, kernel, stride, dilation, padding, groups, depthwise, depth_multiplier, bias, norm, batch_norm, layer_norm, activation, dropout, name",
     );
   });
 
@@ -62,9 +62,7 @@ describe('unknown names', () => {
   test('an unknown layer kind with did-you-mean', () => {
     const d = diagnostics(layered('    - dense: {units: 4}\n    - convv: {channels: 3}\n'));
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/unknown-layer-kind@7:7']);
-    expect(d[0]!.message).toBe(
-      "unknown layer kind 'convv' in model.layers[1] (did you mean 'conv'?); a layer needs exactly one of conv, pool, dense, recurrent, repeat, e.g. '- conv: {channels: 64}'",
-    );
+    expect(d[0]!.message).toBe("model.layers[1]: unknown layer kind 'convv' (did you mean 'conv'?)");
   });
 
   test('two kinds in one layer, or none, give one message each', () => {
@@ -73,8 +71,10 @@ describe('unknown names', () => {
 
   test('a field put next to the kind instead of inside it', () => {
     const d = diagnostics(layered('    - conv: {channels: 1}\n      name: stem\n'));
-    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/unknown-layer-kind@7:7']);
-    expect(d[0]!.message).toContain("fields such as 'name' go inside the kind");
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/layer-kind@7:7']);
+    expect(d[0]!.message).toBe(
+      "model.layers[0] has 'name' beside its kind 'conv'; fields go inside the kind ('- conv: {name: …}') or name the kind with 'type: conv'",
+    );
   });
 });
 
@@ -86,7 +86,12 @@ describe('sizes', () => {
     ['channels: "64"', 'config/type', 24, 'model.layers[0].conv.channels must be a positive integer, got the string "64"'],
     ['channels: 4, kernel: 0', 'config/invalid-number', 35, 'model.layers[0].conv.kernel must be a positive integer, got 0'],
     ['channels: 4, stride: [1, 0]', 'config/invalid-number', 39, 'model.layers[0].conv.stride[1] must be a positive integer, got 0'],
-    ['channels: 4, kernel: [3, 3, 3]', 'config/invalid-length', 35, 'model.layers[0].conv.kernel must have 1 or 2 entries, got 3'],
+    [
+      'channels: 4, kernel: [3, 3, 3]',
+      'config/dimension-mismatch',
+      35,
+      'model.layers[0].conv.kernel has 3 entries, but model.input.shape is [32, 32] (2D); give one integer for every axis or [height, width]',
+    ],
   ])('conv {%s}', (fields, code, column, message) => {
     const d = diagnostics(layered(`    - conv: {${fields}}\n`));
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual([`${code}@6:${column}`]);
@@ -100,7 +105,7 @@ describe('sizes', () => {
   });
 
   test('input shape and features', () => {
-    const text = 'model:\n  input:\n    shape: [0, 4.5, 3]\n    features: -1\n  layers: [{dense: {units: 1}}]\n';
+    const text = 'model:\n  input:\n    shape: [0, 4.5, 3, 2]\n    features: -1\n  layers: [{dense: {units: 1}}]\n';
     expect(codesAt(text)).toEqual([
       'config/invalid-length@3:12',
       'config/invalid-number@3:13',
@@ -127,15 +132,26 @@ describe('structure', () => {
     expect(d[0]!.message).toBe('model.layers is empty; list at least one layer');
   });
 
-  test('layers that is not a list, and a layer that is not a mapping', () => {
+  test('layers that is not a list, and a layer that is neither a mapping nor a kind name', () => {
     expect(codesAt('model:\n  input: {shape: [4], features: 2}\n  layers: conv\n')).toEqual(['config/type@3:11']);
-    const d = diagnostics(layered('    - conv\n    - [1, 2]\n'));
-    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/type@6:7', 'config/type@7:7']);
-    expect(d[0]!.message).toContain("write '- conv: {...}'");
+    const d = diagnostics(layered('    - conv\n    - [1, 2]\n    - 7\n    -\n'));
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual([
+      'config/missing-field@6:7',
+      'config/type@7:7',
+      'config/type@8:7',
+      'config/type@9:6',
+    ]);
+    expect(d[0]!.message).toBe("model.layers[0] is missing 'channels' (output channels)");
+    expect(d[1]!.message).toBe(
+      "model.layers[1] must be a layer, got a list; write a layer as '- conv: {channels: 64}', '- {type: Conv2d, out_channels: 64}' or '- relu'",
+    );
+    expect(d[2]!.message).toContain('model.layers[2] must be a layer, got 7');
   });
 
   test('a layer body that is not a mapping', () => {
-    expect(codesAt(layered('    - conv: 64\n'))).toEqual(['config/type@6:13']);
+    const d = diagnostics(layered('    - conv: 64\n    - pool: [2, 2]\n'));
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/type@6:13', 'config/type@7:13']);
+    expect(d[0]!.message).toBe("model.layers[0].conv must be a mapping of the layer's fields, got 64; e.g. '- conv: {…}'");
   });
 
   test('a missing required field names it', () => {
@@ -144,7 +160,7 @@ describe('structure', () => {
     expect(d[0]!.message).toBe("model.layers[0].dense is missing 'units' (output units)");
   });
 
-  test('padding must be same or valid', () => {
+  test('padding must be a known word or zeros per side', () => {
     const d = diagnostics(layered('    - conv: {channels: 1, padding: vald}\n'));
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/invalid-value@6:36']);
     expect(d[0]!.message).toContain("(did you mean 'valid'?)");
@@ -153,14 +169,14 @@ describe('structure', () => {
   test('pool needs a window or global: true, not both', () => {
     expect(codesAt(layered('    - pool: {}\n    - pool: {window: 2, global: true}\n    - pool: {global: false}\n'))).toEqual([
       'config/missing-field@6:13',
-      'config/conflicting-fields@7:13',
+      'config/conflicting-fields@7:14',
       'config/missing-field@8:13',
     ]);
   });
 
   test('pool with global: false and a window is a windowed pool', () => {
-    const r = loadConfigText(layered('    - pool: {window: 2, global: false}\n'), 't.yaml');
-    expect(r.ok && r.model.kind === 'layered' && r.model.layers[0]).toMatchObject({ window: [2, 2], global: false });
+    const r = loadConfigText(layered('    - conv: {channels: 2}\n    - pool: {window: 2, global: false}\n'), 't.yaml');
+    expect(r.ok && r.model.kind === 'layered' && r.model.layers[1]).toMatchObject({ window: [2, 2], stride: [2, 2], global: false });
   });
 
   test('the model needs input+layers or network, not both', () => {
@@ -196,10 +212,13 @@ describe('collecting', () => {
       'config/invalid-number@6:24',
       'config/unknown-field@6:27',
       'config/unknown-layer-kind@7:7',
-      'config/invalid-length@8:22',
-      'config/recurrent-needs-1d@9:7',
+      'config/dimension-mismatch@8:22',
       'config/type@10:22',
     ]);
+  });
+
+  test('shape problems are reported once the layers read: a recurrent layer on a 2D grid', () => {
+    expect(codesAt(layered('    - conv: {channels: 1}\n    - recurrent: {hidden: 4}\n'))).toEqual(['config/recurrent-needs-1d@7:7']);
   });
 
   test('the same input gives the same list every time', () => {

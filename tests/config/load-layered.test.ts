@@ -21,23 +21,41 @@ describe('a layered model', () => {
     const m = loadLayered(EXAMPLE.replace('[224, 224]', '[224]').replace('kernel: 3', 'kernel: [3]'));
     expect(m.file).toBe('test.yaml');
     expect(m.weightSharing).toBe(false);
-    expect(m.input.shape).toEqual([224]);
-    expect(m.input.features).toBe(3);
+    expect(m.input).toMatchObject({ shape: [224], channels: 3, featuresAsChannels: true });
+    expect(m.input.representation).toBeUndefined();
+    expect(m.output).toEqual({});
     expect(m.layers.map((l) => l.kind)).toEqual(['conv', 'pool', 'recurrent', 'pool', 'dense']);
-    expect(m.layers[0]).toMatchObject({ kind: 'conv', index: 0, name: 'stem', channels: 64, kernel: [3], stride: [2], padding: 'valid', path: '/model/layers/0' });
-    expect(m.layers[1]).toMatchObject({ kind: 'pool', index: 1, window: [2], global: false, path: '/model/layers/1' });
+    expect(m.layers.map((l) => l.inputs)).toEqual([[-1], [0], [1], [2], [3]]);
+    expect(m.layers[0]).toEqual({
+      kind: 'conv',
+      index: 0,
+      inputs: [-1],
+      name: 'stem',
+      channels: 64,
+      kernel: [3],
+      stride: [2],
+      dilation: [1],
+      padding: { mode: 'valid' },
+      groups: 1,
+      depthMultiplier: 1,
+      path: '/model/layers/0',
+      span: m.layers[0]!.span,
+      fieldSpans: m.layers[0]!.fieldSpans,
+    });
+    expect(m.layers[1]).toMatchObject({ kind: 'pool', index: 1, mode: 'max', window: [2], stride: [2], padding: { mode: 'valid' }, global: false, path: '/model/layers/1' });
     expect(m.layers[2]).toMatchObject({ kind: 'recurrent', index: 2, hidden: 8, depth: 1 });
-    expect(m.layers[3]).toMatchObject({ kind: 'pool', window: [], global: true });
+    expect(m.layers[3]).toMatchObject({ kind: 'pool', window: [], stride: [], global: true });
     expect(m.layers[4]).toMatchObject({ kind: 'dense', index: 4, units: 10, path: '/model/layers/4' });
     expect(m.layers[0]!.repeatIteration).toBeUndefined();
     expect('repeatIteration' in m.layers[0]!).toBe(false);
     expect(m.layers[1]!.name).toBeUndefined();
   });
 
-  test('defaults: weight sharing on, kernel and stride 1, padding same, depth 1', () => {
+  test('defaults: weight sharing on, kernel, stride and dilation 1, padding same, no groups, depth 1', () => {
     const m = loadLayered(layered('    - conv: {channels: 4}\n    - recurrent: {hidden: 2}\n', '[10]'));
     expect(m.weightSharing).toBe(true);
-    expect(m.layers[0]).toMatchObject({ kernel: [1], stride: [1], padding: 'same' });
+    expect(m.layers[0]).toMatchObject({ kernel: [1], stride: [1], dilation: [1], padding: { mode: 'same' }, groups: 1, depthMultiplier: 1 });
+    expect('bias' in m.layers[0]!).toBe(false);
     expect(m.layers[1]).toMatchObject({ depth: 1 });
   });
 
@@ -46,7 +64,7 @@ describe('a layered model', () => {
     expect(m.span).toMatchObject({ line: 2, column: 3 });
     expect(m.input.span).toMatchObject({ line: 3, column: 5 });
     expect(m.input.fieldSpans['shape']).toMatchObject({ line: 3, column: 12, endLine: 3, endColumn: 22 });
-    expect(m.input.fieldSpans['features']).toMatchObject({ line: 4, column: 15 });
+    expect(m.input.fieldSpans['channels']).toMatchObject({ line: 4, column: 15 });
     const stem = m.layers[0]!;
     expect(stem.span).toMatchObject({ line: 7, column: 7 });
     expect(Object.keys(stem.fieldSpans).sort()).toEqual(['channels', 'kernel', 'name', 'padding', 'stride']);
@@ -102,7 +120,7 @@ describe('per-dimension sizes', () => {
   test('recurrent on a 2D input is rejected at the recurrent layer', () => {
     const d = diagnostics(layered('    - conv: {channels: 4}\n    - recurrent: {hidden: 8, depth: 2}\n'));
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/recurrent-needs-1d@7:7']);
-    expect(d[0]!.message).toContain('model.layers[1]');
+    expect(d[0]!.message).toBe('layer 1 (line 7): a recurrent layer needs a 1D sequence, but the grid is [32, 32] here');
   });
 });
 
@@ -111,7 +129,8 @@ describe('field aliases', () => {
     ['conv: {out_channels: 16}', 'channels', 16, 'out_channels'],
     ['conv: {filters: 16}', 'channels', 16, 'filters'],
     ['conv: {channels: 2, kernel_size: 5}', 'kernel', [5], 'kernel_size'],
-    ['pool: {pool_size: 4}', 'window', [4], 'pool_size'],
+    ['conv: {channels: 2, strides: 2}', 'stride', [2], 'strides'],
+    ['conv: {channels: 2, dilation_rate: 2}', 'dilation', [2], 'dilation_rate'],
     ['recurrent: {hidden_size: 12}', 'hidden', 12, 'hidden_size'],
     ['recurrent: {hidden: 2, num_layers: 3}', 'depth', 3, 'num_layers'],
   ])('%s → %s', (layer, field, value, alias) => {

@@ -27,7 +27,9 @@ describe('repeat expansion', () => {
       [6, 'pool', '/model/layers/1/repeat/layers/1', 2],
       [7, 'dense', '/model/layers/2', undefined],
     ]);
-    expect(m.layers.map((l) => l.name)).toEqual(['stem', undefined, 'down', undefined, 'down', undefined, 'down', undefined]);
+    // copies of a named layer are numbered from 1, so every layer has one label
+    expect(m.layers.map((l) => l.name)).toEqual(['stem', undefined, 'down[1]', undefined, 'down[2]', undefined, 'down[3]', undefined]);
+    expect(m.layers.map((l) => l.inputs)).toEqual([[-1], [0], [1], [2], [3], [4], [5], [6]]);
   });
 
   test('spans of expanded layers point at the inner YAML', () => {
@@ -111,6 +113,17 @@ describe('the expansion cap', () => {
     expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/too-many-layers@6:16']);
     expect(d[0]!.message).toContain('model.layers[1].repeat.times is 1000000');
     expect(d[0]!.message).toContain('1000000000000001 layers');
+  });
+
+  test('a repeat inside a block is blamed at its times; the blocks count their merges', () => {
+    const text = layered(
+      '    - conv: {channels: 2}\n    - residual:\n        layers:\n          - repeat: {times: 9997, layers: [{conv: {channels: 2}}]}\n        activation: relu\n',
+    );
+    // 1 + 9997 + the merge + its activation = 10000: allowed; one more copy is not
+    expect(loadLayered(text).layers).toHaveLength(10000);
+    const d = diagnostics(text.replace('9997', '9998'));
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/too-many-layers@9:29']);
+    expect(d[0]!.message).toContain('model.layers[1].residual.layers[0].repeat.times is 9998');
   });
 
   test('the biggest of several top-level repeats is blamed', () => {

@@ -73,12 +73,12 @@ describe('rankfloor bounds', () => {
     expect(r.stderr).not.toMatch(/\n\s+at /);
   });
 
-  test('a window that does not tile the grid: exit 2 with the window position', () => {
-    const file = tempConfig('model:\n  input: {shape: [6], features: 2}\n  layers:\n    - conv: {channels: 2}\n    - pool: {window: 4}\n');
+  test('a window wider than the grid it reaches: exit 2 with the window position', () => {
+    const file = tempConfig('model:\n  input: {shape: [6], channels: 2}\n  layers:\n    - conv: {channels: 2}\n    - pool: {window: 8}\n');
     const r = runCli(['bounds', file]);
     expect(r.code).toBe(2);
     expect(r.stderr).toContain(`${file}:5:22: error:`);
-    expect(r.stderr).toContain('network/window-does-not-tile');
+    expect(r.stderr).toContain('config/window-does-not-fit');
   });
 
   test('malformed YAML: exit 2 with its position', () => {

@@ -1,43 +1,103 @@
 /**
  * Model literals for tests that exercise the engine without going through YAML, and a seeded
- * PRNG so that random cases are reproducible.
+ * PRNG so that random cases are reproducible. Layers form a chain unless a body gives `inputs`
+ * (indices of earlier layers; -1 is the model input), so a DAG is one literal too.
  */
 import { NO_SPAN } from '../../src/diagnostic.js';
-import type { Layer, LayeredModel } from '../../src/config/model.js';
+import { INPUT, type Layer, type LayeredModel, type Padding, type PointwiseFamily, type PoolMode } from '../../src/config/model.js';
 
-type LayerBody =
-  | { kind: 'conv'; channels: number; kernel?: number[]; stride?: number[]; padding?: 'same' | 'valid' }
-  | { kind: 'pool'; window?: number[]; global?: boolean }
-  | { kind: 'dense'; units: number }
-  | { kind: 'recurrent'; hidden: number; depth?: number };
+type Wiring = { inputs?: number[]; name?: string };
 
-export function layered(shape: number[], features: number, bodies: LayerBody[], weightSharing = true): LayeredModel {
+type LayerBody = Wiring &
+  (
+    | {
+        kind: 'conv';
+        channels?: number;
+        kernel?: number[];
+        stride?: number[];
+        dilation?: number[];
+        padding?: 'same' | 'valid' | 'causal' | number[];
+        groups?: number | 'depthwise';
+        depthMultiplier?: number;
+      }
+    | { kind: 'conv-transpose'; channels: number; kernel?: number[]; stride?: number[]; padding?: number[]; outputPadding?: number[] }
+    | { kind: 'pool'; window?: number[]; stride?: number[]; mode?: PoolMode; global?: boolean }
+    | { kind: 'dense'; units: number }
+    | { kind: 'flatten' }
+    | { kind: 'upsample'; factor: number[]; mode?: 'nearest' | 'linear' }
+    | { kind: 'recurrent'; hidden: number; depth?: number }
+    | { kind: 'pointwise'; op: string; family?: PointwiseFamily }
+    | { kind: 'merge'; mode: 'sum' | 'concat'; inputs: number[]; origin?: 'residual' | 'branches' | 'skip' }
+  );
+
+function paddingOf(p: 'same' | 'valid' | 'causal' | number[] | undefined): Padding {
+  if (Array.isArray(p)) return { mode: 'explicit', amount: p };
+  return { mode: p ?? 'same' };
+}
+
+/** `representation` is M (set explicitly, as the engine tests need an exact M). */
+export function layered(shape: number[], representation: number, bodies: LayerBody[], weightSharing = true): LayeredModel {
+  const ones = shape.map(() => 1);
   const layers: Layer[] = bodies.map((b, index) => {
-    const base = { index, path: `/model/layers/${index}`, span: { ...NO_SPAN, line: index + 5 }, fieldSpans: {} };
+    const base = {
+      index,
+      inputs: b.inputs ?? [index === 0 ? INPUT : index - 1],
+      path: `/model/layers/${index}`,
+      span: { ...NO_SPAN, line: index + 5 },
+      fieldSpans: {},
+      ...(b.name !== undefined ? { name: b.name } : {}),
+    };
     switch (b.kind) {
       case 'conv':
         return {
           ...base,
           kind: 'conv',
-          channels: b.channels,
-          kernel: b.kernel ?? shape.map(() => 1),
-          stride: b.stride ?? shape.map(() => 1),
-          padding: b.padding ?? 'same',
+          ...(b.channels !== undefined ? { channels: b.channels } : {}),
+          kernel: b.kernel ?? ones,
+          stride: b.stride ?? ones,
+          dilation: b.dilation ?? ones,
+          padding: paddingOf(b.padding),
+          groups: b.groups ?? 1,
+          depthMultiplier: b.depthMultiplier ?? 1,
         };
-      case 'pool':
-        return { ...base, kind: 'pool', window: b.global ? [] : (b.window ?? []), global: b.global ?? false };
+      case 'conv-transpose':
+        return {
+          ...base,
+          kind: 'conv-transpose',
+          channels: b.channels,
+          kernel: b.kernel ?? ones,
+          stride: b.stride ?? ones,
+          dilation: ones,
+          padding: b.padding ?? shape.map(() => 0),
+          outputPadding: b.outputPadding ?? shape.map(() => 0),
+          groups: 1,
+        };
+      case 'pool': {
+        const global = b.global ?? false;
+        const window = global ? [] : (b.window ?? []);
+        return { ...base, kind: 'pool', mode: b.mode ?? 'product', window, stride: global ? [] : (b.stride ?? window), padding: { mode: 'valid' }, global };
+      }
       case 'dense':
         return { ...base, kind: 'dense', units: b.units };
+      case 'flatten':
+        return { ...base, kind: 'flatten' };
+      case 'upsample':
+        return { ...base, kind: 'upsample', factor: b.factor, mode: b.mode ?? 'nearest' };
       case 'recurrent':
         return { ...base, kind: 'recurrent', hidden: b.hidden, depth: b.depth ?? 1 };
+      case 'pointwise':
+        return { ...base, kind: 'pointwise', op: b.op, family: b.family ?? 'activation' };
+      case 'merge':
+        return { ...base, kind: 'merge', mode: b.mode, origin: b.origin ?? 'skip' };
     }
   });
   return {
     kind: 'layered',
     file: 'test.yaml',
-    input: { shape, features, span: { ...NO_SPAN, line: 2 }, fieldSpans: {} },
+    input: { shape, representation, span: { ...NO_SPAN, line: 2 }, fieldSpans: {} },
     weightSharing,
     layers,
+    output: {},
     span: NO_SPAN,
   };
 }

@@ -15,16 +15,16 @@ function load(text: string) {
 }
 
 describe('circuitToGraph', () => {
-  const yaml = 'model:\n  input: {shape: [4], features: 3}\n  layers:\n    - conv: {channels: 2, name: c}\n    - pool: {window: 2}\n';
+  const yaml = 'model:\n  input: {shape: [4], representation: 3}\n  layers:\n    - conv: {channels: 2, name: c}\n    - pool: {window: 2}\n    - pool: {global: true}\n';
 
-  test('tree surrogate: inputs, per-position maps, copy tensors, implicit global pool, head', () => {
+  test('tree surrogate: inputs, per-position maps, copy tensors, a global pool, head', () => {
     const m = load(yaml);
     if (m.kind !== 'layered') throw new Error('layered');
     const built = buildCircuit(m, { surrogate: 'tree' });
     if (!built.ok) throw new Error('build');
     const g = circuitToGraph(built.circuit);
     const kinds = g.mapNodes((_, a) => a.kind).sort();
-    // 4 inputs, 4 linear maps, 2 pool windows + 1 implicit global pool, the head
+    // 4 inputs, 4 linear maps, 2 pool windows + 1 global pool, the head
     expect(kinds).toEqual(['copy', 'copy', 'copy', 'head', 'input', 'input', 'input', 'input', 'linear', 'linear', 'linear', 'linear']);
     expect(g.size).toBe(4 + 4 + 2 + 1);
     const inputs = g.filterNodes((_, a) => a.kind === 'input').map((n) => g.getNodeAttributes(n));

@@ -8,7 +8,7 @@ import { computeBounds } from '../../src/cut/bounds.js';
 import { formatDiagnosticLine } from '../../src/diagnostic.js';
 import type { PartitionBounds } from '../../src/cut/types.js';
 import { Rng } from './field.js';
-import { compile, probeRankWith, WeightStore } from './surrogate.js';
+import { compile, probeRankWith, RefusedModel, WeightStore } from './surrogate.js';
 import { explicitRank } from './contract.js';
 import type { ExplicitCase, LayeredCase } from './families.js';
 import { describeModel } from './models.js';
@@ -145,6 +145,20 @@ export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: nu
     return;
   }
   if (!out.ok) {
+    // Two refusals the text prescribes: a model it refuses too, and an output that is zero for
+    // every weight (the oracle then reads rank 0 everywhere).
+    let refused = false;
+    try {
+      const ev = compile(c.model, c.surrogate, new WeightStore(new Rng(seed ^ 0x2545f491)));
+      const zero = out.diagnostics.every((d) => d.code === 'network/zero-output');
+      refused = zero && c.partitions.every((p) => probeRankWith(ev, p.side, 4, new Rng(seed)) === 0);
+    } catch (e) {
+      refused = e instanceof RefusedModel;
+    }
+    if (refused) {
+      stats.skipped += c.partitions.length;
+      return;
+    }
     record(stats, c, `${where}: computeBounds rejected a valid model: ${out.diagnostics.map(formatDiagnosticLine).join('; ')}`);
     return;
   }

@@ -5,16 +5,18 @@
  * cross-check of the probe evaluator: those functions are multilinear in the inputs, so the
  * separation rank is exactly the rank of the matricised coefficient tensor.
  *
- * The tensor network of a tree-surrogate model is rebuilt here from the contributor guide's
- * definition (a matrix per conv position, a copy tensor per product window, a chain for a depth-1
- * recurrence, a vector for the head) — not from the product's network code. A copy tensor is
+ * The tensor network of a tree-surrogate chain is rebuilt here from the contributor guide's
+ * definition (a matrix per mapped position, a copy tensor per product window, a chain for a
+ * depth-1 recurrence, a vector for the head) — not from the product's network code. A copy tensor is
  * realised by identifying the indices it joins; a hyperedge of an explicit network is one index
  * shared by all its tensors. Contraction is variable elimination with a greedy smallest-result
  * order, exact mod P.
  */
 import type { ExplicitModel, LayeredModel } from '../../src/config/model.js';
 import { add, mul, randomVector, rankInPlace, type Rng } from './field.js';
-import { WeightStore, linearKey, recurrentKeys } from './surrogate.js';
+import { count, flatIndex, multiIndices, poolGroups, treeConvGroups, treeTransposeAxis } from './geometry.js';
+import { planModel } from './plan.js';
+import { WeightStore, linearKey, mapMatrix, offsetKey, recurrentKeys } from './surrogate.js';
 
 export interface Factor {
   readonly vars: readonly number[];
@@ -164,13 +166,25 @@ export function explicitRank(model: ExplicitModel, side: Uint8Array, rng: Rng): 
   return matricisedRank({ dims, factors }, rows, cols);
 }
 
+/** Thrown by `treeNetwork` for a model whose function is not a tensor network of this kind. */
+export class NotATreeNetwork extends Error {
+  override readonly name = 'NotATreeNetwork';
+}
+
 /**
- * The tensor network of a layered model under the `tree` surrogate, over the weights in `weights`
- * (the same keys as the evaluator uses, so both can share one draw). Returns the network and the
- * open index of every input position. Depth ≥ 2 recurrences reuse states and are not tensor
- * networks: they throw.
+ * The tensor network of a layered chain under the `tree` surrogate, over the weights in `weights`
+ * (the same keys and the same grouped maps as the evaluator, so both can share one draw): a matrix
+ * per mapped position, a copy tensor per product window, a chain for a depth-1 recurrence, a
+ * vector for the head. Returns the network and the open index of every input position.
+ *
+ * The coefficient tensor represents h only when h is multilinear in the inputs with every input
+ * used exactly once; anything else throws `NotATreeNetwork`: merges, flatten, upsampling, reuse
+ * (overlapping pools, a conv-transpose reading one input twice, depth ≥ 2 recurrences), the square
+ * rule, inputs that no output reads (subsampling, `valid` edges, an output position), and dense
+ * layers that read the raw input (a sum over positions).
  */
 export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: FactorNetwork; inputs: number[] } {
+  const plan = planModel(model, 'tree');
   const dims: number[] = [];
   const factors: Factor[] = [];
   const parent: number[] = [];
@@ -183,81 +197,98 @@ export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: F
     while (parent[v] !== v) v = parent[v] as number;
     return v;
   };
-  const shape = model.input.shape;
-  const n = shape.reduce((a, b) => a * b, 1);
+  const m = plan.m;
+  const n = count(plan.input.dims);
   const inputs: number[] = [];
-  for (let p = 0; p < n; p++) inputs.push(fresh(model.input.features));
+  for (let p = 0; p < n; p++) inputs.push(fresh(m));
   const isInput = new Set(inputs);
   let cur = inputs.slice();
-  let gdims = [...shape];
-  let d = model.input.features;
+  let gdims: readonly number[] = plan.input.dims;
+  let d = m;
   const identity = (k: number): Float64Array => {
-    const m = new Float64Array(k * k);
-    for (let i = 0; i < k; i++) m[i * k + i] = 1;
-    return m;
+    const a = new Float64Array(k * k);
+    for (let i = 0; i < k; i++) a[i * k + i] = 1;
+    return a;
   };
-  // Copy tensor over each window: the children's indices and a new parent index become one index.
-  const windows = (window: readonly number[]): void => {
-    if (window.length !== gdims.length) throw new Error('window rank mismatch');
-    const nd = gdims.map((x, a) => {
-      const w = window[a] as number;
-      if (x % w !== 0) throw new Error('window does not tile');
-      return x / w;
-    });
-    const next: number[] = [];
-    const width = gdims.length === 2 ? (gdims[1] as number) : 1;
-    const wh = gdims.length === 2 ? (window[0] as number) : 1;
-    const ww = gdims.length === 2 ? (window[1] as number) : (window[0] as number);
-    const rowsOut = gdims.length === 2 ? (nd[0] as number) : 1;
-    const colsOut = gdims.length === 2 ? (nd[1] as number) : (nd[0] as number);
-    for (let i = 0; i < rowsOut; i++) {
-      for (let j = 0; j < colsOut; j++) {
-        const top = fresh(d);
-        for (let a = 0; a < wh; a++) {
-          for (let b = 0; b < ww; b++) {
-            const pos = gdims.length === 2 ? (i * wh + a) * width + (j * ww + b) : j * ww + b;
-            let child = cur[pos] as number;
-            if (isInput.has(child)) {
-              // An open leg cannot be merged away: route it through an identity matrix first.
-              const inner = fresh(d);
-              factors.push({ vars: [inner, child], data: identity(d) });
-              child = inner;
-            }
-            parent[find(child)] = find(top);
-          }
+  const usedOnce = (groups: readonly (readonly number[])[], what: string): void => {
+    const uses = new Array<number>(cur.length).fill(0);
+    for (const g of groups) for (const p of g) uses[p]!++;
+    if (uses.some((u) => u !== 1)) throw new NotATreeNetwork(`${what}: a position is read ${uses.some((u) => u > 1) ? 'twice' : 'by no output'}`);
+  };
+  // Copy tensor over each group: the children's indices and a new parent index become one index.
+  const windows = (groups: readonly (readonly number[])[], what: string): void => {
+    usedOnce(groups, what);
+    cur = groups.map((g) => {
+      if (g.length === 0) throw new NotATreeNetwork(`${what}: an empty window`);
+      if (g.length === 1) return cur[g[0] as number] as number;
+      const top = fresh(d);
+      for (const pos of g) {
+        let child = cur[pos] as number;
+        if (isInput.has(child)) {
+          // An open leg cannot be merged away: route it through an identity matrix first.
+          const inner = fresh(d);
+          factors.push({ vars: [inner, child], data: identity(d) });
+          child = inner;
         }
-        next.push(top);
+        parent[find(child)] = find(top);
       }
-    }
-    cur = next;
-    gdims = nd;
-  };
-  const linear = (key: (q: number) => string, r: number): void => {
-    cur = cur.map((v, q) => {
-      const out = fresh(r);
-      factors.push({ vars: [out, v], data: weights.get(key(q), r * d) });
-      return out;
+      return top;
     });
-    d = r;
   };
-  for (const layer of model.layers) {
+  const linearAt = (v: number, key: string, r: number, g: number): number => {
+    const out = fresh(r);
+    factors.push({ vars: [out, v], data: mapMatrix(weights, key, r, d, g) });
+    return out;
+  };
+  model.layers.forEach((layer, li) => {
+    if (layer.inputs.length !== 1 || layer.inputs[0] !== li - 1) throw new NotATreeNetwork(`layer ${li} is not a chain link`);
+    const outGrid = plan.grids[li]!;
     switch (layer.kind) {
-      case 'conv':
-        linear((q) => linearKey(layer.index, q, model.weightSharing), layer.channels);
-        if (layer.stride.some((s) => s > 1)) windows(layer.stride);
+      case 'conv': {
+        const r = outGrid.width;
+        const g = plan.groups[li]!;
+        const { groups } = treeConvGroups(gdims, layer.kernel, layer.stride, layer.dilation, layer.padding);
+        usedOnce(groups, `conv ${li}`);
+        cur = cur.map((v, p) => linearAt(v, linearKey(li, p, model.weightSharing), r, g));
+        d = r;
+        windows(groups, `conv ${li}`);
         break;
-      case 'pool':
-        windows(layer.global ? gdims : layer.window);
+      }
+      case 'conv-transpose': {
+        const sources = multiIndices(outGrid.dims).map((j) => j.map((jj, a) => treeTransposeAxis(jj, gdims[a] as number, layer.stride[a] as number)));
+        usedOnce(sources.map((s) => [flatIndex(s.map((x) => x.source), gdims)]), `conv-transpose ${li}`);
+        const r = outGrid.width;
+        cur = sources.map((s, o) => {
+          const key = offsetKey(li, o, flatIndex(s.map((x) => x.offset), layer.stride), model.weightSharing);
+          return linearAt(cur[flatIndex(s.map((x) => x.source), gdims)] as number, key, r, plan.groups[li]!);
+        });
+        d = r;
         break;
-      case 'dense':
-        if (cur.length !== 1) throw new Error('dense on several positions');
-        linear(() => linearKey(layer.index, 0, true), layer.units);
+      }
+      case 'pool': {
+        if (layer.global) {
+          windows([cur.map((_, p) => p)], `pool ${li}`);
+          break;
+        }
+        const { groups } = poolGroups(gdims, layer.window, layer.stride, layer.padding);
+        windows(groups, `pool ${li}`);
+        break;
+      }
+      case 'dense': {
+        const reading = plan.reading[li];
+        if (reading === 'input') throw new NotATreeNetwork(`dense ${li} reads the raw input (a sum over positions)`);
+        const key = (p: number): string => (reading === 'vector' ? `L${li}` : linearKey(li, p, model.weightSharing));
+        cur = cur.map((v, p) => linearAt(v, key(p), layer.units, 1));
+        d = layer.units;
+        break;
+      }
+      case 'pointwise':
+        if (plan.square[li]) throw new NotATreeNetwork(`activation ${li} squares`);
         break;
       case 'recurrent': {
-        if (layer.depth !== 1) throw new Error('a deep recurrence reuses states: not a tensor network');
-        if (gdims.length !== 1) throw new Error('recurrent needs a 1D grid');
+        if (layer.depth !== 1) throw new NotATreeNetwork('a deep recurrence reuses states');
         const R = layer.hidden;
-        const keys = recurrentKeys(layer.index, 1);
+        const keys = recurrentKeys(li, 1);
         const wh = weights.get(keys.h, R * R);
         const wi = weights.get(keys.i, R * d);
         let state = fresh(R);
@@ -271,13 +302,16 @@ export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: F
           state = a;
         }
         cur = [state];
-        gdims = [1];
         d = R;
         break;
       }
+      default:
+        throw new NotATreeNetwork(`${layer.kind} ${li}`);
     }
-  }
-  if (cur.length > 1) windows(gdims);
+    gdims = outGrid.dims;
+    if (cur.length !== count(gdims)) throw new Error(`layer ${li}: ${cur.length} positions, planned ${count(gdims)}`);
+  });
+  if (cur.length > 1) throw new NotATreeNetwork('the output reads one of several positions');
   factors.push({ vars: [cur[0] as number], data: weights.get('head', d) });
   const renamed = factors.map((f) => ({ vars: f.vars.map(find), data: f.data }));
   return { net: { dims, factors: renamed }, inputs };
@@ -290,4 +324,3 @@ export function treeTensorRank(model: LayeredModel, side: Uint8Array, weights: W
   const cols = inputs.filter((_, p) => (side[p] ?? 0) !== 1);
   return matricisedRank(net, rows, cols);
 }
-

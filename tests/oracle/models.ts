@@ -1,75 +1,274 @@
 /**
  * Terse builders for Model literals, so that oracle tests and reference tests can write a network
  * in one line (`layered([8], 3, false, [conv(3), pool([2]), ...])`) instead of spelling out spans,
- * paths and indices. They build the normalised model directly, without the config loader, so the
- * tests exercise the bound engine and the oracle on exactly the model they describe.
+ * paths, indices and inputs. They build the normalised model directly, without the config loader,
+ * so the tests exercise the bound engine and the oracle on exactly the model they describe.
+ *
+ * A list of items is a chain (each layer reads the one before); blocks (`residual`, `branches`,
+ * `skip`) expand into their layers and a merge with the right `inputs`, as the loader does.
  */
 import { NO_SPAN } from '../../src/diagnostic.js';
-import type {
-  ConvLayer,
-  DenseLayer,
-  ExplicitBond,
-  ExplicitModel,
-  ExplicitTensor,
-  Layer,
-  LayeredModel,
-  PoolLayer,
-  RecurrentLayer,
-  Shape,
+import {
+  INPUT,
+  type ConvLayer,
+  type ConvTransposeLayer,
+  type DenseLayer,
+  type ExplicitBond,
+  type ExplicitModel,
+  type ExplicitTensor,
+  type FlattenLayer,
+  type Layer,
+  type LayeredModel,
+  type MergeLayer,
+  type Padding,
+  type PointwiseFamily,
+  type PointwiseLayer,
+  type PoolLayer,
+  type PoolMode,
+  type RecurrentLayer,
+  type Shape,
+  type UpsampleLayer,
 } from '../../src/config/model.js';
 import type { Partition } from '../../src/partition/partition.js';
 import { resolvePartition } from '../../src/partition/partition.js';
 
-type Unindexed<T> = T extends unknown ? Omit<T, 'index' | 'path'> : never;
-export type LayerDraft = Unindexed<Layer>;
+type Draft<T> = T extends unknown ? Omit<T, 'index' | 'path' | 'inputs'> & { readonly inputs?: readonly number[] } : never;
+/** A layer before it is placed: `inputs` absent means "the previous item". */
+export type LayerDraft = Draft<Layer>;
+
+/** A block: expands into layers after `entry` and returns the index of its last layer. */
+export interface Block {
+  readonly block: (g: GraphBuilder, entry: number) => number;
+}
+
+export type Item = LayerDraft | Block;
 
 const base = { span: NO_SPAN, fieldSpans: {} } as const;
 
-export function conv(
-  channels: number,
-  opts: { kernel?: readonly number[]; stride?: readonly number[]; padding?: 'same' | 'valid'; dims?: number } = {},
-): Unindexed<ConvLayer> {
-  const dims = opts.dims ?? opts.kernel?.length ?? opts.stride?.length ?? 1;
+/** `same`, `valid`, `causal`, or explicit zeros per axis. */
+export type PaddingSpec = 'same' | 'valid' | 'causal' | readonly number[];
+
+export function padding(p: PaddingSpec): Padding {
+  return typeof p === 'string' ? { mode: p } : { mode: 'explicit', amount: p };
+}
+
+const fill = (dims: number, v: number): number[] => new Array<number>(dims).fill(v);
+
+export interface ConvOptions {
+  readonly kernel?: readonly number[];
+  readonly stride?: readonly number[];
+  readonly dilation?: readonly number[];
+  readonly padding?: PaddingSpec;
+  readonly groups?: number | 'depthwise';
+  readonly depthMultiplier?: number;
+  /** Grid axes when no per-axis field says (default 1). */
+  readonly dims?: number;
+  readonly name?: string;
+}
+
+function axesOf(opts: { dims?: number; kernel?: readonly number[]; stride?: readonly number[]; dilation?: readonly number[] }, pad?: PaddingSpec): number {
+  return opts.dims ?? opts.kernel?.length ?? opts.stride?.length ?? opts.dilation?.length ?? (typeof pad === 'object' ? pad.length : 1);
+}
+
+export function conv(channels: number | undefined, opts: ConvOptions = {}): Draft<ConvLayer> {
+  const dims = axesOf(opts, opts.padding);
   return {
     ...base,
+    ...(opts.name !== undefined ? { name: opts.name } : {}),
     kind: 'conv',
-    channels,
-    kernel: opts.kernel ?? new Array<number>(dims).fill(1),
-    stride: opts.stride ?? new Array<number>(dims).fill(1),
-    padding: opts.padding ?? 'same',
+    ...(channels !== undefined ? { channels } : {}),
+    kernel: opts.kernel ?? fill(dims, 1),
+    stride: opts.stride ?? fill(dims, 1),
+    dilation: opts.dilation ?? fill(dims, 1),
+    padding: padding(opts.padding ?? 'same'),
+    groups: opts.groups ?? 1,
+    depthMultiplier: opts.depthMultiplier ?? 1,
   };
 }
 
-export function pool(window: readonly number[]): Unindexed<PoolLayer> {
-  return { ...base, kind: 'pool', window, global: false };
+/** A depthwise conv: one group per input channel; channels = input width × multiplier unless given. */
+export function depthwise(opts: Omit<ConvOptions, 'groups'> & { channels?: number } = {}): Draft<ConvLayer> {
+  return conv(opts.channels, { ...opts, groups: 'depthwise' });
 }
 
-export function globalPool(): Unindexed<PoolLayer> {
-  return { ...base, kind: 'pool', window: [], global: true };
+export interface ConvTransposeOptions {
+  readonly kernel?: readonly number[];
+  readonly stride?: readonly number[];
+  readonly dilation?: readonly number[];
+  readonly padding?: readonly number[];
+  readonly outputPadding?: readonly number[];
+  readonly groups?: number;
+  readonly dims?: number;
+  readonly name?: string;
 }
 
-export function dense(units: number): Unindexed<DenseLayer> {
+export function convTranspose(channels: number, opts: ConvTransposeOptions = {}): Draft<ConvTransposeLayer> {
+  const dims = opts.dims ?? opts.kernel?.length ?? opts.stride?.length ?? opts.dilation?.length ?? opts.padding?.length ?? 1;
+  return {
+    ...base,
+    ...(opts.name !== undefined ? { name: opts.name } : {}),
+    kind: 'conv-transpose',
+    channels,
+    kernel: opts.kernel ?? fill(dims, 1),
+    stride: opts.stride ?? fill(dims, 1),
+    dilation: opts.dilation ?? fill(dims, 1),
+    padding: opts.padding ?? fill(dims, 0),
+    outputPadding: opts.outputPadding ?? fill(dims, 0),
+    groups: opts.groups ?? 1,
+  };
+}
+
+export function pool(window: readonly number[], opts: { stride?: readonly number[]; padding?: PaddingSpec; mode?: PoolMode } = {}): Draft<PoolLayer> {
+  return {
+    ...base,
+    kind: 'pool',
+    mode: opts.mode ?? 'product',
+    window,
+    stride: opts.stride ?? window,
+    padding: padding(opts.padding ?? 'valid'),
+    global: false,
+  };
+}
+
+export function globalPool(mode: PoolMode = 'product'): Draft<PoolLayer> {
+  return { ...base, kind: 'pool', mode, window: [], stride: [], padding: { mode: 'valid' }, global: true };
+}
+
+export function upsample(factor: readonly number[], mode: 'nearest' | 'linear' = 'nearest'): Draft<UpsampleLayer> {
+  return { ...base, kind: 'upsample', factor, mode };
+}
+
+export function flatten(): Draft<FlattenLayer> {
+  return { ...base, kind: 'flatten' };
+}
+
+export function dense(units: number): Draft<DenseLayer> {
   return { ...base, kind: 'dense', units };
 }
 
-export function recurrent(hidden: number, depth: number): Unindexed<RecurrentLayer> {
+export function recurrent(hidden: number, depth: number): Draft<RecurrentLayer> {
   return { ...base, kind: 'recurrent', hidden, depth };
 }
 
+export function pointwise(family: PointwiseFamily, op: string): Draft<PointwiseLayer> {
+  return { ...base, kind: 'pointwise', family, op };
+}
+
+export const act = (op = 'relu'): Draft<PointwiseLayer> => pointwise('activation', op);
+export const norm = (op = 'batch_norm'): Draft<PointwiseLayer> => pointwise('normalisation', op);
+export const dropout = (): Draft<PointwiseLayer> => pointwise('dropout', 'dropout');
+export const scaling = (): Draft<PointwiseLayer> => pointwise('scaling', 'scale');
+
+/** A merge with explicit inputs (absolute layer indices; INPUT for the model input). */
+export function merge(mode: 'sum' | 'concat', inputs: readonly number[], origin: MergeLayer['origin'] = 'branches'): Draft<MergeLayer> {
+  return { ...base, kind: 'merge', mode, origin, inputs };
+}
+
+/** Gives a layer a name, so that a later `skip` can read it. */
+export function named<T extends LayerDraft>(name: string, draft: T): T {
+  return { ...draft, name };
+}
+
+/** Places items into a layer list, chaining plain layers and expanding blocks. */
+export class GraphBuilder {
+  readonly layers: Layer[] = [];
+  private readonly names = new Map<string, number>();
+
+  add(draft: LayerDraft, inputs: readonly number[]): number {
+    const index = this.layers.length;
+    this.layers.push({ ...draft, inputs, index, path: `/model/layers/${index}` } as Layer);
+    if (draft.name !== undefined) {
+      if (this.names.has(draft.name)) throw new Error(`layer name ${draft.name} used twice`);
+      this.names.set(draft.name, index);
+    }
+    return index;
+  }
+
+  /** Places a chain after `entry`; returns its last index (`entry` for an empty chain). */
+  chain(items: readonly Item[], entry: number): number {
+    let cur = entry;
+    for (const it of items) cur = 'block' in it ? it.block(this, cur) : this.add(it, it.inputs ?? [cur]);
+    return cur;
+  }
+
+  byName(name: string): number {
+    const i = this.names.get(name);
+    if (i === undefined) throw new Error(`no layer named ${name}`);
+    return i;
+  }
+}
+
+/** output = main(x) + shortcut(x); the shortcut is the identity when empty. */
+export function residual(main: readonly Item[], shortcut: readonly Item[] = []): Block {
+  return {
+    block: (g, entry) => {
+      const a = g.chain(main, entry);
+      const b = g.chain(shortcut, entry);
+      return g.add(merge('sum', [a, b], 'residual'), [a, b]);
+    },
+  };
+}
+
+/** Parallel paths from one grid, merged by sum or channel concatenation (an empty path: identity). */
+export function branches(mode: 'sum' | 'concat', paths: readonly (readonly Item[])[]): Block {
+  return {
+    block: (g, entry) => {
+      const ends = paths.map((p) => g.chain(p, entry));
+      return g.add(merge(mode, ends, 'branches'), ends);
+    },
+  };
+}
+
+/** Merges the current grid with the output of the layer named `from` (current first). */
+export function skip(mode: 'sum' | 'concat', from: string): Block {
+  return {
+    block: (g, entry) => {
+      const ins = [entry, g.byName(from)];
+      return g.add(merge(mode, ins, 'skip'), ins);
+    },
+  };
+}
+
+export interface LayeredOptions {
+  /** The analysed output position (one index per axis of the last grid). */
+  readonly output?: readonly number[];
+  /** The data's raw channel count (reported only). */
+  readonly channels?: number;
+}
+
+/**
+ * A layered model. `representation` is M when a number; undefined leaves it to the model's
+ * default (the widest first map).
+ */
 export function layered(
   shape: Shape,
-  features: number,
+  representation: number | undefined,
   weightSharing: boolean,
-  layers: readonly LayerDraft[],
+  items: readonly Item[],
+  opts: LayeredOptions = {},
 ): LayeredModel {
+  const g = new GraphBuilder();
+  g.chain(items, INPUT);
   return {
     kind: 'layered',
     file: 'oracle.yaml',
-    input: { shape, features, span: NO_SPAN, fieldSpans: {} },
+    input: {
+      shape,
+      ...(representation !== undefined ? { representation } : {}),
+      ...(opts.channels !== undefined ? { channels: opts.channels } : {}),
+      span: NO_SPAN,
+      fieldSpans: {},
+    },
     weightSharing,
-    layers: layers.map((l, index) => ({ ...l, index, path: `/model/layers/${index}` }) as Layer),
+    layers: g.layers,
+    output: opts.output !== undefined ? { position: opts.output } : {},
     span: NO_SPAN,
   };
+}
+
+/** The same model with another analysed output position. */
+export function withOutput(model: LayeredModel, position: readonly number[]): LayeredModel {
+  return { ...model, output: { position } };
 }
 
 export interface TensorDraft {
@@ -114,6 +313,52 @@ export function maskPartition(side: Uint8Array): Partition {
   };
 }
 
+const list = (xs: readonly number[]): string => `[${xs.join(',')}]`;
+
+function paddingText(p: Padding): string {
+  return p.mode === 'explicit' ? `pad${list(p.amount)}` : p.mode;
+}
+
+const ones = (xs: readonly number[]): boolean => xs.every((x) => x === 1);
+
+/** One layer in a few characters; fields at their defaults are left out. */
+export function describeLayer(l: Layer | LayerDraft): string {
+  switch (l.kind) {
+    case 'conv': {
+      const parts = [`r=${l.channels ?? '·'}`, `k=${list(l.kernel)}`];
+      if (!ones(l.stride)) parts.push(`s=${list(l.stride)}`);
+      if (!ones(l.dilation)) parts.push(`d=${list(l.dilation)}`);
+      parts.push(paddingText(l.padding));
+      if (l.groups !== 1) parts.push(`g=${l.groups}`);
+      if (l.depthMultiplier !== 1) parts.push(`x${l.depthMultiplier}`);
+      return `conv(${parts.join(',')})`;
+    }
+    case 'conv-transpose': {
+      const parts = [`r=${l.channels}`, `k=${list(l.kernel)}`, `s=${list(l.stride)}`];
+      if (!ones(l.dilation)) parts.push(`d=${list(l.dilation)}`);
+      if (l.padding.some((x) => x !== 0)) parts.push(`p=${list(l.padding)}`);
+      if (l.outputPadding.some((x) => x !== 0)) parts.push(`q=${list(l.outputPadding)}`);
+      if (l.groups !== 1) parts.push(`g=${l.groups}`);
+      return `convT(${parts.join(',')})`;
+    }
+    case 'pool':
+      if (l.global) return 'pool(global)';
+      return `pool(${list(l.window)}${l.stride.every((s, a) => s === l.window[a]) ? '' : `,s=${list(l.stride)}`}${l.padding.mode === 'valid' ? '' : `,${paddingText(l.padding)}`})`;
+    case 'upsample':
+      return `upsample(${list(l.factor)},${l.mode})`;
+    case 'flatten':
+      return 'flatten';
+    case 'dense':
+      return `dense(${l.units})`;
+    case 'recurrent':
+      return `recurrent(R=${l.hidden},L=${l.depth})`;
+    case 'pointwise':
+      return l.op;
+    case 'merge':
+      return `${l.mode}`;
+  }
+}
+
 /** A short one-line rendering of a model, printed with failing cases. */
 export function describeModel(model: LayeredModel | ExplicitModel): string {
   if (model.kind === 'explicit') {
@@ -122,16 +367,11 @@ export function describeModel(model: LayeredModel | ExplicitModel): string {
     return `explicit shape=[${model.shape.join(',')}] tensors=${t.join(' ')} bonds=${b.join(' ')}`;
   }
   const ls = model.layers.map((l) => {
-    switch (l.kind) {
-      case 'conv':
-        return `conv(r=${l.channels},k=[${l.kernel.join(',')}],s=[${l.stride.join(',')}],${l.padding})`;
-      case 'pool':
-        return l.global ? 'pool(global)' : `pool([${l.window.join(',')}])`;
-      case 'dense':
-        return `dense(${l.units})`;
-      case 'recurrent':
-        return `recurrent(R=${l.hidden},L=${l.depth})`;
-    }
+    const chained = l.inputs.length === 1 && l.inputs[0] === l.index - 1;
+    const from = chained ? '' : `${list(l.inputs.map((i) => (i === INPUT ? 'in' : i) as number))}>`;
+    return `${l.index}:${from}${describeLayer(l)}${l.name !== undefined ? `@${l.name}` : ''}`;
   });
-  return `layered shape=[${model.input.shape.join(',')}] M=${model.input.features} shared=${model.weightSharing} ${ls.join(' ')}`;
+  const m = model.input.representation ?? 'default';
+  const out = model.output.position ? ` output=${list(model.output.position)}` : '';
+  return `layered shape=[${model.input.shape.join(',')}] M=${m} shared=${model.weightSharing}${out} ${ls.join(' ')}`;
 }

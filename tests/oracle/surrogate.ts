@@ -1,20 +1,48 @@
 /**
  * Direct evaluation of a layered model's surrogate function h(x_0 … x_{N−1}) modulo P, exactly as
- * the contributor guide defines the `tree` and `overlap` surrogates, and the probe rank built on
- * it. This is the oracle's main method: it knows nothing about tensor networks, cuts or bounds —
- * it runs the arithmetic circuit on numbers and measures the rank of what comes out.
+ * the contributor guide's "surrogate functions" section defines it for every layer kind under the
+ * `tree` and `overlap` surrogates, and the probe rank built on it. This is the oracle's main
+ * method: it knows nothing about tensor networks, cuts or bounds — it runs the arithmetic circuit
+ * on numbers and measures the rank of what comes out. The grid arithmetic is the oracle's own
+ * (geometry.ts), and so is the reading of the model (plan.ts).
  *
  * Probe rank: draw weights once, K random assignments of the side-A inputs and K of the side-B
  * inputs, fill F[i][j] = h(xA_i, xB_j) and take rank(F) mod P. Any non-zero minor mod P is a
  * non-zero integer polynomial in the weights and inputs, so the result is a certified lower bound
  * of the generic separation rank; with K above the rank it equals it with high probability.
  *
- * Reading of the guide where it is terse: an `overlap` conv with stride s > 1 is the strided
- * linear map of the guide's formula (output length ⌈n/s⌉ or ⌊(n−k)/s⌋+1) and adds no product
- * window; the product window for strides belongs to the `tree` surrogate only.
+ * Readings of the text where it is terse or silent (each also in the oracle's report):
+ * - (the text now says: a pool window with no tap inside the grid is refused; a conv output with
+ *   no position inside the grid is the zero vector);
+ * - `groups` of a conv-transpose make its maps block diagonal, as for a conv;
+ * - an unshared `overlap` conv-transpose has one set of tap maps per output position;
+ * - the `tree` conv-transpose reads input min(⌊j/s⌋, n−1) whatever its padding p (literal text);
+ * - upsampling and merges are the same under both surrogates (the text gives them once).
  */
-import type { ConvLayer, LayeredModel, RecurrentLayer } from '../../src/config/model.js';
-import { mul as fieldMul, mulAdd as fieldMulAdd, randomVector, rankInPlace, type Rng } from './field.js';
+import type { ConvLayer, ConvTransposeLayer, LayeredModel, PoolLayer, RecurrentLayer, UpsampleLayer } from '../../src/config/model.js';
+import { INPUT } from '../../src/config/model.js';
+import { P, add, inv, mul as fieldMul, mulAdd as fieldMulAdd, randomVector, rankInPlace, type Rng } from './field.js';
+import {
+  axisTaps,
+  cartesian,
+  count,
+  flatIndex,
+  linearAxis,
+  multiIndices,
+  poolGroups,
+  transposePairs,
+  treeConvGroups,
+  treeTransposeAxis,
+  windowAxis,
+} from './geometry.js';
+import { planModel, type ModelPlan, type SurrogateKind } from './plan.js';
+
+export type { SurrogateKind } from './plan.js';
+
+/** The text refuses this model (not an evaluation failure): the product must refuse it too. */
+export class RefusedModel extends Error {
+  override readonly name = 'RefusedModel';
+}
 
 // Local bindings of the hot arithmetic: under the test runner's module transform every call
 // through an imported binding is a property load on a module object, which V8 does not inline
@@ -22,14 +50,15 @@ import { mul as fieldMul, mulAdd as fieldMulAdd, randomVector, rankInPlace, type
 const mul = fieldMul;
 const mulAdd = fieldMulAdd;
 
-export type SurrogateKind = 'tree' | 'overlap';
-
 /**
  * Weights drawn on first request and cached by key, so that two independent constructions of the
  * same network (this evaluator and the tensor contraction) can share one draw. Keys:
- * `L{i}` / `L{i}@{pos}` (linear map of layer i, shared / per position), `L{i}t{tap}` /
- * `L{i}@{pos}t{tap}` (overlap taps), `L{i}:H{l}`, `L{i}:I{l}`, `L{i}:h0_{l}` (recurrent level l),
- * `head` (output vector).
+ * `L{i}` / `L{i}@{pos}` (linear map of layer i, shared / per position: the tree conv's map at an
+ * input position, a per-position dense map, a vector or input dense map), `L{i}t{tap}` /
+ * `L{i}@{pos}t{tap}` (overlap taps of a conv or conv-transpose), `L{i}o{offset}` / `L{i}@{pos}`
+ * (tree conv-transpose, per offset / per output position), `L{i}:H{l}`, `L{i}:I{l}`,
+ * `L{i}:h0_{l}` (recurrent level l), `head` (output vector). A grouped map stores its r×(D/g)
+ * blocks under its key (see `mapMatrix`).
  */
 export class WeightStore {
   private readonly cache = new Map<string, Float64Array>();
@@ -46,6 +75,13 @@ export class WeightStore {
     return v;
   }
 
+  /** Fixes a weight before anything draws it (hand-computed examples in the oracle's self-tests). */
+  set(key: string, values: readonly number[]): this {
+    if (this.cache.has(key)) throw new Error(`weight ${key} is already drawn`);
+    this.cache.set(key, Float64Array.from(values));
+    return this;
+  }
+
   get size(): number {
     return this.cache.size;
   }
@@ -59,397 +95,487 @@ export function tapKey(layer: number, pos: number, tap: number, shared: boolean)
   return shared ? `L${layer}t${tap}` : `L${layer}@${pos}t${tap}`;
 }
 
+export function offsetKey(layer: number, pos: number, offset: number, shared: boolean): string {
+  return shared ? `L${layer}o${offset}` : `L${layer}@${pos}`;
+}
+
 export function recurrentKeys(layer: number, level: number): { h: string; i: string; h0: string } {
   return { h: `L${layer}:H${level}`, i: `L${layer}:I${level}`, h0: `L${layer}:h0_${level}` };
 }
 
-/** out = W·v mod P, W row-major rows×cols, v at v[vo .. vo+cols), out at out[oo .. oo+rows). */
-function matVec(w: Float64Array, rows: number, cols: number, v: Float64Array, vo: number, out: Float64Array, oo: number): void {
-  for (let r = 0; r < rows; r++) {
-    let acc = 0;
-    const wo = r * cols;
-    for (let c = 0; c < cols; c++) acc = mulAdd(w[wo + c] as number, v[vo + c] as number, acc);
-    out[oo + r] = acc;
+/**
+ * A map W ∈ R^{r×D} in `g` groups, row-major: output channels [b·r/g, (b+1)·r/g) read only input
+ * channels [b·D/g, (b+1)·D/g). The store holds the r×(D/g) non-zero entries (row by row), so a
+ * map of one group is the plain r×D draw.
+ */
+export function mapMatrix(weights: WeightStore, key: string, r: number, d: number, g: number): Float64Array {
+  if (r % g !== 0 || d % g !== 0) throw new Error(`groups ${g} do not divide ${r}×${d}`);
+  const dg = d / g;
+  const blocks = weights.get(key, r * dg);
+  if (g === 1) return blocks;
+  const w = new Float64Array(r * d);
+  const rg = r / g;
+  for (let row = 0; row < r; row++) {
+    const b = Math.floor(row / rg);
+    for (let c = 0; c < dg; c++) w[row * d + b * dg + c] = blocks[row * dg + c] as number;
   }
+  return w;
 }
 
-/** out += W·v mod P. */
-function matVecAdd(w: Float64Array, rows: number, cols: number, v: Float64Array, vo: number, out: Float64Array, oo: number): void {
-  for (let r = 0; r < rows; r++) {
-    let acc = out[oo + r] as number;
-    const wo = r * cols;
-    for (let c = 0; c < cols; c++) acc = mulAdd(w[wo + c] as number, v[vo + c] as number, acc);
-    out[oo + r] = acc;
-  }
+/** A residue for the rational num/den (den invertible mod P). */
+function fraction(num: number, den: number): number {
+  return mul(num % P, inv(den));
 }
 
 /**
- * The compiled circuit is a list of stages; a stage is a list of units, each unit a vector at one
- * grid position (or a recurrent state) computed from units of the previous stage. Stage 0 holds
- * the inputs, one unit of M values per position. Knowing which inputs every unit depends on lets
- * the probe compute each side-only unit once per row or column instead of once per matrix entry;
- * `evaluate` runs every unit and is the plain reference the fast path is tested against.
+ * The compiled circuit: units in topological order, each a vector (a grid position of a layer, a
+ * recurrent state, the output) computed from earlier units into one shared buffer. Knowing which
+ * inputs every unit depends on lets the probe compute each side-only unit once per row or column
+ * instead of once per matrix entry; `evaluate` runs every unit and is the plain reference the
+ * fast path is tested against.
  */
 interface Unit {
   readonly offset: number;
   readonly length: number;
-  /** Units of the previous stage that this one reads. */
+  /** Units this one reads. */
   readonly deps: readonly number[];
-  /** Writes out[offset .. offset+length) from the previous stage's buffer. */
-  readonly compute: (input: Float64Array, out: Float64Array) => void;
+  /** Writes buf[offset .. offset+length); null for an input position. */
+  readonly compute: ((buf: Float64Array) => void) | null;
 }
 
-interface Stage {
-  readonly units: Unit[];
-  readonly size: number;
-}
-
-class StageBuilder {
+class Circuit {
   readonly units: Unit[] = [];
-  private size = 0;
-  add(length: number, deps: readonly number[], compute: (input: Float64Array, out: Float64Array, offset: number) => void): void {
+  size = 0;
+  add(length: number, deps: readonly number[], make: ((offset: number) => (buf: Float64Array) => void) | null): number {
     const offset = this.size;
-    this.units.push({ offset, length, deps, compute: (input, out) => compute(input, out, offset) });
+    this.units.push({ offset, length, deps, compute: make ? make(offset) : null });
     this.size += length;
+    return this.units.length - 1;
   }
-  done(): Stage {
-    return { units: this.units, size: this.size };
+  off(u: number): number {
+    return (this.units[u] as Unit).offset;
   }
 }
 
+/** A grid at run time: the unit holding each position's vector (units may repeat: reuse). */
 interface Grid {
-  dims: number[];
-  dim: number;
+  readonly dims: readonly number[];
+  readonly width: number;
+  readonly units: readonly number[];
 }
 
-function count(dims: readonly number[]): number {
-  return dims.reduce((a, b) => a * b, 1);
+/** buf[oo..oo+rows) = W·buf[vo..vo+cols), W row-major. */
+function matVec(w: Float64Array, rows: number, cols: number, buf: Float64Array, vo: number, out: Float64Array, oo: number): void {
+  for (let r = 0; r < rows; r++) {
+    let acc = 0;
+    const wo = r * cols;
+    for (let c = 0; c < cols; c++) acc = mulAdd(w[wo + c] as number, buf[vo + c] as number, acc);
+    out[oo + r] = acc;
+  }
 }
 
-/** Non-overlapping product windows: for each new position (row-major) its old positions. */
-export function tiles(dims: readonly number[], window: readonly number[]): { dims: number[]; groups: number[][] } {
-  if (window.length !== dims.length) throw new Error(`window [${window.join(',')}] does not match grid [${dims.join(',')}]`);
-  dims.forEach((n, a) => {
-    const w = window[a] as number;
-    if (w < 1 || n % w !== 0) throw new Error(`window [${window.join(',')}] does not tile grid [${dims.join(',')}]`);
+/** out += W·v. */
+function matVecAdd(w: Float64Array, rows: number, cols: number, buf: Float64Array, vo: number, out: Float64Array, oo: number): void {
+  for (let r = 0; r < rows; r++) {
+    let acc = out[oo + r] as number;
+    const wo = r * cols;
+    for (let c = 0; c < cols; c++) acc = mulAdd(w[wo + c] as number, buf[vo + c] as number, acc);
+    out[oo + r] = acc;
+  }
+}
+
+/** W·v_src. */
+function linearUnit(c: Circuit, w: Float64Array, rows: number, cols: number, src: number): number {
+  const vo = c.off(src);
+  return c.add(rows, [src], (oo) => (buf) => matVec(w, rows, cols, buf, vo, buf, oo));
+}
+
+/** Σ_i W_i v_{src_i}; no terms: the zero vector. */
+function mapSumUnit(c: Circuit, ws: readonly Float64Array[], srcs: readonly number[], rows: number, cols: number): number {
+  const offs = srcs.map((s) => c.off(s));
+  return c.add(rows, [...new Set(srcs)], (oo) => (buf) => {
+    buf.fill(0, oo, oo + rows);
+    for (let i = 0; i < offs.length; i++) matVecAdd(ws[i] as Float64Array, rows, cols, buf, offs[i] as number, buf, oo);
   });
-  const newDims = dims.map((n, a) => n / (window[a] as number));
-  const groups: number[][] = [];
-  if (dims.length === 1) {
-    const w = window[0] as number;
-    for (let j = 0; j < (newDims[0] as number); j++) {
-      const g: number[] = [];
-      for (let t = 0; t < w; t++) g.push(j * w + t);
-      groups.push(g);
+}
+
+/** The elementwise product of the vectors; one vector: itself; none: the all-ones vector. */
+function productUnit(c: Circuit, srcs: readonly number[], dim: number): number {
+  if (srcs.length === 1) return srcs[0] as number;
+  const offs = Int32Array.from(srcs, (s) => c.off(s));
+  return c.add(dim, [...new Set(srcs)], (oo) => (buf) => {
+    for (let k = 0; k < dim; k++) {
+      let acc = 1;
+      for (let i = 0; i < offs.length; i++) acc = mul(acc, buf[(offs[i] as number) + k] as number);
+      buf[oo + k] = acc;
     }
-  } else if (dims.length === 2) {
-    const [wh, ww] = window as [number, number];
-    const width = dims[1] as number;
-    for (let i = 0; i < (newDims[0] as number); i++) {
-      for (let j = 0; j < (newDims[1] as number); j++) {
-        const g: number[] = [];
-        for (let a = 0; a < wh; a++) for (let b = 0; b < ww; b++) g.push((i * wh + a) * width + (j * ww + b));
-        groups.push(g);
-      }
+  });
+}
+
+/** Σ coef_i · v_{src_i} (constant coefficients). */
+function combinationUnit(c: Circuit, srcs: readonly number[], coefs: readonly number[], dim: number): number {
+  if (srcs.length === 1 && coefs[0] === 1) return srcs[0] as number;
+  const offs = srcs.map((s) => c.off(s));
+  return c.add(dim, [...new Set(srcs)], (oo) => (buf) => {
+    for (let k = 0; k < dim; k++) {
+      let acc = 0;
+      for (let i = 0; i < offs.length; i++) acc = mulAdd(coefs[i] as number, buf[(offs[i] as number) + k] as number, acc);
+      buf[oo + k] = acc;
     }
-  } else {
-    throw new Error(`grids of ${dims.length} dimensions are not supported`);
-  }
-  return { dims: newDims, groups };
+  });
 }
 
-function productStage(prev: Stage, groups: number[][], dim: number): Stage {
-  const b = new StageBuilder();
-  for (const g of groups) {
-    const offs = Int32Array.from(g, (c) => (prev.units[c] as Unit).offset);
-    b.add(dim, g, (input, out, oo) => {
-      for (let k = 0; k < dim; k++) {
-        let acc = 1;
-        for (let c = 0; c < offs.length; c++) acc = mul(acc, input[(offs[c] as number) + k] as number);
-        out[oo + k] = acc;
-      }
-    });
-  }
-  return b.done();
+/** The concatenation of the vectors, in order. */
+function concatUnit(c: Circuit, srcs: readonly number[]): number {
+  const parts = srcs.map((s) => ({ off: c.off(s), len: (c.units[s] as Unit).length }));
+  const total = parts.reduce((a, p) => a + p.len, 0);
+  return c.add(total, [...new Set(srcs)], (oo) => (buf) => {
+    let o = oo;
+    for (const p of parts) {
+      for (let k = 0; k < p.len; k++) buf[o + k] = buf[p.off + k] as number;
+      o += p.len;
+    }
+  });
 }
 
-/** Output length and left padding of one axis of an overlapping convolution. */
-export function axisGeometry(n: number, k: number, s: number, padding: 'same' | 'valid'): { out: number; left: number } {
-  if (padding === 'same') {
-    const out = Math.ceil(n / s);
-    const total = Math.max((out - 1) * s + k - n, 0);
-    return { out, left: Math.floor(total / 2) };
-  }
-  if (n < k) throw new Error(`valid convolution with kernel ${k} on length ${n}`);
-  return { out: Math.floor((n - k) / s) + 1, left: 0 };
+function squareUnit(c: Circuit, src: number, dim: number): number {
+  const vo = c.off(src);
+  return c.add(dim, [src], (oo) => (buf) => {
+    for (let k = 0; k < dim; k++) {
+      const v = buf[vo + k] as number;
+      buf[oo + k] = mul(v, v);
+    }
+  });
 }
 
-function overlapConv(layer: ConvLayer, grid: Grid, shared: boolean, weights: WeightStore, stages: Stage[]): Grid {
-  const dims = grid.dims;
-  if (layer.kernel.length !== dims.length || layer.stride.length !== dims.length) {
-    throw new Error(`conv ${layer.index}: kernel/stride rank does not match grid [${dims.join(',')}]`);
-  }
-  const geo = dims.map((n, a) => axisGeometry(n, layer.kernel[a] as number, layer.stride[a] as number, layer.padding));
-  const outDims = geo.map((g) => g.out);
-  const r = layer.channels;
-  const d = grid.dim;
-  const prev = stages[stages.length - 1] as Stage;
-  const nOut = count(outDims);
-  const taps = count(layer.kernel);
-  const b = new StageBuilder();
-  for (let o = 0; o < nOut; o++) {
-    const oIdx = dims.length === 1 ? [o] : [Math.floor(o / (outDims[1] as number)), o % (outDims[1] as number)];
-    // The (source position, tap weights) pairs that are in range.
-    const srcs: number[] = [];
+interface Context {
+  readonly c: Circuit;
+  readonly weights: WeightStore;
+  readonly shared: boolean;
+  readonly surrogate: SurrogateKind;
+  readonly plan: ModelPlan;
+}
+
+function treeConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: number): Grid {
+  const { c, weights, shared } = ctx;
+  const tree = treeConvGroups(src.dims, layer.kernel, layer.stride, layer.dilation, layer.padding);
+  const mapped = new Map<number, number>();
+  const mapAt = (p: number): number => {
+    let u = mapped.get(p);
+    if (u === undefined) {
+      const w = mapMatrix(weights, linearKey(layer.index, p, shared), r, src.width, g);
+      u = linearUnit(c, w, r, src.width, src.units[p] as number);
+      mapped.set(p, u);
+    }
+    return u;
+  };
+  // "An output whose P(j) is empty holds the zero vector": an empty sum.
+  const units = tree.groups.map((ps) => (ps.length === 0 ? mapSumUnit(c, [], [], r, src.width) : productUnit(c, ps.map(mapAt), r)));
+  return { dims: tree.dims, width: r, units };
+}
+
+function overlapConv(ctx: Context, layer: ConvLayer, src: Grid, r: number, g: number): Grid {
+  const { c, weights, shared } = ctx;
+  const dims = src.dims;
+  const geo = dims.map((n, a) => windowAxis(n, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number, layer.padding, a));
+  const outDims = geo.map((w) => w.out);
+  const units = multiIndices(outDims).map((j, o) => {
+    const taps = cartesian(j.map((jj, a) => axisTaps(jj, geo[a]!, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number)));
     const ws: Float64Array[] = [];
-    for (let t = 0; t < taps; t++) {
-      const tIdx = dims.length === 1 ? [t] : [Math.floor(t / (layer.kernel[1] as number)), t % (layer.kernel[1] as number)];
-      let src = 0;
-      let inRange = true;
-      for (let a = 0; a < dims.length; a++) {
-        const x = (oIdx[a] as number) * (layer.stride[a] as number) + (tIdx[a] as number) - (geo[a] as { left: number }).left;
-        if (x < 0 || x >= (dims[a] as number)) inRange = false;
-        src = src * (dims[a] as number) + x;
-      }
-      // Weights are drawn for every tap, in range or not, so that the draw does not depend on padding.
-      const w = weights.get(tapKey(layer.index, o, t, shared), r * d);
-      if (inRange) {
-        srcs.push(src);
+    const srcs: number[] = [];
+    taps.forEach((pos, t) => {
+      // Every tap's map is drawn, inside the grid or not, so that the draw does not depend on padding.
+      const w = mapMatrix(weights, tapKey(layer.index, o, t, shared), r, src.width, g);
+      if (pos.every((x, a) => x >= 0 && x < (dims[a] as number))) {
         ws.push(w);
+        srcs.push(src.units[flatIndex(pos, dims)] as number);
       }
-    }
-    const offs = srcs.map((src) => (prev.units[src] as Unit).offset);
-    b.add(r, srcs, (input, out, oo) => {
-      out.fill(0, oo, oo + r);
-      for (let i = 0; i < offs.length; i++) matVecAdd(ws[i] as Float64Array, r, d, input, offs[i] as number, out, oo);
     });
-  }
-  stages.push(b.done());
-  return { dims: outDims, dim: r };
+    return mapSumUnit(c, ws, srcs, r, src.width);
+  });
+  return { dims: outDims, width: r, units };
+}
+
+function convTranspose(ctx: Context, layer: ConvTransposeLayer, src: Grid, g: number): Grid {
+  const { c, weights, shared, surrogate } = ctx;
+  const dims = src.dims;
+  const r = layer.channels;
+  const outDims = ctx.plan.grids[layer.index]!.dims;
+  const units = multiIndices(outDims).map((j, o) => {
+    if (surrogate === 'tree') {
+      const per = j.map((jj, a) => treeTransposeAxis(jj, dims[a] as number, layer.stride[a] as number));
+      const offset = flatIndex(per.map((x) => x.offset), layer.stride);
+      const w = mapMatrix(weights, offsetKey(layer.index, o, offset, shared), r, src.width, g);
+      return linearUnit(c, w, r, src.width, src.units[flatIndex(per.map((x) => x.source), dims)] as number);
+    }
+    const pairs = cartesian(
+      j.map((jj, a) => transposePairs(jj, dims[a] as number, layer.kernel[a] as number, layer.stride[a] as number, layer.dilation[a] as number, layer.padding[a] as number)),
+    );
+    const ws = pairs.map((pair) => mapMatrix(weights, tapKey(layer.index, o, flatIndex(pair.map((p) => p[1]), layer.kernel), shared), r, src.width, g));
+    const srcs = pairs.map((pair) => src.units[flatIndex(pair.map((p) => p[0]), dims)] as number);
+    return mapSumUnit(c, ws, srcs, r, src.width);
+  });
+  return { dims: outDims, width: r, units };
+}
+
+function poolGrid(ctx: Context, layer: PoolLayer, src: Grid): Grid {
+  const { c } = ctx;
+  if (layer.global) return { dims: src.dims.map(() => 1), width: src.width, units: [productUnit(c, src.units, src.width)] };
+  const pooled = poolGroups(src.dims, layer.window, layer.stride, layer.padding);
+  const units = pooled.groups.map((ps) => {
+    // "A window with no tap inside the grid is refused."
+    if (ps.length === 0) throw new RefusedModel(`pool ${layer.index}: a window reads only padding`);
+    return productUnit(c, ps.map((p) => src.units[p] as number), src.width);
+  });
+  return { dims: pooled.dims, width: src.width, units };
+}
+
+function upsampleGrid(ctx: Context, layer: UpsampleLayer, src: Grid): Grid {
+  const dims = src.dims;
+  const outDims = dims.map((n, a) => n * (layer.factor[a] as number));
+  const units = multiIndices(outDims).map((j) => {
+    if (layer.mode === 'nearest') {
+      return src.units[flatIndex(j.map((jj, a) => Math.floor(jj / (layer.factor[a] as number))), dims)] as number;
+    }
+    // Per axis the two neighbours with weights (1−λ, λ); across axes the weights multiply.
+    const perAxis = j.map((jj, a) => {
+      const l = linearAxis(jj, dims[a] as number, layer.factor[a] as number);
+      return [
+        { i: l.i0, w: fraction(l.den - l.num, l.den) },
+        { i: l.i1, w: fraction(l.num, l.den) },
+      ].filter((t) => t.w !== 0);
+    });
+    const byUnit = new Map<number, number>();
+    for (const combo of cartesian(perAxis)) {
+      const u = src.units[flatIndex(combo.map((t) => t.i), dims)] as number;
+      const w = combo.reduce((acc, t) => mul(acc, t.w), 1);
+      byUnit.set(u, add(byUnit.get(u) ?? 0, w));
+    }
+    return combinationUnit(ctx.c, [...byUnit.keys()], [...byUnit.values()], src.width);
+  });
+  return { dims: outDims, width: src.width, units };
 }
 
 /**
- * A recurrence over T steps becomes T stages: stage t holds the states of all levels after step t
- * (one unit of L·R values) and passes the inputs not yet read through unchanged; a last stage
- * extracts h^L_T.
+ * h^l_t = (W_H^l h^l_{t−1}) ⊙ (W_I^l h^{l−1}_t): one unit per level and step; h^l_0 a constant
+ * unit. The grid becomes one position holding h^L_T.
  */
-function recurrentStages(layer: RecurrentLayer, grid: Grid, weights: WeightStore, stages: Stage[]): Grid {
-  if (grid.dims.length !== 1) throw new Error(`recurrent ${layer.index} needs a 1D grid, got [${grid.dims.join(',')}]`);
-  const T = grid.dims[0] as number;
+function recurrentGrid(ctx: Context, layer: RecurrentLayer, src: Grid): Grid {
+  const { c, weights } = ctx;
   const R = layer.hidden;
-  const L = layer.depth;
-  const d0 = grid.dim;
-  const wh: Float64Array[] = [];
-  const wi: Float64Array[] = [];
-  const h0 = new Float64Array(L * R);
-  for (let l = 1; l <= L; l++) {
+  let below: readonly number[] = src.units;
+  let dimBelow = src.width;
+  for (let l = 1; l <= layer.depth; l++) {
     const keys = recurrentKeys(layer.index, l);
-    wh.push(weights.get(keys.h, R * R));
-    wi.push(weights.get(keys.i, R * (l === 1 ? d0 : R)));
-    h0.set(weights.get(keys.h0, R), (l - 1) * R);
-  }
-  const a = new Float64Array(R);
-  const bv = new Float64Array(R);
-  // One step: states (at input[so], or h0 when so < 0) and input x_t (at input[xo]) → out[oo].
-  const step = (input: Float64Array, so: number, xo: number, out: Float64Array, oo: number): void => {
-    for (let l = 0; l < L; l++) {
-      // a = W_H h^l_{t-1}; b = W_I h^{l-1}_t (h^0_t = x_t; h^{l-1}_t is already in out).
-      if (so < 0) matVec(wh[l] as Float64Array, R, R, h0, l * R, a, 0);
-      else matVec(wh[l] as Float64Array, R, R, input, so + l * R, a, 0);
-      if (l === 0) matVec(wi[0] as Float64Array, R, d0, input, xo, bv, 0);
-      else matVec(wi[l] as Float64Array, R, R, out, oo + (l - 1) * R, bv, 0);
-      for (let k = 0; k < R; k++) out[oo + l * R + k] = mul(a[k] as number, bv[k] as number);
-    }
-  };
-  for (let t = 0; t < T; t++) {
-    const prev = stages[stages.length - 1] as Stage;
-    const b = new StageBuilder();
-    // Previous stage: t = 0: the T positions; t > 0: [state, x_t, …, x_{T−1}].
-    const stateUnit = t === 0 ? -1 : 0;
-    const xUnit = t === 0 ? 0 : 1;
-    const so = stateUnit < 0 ? -1 : (prev.units[stateUnit] as Unit).offset;
-    const xo = (prev.units[xUnit] as Unit).offset;
-    b.add(L * R, stateUnit < 0 ? [xUnit] : [stateUnit, xUnit], (input, out, oo) => step(input, so, xo, out, oo));
-    for (let u = xUnit + 1; u < prev.units.length; u++) {
-      const src = prev.units[u] as Unit;
-      b.add(src.length, [u], (input, out, oo) => {
-        for (let k = 0; k < src.length; k++) out[oo + k] = input[src.offset + k] as number;
+    const wh = weights.get(keys.h, R * R);
+    const wi = weights.get(keys.i, R * dimBelow);
+    const h0 = weights.get(keys.h0, R);
+    let state = c.add(R, [], (oo) => (buf) => buf.set(h0, oo));
+    const states: number[] = [];
+    const d = dimBelow;
+    for (const x of below) {
+      const so = c.off(state);
+      const xo = c.off(x);
+      const a = new Float64Array(R);
+      const b = new Float64Array(R);
+      state = c.add(R, [state, x], (oo) => (buf) => {
+        matVec(wh, R, R, buf, so, a, 0);
+        matVec(wi, R, d, buf, xo, b, 0);
+        for (let k = 0; k < R; k++) buf[oo + k] = mul(a[k] as number, b[k] as number);
       });
+      states.push(state);
     }
-    stages.push(b.done());
+    below = states;
+    dimBelow = R;
   }
-  const last = new StageBuilder();
-  last.add(R, [0], (input, out, oo) => {
-    for (let k = 0; k < R; k++) out[oo + k] = input[(L - 1) * R + k] as number;
-  });
-  stages.push(last.done());
-  return { dims: [1], dim: R };
+  return { dims: [1], width: R, units: [below[below.length - 1] as number] };
 }
 
 export interface Evaluator {
   readonly positions: number;
   readonly features: number;
+  readonly plan: ModelPlan;
   /** h(x) mod P by running every unit; x holds the M features of every position, position-major. */
   evaluate(x: Float64Array): number;
   /** The k×k probe matrix F[i][j] = h(xA_i, xB_j), computing side-only units once per row/column. */
   probeMatrix(side: Uint8Array, xa: readonly Float64Array[], xb: readonly Float64Array[]): Float64Array;
+  /** Input positions the output structurally depends on (1) — a superset of its receptive field. */
+  dependsOn(): Uint8Array;
 }
 
 /** Compiles a layered model under a surrogate into a numeric evaluator over the given weights. */
 export function compile(model: LayeredModel, surrogate: SurrogateKind, weights: WeightStore): Evaluator {
-  const shared = model.weightSharing;
-  const m = model.input.features;
-  let grid: Grid = { dims: [...model.input.shape], dim: m };
-  const n = count(grid.dims);
-  const input = new StageBuilder();
-  for (let p = 0; p < n; p++) input.add(m, [], () => undefined);
-  const stages: Stage[] = [input.done()];
-  const linear = (layerIndex: number, r: number, sharedHere: boolean): void => {
-    const prev = stages[stages.length - 1] as Stage;
-    const d = grid.dim;
-    const b = new StageBuilder();
-    prev.units.forEach((u, q) => {
-      const w = weights.get(linearKey(layerIndex, q, sharedHere), r * d);
-      b.add(r, [q], (inp, out, oo) => matVec(w, r, d, inp, u.offset, out, oo));
-    });
-    stages.push(b.done());
-    grid = { dims: grid.dims, dim: r };
-  };
-  const product = (window: readonly number[] | 'global'): void => {
-    const w = window === 'global' ? grid.dims : window;
-    const t = tiles(grid.dims, w);
-    stages.push(productStage(stages[stages.length - 1] as Stage, t.groups, grid.dim));
-    grid = { dims: t.dims, dim: grid.dim };
-  };
+  const plan = planModel(model, surrogate);
+  const m = plan.m;
+  const c = new Circuit();
+  const n = count(plan.input.dims);
+  const inputGrid: Grid = { dims: plan.input.dims, width: m, units: Array.from({ length: n }, () => c.add(m, [], null)) };
+  const ctx: Context = { c, weights, shared: model.weightSharing, surrogate, plan };
+  const grids: Grid[] = [];
+  const gridOf = (i: number): Grid => (i === INPUT ? inputGrid : (grids[i] as Grid));
   for (const layer of model.layers) {
+    const src = gridOf(layer.inputs[0] as number);
+    const li = layer.index;
+    let out: Grid;
     switch (layer.kind) {
-      case 'conv':
-        if (surrogate === 'overlap') {
-          grid = overlapConv(layer, grid, shared, weights, stages);
-        } else {
-          linear(layer.index, layer.channels, shared);
-          if (layer.stride.some((s) => s > 1)) product(layer.stride);
-        }
+      case 'conv': {
+        const r = plan.grids[li]!.width;
+        const g = plan.groups[li]!;
+        out = surrogate === 'tree' ? treeConv(ctx, layer, src, r, g) : overlapConv(ctx, layer, src, r, g);
+        break;
+      }
+      case 'conv-transpose':
+        out = convTranspose(ctx, layer, src, plan.groups[li]!);
         break;
       case 'pool':
-        product(layer.global ? 'global' : layer.window);
+        out = poolGrid(ctx, layer, src);
         break;
-      case 'dense':
-        if (count(grid.dims) !== 1) throw new Error(`dense ${layer.index} on ${count(grid.dims)} positions`);
-        linear(layer.index, layer.units, true);
+      case 'upsample':
+        out = upsampleGrid(ctx, layer, src);
         break;
+      case 'flatten':
+        out = { dims: [1], width: src.width * src.units.length, units: [concatUnit(c, src.units)] };
+        break;
+      case 'dense': {
+        const u = layer.units;
+        const reading = plan.reading[li]!;
+        if (reading === 'per-position') {
+          const units = src.units.map((v, p) => linearUnit(c, weights.get(linearKey(li, p, ctx.shared), u * src.width), u, src.width, v));
+          out = { dims: src.dims, width: u, units };
+        } else {
+          const v = reading === 'input' ? concatUnit(c, src.units) : (src.units[0] as number);
+          const d = reading === 'input' ? src.width * src.units.length : src.width;
+          out = { dims: reading === 'input' ? [1] : src.dims, width: u, units: [linearUnit(c, weights.get(`L${li}`, u * d), u, d, v)] };
+        }
+        break;
+      }
       case 'recurrent':
-        grid = recurrentStages(layer, grid, weights, stages);
+        out = recurrentGrid(ctx, layer, src);
         break;
+      case 'pointwise':
+        out = plan.square[li] ? { ...src, units: src.units.map((v) => squareUnit(c, v, src.width)) } : src;
+        break;
+      case 'merge': {
+        const srcs = layer.inputs.map(gridOf);
+        const units = src.units.map((_, p) => {
+          const vs = srcs.map((s) => s.units[p] as number);
+          return layer.mode === 'sum' ? combinationUnit(c, vs, vs.map(() => 1), src.width) : concatUnit(c, vs);
+        });
+        out = { dims: src.dims, width: plan.grids[li]!.width, units };
+        break;
+      }
     }
+    const expected = plan.grids[li]!;
+    if (out.width !== expected.width || out.units.length !== count(expected.dims)) {
+      throw new Error(`layer ${li}: built ${out.units.length}×${out.width}, planned [${expected.dims.join(',')}]×${expected.width}`);
+    }
+    grids.push(out);
   }
-  if (count(grid.dims) > 1) product('global');
-  const head = weights.get('head', grid.dim);
-  const dim = grid.dim;
-  const headStage = new StageBuilder();
-  headStage.add(1, [0], (inp, out, oo) => {
+  const last = grids[grids.length - 1] as Grid;
+  const o = last.units[plan.output.index] as number;
+  const dim = last.width;
+  const head = weights.get('head', dim);
+  const oo = c.off(o);
+  const outUnit = c.add(1, [o], (off) => (buf) => {
     let acc = 0;
-    for (let k = 0; k < dim; k++) acc = mulAdd(head[k] as number, inp[k] as number, acc);
-    out[oo] = acc;
+    for (let k = 0; k < dim; k++) acc = mulAdd(head[k] as number, buf[oo + k] as number, acc);
+    buf[off] = acc;
   });
-  stages.push(headStage.done());
-  const buffers = stages.map((s) => new Float64Array(s.size));
+  return probeOver(c, n, m, plan, outUnit);
+}
+
+function probeOver(c: Circuit, n: number, m: number, plan: ModelPlan, outUnit: number): Evaluator {
+  const units = c.units;
+  const buf = new Float64Array(c.size);
+  const outOffset = (units[outUnit] as Unit).offset;
+  const computing = units.filter((u) => u.compute !== null);
 
   const evaluate = (x: Float64Array): number => {
-    buffers[0]!.set(x);
-    for (let s = 1; s < stages.length; s++) {
-      const inp = buffers[s - 1] as Float64Array;
-      const out = buffers[s] as Float64Array;
-      for (const u of (stages[s] as Stage).units) u.compute(inp, out);
-    }
-    return (buffers[buffers.length - 1] as Float64Array)[0] as number;
+    buf.set(x.subarray(0, n * m), 0);
+    for (const u of computing) u.compute!(buf);
+    return buf[outOffset] as number;
   };
 
   const probeMatrix = (side: Uint8Array, xa: readonly Float64Array[], xb: readonly Float64Array[]): Float64Array => {
     // Class of every unit: bit 1 = depends on side A, bit 2 = on side B (3: both; 0: constant).
-    const cls: Uint8Array[] = stages.map((s) => new Uint8Array(s.units.length));
-    for (let p = 0; p < n; p++) cls[0]![p] = (side[p] ?? 0) === 1 ? 1 : 2;
-    for (let s = 1; s < stages.length; s++) {
-      (stages[s] as Stage).units.forEach((u, q) => {
-        let c = 0;
-        for (const d of u.deps) c |= cls[s - 1]![d] as number;
-        cls[s]![q] = c;
-      });
-    }
-    // Units of class c in stage s; the B-only units that a mixed unit (or the output) reads.
-    const ofClass = (s: number, c: number): Unit[] => (stages[s] as Stage).units.filter((_, q) => cls[s]![q] === c);
-    const frontier: { s: number; offset: number; length: number }[] = [];
-    for (let s = 0; s < stages.length; s++) {
-      const needed = new Set<number>();
-      if (s + 1 < stages.length) {
-        (stages[s + 1] as Stage).units.forEach((u, q) => {
-          if (cls[s + 1]![q] === 3) for (const d of u.deps) if (cls[s]![d] === 2) needed.add(d);
-        });
-      } else if (cls[s]![0] === 2) {
-        needed.add(0);
+    const cls = new Uint8Array(units.length);
+    units.forEach((u, q) => {
+      if (q < n) cls[q] = (side[q] ?? 0) === 1 ? 1 : 2;
+      else {
+        let k = 0;
+        for (const d of u.deps) k |= cls[d] as number;
+        cls[q] = k;
       }
-      for (const q of needed) {
-        const u = (stages[s] as Stage).units[q] as Unit;
-        frontier.push({ s, offset: u.offset, length: u.length });
-      }
-    }
+    });
+    const lists = [0, 1, 2, 3].map((k) => units.filter((u, q) => u.compute !== null && cls[q] === k));
+    // The B-only units that a mixed unit (or the output) reads.
+    const needed = new Set<number>();
+    units.forEach((u, q) => {
+      if (cls[q] === 3) for (const d of u.deps) if (cls[d] === 2) needed.add(d);
+    });
+    if (cls[outUnit] === 2) needed.add(outUnit);
+    const frontier = [...needed].map((q) => units[q] as Unit);
     const frontierSize = frontier.reduce((a, f) => a + f.length, 0);
     const posA: number[] = [];
     const posB: number[] = [];
     for (let p = 0; p < n; p++) ((side[p] ?? 0) === 1 ? posA : posB).push(p);
     const scatter = (src: Float64Array, where: readonly number[]): void => {
-      const x = buffers[0] as Float64Array;
       for (let i = 0; i < where.length; i++) {
         const xo = (where[i] as number) * m;
-        for (let c = 0; c < m; c++) x[xo + c] = src[i * m + c] as number;
+        for (let k = 0; k < m; k++) buf[xo + k] = src[i * m + k] as number;
       }
     };
-    // Precomputed unit lists per class, so that the inner loop does no filtering.
-    const lists = [0, 1, 2, 3].map((c) => stages.map((_, s) => (s === 0 ? [] : ofClass(s, c))));
-    const runList = (c: number): void => {
-      const ls = lists[c] as Unit[][];
-      for (let s = 1; s < stages.length; s++) {
-        const inp = buffers[s - 1] as Float64Array;
-        const out = buffers[s] as Float64Array;
-        for (const u of ls[s] as Unit[]) u.compute(inp, out);
-      }
+    const run = (list: readonly Unit[]): void => {
+      for (const u of list) u.compute!(buf);
     };
-    runList(0);
-    // Side-B units once per column; keep the ones mixed units read.
+    run(lists[0]!);
     const cache = xb.map((vb) => {
       scatter(vb, posB);
-      runList(2);
+      run(lists[2]!);
       const saved = new Float64Array(frontierSize);
       let o = 0;
       for (const f of frontier) {
-        saved.set((buffers[f.s] as Float64Array).subarray(f.offset, f.offset + f.length), o);
+        saved.set(buf.subarray(f.offset, f.offset + f.length), o);
         o += f.length;
       }
       return saved;
     });
-    const k = xa.length;
-    const kb = xb.length;
-    const last = buffers[buffers.length - 1] as Float64Array;
-    const f = new Float64Array(k * kb);
-    for (let i = 0; i < k; i++) {
+    const mixed = lists[3]!;
+    const f = new Float64Array(xa.length * xb.length);
+    for (let i = 0; i < xa.length; i++) {
       scatter(xa[i] as Float64Array, posA);
-      runList(1);
-      for (let j = 0; j < kb; j++) {
+      run(lists[1]!);
+      for (let j = 0; j < xb.length; j++) {
         const saved = cache[j] as Float64Array;
         let o = 0;
         for (const fr of frontier) {
-          const buf = buffers[fr.s] as Float64Array;
           for (let t = 0; t < fr.length; t++) buf[fr.offset + t] = saved[o + t] as number;
           o += fr.length;
         }
-        runList(3);
-        f[i * kb + j] = last[0] as number;
+        run(mixed);
+        f[i * xb.length + j] = buf[outOffset] as number;
       }
     }
     return f;
   };
 
-  return { positions: n, features: m, evaluate, probeMatrix };
+  const dependsOn = (): Uint8Array => {
+    const seen = new Uint8Array(units.length);
+    const stack = [outUnit];
+    seen[outUnit] = 1;
+    while (stack.length > 0) {
+      const q = stack.pop() as number;
+      for (const d of (units[q] as Unit).deps) {
+        if (!seen[d]) {
+          seen[d] = 1;
+          stack.push(d);
+        }
+      }
+    }
+    return seen.slice(0, n);
+  };
+
+  return { positions: n, features: m, plan, evaluate, probeMatrix, dependsOn };
 }
 
 /** Probe inputs: k random assignments of each side's inputs. */

@@ -114,7 +114,7 @@ describe('fixes', () => {
       for (const f of q.fixes) {
         const apply = (v: number): LayeredModel =>
           f.layer === 'input'
-            ? { ...c.model, input: { ...c.model.input, features: v } }
+            ? { ...c.model, input: { ...c.model.input, representation: v } }
             : { ...c.model, layers: c.model.layers.map((l) => (l.index === f.layer ? ({ ...l, [f.field]: v } as typeof l) : l)) };
         const fixed = evaluate(apply(f.to), policy([req(c.partition, c.min, c.unproven)])).requirements[0]!;
         expect(fixed.failing, `${f.layer}.${f.field} → ${f.to}`).toBe(false);

@@ -1,0 +1,86 @@
+/**
+ * What the layer reader makes of the YAML before expansion: one template per YAML entry, checked
+ * once however often a `repeat` copies it. Expansion (`expand-layers.ts`) turns templates into the
+ * layers of the model, numbering them, wiring their `inputs` and labelling the copies.
+ */
+import type { Span } from '../diagnostic.js';
+import type { Layer } from './model.js';
+
+type BaseKey = 'index' | 'inputs' | 'name' | 'path' | 'span' | 'fieldSpans' | 'repeatIteration';
+
+/** The kind-specific part of a layer. */
+export type LayerBody = Layer extends infer L ? (L extends Layer ? Omit<L, BaseKey> : never) : never;
+
+/** Where a layer comes from in the YAML. */
+export interface Site {
+  readonly path: string;
+  readonly span: Span;
+  readonly fieldSpans: Readonly<Record<string, Span>>;
+}
+
+/** One layer to be made, and whether it carries its entry's name as its label. */
+export interface MadeLayer {
+  readonly body: LayerBody;
+  readonly site: Site;
+  readonly labelled?: boolean;
+}
+
+export interface NameDef {
+  readonly text: string;
+  readonly span: Span;
+}
+
+/** A `from:` reference: `enc1`, `down[2]`, or `input` (the model input). */
+export interface NameRef {
+  readonly text: string;
+  readonly base: string;
+  /** Explicit copy numbers (1-based), outermost repeat first. */
+  readonly copies: readonly number[];
+  readonly span: Span;
+  /** `model.layers[5].concat.from`, for messages. */
+  readonly where: string;
+}
+
+export type Template =
+  /** A chain of layers from one entry (a conv with its norm and activation; a separable conv). */
+  | { readonly t: 'chain'; readonly layers: readonly MadeLayer[]; readonly name?: NameDef }
+  | {
+      readonly t: 'repeat';
+      readonly times: number;
+      readonly timesSpan: Span;
+      readonly timesPath: string;
+      readonly body: readonly Template[];
+      readonly name?: NameDef;
+    }
+  | { readonly t: 'sequence'; readonly body: readonly Template[]; readonly name?: NameDef }
+  | {
+      readonly t: 'merge';
+      /** Each path reads the block's input; an empty path is the identity. */
+      readonly paths: readonly (readonly Template[])[];
+      /** Named earlier layers merged too (skips). */
+      readonly refs: readonly NameRef[];
+      readonly merge: MadeLayer;
+      /** Pointwise layers after the merge (from shortcut fields). */
+      readonly after: readonly MadeLayer[];
+      readonly name?: NameDef;
+    };
+
+/** How many layers the templates expand to (a float, possibly huge or infinite; never expanded). */
+export function expandedCount(templates: readonly Template[]): number {
+  let total = 0;
+  for (const t of templates) total += countOne(t);
+  return total;
+}
+
+export function countOne(t: Template): number {
+  switch (t.t) {
+    case 'chain':
+      return t.layers.length;
+    case 'repeat':
+      return t.times * expandedCount(t.body);
+    case 'sequence':
+      return expandedCount(t.body);
+    case 'merge':
+      return t.paths.reduce((a, p) => a + expandedCount(p), 0) + 1 + t.after.length;
+  }
+}
