@@ -1301,7 +1301,7 @@ var require_util = __commonJS({
             }
             return controller.desiredSize > 0;
           },
-          async cancel(reason) {
+          async cancel(reason2) {
             await iterator.return();
           },
           type: "bytes"
@@ -1629,12 +1629,12 @@ var require_diagnostics = __commonJS({
         websocketDebuglog("connection opened %s%s", address, port ? `:${port}` : "");
       });
       diagnosticsChannel.channel("undici:websocket:close").subscribe((evt) => {
-        const { websocket, code, reason } = evt;
+        const { websocket, code, reason: reason2 } = evt;
         websocketDebuglog(
           "closed connection to %s - %s %s",
           websocket.url,
           code,
-          reason
+          reason2
         );
       });
       diagnosticsChannel.channel("undici:websocket:socket_error").subscribe((err) => {
@@ -2164,9 +2164,9 @@ var require_dispatcher_base = __commonJS({
       }
       close(callback) {
         if (callback === void 0) {
-          return new Promise((resolve9, reject) => {
+          return new Promise((resolve10, reject) => {
             this.close((err, data) => {
-              return err ? reject(err) : resolve9(data);
+              return err ? reject(err) : resolve10(data);
             });
           });
         }
@@ -2204,12 +2204,12 @@ var require_dispatcher_base = __commonJS({
           err = null;
         }
         if (callback === void 0) {
-          return new Promise((resolve9, reject) => {
+          return new Promise((resolve10, reject) => {
             this.destroy(err, (err2, data) => {
               return err2 ? (
                 /* istanbul ignore next: should never error */
                 reject(err2)
-              ) : resolve9(data);
+              ) : resolve10(data);
             });
           });
         }
@@ -4476,8 +4476,8 @@ var require_util2 = __commonJS({
     function createDeferredPromise() {
       let res;
       let rej;
-      const promise = new Promise((resolve9, reject) => {
-        res = resolve9;
+      const promise = new Promise((resolve10, reject) => {
+        res = resolve10;
         rej = reject;
       });
       return { promise, resolve: res, reject: rej };
@@ -5592,7 +5592,7 @@ Content-Type: ${value.type || "application/octet-stream"}\r
             }
             return controller.desiredSize > 0;
           },
-          async cancel(reason) {
+          async cancel(reason2) {
             await iterator.return();
           },
           type: "bytes"
@@ -5789,7 +5789,7 @@ var require_client_h1 = __commonJS({
       kResume,
       kHTTPContext
     } = require_symbols();
-    var constants4 = require_constants2();
+    var constants6 = require_constants2();
     var EMPTY_BUF = Buffer.alloc(0);
     var FastBuffer = Buffer[Symbol.species];
     var addListener = util.addListener;
@@ -5864,7 +5864,7 @@ var require_client_h1 = __commonJS({
       constructor(client, socket, { exports: exports2 }) {
         assert(Number.isFinite(client[kMaxHeadersSize]) && client[kMaxHeadersSize] > 0);
         this.llhttp = exports2;
-        this.ptr = this.llhttp.llhttp_alloc(constants4.TYPE.RESPONSE);
+        this.ptr = this.llhttp.llhttp_alloc(constants6.TYPE.RESPONSE);
         this.client = client;
         this.socket = socket;
         this.timeout = null;
@@ -5959,11 +5959,11 @@ var require_client_h1 = __commonJS({
             currentBufferRef = null;
           }
           const offset = llhttp.llhttp_get_error_pos(this.ptr) - currentBufferPtr;
-          if (ret !== constants4.ERROR.OK) {
+          if (ret !== constants6.ERROR.OK) {
             const body = data.subarray(offset);
-            if (ret === constants4.ERROR.PAUSED_UPGRADE) {
+            if (ret === constants6.ERROR.PAUSED_UPGRADE) {
               this.onUpgrade(body);
-            } else if (ret === constants4.ERROR.PAUSED) {
+            } else if (ret === constants6.ERROR.PAUSED) {
               this.paused = true;
               socket.unshift(body);
             } else {
@@ -5986,10 +5986,10 @@ var require_client_h1 = __commonJS({
         } finally {
           currentParser = null;
         }
-        if (ret === constants4.ERROR.OK) {
+        if (ret === constants6.ERROR.OK) {
           return null;
         }
-        if (ret === constants4.ERROR.PAUSED || ret === constants4.ERROR.PAUSED_UPGRADE) {
+        if (ret === constants6.ERROR.PAUSED || ret === constants6.ERROR.PAUSED_UPGRADE) {
           this.paused = true;
           return null;
         }
@@ -6006,7 +6006,7 @@ var require_client_h1 = __commonJS({
           const len = new Uint8Array(llhttp.memory.buffer, ptr).indexOf(0);
           message = "Response does not match the HTTP/1.1 protocol (" + Buffer.from(llhttp.memory.buffer, ptr, len).toString() + ")";
         }
-        return new HTTPParserError(message, constants4.ERROR[ret], data);
+        return new HTTPParserError(message, constants6.ERROR[ret], data);
       }
       destroy() {
         assert(this.ptr != null);
@@ -6186,7 +6186,7 @@ var require_client_h1 = __commonJS({
           socket[kBlocking] = false;
           client[kResume]();
         }
-        return pause ? constants4.ERROR.PAUSED : 0;
+        return pause ? constants6.ERROR.PAUSED : 0;
       }
       onBody(buf) {
         const { client, socket, statusCode, maxResponseSize } = this;
@@ -6208,7 +6208,7 @@ var require_client_h1 = __commonJS({
         }
         this.bytesRead += buf.length;
         if (request.onData(buf) === false) {
-          return constants4.ERROR.PAUSED;
+          return constants6.ERROR.PAUSED;
         }
       }
       onMessageComplete() {
@@ -6244,13 +6244,13 @@ var require_client_h1 = __commonJS({
         if (socket[kWriting]) {
           assert(client[kRunning] === 0);
           util.destroy(socket, new InformationalError("reset"));
-          return constants4.ERROR.PAUSED;
+          return constants6.ERROR.PAUSED;
         } else if (!shouldKeepAlive) {
           util.destroy(socket, new InformationalError("reset"));
-          return constants4.ERROR.PAUSED;
+          return constants6.ERROR.PAUSED;
         } else if (socket[kReset] && client[kRunning] === 0) {
           util.destroy(socket, new InformationalError("reset"));
-          return constants4.ERROR.PAUSED;
+          return constants6.ERROR.PAUSED;
         } else if (client[kPipelining] == null || client[kPipelining] === 1) {
           setImmediate(() => client[kResume]());
         } else {
@@ -6728,12 +6728,12 @@ upgrade: ${upgrade}\r
           cb();
         }
       }
-      const waitForDrain = () => new Promise((resolve9, reject) => {
+      const waitForDrain = () => new Promise((resolve10, reject) => {
         assert(callback === null);
         if (socket[kError]) {
           reject(socket[kError]);
         } else {
-          callback = resolve9;
+          callback = resolve10;
         }
       });
       socket.on("close", onDrain).on("drain", onDrain);
@@ -7403,12 +7403,12 @@ var require_client_h2 = __commonJS({
           cb();
         }
       }
-      const waitForDrain = () => new Promise((resolve9, reject) => {
+      const waitForDrain = () => new Promise((resolve10, reject) => {
         assert(callback === null);
         if (socket[kError]) {
           reject(socket[kError]);
         } else {
-          callback = resolve9;
+          callback = resolve10;
         }
       });
       h2stream.on("close", onDrain).on("drain", onDrain);
@@ -7887,16 +7887,16 @@ var require_client = __commonJS({
         return this[kNeedDrain] < 2;
       }
       async [kClose]() {
-        return new Promise((resolve9) => {
+        return new Promise((resolve10) => {
           if (this[kSize]) {
-            this[kClosedResolve] = resolve9;
+            this[kClosedResolve] = resolve10;
           } else {
-            resolve9(null);
+            resolve10(null);
           }
         });
       }
       async [kDestroy](err) {
-        return new Promise((resolve9) => {
+        return new Promise((resolve10) => {
           const requests = this[kQueue].splice(this[kPendingIdx]);
           for (let i = 0; i < requests.length; i++) {
             const request = requests[i];
@@ -7907,7 +7907,7 @@ var require_client = __commonJS({
               this[kClosedResolve]();
               this[kClosedResolve] = null;
             }
-            resolve9(null);
+            resolve10(null);
           };
           if (this[kHTTPContext]) {
             this[kHTTPContext].destroy(err, callback);
@@ -7958,7 +7958,7 @@ var require_client = __commonJS({
         });
       }
       try {
-        const socket = await new Promise((resolve9, reject) => {
+        const socket = await new Promise((resolve10, reject) => {
           client[kConnector]({
             host,
             hostname,
@@ -7970,7 +7970,7 @@ var require_client = __commonJS({
             if (err) {
               reject(err);
             } else {
-              resolve9(socket2);
+              resolve10(socket2);
             }
           });
         });
@@ -8306,8 +8306,8 @@ var require_pool_base = __commonJS({
         if (this[kQueue].isEmpty()) {
           await Promise.all(this[kClients].map((c) => c.close()));
         } else {
-          await new Promise((resolve9) => {
-            this[kClosedResolve] = resolve9;
+          await new Promise((resolve10) => {
+            this[kClosedResolve] = resolve10;
           });
         }
       }
@@ -9149,12 +9149,12 @@ var require_retry_handler = __commonJS({
         this.etag = null;
         this.resume = null;
         this.headersSent = false;
-        this.handler.onConnect((reason) => {
+        this.handler.onConnect((reason2) => {
           this.aborted = true;
           if (this.abort) {
-            this.abort(reason);
+            this.abort(reason2);
           } else {
-            this.reason = reason;
+            this.reason = reason2;
           }
         });
       }
@@ -9576,7 +9576,7 @@ var require_readable = __commonJS({
         if (this._readableState.closeEmitted) {
           return null;
         }
-        return await new Promise((resolve9, reject) => {
+        return await new Promise((resolve10, reject) => {
           if (this[kContentLength] > limit) {
             this.destroy(new AbortError());
           }
@@ -9589,7 +9589,7 @@ var require_readable = __commonJS({
             if (signal?.aborted) {
               reject(signal.reason ?? new AbortError());
             } else {
-              resolve9(null);
+              resolve10(null);
             }
           }).on("error", noop).on("data", function(chunk) {
             limit -= chunk.length;
@@ -9608,7 +9608,7 @@ var require_readable = __commonJS({
     }
     async function consume(stream, type) {
       assert(!stream[kConsume]);
-      return new Promise((resolve9, reject) => {
+      return new Promise((resolve10, reject) => {
         if (isUnusable(stream)) {
           const rState = stream._readableState;
           if (rState.destroyed && rState.closeEmitted === false) {
@@ -9625,7 +9625,7 @@ var require_readable = __commonJS({
             stream[kConsume] = {
               type,
               stream,
-              resolve: resolve9,
+              resolve: resolve10,
               reject,
               length: 0,
               body: []
@@ -9695,18 +9695,18 @@ var require_readable = __commonJS({
       return buffer;
     }
     function consumeEnd(consume2) {
-      const { type, body, resolve: resolve9, stream, length } = consume2;
+      const { type, body, resolve: resolve10, stream, length } = consume2;
       try {
         if (type === "text") {
-          resolve9(chunksDecode(body, length));
+          resolve10(chunksDecode(body, length));
         } else if (type === "json") {
-          resolve9(JSON.parse(chunksDecode(body, length)));
+          resolve10(JSON.parse(chunksDecode(body, length)));
         } else if (type === "arrayBuffer") {
-          resolve9(chunksConcat(body, length).buffer);
+          resolve10(chunksConcat(body, length).buffer);
         } else if (type === "blob") {
-          resolve9(new Blob(body, { type: stream[kContentType] }));
+          resolve10(new Blob(body, { type: stream[kContentType] }));
         } else if (type === "bytes") {
-          resolve9(chunksConcat(body, length));
+          resolve10(chunksConcat(body, length));
         }
         consumeFinish(consume2);
       } catch (err) {
@@ -9963,9 +9963,9 @@ var require_api_request = __commonJS({
     };
     function request(opts, callback) {
       if (callback === void 0) {
-        return new Promise((resolve9, reject) => {
+        return new Promise((resolve10, reject) => {
           request.call(this, opts, (err, data) => {
-            return err ? reject(err) : resolve9(data);
+            return err ? reject(err) : resolve10(data);
           });
         });
       }
@@ -10188,9 +10188,9 @@ var require_api_stream = __commonJS({
     };
     function stream(opts, factory, callback) {
       if (callback === void 0) {
-        return new Promise((resolve9, reject) => {
+        return new Promise((resolve10, reject) => {
           stream.call(this, opts, factory, (err, data) => {
-            return err ? reject(err) : resolve9(data);
+            return err ? reject(err) : resolve10(data);
           });
         });
       }
@@ -10475,9 +10475,9 @@ var require_api_upgrade = __commonJS({
     };
     function upgrade(opts, callback) {
       if (callback === void 0) {
-        return new Promise((resolve9, reject) => {
+        return new Promise((resolve10, reject) => {
           upgrade.call(this, opts, (err, data) => {
-            return err ? reject(err) : resolve9(data);
+            return err ? reject(err) : resolve10(data);
           });
         });
       }
@@ -10569,9 +10569,9 @@ var require_api_connect = __commonJS({
     };
     function connect(opts, callback) {
       if (callback === void 0) {
-        return new Promise((resolve9, reject) => {
+        return new Promise((resolve10, reject) => {
           connect.call(this, opts, (err, data) => {
-            return err ? reject(err) : resolve9(data);
+            return err ? reject(err) : resolve10(data);
           });
         });
       }
@@ -11569,9 +11569,9 @@ var require_dump = __commonJS({
         this.#abort = abort;
         this.#handler.onConnect(this.#customAbort.bind(this));
       }
-      #customAbort(reason) {
+      #customAbort(reason2) {
         this.#aborted = true;
-        this.#reason = reason;
+        this.#reason = reason2;
       }
       // TODO: will require adjustment after new hooks are out
       onHeaders(statusCode, rawHeaders, resume, statusMessage) {
@@ -12598,13 +12598,13 @@ var require_response = __commonJS({
         urlList: init?.urlList ? [...init.urlList] : []
       };
     }
-    function makeNetworkError(reason) {
-      const isError = isErrorLike(reason);
+    function makeNetworkError(reason2) {
+      const isError = isErrorLike(reason2);
       return makeResponse({
         type: "error",
         status: 0,
-        error: isError ? reason : new Error(reason ? String(reason) : reason),
-        aborted: reason && reason.name === "AbortError"
+        error: isError ? reason2 : new Error(reason2 ? String(reason2) : reason2),
+        aborted: reason2 && reason2.name === "AbortError"
       });
     }
     function isNetworkError(response) {
@@ -13586,13 +13586,13 @@ var require_fetch = __commonJS({
         this.dump = false;
         this.state = "ongoing";
       }
-      terminate(reason) {
+      terminate(reason2) {
         if (this.state !== "ongoing") {
           return;
         }
         this.state = "terminated";
-        this.connection?.destroy(reason);
-        this.emit("terminated", reason);
+        this.connection?.destroy(reason2);
+        this.emit("terminated", reason2);
       }
       // https://fetch.spec.whatwg.org/#fetch-controller-abort
       abort(error2) {
@@ -13871,7 +13871,7 @@ var require_fetch = __commonJS({
         fetchParams.controller.dump = true;
       }
       if (request.integrity) {
-        const processBodyError = (reason) => fetchFinale(fetchParams, makeNetworkError(reason));
+        const processBodyError = (reason2) => fetchFinale(fetchParams, makeNetworkError(reason2));
         if (request.responseTainting === "opaque" || response.body == null) {
           processBodyError(response.error);
           return;
@@ -14349,9 +14349,9 @@ var require_fetch = __commonJS({
       const pullAlgorithm = async () => {
         await fetchParams.controller.resume();
       };
-      const cancelAlgorithm = (reason) => {
+      const cancelAlgorithm = (reason2) => {
         if (!isCancelled(fetchParams)) {
-          fetchParams.controller.abort(reason);
+          fetchParams.controller.abort(reason2);
         }
       };
       const stream = new ReadableStream(
@@ -14362,8 +14362,8 @@ var require_fetch = __commonJS({
           async pull(controller) {
             await pullAlgorithm(controller);
           },
-          async cancel(reason) {
-            await cancelAlgorithm(reason);
+          async cancel(reason2) {
+            await cancelAlgorithm(reason2);
           },
           type: "bytes"
         }
@@ -14413,7 +14413,7 @@ var require_fetch = __commonJS({
           }
         }
       };
-      function onAborted(reason) {
+      function onAborted(reason2) {
         if (isAborted(fetchParams)) {
           response.aborted = true;
           if (isReadable(stream)) {
@@ -14424,7 +14424,7 @@ var require_fetch = __commonJS({
         } else {
           if (isReadable(stream)) {
             fetchParams.controller.controller.error(new TypeError("terminated", {
-              cause: isErrorLike(reason) ? reason : void 0
+              cause: isErrorLike(reason2) ? reason2 : void 0
             }));
           }
         }
@@ -14434,7 +14434,7 @@ var require_fetch = __commonJS({
       function dispatch({ body }) {
         const url = requestCurrentURL(request);
         const agent = fetchParams.controller.dispatcher;
-        return new Promise((resolve9, reject) => agent.dispatch(
+        return new Promise((resolve10, reject) => agent.dispatch(
           {
             path: url.pathname + url.search,
             origin: url.origin,
@@ -14510,7 +14510,7 @@ var require_fetch = __commonJS({
               }
               this.body = new Readable({ read: resume });
               const onError = this.onError.bind(this);
-              resolve9({
+              resolve10({
                 status,
                 statusText,
                 headersList,
@@ -14553,7 +14553,7 @@ var require_fetch = __commonJS({
               for (let i = 0; i < rawHeaders.length; i += 2) {
                 headersList.append(bufferToLowerCasedHeaderName(rawHeaders[i]), rawHeaders[i + 1].toString("latin1"), true);
               }
-              resolve9({
+              resolve10({
                 status,
                 statusText: STATUS_CODES[status],
                 headersList,
@@ -17000,16 +17000,16 @@ var require_util7 = __commonJS({
       }
       return code >= 3e3 && code <= 4999;
     }
-    function failWebsocketConnection(ws, reason) {
+    function failWebsocketConnection(ws, reason2) {
       const { [kController]: controller, [kResponse]: response } = ws;
       controller.abort();
       if (response?.socket && !response.socket.destroyed) {
         response.socket.destroy();
       }
-      if (reason) {
+      if (reason2) {
         fireEvent("error", ws, (type, init) => new ErrorEvent(type, init), {
-          error: new Error(reason),
-          message: reason
+          error: new Error(reason2),
+          message: reason2
         });
       }
     }
@@ -17267,7 +17267,7 @@ var require_connection = __commonJS({
       });
       return controller;
     }
-    function closeWebSocketConnection(ws, code, reason, reasonByteLength) {
+    function closeWebSocketConnection(ws, code, reason2, reasonByteLength) {
       if (isClosing(ws) || isClosed(ws)) {
       } else if (!isEstablished(ws)) {
         failWebsocketConnection(ws, "Connection was closed before it was established.");
@@ -17275,13 +17275,13 @@ var require_connection = __commonJS({
       } else if (ws[kSentClose] === sentCloseFrameState.NOT_SENT) {
         ws[kSentClose] = sentCloseFrameState.PROCESSING;
         const frame = new WebsocketFrameSend();
-        if (code !== void 0 && reason === void 0) {
+        if (code !== void 0 && reason2 === void 0) {
           frame.frameData = Buffer.allocUnsafe(2);
           frame.frameData.writeUInt16BE(code, 0);
-        } else if (code !== void 0 && reason !== void 0) {
+        } else if (code !== void 0 && reason2 !== void 0) {
           frame.frameData = Buffer.allocUnsafe(2 + reasonByteLength);
           frame.frameData.writeUInt16BE(code, 0);
-          frame.frameData.write(reason, 2, "utf-8");
+          frame.frameData.write(reason2, 2, "utf-8");
         } else {
           frame.frameData = emptyBuffer;
         }
@@ -17306,11 +17306,11 @@ var require_connection = __commonJS({
       response.socket.off("error", onSocketError);
       const wasClean = ws[kSentClose] === sentCloseFrameState.SENT && ws[kReceivedClose];
       let code = 1005;
-      let reason = "";
+      let reason2 = "";
       const result2 = ws[kByteParser].closingInfo;
       if (result2 && !result2.error) {
         code = result2.code ?? 1005;
-        reason = result2.reason;
+        reason2 = result2.reason;
       } else if (!ws[kReceivedClose]) {
         code = 1006;
       }
@@ -17318,13 +17318,13 @@ var require_connection = __commonJS({
       fireEvent("close", ws, (type, init) => new CloseEvent(type, init), {
         wasClean,
         code,
-        reason
+        reason: reason2
       });
       if (channels.close.hasSubscribers) {
         channels.close.publish({
           websocket: ws,
           code,
-          reason
+          reason: reason2
         });
       }
     }
@@ -17448,9 +17448,9 @@ var require_receiver = __commonJS({
     var { closeWebSocketConnection } = require_connection();
     var { PerMessageDeflate } = require_permessage_deflate();
     var { MessageSizeExceededError } = require_errors();
-    function failWebsocketConnectionWithCode(ws, code, reason) {
-      closeWebSocketConnection(ws, code, reason, Buffer.byteLength(reason));
-      failWebsocketConnection(ws, reason);
+    function failWebsocketConnectionWithCode(ws, code, reason2) {
+      closeWebSocketConnection(ws, code, reason2, Buffer.byteLength(reason2));
+      failWebsocketConnection(ws, reason2);
     }
     var ByteParser = class extends Writable {
       #buffers = [];
@@ -17730,16 +17730,16 @@ var require_receiver = __commonJS({
         if (code !== void 0 && !isValidStatusCode(code)) {
           return { code: 1002, reason: "Invalid status code", error: true };
         }
-        let reason = data.subarray(2);
-        if (reason[0] === 239 && reason[1] === 187 && reason[2] === 191) {
-          reason = reason.subarray(3);
+        let reason2 = data.subarray(2);
+        if (reason2[0] === 239 && reason2[1] === 187 && reason2[2] === 191) {
+          reason2 = reason2.subarray(3);
         }
         try {
-          reason = utf8Decode(reason);
+          reason2 = utf8Decode(reason2);
         } catch {
           return { code: 1007, reason: "Invalid UTF-8", error: true };
         }
-        return { code, reason, error: false };
+        return { code, reason: reason2, error: false };
       }
       /**
        * Parses control frames.
@@ -17754,9 +17754,9 @@ var require_receiver = __commonJS({
           }
           this.#info.closeInfo = this.parseCloseBody(body);
           if (this.#info.closeInfo.error) {
-            const { code, reason } = this.#info.closeInfo;
-            closeWebSocketConnection(this.ws, code, reason, reason.length);
-            failWebsocketConnection(this.ws, reason);
+            const { code, reason: reason2 } = this.#info.closeInfo;
+            closeWebSocketConnection(this.ws, code, reason2, reason2.length);
+            failWebsocketConnection(this.ws, reason2);
             return false;
           }
           if (this.ws[kSentClose] !== sentCloseFrameState.SENT) {
@@ -17993,14 +17993,14 @@ var require_websocket = __commonJS({
        * @param {number|undefined} code
        * @param {string|undefined} reason
        */
-      close(code = void 0, reason = void 0) {
+      close(code = void 0, reason2 = void 0) {
         webidl.brandCheck(this, _WebSocket);
         const prefix = "WebSocket.close";
         if (code !== void 0) {
           code = webidl.converters["unsigned short"](code, prefix, "code", { clamp: true });
         }
-        if (reason !== void 0) {
-          reason = webidl.converters.USVString(reason, prefix, "reason");
+        if (reason2 !== void 0) {
+          reason2 = webidl.converters.USVString(reason2, prefix, "reason");
         }
         if (code !== void 0) {
           if (code !== 1e3 && (code < 3e3 || code > 4999)) {
@@ -18008,8 +18008,8 @@ var require_websocket = __commonJS({
           }
         }
         let reasonByteLength = 0;
-        if (reason !== void 0) {
-          reasonByteLength = Buffer.byteLength(reason);
+        if (reason2 !== void 0) {
+          reasonByteLength = Buffer.byteLength(reason2);
           if (reasonByteLength > 123) {
             throw new DOMException(
               `Reason must be less than 123 bytes; received ${reasonByteLength}`,
@@ -18017,7 +18017,7 @@ var require_websocket = __commonJS({
             );
           }
         }
-        closeWebSocketConnection(this, code, reason, reasonByteLength);
+        closeWebSocketConnection(this, code, reason2, reasonByteLength);
       }
       /**
        * @see https://websockets.spec.whatwg.org/#dom-websocket-send
@@ -18294,8 +18294,8 @@ var require_util8 = __commonJS({
       return true;
     }
     function delay(ms) {
-      return new Promise((resolve9) => {
-        setTimeout(resolve9, ms).unref();
+      return new Promise((resolve10) => {
+        setTimeout(resolve10, ms).unref();
       });
     }
     module.exports = {
@@ -19153,6 +19153,1782 @@ var require_undici = __commonJS({
   }
 });
 
+// node_modules/picomatch/lib/constants.js
+var require_constants6 = __commonJS({
+  "node_modules/picomatch/lib/constants.js"(exports, module) {
+    "use strict";
+    var WIN_SLASH = "\\\\/";
+    var WIN_NO_SLASH = `[^${WIN_SLASH}]`;
+    var DEFAULT_MAX_EXTGLOB_RECURSION = 0;
+    var DOT_LITERAL = "\\.";
+    var PLUS_LITERAL = "\\+";
+    var QMARK_LITERAL = "\\?";
+    var SLASH_LITERAL = "\\/";
+    var ONE_CHAR = "(?=.)";
+    var QMARK = "[^/]";
+    var END_ANCHOR = `(?:${SLASH_LITERAL}|$)`;
+    var START_ANCHOR = `(?:^|${SLASH_LITERAL})`;
+    var DOTS_SLASH = `${DOT_LITERAL}{1,2}${END_ANCHOR}`;
+    var NO_DOT = `(?!${DOT_LITERAL})`;
+    var NO_DOTS = `(?!${START_ANCHOR}${DOTS_SLASH})`;
+    var NO_DOT_SLASH = `(?!${DOT_LITERAL}{0,1}${END_ANCHOR})`;
+    var NO_DOTS_SLASH = `(?!${DOTS_SLASH})`;
+    var QMARK_NO_DOT = `[^.${SLASH_LITERAL}]`;
+    var STAR = `${QMARK}*?`;
+    var SEP = "/";
+    var POSIX_CHARS = {
+      DOT_LITERAL,
+      PLUS_LITERAL,
+      QMARK_LITERAL,
+      SLASH_LITERAL,
+      ONE_CHAR,
+      QMARK,
+      END_ANCHOR,
+      DOTS_SLASH,
+      NO_DOT,
+      NO_DOTS,
+      NO_DOT_SLASH,
+      NO_DOTS_SLASH,
+      QMARK_NO_DOT,
+      STAR,
+      START_ANCHOR,
+      SEP
+    };
+    var WINDOWS_CHARS = {
+      ...POSIX_CHARS,
+      SLASH_LITERAL: `[${WIN_SLASH}]`,
+      QMARK: WIN_NO_SLASH,
+      STAR: `${WIN_NO_SLASH}*?`,
+      DOTS_SLASH: `${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$)`,
+      NO_DOT: `(?!${DOT_LITERAL})`,
+      NO_DOTS: `(?!(?:^|[${WIN_SLASH}])${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$))`,
+      NO_DOT_SLASH: `(?!${DOT_LITERAL}{0,1}(?:[${WIN_SLASH}]|$))`,
+      NO_DOTS_SLASH: `(?!${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$))`,
+      QMARK_NO_DOT: `[^.${WIN_SLASH}]`,
+      START_ANCHOR: `(?:^|[${WIN_SLASH}])`,
+      END_ANCHOR: `(?:[${WIN_SLASH}]|$)`,
+      SEP: "\\"
+    };
+    var POSIX_REGEX_SOURCE = {
+      __proto__: null,
+      alnum: "a-zA-Z0-9",
+      alpha: "a-zA-Z",
+      ascii: "\\x00-\\x7F",
+      blank: " \\t",
+      cntrl: "\\x00-\\x1F\\x7F",
+      digit: "0-9",
+      graph: "\\x21-\\x7E",
+      lower: "a-z",
+      print: "\\x20-\\x7E ",
+      punct: "\\-!\"#$%&'()\\*+,./:;<=>?@[\\]^_`{|}~",
+      space: " \\t\\r\\n\\v\\f",
+      upper: "A-Z",
+      word: "A-Za-z0-9_",
+      xdigit: "A-Fa-f0-9"
+    };
+    module.exports = {
+      DEFAULT_MAX_EXTGLOB_RECURSION,
+      MAX_LENGTH: 1024 * 64,
+      POSIX_REGEX_SOURCE,
+      // regular expressions
+      REGEX_BACKSLASH: /\\(?![*+?^${}(|)[\]])/g,
+      REGEX_NON_SPECIAL_CHARS: /^[^@![\].,$*+?^{}()|\\/]+/,
+      REGEX_SPECIAL_CHARS: /[-*+?.^${}(|)[\]]/,
+      REGEX_SPECIAL_CHARS_BACKREF: /(\\?)((\W)(\3*))/g,
+      REGEX_SPECIAL_CHARS_GLOBAL: /([-*+?.^${}(|)[\]])/g,
+      REGEX_REMOVE_BACKSLASH: /(?:\[.*?[^\\]\]|\\(?=.))/g,
+      // Replace globs with equivalent patterns to reduce parsing time.
+      REPLACEMENTS: {
+        __proto__: null,
+        "***": "*",
+        "**/**": "**",
+        "**/**/**": "**"
+      },
+      // Digits
+      CHAR_0: 48,
+      /* 0 */
+      CHAR_9: 57,
+      /* 9 */
+      // Alphabet chars.
+      CHAR_UPPERCASE_A: 65,
+      /* A */
+      CHAR_LOWERCASE_A: 97,
+      /* a */
+      CHAR_UPPERCASE_Z: 90,
+      /* Z */
+      CHAR_LOWERCASE_Z: 122,
+      /* z */
+      CHAR_LEFT_PARENTHESES: 40,
+      /* ( */
+      CHAR_RIGHT_PARENTHESES: 41,
+      /* ) */
+      CHAR_ASTERISK: 42,
+      /* * */
+      // Non-alphabetic chars.
+      CHAR_AMPERSAND: 38,
+      /* & */
+      CHAR_AT: 64,
+      /* @ */
+      CHAR_BACKWARD_SLASH: 92,
+      /* \ */
+      CHAR_CARRIAGE_RETURN: 13,
+      /* \r */
+      CHAR_CIRCUMFLEX_ACCENT: 94,
+      /* ^ */
+      CHAR_COLON: 58,
+      /* : */
+      CHAR_COMMA: 44,
+      /* , */
+      CHAR_DOT: 46,
+      /* . */
+      CHAR_DOUBLE_QUOTE: 34,
+      /* " */
+      CHAR_EQUAL: 61,
+      /* = */
+      CHAR_EXCLAMATION_MARK: 33,
+      /* ! */
+      CHAR_FORM_FEED: 12,
+      /* \f */
+      CHAR_FORWARD_SLASH: 47,
+      /* / */
+      CHAR_GRAVE_ACCENT: 96,
+      /* ` */
+      CHAR_HASH: 35,
+      /* # */
+      CHAR_HYPHEN_MINUS: 45,
+      /* - */
+      CHAR_LEFT_ANGLE_BRACKET: 60,
+      /* < */
+      CHAR_LEFT_CURLY_BRACE: 123,
+      /* { */
+      CHAR_LEFT_SQUARE_BRACKET: 91,
+      /* [ */
+      CHAR_LINE_FEED: 10,
+      /* \n */
+      CHAR_NO_BREAK_SPACE: 160,
+      /* \u00A0 */
+      CHAR_PERCENT: 37,
+      /* % */
+      CHAR_PLUS: 43,
+      /* + */
+      CHAR_QUESTION_MARK: 63,
+      /* ? */
+      CHAR_RIGHT_ANGLE_BRACKET: 62,
+      /* > */
+      CHAR_RIGHT_CURLY_BRACE: 125,
+      /* } */
+      CHAR_RIGHT_SQUARE_BRACKET: 93,
+      /* ] */
+      CHAR_SEMICOLON: 59,
+      /* ; */
+      CHAR_SINGLE_QUOTE: 39,
+      /* ' */
+      CHAR_SPACE: 32,
+      /*   */
+      CHAR_TAB: 9,
+      /* \t */
+      CHAR_UNDERSCORE: 95,
+      /* _ */
+      CHAR_VERTICAL_LINE: 124,
+      /* | */
+      CHAR_ZERO_WIDTH_NOBREAK_SPACE: 65279,
+      /* \uFEFF */
+      /**
+       * Create EXTGLOB_CHARS
+       */
+      extglobChars(chars) {
+        return {
+          "!": { type: "negate", open: "(?:(?!(?:", close: `))${chars.STAR})` },
+          "?": { type: "qmark", open: "(?:", close: ")?" },
+          "+": { type: "plus", open: "(?:", close: ")+" },
+          "*": { type: "star", open: "(?:", close: ")*" },
+          "@": { type: "at", open: "(?:", close: ")" }
+        };
+      },
+      /**
+       * Create GLOB_CHARS
+       */
+      globChars(win32) {
+        return win32 === true ? WINDOWS_CHARS : POSIX_CHARS;
+      }
+    };
+  }
+});
+
+// node_modules/picomatch/lib/utils.js
+var require_utils2 = __commonJS({
+  "node_modules/picomatch/lib/utils.js"(exports) {
+    "use strict";
+    var {
+      REGEX_BACKSLASH,
+      REGEX_REMOVE_BACKSLASH,
+      REGEX_SPECIAL_CHARS,
+      REGEX_SPECIAL_CHARS_GLOBAL
+    } = require_constants6();
+    exports.isObject = (val) => val !== null && typeof val === "object" && !Array.isArray(val);
+    exports.hasRegexChars = (str) => REGEX_SPECIAL_CHARS.test(str);
+    exports.isRegexChar = (str) => str.length === 1 && exports.hasRegexChars(str);
+    exports.escapeRegex = (str) => str.replace(REGEX_SPECIAL_CHARS_GLOBAL, "\\$1");
+    exports.toPosixSlashes = (str) => str.replace(REGEX_BACKSLASH, "/");
+    exports.isWindows = () => {
+      if (typeof navigator !== "undefined" && navigator.platform) {
+        const platform2 = navigator.platform.toLowerCase();
+        return platform2 === "win32" || platform2 === "windows";
+      }
+      if (typeof process !== "undefined" && process.platform) {
+        return process.platform === "win32";
+      }
+      return false;
+    };
+    exports.removeBackslashes = (str) => {
+      return str.replace(REGEX_REMOVE_BACKSLASH, (match) => {
+        return match === "\\" ? "" : match;
+      });
+    };
+    exports.escapeLast = (input, char, lastIdx) => {
+      const idx = input.lastIndexOf(char, lastIdx);
+      if (idx === -1) return input;
+      if (input[idx - 1] === "\\") return exports.escapeLast(input, char, idx - 1);
+      return `${input.slice(0, idx)}\\${input.slice(idx)}`;
+    };
+    exports.removePrefix = (input, state = {}) => {
+      let output = input;
+      if (output.startsWith("./")) {
+        output = output.slice(2);
+        state.prefix = "./";
+      }
+      return output;
+    };
+    exports.wrapOutput = (input, state = {}, options = {}) => {
+      const prepend = options.contains ? "" : "^";
+      const append = options.contains ? "" : "$";
+      let output = `${prepend}(?:${input})${append}`;
+      if (state.negated === true) {
+        output = `(?:^(?!${output}).*$)`;
+      }
+      return output;
+    };
+    exports.basename = (path6, { windows } = {}) => {
+      const segs = path6.split(windows ? /[\\/]/ : "/");
+      const last = segs[segs.length - 1];
+      if (last === "") {
+        return segs[segs.length - 2];
+      }
+      return last;
+    };
+  }
+});
+
+// node_modules/picomatch/lib/scan.js
+var require_scan = __commonJS({
+  "node_modules/picomatch/lib/scan.js"(exports, module) {
+    "use strict";
+    var utils = require_utils2();
+    var {
+      CHAR_ASTERISK,
+      /* * */
+      CHAR_AT,
+      /* @ */
+      CHAR_BACKWARD_SLASH,
+      /* \ */
+      CHAR_COMMA,
+      /* , */
+      CHAR_DOT,
+      /* . */
+      CHAR_EXCLAMATION_MARK,
+      /* ! */
+      CHAR_FORWARD_SLASH,
+      /* / */
+      CHAR_LEFT_CURLY_BRACE,
+      /* { */
+      CHAR_LEFT_PARENTHESES,
+      /* ( */
+      CHAR_LEFT_SQUARE_BRACKET,
+      /* [ */
+      CHAR_PLUS,
+      /* + */
+      CHAR_QUESTION_MARK,
+      /* ? */
+      CHAR_RIGHT_CURLY_BRACE,
+      /* } */
+      CHAR_RIGHT_PARENTHESES,
+      /* ) */
+      CHAR_RIGHT_SQUARE_BRACKET
+      /* ] */
+    } = require_constants6();
+    var isPathSeparator = (code) => {
+      return code === CHAR_FORWARD_SLASH || code === CHAR_BACKWARD_SLASH;
+    };
+    var depth = (token) => {
+      if (token.isPrefix !== true) {
+        token.depth = token.isGlobstar ? Infinity : 1;
+      }
+    };
+    var scan = (input, options) => {
+      const opts = options || {};
+      const length = input.length - 1;
+      const scanToEnd = opts.parts === true || opts.tokens === true || opts.scanToEnd === true;
+      const slashes = [];
+      const tokens = [];
+      const parts = [];
+      let str = input;
+      let index = -1;
+      let start = 0;
+      let lastIndex = 0;
+      let isBrace = false;
+      let isBracket = false;
+      let isGlob = false;
+      let isExtglob = false;
+      let isGlobstar = false;
+      let braceEscaped = false;
+      let backslashes = false;
+      let negated = false;
+      let negatedExtglob = false;
+      let finished = false;
+      let braces = 0;
+      let prev;
+      let code;
+      let token = { value: "", depth: 0, isGlob: false };
+      const eos = () => index >= length;
+      const peek = () => str.charCodeAt(index + 1);
+      const advance = () => {
+        prev = code;
+        return str.charCodeAt(++index);
+      };
+      while (index < length) {
+        code = advance();
+        let next;
+        if (code === CHAR_BACKWARD_SLASH) {
+          backslashes = token.backslashes = true;
+          code = advance();
+          if (code === CHAR_LEFT_CURLY_BRACE) {
+            braceEscaped = true;
+          }
+          continue;
+        }
+        if (braceEscaped === true || code === CHAR_LEFT_CURLY_BRACE) {
+          braces++;
+          while (eos() !== true && (code = advance())) {
+            if (code === CHAR_BACKWARD_SLASH) {
+              backslashes = token.backslashes = true;
+              advance();
+              continue;
+            }
+            if (code === CHAR_LEFT_CURLY_BRACE) {
+              braces++;
+              continue;
+            }
+            if (braceEscaped !== true && code === CHAR_DOT && (code = advance()) === CHAR_DOT) {
+              isBrace = token.isBrace = true;
+              isGlob = token.isGlob = true;
+              finished = true;
+              if (scanToEnd === true) {
+                continue;
+              }
+              break;
+            }
+            if (braceEscaped !== true && code === CHAR_COMMA) {
+              isBrace = token.isBrace = true;
+              isGlob = token.isGlob = true;
+              finished = true;
+              if (scanToEnd === true) {
+                continue;
+              }
+              break;
+            }
+            if (code === CHAR_RIGHT_CURLY_BRACE) {
+              braces--;
+              if (braces === 0) {
+                braceEscaped = false;
+                isBrace = token.isBrace = true;
+                finished = true;
+                break;
+              }
+            }
+          }
+          if (scanToEnd === true) {
+            continue;
+          }
+          break;
+        }
+        if (code === CHAR_FORWARD_SLASH) {
+          slashes.push(index);
+          tokens.push(token);
+          token = { value: "", depth: 0, isGlob: false };
+          if (finished === true) continue;
+          if (prev === CHAR_DOT && index === start + 1) {
+            start += 2;
+            continue;
+          }
+          lastIndex = index + 1;
+          continue;
+        }
+        if (opts.noext !== true) {
+          const isExtglobChar = code === CHAR_PLUS || code === CHAR_AT || code === CHAR_ASTERISK || code === CHAR_QUESTION_MARK || code === CHAR_EXCLAMATION_MARK;
+          if (isExtglobChar === true && peek() === CHAR_LEFT_PARENTHESES) {
+            isGlob = token.isGlob = true;
+            isExtglob = token.isExtglob = true;
+            finished = true;
+            if (code === CHAR_EXCLAMATION_MARK && index === start) {
+              negatedExtglob = true;
+            }
+            if (scanToEnd === true) {
+              let parens = 0;
+              while (eos() !== true && (code = advance())) {
+                if (code === CHAR_BACKWARD_SLASH) {
+                  backslashes = token.backslashes = true;
+                  advance();
+                  continue;
+                }
+                if (code === CHAR_LEFT_PARENTHESES) {
+                  parens++;
+                  continue;
+                }
+                if (code === CHAR_RIGHT_PARENTHESES && --parens === 0) {
+                  finished = true;
+                  break;
+                }
+              }
+              continue;
+            }
+            break;
+          }
+        }
+        if (code === CHAR_ASTERISK) {
+          if (prev === CHAR_ASTERISK) isGlobstar = token.isGlobstar = true;
+          isGlob = token.isGlob = true;
+          finished = true;
+          if (scanToEnd === true) {
+            continue;
+          }
+          break;
+        }
+        if (code === CHAR_QUESTION_MARK) {
+          isGlob = token.isGlob = true;
+          finished = true;
+          if (scanToEnd === true) {
+            continue;
+          }
+          break;
+        }
+        if (code === CHAR_LEFT_SQUARE_BRACKET) {
+          while (eos() !== true && (next = advance())) {
+            if (next === CHAR_BACKWARD_SLASH) {
+              backslashes = token.backslashes = true;
+              advance();
+              continue;
+            }
+            if (next === CHAR_RIGHT_SQUARE_BRACKET) {
+              isBracket = token.isBracket = true;
+              isGlob = token.isGlob = true;
+              finished = true;
+              break;
+            }
+          }
+          if (scanToEnd === true) {
+            continue;
+          }
+          break;
+        }
+        if (opts.nonegate !== true && code === CHAR_EXCLAMATION_MARK && index === start) {
+          negated = token.negated = true;
+          start++;
+          continue;
+        }
+        if (opts.noparen !== true && code === CHAR_LEFT_PARENTHESES) {
+          isGlob = token.isGlob = true;
+          if (scanToEnd === true) {
+            let parens = 1;
+            while (eos() !== true && (code = advance())) {
+              if (code === CHAR_BACKWARD_SLASH) {
+                backslashes = token.backslashes = true;
+                advance();
+                continue;
+              }
+              if (code === CHAR_LEFT_PARENTHESES) {
+                parens++;
+                continue;
+              }
+              if (code === CHAR_RIGHT_PARENTHESES && --parens === 0) {
+                finished = true;
+                break;
+              }
+            }
+            continue;
+          }
+          break;
+        }
+        if (isGlob === true) {
+          finished = true;
+          if (scanToEnd === true) {
+            continue;
+          }
+          break;
+        }
+      }
+      if (opts.noext === true) {
+        isExtglob = false;
+        isGlob = false;
+      }
+      let base = str;
+      let prefix = "";
+      let glob = "";
+      if (start > 0) {
+        prefix = str.slice(0, start);
+        str = str.slice(start);
+        lastIndex -= start;
+      }
+      if (base && isGlob === true && lastIndex > 0) {
+        base = str.slice(0, lastIndex);
+        glob = str.slice(lastIndex);
+      } else if (isGlob === true) {
+        base = "";
+        glob = str;
+      } else {
+        base = str;
+      }
+      if (base && base !== "" && base !== "/" && base !== str) {
+        if (isPathSeparator(base.charCodeAt(base.length - 1))) {
+          base = base.slice(0, -1);
+        }
+      }
+      if (opts.unescape === true) {
+        if (glob) glob = utils.removeBackslashes(glob);
+        if (base && backslashes === true) {
+          base = utils.removeBackslashes(base);
+        }
+      }
+      const state = {
+        prefix,
+        input,
+        start,
+        base,
+        glob,
+        isBrace,
+        isBracket,
+        isGlob,
+        isExtglob,
+        isGlobstar,
+        negated,
+        negatedExtglob
+      };
+      if (opts.tokens === true) {
+        state.maxDepth = 0;
+        if (!isPathSeparator(code)) {
+          tokens.push(token);
+        }
+        state.tokens = tokens;
+      }
+      if (opts.parts === true || opts.tokens === true) {
+        let prevIndex;
+        for (let idx = 0; idx < slashes.length; idx++) {
+          const n2 = prevIndex !== void 0 ? prevIndex + 1 : start;
+          const i = slashes[idx];
+          const value2 = input.slice(n2, i);
+          if (opts.tokens) {
+            if (idx === 0 && start !== 0) {
+              tokens[idx].isPrefix = true;
+              tokens[idx].value = prefix;
+            } else {
+              tokens[idx].value = value2;
+            }
+            depth(tokens[idx]);
+            state.maxDepth += tokens[idx].depth;
+          }
+          if (i >= start) {
+            parts.push(value2);
+            prevIndex = i;
+          }
+        }
+        const n = prevIndex !== void 0 ? prevIndex + 1 : start;
+        const value = input.slice(n);
+        parts.push(value);
+        if (opts.tokens && prevIndex && prevIndex + 1 < input.length) {
+          tokens[tokens.length - 1].value = value;
+          depth(tokens[tokens.length - 1]);
+          state.maxDepth += tokens[tokens.length - 1].depth;
+        }
+        state.slashes = slashes;
+        state.parts = parts;
+      }
+      return state;
+    };
+    module.exports = scan;
+  }
+});
+
+// node_modules/picomatch/lib/parse.js
+var require_parse2 = __commonJS({
+  "node_modules/picomatch/lib/parse.js"(exports, module) {
+    "use strict";
+    var constants6 = require_constants6();
+    var utils = require_utils2();
+    var {
+      MAX_LENGTH,
+      POSIX_REGEX_SOURCE,
+      REGEX_NON_SPECIAL_CHARS,
+      REGEX_SPECIAL_CHARS_BACKREF,
+      REPLACEMENTS
+    } = constants6;
+    var expandRange = (args, options) => {
+      if (typeof options.expandRange === "function") {
+        return options.expandRange(...args, options);
+      }
+      args.sort();
+      const value = `[${args.join("-")}]`;
+      try {
+        new RegExp(value);
+      } catch (ex) {
+        return args.map((v) => utils.escapeRegex(v)).join("..");
+      }
+      return value;
+    };
+    var syntaxError = (type, char) => {
+      return `Missing ${type}: "${char}" - use "\\\\${char}" to match literal characters`;
+    };
+    var splitTopLevel = (input) => {
+      const parts = [];
+      let bracket = 0;
+      let paren = 0;
+      let quote = 0;
+      let value = "";
+      let escaped = false;
+      for (const ch of input) {
+        if (escaped === true) {
+          value += ch;
+          escaped = false;
+          continue;
+        }
+        if (ch === "\\") {
+          value += ch;
+          escaped = true;
+          continue;
+        }
+        if (ch === '"') {
+          quote = quote === 1 ? 0 : 1;
+          value += ch;
+          continue;
+        }
+        if (quote === 0) {
+          if (ch === "[") {
+            bracket++;
+          } else if (ch === "]" && bracket > 0) {
+            bracket--;
+          } else if (bracket === 0) {
+            if (ch === "(") {
+              paren++;
+            } else if (ch === ")" && paren > 0) {
+              paren--;
+            } else if (ch === "|" && paren === 0) {
+              parts.push(value);
+              value = "";
+              continue;
+            }
+          }
+        }
+        value += ch;
+      }
+      parts.push(value);
+      return parts;
+    };
+    var isPlainBranch = (branch) => {
+      let escaped = false;
+      for (const ch of branch) {
+        if (escaped === true) {
+          escaped = false;
+          continue;
+        }
+        if (ch === "\\") {
+          escaped = true;
+          continue;
+        }
+        if (/[?*+@!()[\]{}]/.test(ch)) {
+          return false;
+        }
+      }
+      return true;
+    };
+    var normalizeSimpleBranch = (branch) => {
+      let value = branch.trim();
+      let changed = true;
+      while (changed === true) {
+        changed = false;
+        if (/^@\([^\\()[\]{}|]+\)$/.test(value)) {
+          value = value.slice(2, -1);
+          changed = true;
+        }
+      }
+      if (!isPlainBranch(value)) {
+        return;
+      }
+      return value.replace(/\\(.)/g, "$1");
+    };
+    var hasRepeatedCharPrefixOverlap = (branches) => {
+      const values = branches.map(normalizeSimpleBranch).filter(Boolean);
+      for (let i = 0; i < values.length; i++) {
+        for (let j = i + 1; j < values.length; j++) {
+          const a = values[i];
+          const b = values[j];
+          const char = a[0];
+          if (!char || a !== char.repeat(a.length) || b !== char.repeat(b.length)) {
+            continue;
+          }
+          if (a === b || a.startsWith(b) || b.startsWith(a)) {
+            return true;
+          }
+        }
+      }
+      return false;
+    };
+    var parseRepeatedExtglob = (pattern, requireEnd = true) => {
+      if (pattern[0] !== "+" && pattern[0] !== "*" || pattern[1] !== "(") {
+        return;
+      }
+      let bracket = 0;
+      let paren = 0;
+      let quote = 0;
+      let escaped = false;
+      for (let i = 1; i < pattern.length; i++) {
+        const ch = pattern[i];
+        if (escaped === true) {
+          escaped = false;
+          continue;
+        }
+        if (ch === "\\") {
+          escaped = true;
+          continue;
+        }
+        if (ch === '"') {
+          quote = quote === 1 ? 0 : 1;
+          continue;
+        }
+        if (quote === 1) {
+          continue;
+        }
+        if (ch === "[") {
+          bracket++;
+          continue;
+        }
+        if (ch === "]" && bracket > 0) {
+          bracket--;
+          continue;
+        }
+        if (bracket > 0) {
+          continue;
+        }
+        if (ch === "(") {
+          paren++;
+          continue;
+        }
+        if (ch === ")") {
+          paren--;
+          if (paren === 0) {
+            if (requireEnd === true && i !== pattern.length - 1) {
+              return;
+            }
+            return {
+              type: pattern[0],
+              body: pattern.slice(2, i),
+              end: i
+            };
+          }
+        }
+      }
+    };
+    var buildCharClassStar = (chars) => {
+      const source = chars.length === 1 ? utils.escapeRegex(chars[0]) : `[${chars.map((ch) => utils.escapeRegex(ch)).join("")}]`;
+      return `${source}*`;
+    };
+    var getStarExtglobSequenceChars = (pattern) => {
+      let index = 0;
+      const chars = [];
+      while (index < pattern.length) {
+        const match = parseRepeatedExtglob(pattern.slice(index), false);
+        if (!match || match.type !== "*") {
+          return;
+        }
+        const branches = splitTopLevel(match.body).map((branch2) => branch2.trim());
+        if (branches.length !== 1) {
+          return;
+        }
+        const branch = normalizeSimpleBranch(branches[0]);
+        if (!branch || branch.length !== 1) {
+          return;
+        }
+        chars.push(branch);
+        index += match.end + 1;
+      }
+      if (chars.length < 1) {
+        return;
+      }
+      return chars;
+    };
+    var repeatedExtglobRecursion = (pattern) => {
+      let depth = 0;
+      let value = pattern.trim();
+      let match = parseRepeatedExtglob(value);
+      while (match) {
+        depth++;
+        value = match.body.trim();
+        match = parseRepeatedExtglob(value);
+      }
+      return depth;
+    };
+    var analyzeRepeatedExtglob = (body, options) => {
+      if (options.maxExtglobRecursion === false) {
+        return { risky: false };
+      }
+      const max = typeof options.maxExtglobRecursion === "number" ? options.maxExtglobRecursion : constants6.DEFAULT_MAX_EXTGLOB_RECURSION;
+      const branches = splitTopLevel(body).map((branch) => branch.trim());
+      if (branches.length > 1) {
+        if (branches.some((branch) => branch === "") || branches.some((branch) => /^[*?]+$/.test(branch)) || hasRepeatedCharPrefixOverlap(branches)) {
+          return { risky: true };
+        }
+      }
+      const safeChars = [];
+      let sawStarSequence = false;
+      let combinable = true;
+      for (const branch of branches) {
+        const chars = getStarExtglobSequenceChars(branch);
+        if (chars) {
+          sawStarSequence = true;
+          safeChars.push(...chars);
+          continue;
+        }
+        const literal = normalizeSimpleBranch(branch);
+        if (literal && literal.length === 1) {
+          safeChars.push(literal);
+          continue;
+        }
+        combinable = false;
+        if (repeatedExtglobRecursion(branch) > max) {
+          return { risky: true };
+        }
+      }
+      if (sawStarSequence) {
+        return combinable ? { risky: true, safeOutput: buildCharClassStar([...new Set(safeChars)]) } : { risky: true };
+      }
+      return { risky: false };
+    };
+    var parse = (input, options) => {
+      if (typeof input !== "string") {
+        throw new TypeError("Expected a string");
+      }
+      input = REPLACEMENTS[input] || input;
+      const opts = { ...options };
+      const max = typeof opts.maxLength === "number" ? Math.min(MAX_LENGTH, opts.maxLength) : MAX_LENGTH;
+      let len = input.length;
+      if (len > max) {
+        throw new SyntaxError(`Input length: ${len}, exceeds maximum allowed length: ${max}`);
+      }
+      const bos = { type: "bos", value: "", output: opts.prepend || "" };
+      const tokens = [bos];
+      const capture = opts.capture ? "" : "?:";
+      const PLATFORM_CHARS = constants6.globChars(opts.windows);
+      const EXTGLOB_CHARS = constants6.extglobChars(PLATFORM_CHARS);
+      const {
+        DOT_LITERAL,
+        PLUS_LITERAL,
+        SLASH_LITERAL,
+        ONE_CHAR,
+        DOTS_SLASH,
+        NO_DOT,
+        NO_DOT_SLASH,
+        NO_DOTS_SLASH,
+        QMARK,
+        QMARK_NO_DOT,
+        STAR,
+        START_ANCHOR
+      } = PLATFORM_CHARS;
+      const globstar = (opts2) => {
+        return `(${capture}(?:(?!${START_ANCHOR}${opts2.dot ? DOTS_SLASH : DOT_LITERAL}).)*?)`;
+      };
+      const nodot = opts.dot ? "" : NO_DOT;
+      const qmarkNoDot = opts.dot ? QMARK : QMARK_NO_DOT;
+      let star = opts.bash === true ? globstar(opts) : STAR;
+      if (opts.capture) {
+        star = `(${star})`;
+      }
+      if (typeof opts.noext === "boolean") {
+        opts.noextglob = opts.noext;
+      }
+      const state = {
+        input,
+        index: -1,
+        start: 0,
+        dot: opts.dot === true,
+        consumed: "",
+        output: "",
+        prefix: "",
+        backtrack: false,
+        negated: false,
+        brackets: 0,
+        braces: 0,
+        parens: 0,
+        quotes: 0,
+        globstar: false,
+        tokens
+      };
+      input = utils.removePrefix(input, state);
+      len = input.length;
+      const extglobs = [];
+      const braces = [];
+      const stack = [];
+      let prev = bos;
+      let value;
+      const eos = () => state.index === len - 1;
+      const peek = state.peek = (n = 1) => input[state.index + n];
+      const advance = state.advance = () => input[++state.index] || "";
+      const remaining = () => input.slice(state.index + 1);
+      const consume = (value2 = "", num = 0) => {
+        state.consumed += value2;
+        state.index += num;
+      };
+      const append = (token) => {
+        state.output += token.output != null ? token.output : token.value;
+        consume(token.value);
+      };
+      const negate = () => {
+        let count = 1;
+        while (peek() === "!" && (peek(2) !== "(" || peek(3) === "?")) {
+          advance();
+          state.start++;
+          count++;
+        }
+        if (count % 2 === 0) {
+          return false;
+        }
+        state.negated = true;
+        state.start++;
+        return true;
+      };
+      const increment = (type) => {
+        state[type]++;
+        stack.push(type);
+      };
+      const decrement = (type) => {
+        state[type]--;
+        stack.pop();
+      };
+      const push = (tok) => {
+        if (prev.type === "globstar") {
+          const isBrace = state.braces > 0 && (tok.type === "comma" || tok.type === "brace");
+          const isExtglob = tok.extglob === true || extglobs.length && (tok.type === "pipe" || tok.type === "paren");
+          if (tok.type !== "slash" && tok.type !== "paren" && !isBrace && !isExtglob) {
+            state.output = state.output.slice(0, -prev.output.length);
+            prev.type = "star";
+            prev.value = "*";
+            prev.output = star;
+            state.output += prev.output;
+          }
+        }
+        if (extglobs.length && tok.type !== "paren") {
+          extglobs[extglobs.length - 1].inner += tok.value;
+        }
+        if (tok.value || tok.output) append(tok);
+        if (prev && prev.type === "text" && tok.type === "text") {
+          prev.output = (prev.output || prev.value) + tok.value;
+          prev.value += tok.value;
+          return;
+        }
+        tok.prev = prev;
+        tokens.push(tok);
+        prev = tok;
+      };
+      const extglobOpen = (type, value2) => {
+        const token = { ...EXTGLOB_CHARS[value2], conditions: 1, inner: "" };
+        token.prev = prev;
+        token.parens = state.parens;
+        token.output = state.output;
+        token.startIndex = state.index;
+        token.tokensIndex = tokens.length;
+        const output = (opts.capture ? "(" : "") + token.open;
+        increment("parens");
+        push({ type, value: value2, output: state.output ? "" : ONE_CHAR });
+        push({ type: "paren", extglob: true, value: advance(), output });
+        extglobs.push(token);
+      };
+      const extglobClose = (token) => {
+        const literal = input.slice(token.startIndex, state.index + 1);
+        const body = input.slice(token.startIndex + 2, state.index);
+        const analysis = analyzeRepeatedExtglob(body, opts);
+        if ((token.type === "plus" || token.type === "star") && analysis.risky) {
+          const safeOutput = analysis.safeOutput ? (token.output ? "" : ONE_CHAR) + (opts.capture ? `(${analysis.safeOutput})` : analysis.safeOutput) : void 0;
+          const open2 = tokens[token.tokensIndex];
+          open2.type = "text";
+          open2.value = literal;
+          open2.output = safeOutput || utils.escapeRegex(literal);
+          for (let i = token.tokensIndex + 1; i < tokens.length; i++) {
+            tokens[i].value = "";
+            tokens[i].output = "";
+            delete tokens[i].suffix;
+          }
+          state.output = token.output + open2.output;
+          state.backtrack = true;
+          push({ type: "paren", extglob: true, value, output: "" });
+          decrement("parens");
+          return;
+        }
+        let output = token.close + (opts.capture ? ")" : "");
+        let rest;
+        if (token.type === "negate") {
+          let extglobStar = star;
+          if (token.inner && token.inner.length > 1 && token.inner.includes("/")) {
+            extglobStar = globstar(opts);
+          }
+          if (extglobStar !== star || eos() || /^\)+$/.test(remaining())) {
+            output = token.close = `)$))${extglobStar}`;
+          }
+          if (token.inner.includes("*") && (rest = remaining()) && /^\.[^\\/.]+$/.test(rest)) {
+            const expression = parse(rest, { ...options, fastpaths: false }).output;
+            output = token.close = `)${expression})${extglobStar})`;
+          }
+          if (token.prev.type === "bos") {
+            state.negatedExtglob = true;
+          }
+        }
+        push({ type: "paren", extglob: true, value, output });
+        decrement("parens");
+      };
+      if (opts.fastpaths !== false && !/(^[*!]|[/()[\]{}"])/.test(input)) {
+        let backslashes = false;
+        let output = input.replace(REGEX_SPECIAL_CHARS_BACKREF, (m, esc, chars, first, rest, index) => {
+          if (first === "\\") {
+            backslashes = true;
+            return m;
+          }
+          if (first === "?") {
+            if (esc) {
+              return esc + first + (rest ? QMARK.repeat(rest.length) : "");
+            }
+            if (index === 0) {
+              return qmarkNoDot + (rest ? QMARK.repeat(rest.length) : "");
+            }
+            return QMARK.repeat(chars.length);
+          }
+          if (first === ".") {
+            return DOT_LITERAL.repeat(chars.length);
+          }
+          if (first === "*") {
+            if (esc) {
+              return esc + first + (rest ? star : "");
+            }
+            return star;
+          }
+          return esc ? m : `\\${m}`;
+        });
+        if (backslashes === true) {
+          if (opts.unescape === true) {
+            output = output.replace(/\\/g, "");
+          } else {
+            output = output.replace(/\\+/g, (m) => {
+              return m.length % 2 === 0 ? "\\\\" : m ? "\\" : "";
+            });
+          }
+        }
+        if (output === input && opts.contains === true) {
+          state.output = input;
+          return state;
+        }
+        state.output = utils.wrapOutput(output, state, options);
+        return state;
+      }
+      while (!eos()) {
+        value = advance();
+        if (value === "\0") {
+          continue;
+        }
+        if (value === "\\") {
+          const next = peek();
+          if (next === "/" && opts.bash !== true) {
+            continue;
+          }
+          if (next === "." || next === ";") {
+            continue;
+          }
+          if (!next) {
+            value += "\\";
+            push({ type: "text", value });
+            continue;
+          }
+          const match = /^\\+/.exec(remaining());
+          let slashes = 0;
+          if (match && match[0].length > 2) {
+            slashes = match[0].length;
+            state.index += slashes;
+            if (slashes % 2 !== 0) {
+              value += "\\";
+            }
+          }
+          if (opts.unescape === true) {
+            value = advance();
+          } else {
+            value += advance();
+          }
+          if (state.brackets === 0) {
+            push({ type: "text", value });
+            continue;
+          }
+        }
+        if (state.brackets > 0 && (value !== "]" || prev.value === "[" || prev.value === "[^")) {
+          if (opts.posix !== false && value === ":") {
+            const inner = prev.value.slice(1);
+            if (inner.includes("[")) {
+              prev.posix = true;
+              if (inner.includes(":")) {
+                const idx = prev.value.lastIndexOf("[");
+                const pre = prev.value.slice(0, idx);
+                const rest2 = prev.value.slice(idx + 2);
+                const posix2 = POSIX_REGEX_SOURCE[rest2];
+                if (posix2) {
+                  prev.value = pre + posix2;
+                  state.backtrack = true;
+                  advance();
+                  if (!bos.output && tokens.indexOf(prev) === 1) {
+                    bos.output = ONE_CHAR;
+                  }
+                  continue;
+                }
+              }
+            }
+          }
+          if (value === "[" && peek() !== ":" || value === "-" && peek() === "]") {
+            value = `\\${value}`;
+          }
+          if (value === "]" && (prev.value === "[" || prev.value === "[^")) {
+            value = `\\${value}`;
+          }
+          if (opts.posix === true && value === "!" && prev.value === "[") {
+            value = "^";
+          }
+          prev.value += value;
+          append({ value });
+          continue;
+        }
+        if (state.quotes === 1 && value !== '"') {
+          value = utils.escapeRegex(value);
+          prev.value += value;
+          append({ value });
+          continue;
+        }
+        if (value === '"') {
+          state.quotes = state.quotes === 1 ? 0 : 1;
+          if (opts.keepQuotes === true) {
+            push({ type: "text", value });
+          }
+          continue;
+        }
+        if (value === "(") {
+          increment("parens");
+          push({ type: "paren", value });
+          continue;
+        }
+        if (value === ")") {
+          if (state.parens === 0 && opts.strictBrackets === true) {
+            throw new SyntaxError(syntaxError("opening", "("));
+          }
+          const extglob = extglobs[extglobs.length - 1];
+          if (extglob && state.parens === extglob.parens + 1) {
+            extglobClose(extglobs.pop());
+            continue;
+          }
+          push({ type: "paren", value, output: state.parens ? ")" : "\\)" });
+          decrement("parens");
+          continue;
+        }
+        if (value === "[") {
+          if (opts.nobracket === true || !remaining().includes("]")) {
+            if (opts.nobracket !== true && opts.strictBrackets === true) {
+              throw new SyntaxError(syntaxError("closing", "]"));
+            }
+            value = `\\${value}`;
+          } else {
+            increment("brackets");
+          }
+          push({ type: "bracket", value });
+          continue;
+        }
+        if (value === "]") {
+          if (opts.nobracket === true || prev && prev.type === "bracket" && prev.value.length === 1) {
+            push({ type: "text", value, output: `\\${value}` });
+            continue;
+          }
+          if (state.brackets === 0) {
+            if (opts.strictBrackets === true) {
+              throw new SyntaxError(syntaxError("opening", "["));
+            }
+            push({ type: "text", value, output: `\\${value}` });
+            continue;
+          }
+          decrement("brackets");
+          const prevValue = prev.value.slice(1);
+          if (prev.posix !== true && prevValue[0] === "^" && !prevValue.includes("/")) {
+            value = `/${value}`;
+          }
+          prev.value += value;
+          append({ value });
+          if (opts.literalBrackets === false || utils.hasRegexChars(prevValue)) {
+            continue;
+          }
+          const escaped = utils.escapeRegex(prev.value);
+          state.output = state.output.slice(0, -prev.value.length);
+          if (opts.literalBrackets === true) {
+            state.output += escaped;
+            prev.value = escaped;
+            continue;
+          }
+          prev.value = `(${capture}${escaped}|${prev.value})`;
+          state.output += prev.value;
+          continue;
+        }
+        if (value === "{" && opts.nobrace !== true) {
+          increment("braces");
+          const open2 = {
+            type: "brace",
+            value,
+            output: "(",
+            outputIndex: state.output.length,
+            tokensIndex: state.tokens.length
+          };
+          braces.push(open2);
+          push(open2);
+          continue;
+        }
+        if (value === "}") {
+          const brace = braces[braces.length - 1];
+          if (opts.nobrace === true || !brace) {
+            push({ type: "text", value, output: value });
+            continue;
+          }
+          let output = ")";
+          if (brace.dots === true) {
+            const arr = tokens.slice();
+            const range2 = [];
+            for (let i = arr.length - 1; i >= 0; i--) {
+              tokens.pop();
+              if (arr[i].type === "brace") {
+                break;
+              }
+              if (arr[i].type !== "dots") {
+                range2.unshift(arr[i].value);
+              }
+            }
+            output = expandRange(range2, opts);
+            state.backtrack = true;
+          }
+          if (brace.comma !== true && brace.dots !== true) {
+            const out = state.output.slice(0, brace.outputIndex);
+            const toks = state.tokens.slice(brace.tokensIndex);
+            brace.value = brace.output = "\\{";
+            value = output = "\\}";
+            state.output = out;
+            for (const t of toks) {
+              state.output += t.output || t.value;
+            }
+          }
+          push({ type: "brace", value, output });
+          decrement("braces");
+          braces.pop();
+          continue;
+        }
+        if (value === "|") {
+          if (extglobs.length > 0) {
+            extglobs[extglobs.length - 1].conditions++;
+          }
+          push({ type: "text", value });
+          continue;
+        }
+        if (value === ",") {
+          let output = value;
+          const brace = braces[braces.length - 1];
+          if (brace && stack[stack.length - 1] === "braces") {
+            brace.comma = true;
+            output = "|";
+          }
+          push({ type: "comma", value, output });
+          continue;
+        }
+        if (value === "/") {
+          if (prev.type === "dot" && state.index === state.start + 1) {
+            state.start = state.index + 1;
+            state.consumed = "";
+            state.output = "";
+            tokens.pop();
+            prev = bos;
+            continue;
+          }
+          push({ type: "slash", value, output: SLASH_LITERAL });
+          continue;
+        }
+        if (value === ".") {
+          if (state.braces > 0 && prev.type === "dot") {
+            if (prev.value === ".") prev.output = DOT_LITERAL;
+            const brace = braces[braces.length - 1];
+            prev.type = "dots";
+            prev.output += value;
+            prev.value += value;
+            brace.dots = true;
+            continue;
+          }
+          if (state.braces + state.parens === 0 && prev.type !== "bos" && prev.type !== "slash") {
+            push({ type: "text", value, output: DOT_LITERAL });
+            continue;
+          }
+          push({ type: "dot", value, output: DOT_LITERAL });
+          continue;
+        }
+        if (value === "?") {
+          const isGroup = prev && prev.value === "(";
+          if (!isGroup && opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
+            extglobOpen("qmark", value);
+            continue;
+          }
+          if (prev && prev.type === "paren") {
+            const next = peek();
+            let output = value;
+            if (prev.value === "(" && !/[!=<:]/.test(next) || next === "<" && !/<([!=]|\w+>)/.test(remaining())) {
+              output = `\\${value}`;
+            }
+            push({ type: "text", value, output });
+            continue;
+          }
+          if (opts.dot !== true && (prev.type === "slash" || prev.type === "bos")) {
+            push({ type: "qmark", value, output: QMARK_NO_DOT });
+            continue;
+          }
+          push({ type: "qmark", value, output: QMARK });
+          continue;
+        }
+        if (value === "!") {
+          if (opts.noextglob !== true && peek() === "(") {
+            if (peek(2) !== "?" || !/[!=<:]/.test(peek(3))) {
+              extglobOpen("negate", value);
+              continue;
+            }
+          }
+          if (opts.nonegate !== true && state.index === 0) {
+            negate();
+            continue;
+          }
+        }
+        if (value === "+") {
+          if (opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
+            extglobOpen("plus", value);
+            continue;
+          }
+          if (prev && prev.value === "(" || opts.regex === false) {
+            push({ type: "plus", value, output: PLUS_LITERAL });
+            continue;
+          }
+          if (prev && (prev.type === "bracket" || prev.type === "paren" || prev.type === "brace") || state.parens > 0) {
+            push({ type: "plus", value });
+            continue;
+          }
+          push({ type: "plus", value: PLUS_LITERAL });
+          continue;
+        }
+        if (value === "@") {
+          if (opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
+            push({ type: "at", extglob: true, value, output: "" });
+            continue;
+          }
+          push({ type: "text", value });
+          continue;
+        }
+        if (value !== "*") {
+          if (value === "$" || value === "^") {
+            value = `\\${value}`;
+          }
+          const match = REGEX_NON_SPECIAL_CHARS.exec(remaining());
+          if (match) {
+            value += match[0];
+            state.index += match[0].length;
+          }
+          push({ type: "text", value });
+          continue;
+        }
+        if (prev && (prev.type === "globstar" || prev.star === true)) {
+          prev.type = "star";
+          prev.star = true;
+          prev.value += value;
+          prev.output = star;
+          state.backtrack = true;
+          state.globstar = true;
+          consume(value);
+          continue;
+        }
+        let rest = remaining();
+        if (opts.noextglob !== true && /^\([^?]/.test(rest)) {
+          extglobOpen("star", value);
+          continue;
+        }
+        if (prev.type === "star") {
+          if (opts.noglobstar === true) {
+            consume(value);
+            continue;
+          }
+          const prior = prev.prev;
+          const before = prior.prev;
+          const isStart = prior.type === "slash" || prior.type === "bos";
+          const afterStar = before && (before.type === "star" || before.type === "globstar");
+          if (opts.bash === true && (!isStart || rest[0] && rest[0] !== "/")) {
+            push({ type: "star", value, output: "" });
+            continue;
+          }
+          const isBrace = state.braces > 0 && (prior.type === "comma" || prior.type === "brace");
+          const isExtglob = extglobs.length && (prior.type === "pipe" || prior.type === "paren");
+          if (!isStart && prior.type !== "paren" && !isBrace && !isExtglob) {
+            push({ type: "star", value, output: "" });
+            continue;
+          }
+          while (rest.slice(0, 3) === "/**") {
+            const after = input[state.index + 4];
+            if (after && after !== "/") {
+              break;
+            }
+            rest = rest.slice(3);
+            consume("/**", 3);
+          }
+          const isEnd = eos() || state.parens > 0 && rest === ")".repeat(state.parens) && !extglobs.some((extglob) => extglob.type === "negate");
+          if (prior.type === "bos" && eos()) {
+            prev.type = "globstar";
+            prev.value += value;
+            prev.output = globstar(opts);
+            state.output = prev.output;
+            state.globstar = true;
+            consume(value);
+            continue;
+          }
+          if (prior.type === "slash" && prior.prev.type !== "bos" && !afterStar && isEnd) {
+            state.output = state.output.slice(0, -(prior.output + prev.output).length);
+            prior.output = `(?:${prior.output}`;
+            prev.type = "globstar";
+            prev.output = globstar(opts) + (opts.strictSlashes ? ")" : "|$)");
+            prev.value += value;
+            state.globstar = true;
+            state.output += prior.output + prev.output;
+            consume(value);
+            continue;
+          }
+          if (prior.type === "slash" && prior.prev.type !== "bos" && rest[0] === "/") {
+            const end = rest[1] !== void 0 ? "|$" : "";
+            state.output = state.output.slice(0, -(prior.output + prev.output).length);
+            prior.output = `(?:${prior.output}`;
+            prev.type = "globstar";
+            prev.output = `${globstar(opts)}${SLASH_LITERAL}|${SLASH_LITERAL}${end})`;
+            prev.value += value;
+            state.output += prior.output + prev.output;
+            state.globstar = true;
+            consume(value + advance());
+            push({ type: "slash", value: "/", output: "" });
+            continue;
+          }
+          if (prior.type === "bos" && rest[0] === "/") {
+            prev.type = "globstar";
+            prev.value += value;
+            prev.output = `(?:^|${SLASH_LITERAL}|${globstar(opts)}${SLASH_LITERAL})`;
+            state.output = prev.output;
+            state.globstar = true;
+            consume(value + advance());
+            push({ type: "slash", value: "/", output: "" });
+            continue;
+          }
+          state.output = state.output.slice(0, -prev.output.length);
+          prev.type = "globstar";
+          prev.output = globstar(opts);
+          prev.value += value;
+          state.output += prev.output;
+          state.globstar = true;
+          consume(value);
+          continue;
+        }
+        const token = { type: "star", value, output: star };
+        if (opts.bash === true) {
+          token.output = ".*?";
+          if (prev.type === "bos" || prev.type === "slash") {
+            token.output = nodot + token.output;
+          }
+          push(token);
+          continue;
+        }
+        if (prev && (prev.type === "bracket" || prev.type === "paren") && opts.regex === true) {
+          token.output = value;
+          push(token);
+          continue;
+        }
+        if (state.index === state.start || prev.type === "slash" || prev.type === "dot") {
+          if (prev.type === "dot") {
+            state.output += NO_DOT_SLASH;
+            prev.output += NO_DOT_SLASH;
+          } else if (opts.dot === true) {
+            state.output += NO_DOTS_SLASH;
+            prev.output += NO_DOTS_SLASH;
+          } else {
+            state.output += nodot;
+            prev.output += nodot;
+          }
+          if (peek() !== "*") {
+            state.output += ONE_CHAR;
+            prev.output += ONE_CHAR;
+          }
+        }
+        push(token);
+      }
+      while (state.brackets > 0) {
+        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", "]"));
+        state.output = utils.escapeLast(state.output, "[");
+        decrement("brackets");
+      }
+      while (state.parens > 0) {
+        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", ")"));
+        state.output = utils.escapeLast(state.output, "(");
+        decrement("parens");
+      }
+      while (state.braces > 0) {
+        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", "}"));
+        state.output = utils.escapeLast(state.output, "{");
+        decrement("braces");
+      }
+      if (opts.strictSlashes !== true && (prev.type === "star" || prev.type === "bracket")) {
+        push({ type: "maybe_slash", value: "", output: `${SLASH_LITERAL}?` });
+      }
+      if (state.backtrack === true) {
+        state.output = "";
+        for (const token of state.tokens) {
+          state.output += token.output != null ? token.output : token.value;
+          if (token.suffix) {
+            state.output += token.suffix;
+          }
+        }
+      }
+      return state;
+    };
+    parse.fastpaths = (input, options) => {
+      const opts = { ...options };
+      const max = typeof opts.maxLength === "number" ? Math.min(MAX_LENGTH, opts.maxLength) : MAX_LENGTH;
+      const len = input.length;
+      if (len > max) {
+        throw new SyntaxError(`Input length: ${len}, exceeds maximum allowed length: ${max}`);
+      }
+      input = REPLACEMENTS[input] || input;
+      const {
+        DOT_LITERAL,
+        SLASH_LITERAL,
+        ONE_CHAR,
+        DOTS_SLASH,
+        NO_DOT,
+        NO_DOTS,
+        NO_DOTS_SLASH,
+        STAR,
+        START_ANCHOR
+      } = constants6.globChars(opts.windows);
+      const nodot = opts.dot ? NO_DOTS : NO_DOT;
+      const slashDot = opts.dot ? NO_DOTS_SLASH : NO_DOT;
+      const capture = opts.capture ? "" : "?:";
+      const state = { negated: false, prefix: "" };
+      let star = opts.bash === true ? ".*?" : STAR;
+      if (opts.capture) {
+        star = `(${star})`;
+      }
+      const globstar = (opts2) => {
+        if (opts2.noglobstar === true) return star;
+        return `(${capture}(?:(?!${START_ANCHOR}${opts2.dot ? DOTS_SLASH : DOT_LITERAL}).)*?)`;
+      };
+      const create = (str) => {
+        switch (str) {
+          case "*":
+            return `${nodot}${ONE_CHAR}${star}`;
+          case ".*":
+            return `${DOT_LITERAL}${ONE_CHAR}${star}`;
+          case "*.*":
+            return `${nodot}${star}${DOT_LITERAL}${ONE_CHAR}${star}`;
+          case "*/*":
+            return `${nodot}${star}${SLASH_LITERAL}${ONE_CHAR}${slashDot}${star}`;
+          case "**":
+            return nodot + globstar(opts);
+          case "**/*":
+            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${slashDot}${ONE_CHAR}${star}`;
+          case "**/*.*":
+            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${slashDot}${star}${DOT_LITERAL}${ONE_CHAR}${star}`;
+          case "**/.*":
+            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${DOT_LITERAL}${ONE_CHAR}${star}`;
+          default: {
+            const match = /^(.*?)\.(\w+)$/.exec(str);
+            if (!match) return;
+            const source2 = create(match[1]);
+            if (!source2) return;
+            return source2 + DOT_LITERAL + match[2];
+          }
+        }
+      };
+      const output = utils.removePrefix(input, state);
+      let source = create(output);
+      if (source && opts.strictSlashes !== true) {
+        source += `${SLASH_LITERAL}?`;
+      }
+      return source;
+    };
+    module.exports = parse;
+  }
+});
+
+// node_modules/picomatch/lib/picomatch.js
+var require_picomatch = __commonJS({
+  "node_modules/picomatch/lib/picomatch.js"(exports, module) {
+    "use strict";
+    var scan = require_scan();
+    var parse = require_parse2();
+    var utils = require_utils2();
+    var constants6 = require_constants6();
+    var isObject = (val) => val && typeof val === "object" && !Array.isArray(val);
+    var picomatch3 = (glob, options, returnState = false) => {
+      if (Array.isArray(glob)) {
+        const fns = glob.map((input) => picomatch3(input, options, returnState));
+        const arrayMatcher = (str) => {
+          for (const isMatch of fns) {
+            const state2 = isMatch(str);
+            if (state2) return state2;
+          }
+          return false;
+        };
+        return arrayMatcher;
+      }
+      const isState = isObject(glob) && glob.tokens && glob.input;
+      if (glob === "" || typeof glob !== "string" && !isState) {
+        throw new TypeError("Expected pattern to be a non-empty string");
+      }
+      const opts = options || {};
+      const posix2 = opts.windows;
+      const regex = isState ? picomatch3.compileRe(glob, options) : picomatch3.makeRe(glob, options, false, true);
+      const state = regex.state;
+      delete regex.state;
+      let isIgnored = () => false;
+      if (opts.ignore) {
+        const ignoreOpts = { ...options, ignore: null, onMatch: null, onResult: null };
+        isIgnored = picomatch3(opts.ignore, ignoreOpts, returnState);
+      }
+      const matcher = (input, returnObject = false) => {
+        const { isMatch, match, output } = picomatch3.test(input, regex, options, { glob, posix: posix2 });
+        const result2 = { glob, state, regex, posix: posix2, input, output, match, isMatch };
+        if (typeof opts.onResult === "function") {
+          opts.onResult(result2);
+        }
+        if (isMatch === false) {
+          result2.isMatch = false;
+          return returnObject ? result2 : false;
+        }
+        if (isIgnored(input)) {
+          if (typeof opts.onIgnore === "function") {
+            opts.onIgnore(result2);
+          }
+          result2.isMatch = false;
+          return returnObject ? result2 : false;
+        }
+        if (typeof opts.onMatch === "function") {
+          opts.onMatch(result2);
+        }
+        return returnObject ? result2 : true;
+      };
+      if (returnState) {
+        matcher.state = state;
+      }
+      return matcher;
+    };
+    picomatch3.test = (input, regex, options, { glob, posix: posix2 } = {}) => {
+      if (typeof input !== "string") {
+        throw new TypeError("Expected input to be a string");
+      }
+      if (input === "") {
+        return { isMatch: false, output: "" };
+      }
+      const opts = options || {};
+      const format = opts.format || (posix2 ? utils.toPosixSlashes : null);
+      let match = input === glob;
+      let output = match && format ? format(input) : input;
+      if (match === false) {
+        output = format ? format(input) : input;
+        match = output === glob;
+      }
+      if (match === false || opts.capture === true) {
+        if (opts.matchBase === true || opts.basename === true) {
+          match = picomatch3.matchBase(input, regex, options, posix2);
+        } else {
+          match = regex.exec(output);
+        }
+      }
+      return { isMatch: Boolean(match), match, output };
+    };
+    picomatch3.matchBase = (input, glob, options, posix2 = options && options.windows) => {
+      const regex = glob instanceof RegExp ? glob : picomatch3.makeRe(glob, options);
+      return regex.test(utils.basename(input, { windows: posix2 }));
+    };
+    picomatch3.isMatch = (str, patterns, options) => picomatch3(patterns, options)(str);
+    picomatch3.parse = (pattern, options) => {
+      if (Array.isArray(pattern)) return pattern.map((p) => picomatch3.parse(p, options));
+      return parse(pattern, { ...options, fastpaths: false });
+    };
+    picomatch3.scan = (input, options) => scan(input, options);
+    picomatch3.compileRe = (state, options, returnOutput = false, returnState = false) => {
+      if (returnOutput === true) {
+        return state.output;
+      }
+      const opts = options || {};
+      const prepend = opts.contains ? "" : "^";
+      const append = opts.contains ? "" : "$";
+      let source = `${prepend}(?:${state.output})${append}`;
+      if (state && state.negated === true) {
+        source = `^(?!${source}).*$`;
+      }
+      const regex = picomatch3.toRegex(source, options);
+      if (returnState === true) {
+        regex.state = state;
+      }
+      return regex;
+    };
+    picomatch3.makeRe = (input, options = {}, returnOutput = false, returnState = false) => {
+      if (!input || typeof input !== "string") {
+        throw new TypeError("Expected a non-empty string");
+      }
+      let parsed = { negated: false, fastpaths: true };
+      if (options.fastpaths !== false && (input[0] === "." || input[0] === "*")) {
+        parsed.output = parse.fastpaths(input, options);
+      }
+      if (!parsed.output) {
+        parsed = parse(input, options);
+      }
+      return picomatch3.compileRe(parsed, options, returnOutput, returnState);
+    };
+    picomatch3.toRegex = (source, options) => {
+      try {
+        const opts = options || {};
+        return new RegExp(source, opts.flags || (opts.nocase ? "i" : ""));
+      } catch (err) {
+        if (options && options.debug === true) throw err;
+        return /$^/;
+      }
+    };
+    picomatch3.constants = constants6;
+    module.exports = picomatch3;
+  }
+});
+
+// node_modules/picomatch/index.js
+var require_picomatch2 = __commonJS({
+  "node_modules/picomatch/index.js"(exports, module) {
+    "use strict";
+    var pico = require_picomatch();
+    var utils = require_utils2();
+    function picomatch3(glob, options, returnState = false) {
+      if (options && (options.windows === null || options.windows === void 0)) {
+        options = { ...options, windows: utils.isWindows() };
+      }
+      return pico(glob, options, returnState);
+    }
+    Object.assign(picomatch3, pico);
+    module.exports = picomatch3;
+  }
+});
+
 // node_modules/yaml/dist/nodes/identity.js
 var require_identity = __commonJS({
   "node_modules/yaml/dist/nodes/identity.js"(exports) {
@@ -19216,7 +20992,7 @@ var require_visit = __commonJS({
     "use strict";
     var identity = require_identity();
     var BREAK = /* @__PURE__ */ Symbol("break visit");
-    var SKIP2 = /* @__PURE__ */ Symbol("skip children");
+    var SKIP = /* @__PURE__ */ Symbol("skip children");
     var REMOVE = /* @__PURE__ */ Symbol("remove node");
     function visit3(node, visitor) {
       const visitor_ = initVisitor(visitor);
@@ -19228,7 +21004,7 @@ var require_visit = __commonJS({
         visit_(null, node, visitor_, Object.freeze([]));
     }
     visit3.BREAK = BREAK;
-    visit3.SKIP = SKIP2;
+    visit3.SKIP = SKIP;
     visit3.REMOVE = REMOVE;
     function visit_(key, node, visitor, path6) {
       const ctrl = callVisitor(key, node, visitor, path6);
@@ -19276,7 +21052,7 @@ var require_visit = __commonJS({
         await visitAsync_(null, node, visitor_, Object.freeze([]));
     }
     visitAsync.BREAK = BREAK;
-    visitAsync.SKIP = SKIP2;
+    visitAsync.SKIP = SKIP;
     visitAsync.REMOVE = REMOVE;
     async function visitAsync_(key, node, visitor, path6) {
       const ctrl = await callVisitor(key, node, visitor, path6);
@@ -20120,14 +21896,14 @@ var require_foldFlowLines = __commonJS({
     var FOLD_FLOW = "flow";
     var FOLD_BLOCK = "block";
     var FOLD_QUOTED = "quoted";
-    function foldFlowLines(text, indent, mode = "flow", { indentAtStart, lineWidth = 80, minContentWidth = 20, onFold, onOverflow } = {}) {
+    function foldFlowLines(text2, indent, mode = "flow", { indentAtStart, lineWidth = 80, minContentWidth = 20, onFold, onOverflow } = {}) {
       if (!lineWidth || lineWidth < 0)
-        return text;
+        return text2;
       if (lineWidth < minContentWidth)
         minContentWidth = 0;
       const endStep = Math.max(1 + minContentWidth, 1 + lineWidth - indent.length);
-      if (text.length <= endStep)
-        return text;
+      if (text2.length <= endStep)
+        return text2;
       const folds = [];
       const escapedFolds = {};
       let end = lineWidth - indent.length;
@@ -20144,14 +21920,14 @@ var require_foldFlowLines = __commonJS({
       let escStart = -1;
       let escEnd = -1;
       if (mode === FOLD_BLOCK) {
-        i = consumeMoreIndentedLines(text, i, indent.length);
+        i = consumeMoreIndentedLines(text2, i, indent.length);
         if (i !== -1)
           end = i + endStep;
       }
-      for (let ch; ch = text[i += 1]; ) {
+      for (let ch; ch = text2[i += 1]; ) {
         if (mode === FOLD_QUOTED && ch === "\\") {
           escStart = i;
-          switch (text[i + 1]) {
+          switch (text2[i + 1]) {
             case "x":
               i += 3;
               break;
@@ -20168,12 +21944,12 @@ var require_foldFlowLines = __commonJS({
         }
         if (ch === "\n") {
           if (mode === FOLD_BLOCK)
-            i = consumeMoreIndentedLines(text, i, indent.length);
+            i = consumeMoreIndentedLines(text2, i, indent.length);
           end = i + indent.length + endStep;
           split = void 0;
         } else {
           if (ch === " " && prev && prev !== " " && prev !== "\n" && prev !== "	") {
-            const next = text[i + 1];
+            const next = text2[i + 1];
             if (next && next !== " " && next !== "\n" && next !== "	")
               split = i;
           }
@@ -20185,12 +21961,12 @@ var require_foldFlowLines = __commonJS({
             } else if (mode === FOLD_QUOTED) {
               while (prev === " " || prev === "	") {
                 prev = ch;
-                ch = text[i += 1];
+                ch = text2[i += 1];
                 overflow = true;
               }
               const j = i > escEnd + 1 ? i - 2 : escStart - 1;
               if (escapedFolds[j])
-                return text;
+                return text2;
               folds.push(j);
               escapedFolds[j] = true;
               end = j + endStep;
@@ -20205,39 +21981,39 @@ var require_foldFlowLines = __commonJS({
       if (overflow && onOverflow)
         onOverflow();
       if (folds.length === 0)
-        return text;
+        return text2;
       if (onFold)
         onFold();
-      let res = text.slice(0, folds[0]);
+      let res = text2.slice(0, folds[0]);
       for (let i2 = 0; i2 < folds.length; ++i2) {
         const fold = folds[i2];
-        const end2 = folds[i2 + 1] || text.length;
+        const end2 = folds[i2 + 1] || text2.length;
         if (fold === 0)
           res = `
-${indent}${text.slice(0, end2)}`;
+${indent}${text2.slice(0, end2)}`;
         else {
           if (mode === FOLD_QUOTED && escapedFolds[fold])
-            res += `${text[fold]}\\`;
+            res += `${text2[fold]}\\`;
           res += `
-${indent}${text.slice(fold + 1, end2)}`;
+${indent}${text2.slice(fold + 1, end2)}`;
         }
       }
       return res;
     }
-    function consumeMoreIndentedLines(text, i, indent) {
+    function consumeMoreIndentedLines(text2, i, indent) {
       let end = i;
       let start = i + 1;
-      let ch = text[start];
+      let ch = text2[start];
       while (ch === " " || ch === "	") {
         if (i < start + indent) {
-          ch = text[++i];
+          ch = text2[++i];
         } else {
           do {
-            ch = text[++i];
+            ch = text2[++i];
           } while (ch && ch !== "\n");
           end = i;
           start = i + 1;
-          ch = text[start];
+          ch = text2[start];
         }
       }
       return end;
@@ -21083,7 +22859,7 @@ ${indent}${line}` : "\n";
           str += ",";
         } else if (ctx.options.trailingComma) {
           if (ctx.options.lineWidth > 0) {
-            reqNewline || (reqNewline = lines.reduce((sum, line) => sum + line.length + 2, 2) + (str.length + 2) > ctx.options.lineWidth);
+            reqNewline || (reqNewline = lines.reduce((sum2, line) => sum2 + line.length + 2, 2) + (str.length + 2) > ctx.options.lineWidth);
           }
           if (reqNewline) {
             str += ",";
@@ -21099,7 +22875,7 @@ ${indent}${line}` : "\n";
         return start + end;
       } else {
         if (!reqNewline) {
-          const len = lines.reduce((sum, line) => sum + line.length + 2, 2);
+          const len = lines.reduce((sum2, line) => sum2 + line.length + 2, 2);
           reqNewline = ctx.options.lineWidth > 0 && len > ctx.options.lineWidth;
         }
         if (reqNewline) {
@@ -23116,10 +24892,10 @@ var require_resolve_block_map = __commonJS({
       let offset = bm.offset;
       let commentEnd = null;
       for (const collItem of bm.items) {
-        const { start, key, sep: sep6, value } = collItem;
+        const { start, key, sep: sep7, value } = collItem;
         const keyProps = resolveProps.resolveProps(start, {
           indicator: "explicit-key-ind",
-          next: key ?? sep6?.[0],
+          next: key ?? sep7?.[0],
           offset,
           onError,
           parentIndent: bm.indent,
@@ -23133,7 +24909,7 @@ var require_resolve_block_map = __commonJS({
             else if ("indent" in key && key.indent !== bm.indent)
               onError(offset, "BAD_INDENT", startColMsg);
           }
-          if (!keyProps.anchor && !keyProps.tag && !sep6) {
+          if (!keyProps.anchor && !keyProps.tag && !sep7) {
             commentEnd = keyProps.end;
             if (keyProps.comment) {
               if (map.comment)
@@ -23157,7 +24933,7 @@ var require_resolve_block_map = __commonJS({
         ctx.atKey = false;
         if (utilMapIncludes.mapIncludes(ctx, map.items, keyNode))
           onError(keyStart, "DUPLICATE_KEY", "Map keys must be unique");
-        const valueProps = resolveProps.resolveProps(sep6 ?? [], {
+        const valueProps = resolveProps.resolveProps(sep7 ?? [], {
           indicator: "map-value-ind",
           next: value,
           offset: keyNode.range[2],
@@ -23173,7 +24949,7 @@ var require_resolve_block_map = __commonJS({
             if (ctx.options.strict && keyProps.start < valueProps.found.offset - 1024)
               onError(keyNode.range, "KEY_OVER_1024_CHARS", "The : indicator must be at most 1024 chars after the start of an implicit block mapping key");
           }
-          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : composeEmptyNode(ctx, offset, sep6, null, valueProps, onError);
+          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : composeEmptyNode(ctx, offset, sep7, null, valueProps, onError);
           if (ctx.schema.compat)
             utilFlowIndentCheck.flowIndentCheck(bm.indent, value, onError);
           offset = valueNode.range[2];
@@ -23264,7 +25040,7 @@ var require_resolve_end = __commonJS({
       let comment = "";
       if (end) {
         let hasSpace = false;
-        let sep6 = "";
+        let sep7 = "";
         for (const token of end) {
           const { source, type } = token;
           switch (type) {
@@ -23278,13 +25054,13 @@ var require_resolve_end = __commonJS({
               if (!comment)
                 comment = cb;
               else
-                comment += sep6 + cb;
-              sep6 = "";
+                comment += sep7 + cb;
+              sep7 = "";
               break;
             }
             case "newline":
               if (comment)
-                sep6 += source;
+                sep7 += source;
               hasSpace = true;
               break;
             default:
@@ -23327,18 +25103,18 @@ var require_resolve_flow_collection = __commonJS({
       let offset = fc.offset + fc.start.source.length;
       for (let i = 0; i < fc.items.length; ++i) {
         const collItem = fc.items[i];
-        const { start, key, sep: sep6, value } = collItem;
+        const { start, key, sep: sep7, value } = collItem;
         const props = resolveProps.resolveProps(start, {
           flow: fcName,
           indicator: "explicit-key-ind",
-          next: key ?? sep6?.[0],
+          next: key ?? sep7?.[0],
           offset,
           onError,
           parentIndent: fc.indent,
           startOnNewline: false
         });
         if (!props.found) {
-          if (!props.anchor && !props.tag && !sep6 && !value) {
+          if (!props.anchor && !props.tag && !sep7 && !value) {
             if (i === 0 && props.comma)
               onError(props.comma, "UNEXPECTED_TOKEN", `Unexpected , in ${fcName}`);
             else if (i < fc.items.length - 1)
@@ -23392,8 +25168,8 @@ var require_resolve_flow_collection = __commonJS({
             }
           }
         }
-        if (!isMap4 && !sep6 && !props.found) {
-          const valueNode = value ? composeNode(ctx, value, props, onError) : composeEmptyNode(ctx, props.end, sep6, null, props, onError);
+        if (!isMap4 && !sep7 && !props.found) {
+          const valueNode = value ? composeNode(ctx, value, props, onError) : composeEmptyNode(ctx, props.end, sep7, null, props, onError);
           coll.items.push(valueNode);
           offset = valueNode.range[2];
           if (isBlock(value))
@@ -23405,7 +25181,7 @@ var require_resolve_flow_collection = __commonJS({
           if (isBlock(key))
             onError(keyNode.range, "BLOCK_IN_FLOW", blockMsg);
           ctx.atKey = false;
-          const valueProps = resolveProps.resolveProps(sep6 ?? [], {
+          const valueProps = resolveProps.resolveProps(sep7 ?? [], {
             flow: fcName,
             indicator: "map-value-ind",
             next: value,
@@ -23416,8 +25192,8 @@ var require_resolve_flow_collection = __commonJS({
           });
           if (valueProps.found) {
             if (!isMap4 && !props.found && ctx.options.strict) {
-              if (sep6)
-                for (const st of sep6) {
+              if (sep7)
+                for (const st of sep7) {
                   if (st === valueProps.found)
                     break;
                   if (st.type === "newline") {
@@ -23434,7 +25210,7 @@ var require_resolve_flow_collection = __commonJS({
             else
               onError(valueProps.start, "MISSING_CHAR", `Missing , or : between ${fcName} items`);
           }
-          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : valueProps.found ? composeEmptyNode(ctx, valueProps.end, sep6, null, valueProps, onError) : null;
+          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : valueProps.found ? composeEmptyNode(ctx, valueProps.end, sep7, null, valueProps, onError) : null;
           if (valueNode) {
             if (isBlock(value))
               onError(valueNode.range, "BLOCK_IN_FLOW", blockMsg);
@@ -23614,7 +25390,7 @@ var require_resolve_block_scalar = __commonJS({
           chompStart = i + 1;
       }
       let value = "";
-      let sep6 = "";
+      let sep7 = "";
       let prevMoreIndented = false;
       for (let i = 0; i < contentStart; ++i)
         value += lines[i][0].slice(trimIndent) + "\n";
@@ -23631,24 +25407,24 @@ var require_resolve_block_scalar = __commonJS({
           indent = "";
         }
         if (type === Scalar.Scalar.BLOCK_LITERAL) {
-          value += sep6 + indent.slice(trimIndent) + content;
-          sep6 = "\n";
+          value += sep7 + indent.slice(trimIndent) + content;
+          sep7 = "\n";
         } else if (indent.length > trimIndent || content[0] === "	") {
-          if (sep6 === " ")
-            sep6 = "\n";
-          else if (!prevMoreIndented && sep6 === "\n")
-            sep6 = "\n\n";
-          value += sep6 + indent.slice(trimIndent) + content;
-          sep6 = "\n";
+          if (sep7 === " ")
+            sep7 = "\n";
+          else if (!prevMoreIndented && sep7 === "\n")
+            sep7 = "\n\n";
+          value += sep7 + indent.slice(trimIndent) + content;
+          sep7 = "\n";
           prevMoreIndented = true;
         } else if (content === "") {
-          if (sep6 === "\n")
+          if (sep7 === "\n")
             value += "\n";
           else
-            sep6 = "\n";
+            sep7 = "\n";
         } else {
-          value += sep6 + content;
-          sep6 = " ";
+          value += sep7 + content;
+          sep7 = " ";
           prevMoreIndented = false;
         }
       }
@@ -23831,25 +25607,25 @@ var require_resolve_flow_scalar = __commonJS({
         trimBoth = /^[ \t]+|[ \t]+$/g;
       }
       let res = match[1].replace(trimEnd, "");
-      let sep6 = " ";
+      let sep7 = " ";
       let pos = line.lastIndex;
       while (match = line.exec(source)) {
         const lm = match[1].replace(trimBoth, "");
         if (lm === "") {
-          if (sep6 === "\n")
-            res += sep6;
+          if (sep7 === "\n")
+            res += sep7;
           else
-            sep6 = "\n";
+            sep7 = "\n";
         } else {
-          res += sep6 + lm;
-          sep6 = " ";
+          res += sep7 + lm;
+          sep7 = " ";
         }
         pos = line.lastIndex;
       }
       const last = /[ \t]*(.*)/sy;
       last.lastIndex = pos;
       match = last.exec(source);
-      return res + sep6 + (match?.[1] ?? "");
+      return res + sep7 + (match?.[1] ?? "");
     }
     function doubleQuotedValue(source, onError) {
       let res = "";
@@ -24659,14 +26435,14 @@ var require_cst_stringify = __commonJS({
         }
       }
     }
-    function stringifyItem({ start, key, sep: sep6, value }) {
+    function stringifyItem({ start, key, sep: sep7, value }) {
       let res = "";
       for (const st of start)
         res += st.source;
       if (key)
         res += stringifyToken(key);
-      if (sep6)
-        for (const st of sep6)
+      if (sep7)
+        for (const st of sep7)
           res += st.source;
       if (value)
         res += stringifyToken(value);
@@ -24681,7 +26457,7 @@ var require_cst_visit = __commonJS({
   "node_modules/yaml/dist/parse/cst-visit.js"(exports) {
     "use strict";
     var BREAK = /* @__PURE__ */ Symbol("break visit");
-    var SKIP2 = /* @__PURE__ */ Symbol("skip children");
+    var SKIP = /* @__PURE__ */ Symbol("skip children");
     var REMOVE = /* @__PURE__ */ Symbol("remove item");
     function visit3(cst, visitor) {
       if ("type" in cst && cst.type === "document")
@@ -24689,7 +26465,7 @@ var require_cst_visit = __commonJS({
       _visit(Object.freeze([]), cst, visitor);
     }
     visit3.BREAK = BREAK;
-    visit3.SKIP = SKIP2;
+    visit3.SKIP = SKIP;
     visit3.REMOVE = REMOVE;
     visit3.itemAtPath = (cst, path6) => {
       let item = cst;
@@ -25833,18 +27609,18 @@ var require_parser = __commonJS({
         if (this.type === "map-value-ind") {
           const prev = getPrevProps(this.peek(2));
           const start = getFirstKeyStartProps(prev);
-          let sep6;
+          let sep7;
           if (scalar.end) {
-            sep6 = scalar.end;
-            sep6.push(this.sourceToken);
+            sep7 = scalar.end;
+            sep7.push(this.sourceToken);
             delete scalar.end;
           } else
-            sep6 = [this.sourceToken];
+            sep7 = [this.sourceToken];
           const map = {
             type: "block-map",
             offset: scalar.offset,
             indent: scalar.indent,
-            items: [{ start, key: scalar, sep: sep6 }]
+            items: [{ start, key: scalar, sep: sep7 }]
           };
           this.onKeyLine = true;
           this.stack[this.stack.length - 1] = map;
@@ -25997,15 +27773,15 @@ var require_parser = __commonJS({
                 } else if (isFlowToken(it.key) && !includesToken(it.sep, "newline")) {
                   const start2 = getFirstKeyStartProps(it.start);
                   const key = it.key;
-                  const sep6 = it.sep;
-                  sep6.push(this.sourceToken);
+                  const sep7 = it.sep;
+                  sep7.push(this.sourceToken);
                   delete it.key;
                   delete it.sep;
                   this.stack.push({
                     type: "block-map",
                     offset: this.offset,
                     indent: this.indent,
-                    items: [{ start: start2, key, sep: sep6 }]
+                    items: [{ start: start2, key, sep: sep7 }]
                   });
                 } else if (start.length > 0) {
                   it.sep = it.sep.concat(start, this.sourceToken);
@@ -26034,14 +27810,14 @@ var require_parser = __commonJS({
             case "scalar":
             case "single-quoted-scalar":
             case "double-quoted-scalar": {
-              const fs3 = this.flowScalar(this.type);
+              const fs4 = this.flowScalar(this.type);
               if (atNextItem || it.value) {
-                map.items.push({ start, key: fs3, sep: [] });
+                map.items.push({ start, key: fs4, sep: [] });
                 this.onKeyLine = true;
               } else if (it.sep) {
-                this.stack.push(fs3);
+                this.stack.push(fs4);
               } else {
-                Object.assign(it, { key: fs3, sep: [] });
+                Object.assign(it, { key: fs4, sep: [] });
                 this.onKeyLine = true;
               }
               return;
@@ -26169,13 +27945,13 @@ var require_parser = __commonJS({
             case "scalar":
             case "single-quoted-scalar":
             case "double-quoted-scalar": {
-              const fs3 = this.flowScalar(this.type);
+              const fs4 = this.flowScalar(this.type);
               if (!it || it.value)
-                fc.items.push({ start: [], key: fs3, sep: [] });
+                fc.items.push({ start: [], key: fs4, sep: [] });
               else if (it.sep)
-                this.stack.push(fs3);
+                this.stack.push(fs4);
               else
-                Object.assign(it, { key: fs3, sep: [] });
+                Object.assign(it, { key: fs4, sep: [] });
               return;
             }
             case "flow-map-end":
@@ -26199,13 +27975,13 @@ var require_parser = __commonJS({
             const prev = getPrevProps(parent);
             const start = getFirstKeyStartProps(prev);
             fixFlowSeqItems(fc);
-            const sep6 = fc.end.splice(1, fc.end.length);
-            sep6.push(this.sourceToken);
+            const sep7 = fc.end.splice(1, fc.end.length);
+            sep7.push(this.sourceToken);
             const map = {
               type: "block-map",
               offset: fc.offset,
               indent: fc.indent,
-              items: [{ start, key: fc, sep: sep6 }]
+              items: [{ start, key: fc, sep: sep7 }]
             };
             this.onKeyLine = true;
             this.stack[this.stack.length - 1] = map;
@@ -26860,11 +28636,11 @@ var require_codegen = __commonJS({
         const rhs = this.rhs === void 0 ? "" : ` = ${this.rhs}`;
         return `${varKind} ${this.name}${rhs};` + _n;
       }
-      optimizeNames(names, constants4) {
+      optimizeNames(names, constants6) {
         if (!names[this.name.str])
           return;
         if (this.rhs)
-          this.rhs = optimizeExpr(this.rhs, names, constants4);
+          this.rhs = optimizeExpr(this.rhs, names, constants6);
         return this;
       }
       get names() {
@@ -26881,10 +28657,10 @@ var require_codegen = __commonJS({
       render({ _n }) {
         return `${this.lhs} = ${this.rhs};` + _n;
       }
-      optimizeNames(names, constants4) {
+      optimizeNames(names, constants6) {
         if (this.lhs instanceof code_1.Name && !names[this.lhs.str] && !this.sideEffects)
           return;
-        this.rhs = optimizeExpr(this.rhs, names, constants4);
+        this.rhs = optimizeExpr(this.rhs, names, constants6);
         return this;
       }
       get names() {
@@ -26945,8 +28721,8 @@ var require_codegen = __commonJS({
       optimizeNodes() {
         return `${this.code}` ? this : void 0;
       }
-      optimizeNames(names, constants4) {
-        this.code = optimizeExpr(this.code, names, constants4);
+      optimizeNames(names, constants6) {
+        this.code = optimizeExpr(this.code, names, constants6);
         return this;
       }
       get names() {
@@ -26975,12 +28751,12 @@ var require_codegen = __commonJS({
         }
         return nodes.length > 0 ? this : void 0;
       }
-      optimizeNames(names, constants4) {
+      optimizeNames(names, constants6) {
         const { nodes } = this;
         let i = nodes.length;
         while (i--) {
           const n = nodes[i];
-          if (n.optimizeNames(names, constants4))
+          if (n.optimizeNames(names, constants6))
             continue;
           subtractNames(names, n.names);
           nodes.splice(i, 1);
@@ -27033,12 +28809,12 @@ var require_codegen = __commonJS({
           return void 0;
         return this;
       }
-      optimizeNames(names, constants4) {
+      optimizeNames(names, constants6) {
         var _a;
-        this.else = (_a = this.else) === null || _a === void 0 ? void 0 : _a.optimizeNames(names, constants4);
-        if (!(super.optimizeNames(names, constants4) || this.else))
+        this.else = (_a = this.else) === null || _a === void 0 ? void 0 : _a.optimizeNames(names, constants6);
+        if (!(super.optimizeNames(names, constants6) || this.else))
           return;
-        this.condition = optimizeExpr(this.condition, names, constants4);
+        this.condition = optimizeExpr(this.condition, names, constants6);
         return this;
       }
       get names() {
@@ -27061,10 +28837,10 @@ var require_codegen = __commonJS({
       render(opts) {
         return `for(${this.iteration})` + super.render(opts);
       }
-      optimizeNames(names, constants4) {
-        if (!super.optimizeNames(names, constants4))
+      optimizeNames(names, constants6) {
+        if (!super.optimizeNames(names, constants6))
           return;
-        this.iteration = optimizeExpr(this.iteration, names, constants4);
+        this.iteration = optimizeExpr(this.iteration, names, constants6);
         return this;
       }
       get names() {
@@ -27100,10 +28876,10 @@ var require_codegen = __commonJS({
       render(opts) {
         return `for(${this.varKind} ${this.name} ${this.loop} ${this.iterable})` + super.render(opts);
       }
-      optimizeNames(names, constants4) {
-        if (!super.optimizeNames(names, constants4))
+      optimizeNames(names, constants6) {
+        if (!super.optimizeNames(names, constants6))
           return;
-        this.iterable = optimizeExpr(this.iterable, names, constants4);
+        this.iterable = optimizeExpr(this.iterable, names, constants6);
         return this;
       }
       get names() {
@@ -27145,11 +28921,11 @@ var require_codegen = __commonJS({
         (_b = this.finally) === null || _b === void 0 ? void 0 : _b.optimizeNodes();
         return this;
       }
-      optimizeNames(names, constants4) {
+      optimizeNames(names, constants6) {
         var _a, _b;
-        super.optimizeNames(names, constants4);
-        (_a = this.catch) === null || _a === void 0 ? void 0 : _a.optimizeNames(names, constants4);
-        (_b = this.finally) === null || _b === void 0 ? void 0 : _b.optimizeNames(names, constants4);
+        super.optimizeNames(names, constants6);
+        (_a = this.catch) === null || _a === void 0 ? void 0 : _a.optimizeNames(names, constants6);
+        (_b = this.finally) === null || _b === void 0 ? void 0 : _b.optimizeNames(names, constants6);
         return this;
       }
       get names() {
@@ -27450,7 +29226,7 @@ var require_codegen = __commonJS({
     function addExprNames(names, from) {
       return from instanceof code_1._CodeOrName ? addNames(names, from.names) : names;
     }
-    function optimizeExpr(expr, names, constants4) {
+    function optimizeExpr(expr, names, constants6) {
       if (expr instanceof code_1.Name)
         return replaceName(expr);
       if (!canOptimize(expr))
@@ -27465,14 +29241,14 @@ var require_codegen = __commonJS({
         return items;
       }, []));
       function replaceName(n) {
-        const c = constants4[n.str];
+        const c = constants6[n.str];
         if (c === void 0 || names[n.str] !== 1)
           return n;
         delete names[n.str];
         return c;
       }
       function canOptimize(e) {
-        return e instanceof code_1._Code && e._items.some((c) => c instanceof code_1.Name && names[c.str] === 1 && constants4[c.str] !== void 0);
+        return e instanceof code_1._Code && e._items.some((c) => c instanceof code_1.Name && names[c.str] === 1 && constants6[c.str] !== void 0);
       }
     }
     function subtractNames(names, from) {
@@ -28174,12 +29950,12 @@ var require_code2 = __commonJS({
       });
     }
     exports.checkReportMissingProp = checkReportMissingProp;
-    function checkMissingProp({ gen, data, it: { opts } }, properties, missing2) {
-      return (0, codegen_1.or)(...properties.map((prop) => (0, codegen_1.and)(noPropertyInData(gen, data, prop, opts.ownProperties), (0, codegen_1._)`${missing2} = ${prop}`)));
+    function checkMissingProp({ gen, data, it: { opts } }, properties, missing) {
+      return (0, codegen_1.or)(...properties.map((prop) => (0, codegen_1.and)(noPropertyInData(gen, data, prop, opts.ownProperties), (0, codegen_1._)`${missing} = ${prop}`)));
     }
     exports.checkMissingProp = checkMissingProp;
-    function reportMissingProp(cxt, missing2) {
-      cxt.setParams({ missingProperty: missing2 }, true);
+    function reportMissingProp(cxt, missing) {
+      cxt.setParams({ missingProperty: missing }, true);
       cxt.error();
     }
     exports.reportMissingProp = reportMissingProp;
@@ -29434,7 +31210,7 @@ var require_compile = __commonJS({
       const schOrFunc = root.refs[ref];
       if (schOrFunc)
         return schOrFunc;
-      let _sch = resolve9.call(this, root, ref);
+      let _sch = resolve10.call(this, root, ref);
       if (_sch === void 0) {
         const schema = (_a = root.localRefs) === null || _a === void 0 ? void 0 : _a[ref];
         const { schemaId } = this.opts;
@@ -29461,7 +31237,7 @@ var require_compile = __commonJS({
     function sameSchemaEnv(s1, s2) {
       return s1.schema === s2.schema && s1.root === s2.root && s1.baseId === s2.baseId;
     }
-    function resolve9(root, ref) {
+    function resolve10(root, ref) {
       let sch;
       while (typeof (sch = this.refs[ref]) == "string")
         ref = sch;
@@ -29554,7 +31330,7 @@ var require_data = __commonJS({
 });
 
 // node_modules/fast-uri/lib/utils.js
-var require_utils2 = __commonJS({
+var require_utils3 = __commonJS({
   "node_modules/fast-uri/lib/utils.js"(exports, module) {
     "use strict";
     var isUUID = RegExp.prototype.test.bind(/^[\da-f]{8}-[\da-f]{4}-[\da-f]{4}-[\da-f]{4}-[\da-f]{12}$/iu);
@@ -30091,7 +31867,7 @@ var require_utils2 = __commonJS({
 var require_schemes = __commonJS({
   "node_modules/fast-uri/lib/schemes.js"(exports, module) {
     "use strict";
-    var { isUUID } = require_utils2();
+    var { isUUID } = require_utils3();
     var URN_REG = /^([\da-z][\d\-a-z]{0,31}):((?:[\w!$'()*+,\-./:;=@]|%[\da-f]{2})+)$/iu;
     var supportedSchemeNames = (
       /** @type {const} */
@@ -30302,7 +32078,7 @@ var require_schemes = __commonJS({
 var require_fast_uri = __commonJS({
   "node_modules/fast-uri/index.js"(exports, module) {
     "use strict";
-    var { normalizeIPv6, removeDotSegments, removeDotSegmentsRelative, recomposeAuthority, normalizePercentEncoding, normalizePathEncoding, serializePathEncoding, normalizeQueryFragmentEncoding, encodeQuery, encodeFragment, reescapeHostDelimiters, isIPv4, nonSimpleDomain } = require_utils2();
+    var { normalizeIPv6, removeDotSegments, removeDotSegmentsRelative, recomposeAuthority, normalizePercentEncoding, normalizePathEncoding, serializePathEncoding, normalizeQueryFragmentEncoding, encodeQuery, encodeFragment, reescapeHostDelimiters, isIPv4, nonSimpleDomain } = require_utils3();
     var { SCHEMES, getSchemeHandler } = require_schemes();
     var VALID_SCHEME = /^[A-Za-z][A-Za-z0-9+.-]*$/u;
     var MALFORMED_SCHEME_ERROR = "URI scheme is malformed.";
@@ -30325,7 +32101,7 @@ var require_fast_uri = __commonJS({
       }
       return uri;
     }
-    function resolve9(baseURI, relativeURI, options) {
+    function resolve10(baseURI, relativeURI, options) {
       const schemelessOptions = options ? Object.assign({ scheme: "null" }, options) : { scheme: "null" };
       const {
         parsed: baseParsed,
@@ -30361,50 +32137,50 @@ var require_fast_uri = __commonJS({
       schemelessOptions.skipEscape = true;
       return serialize(resolved, schemelessOptions);
     }
-    function resolveComponent(base, relative5, options, skipNormalization) {
+    function resolveComponent(base, relative7, options, skipNormalization) {
       const target = {};
       if (!skipNormalization) {
         base = parse(serialize(base, options), options);
-        relative5 = parse(serialize(relative5, options), options);
+        relative7 = parse(serialize(relative7, options), options);
       }
       options = options || {};
-      if (!options.tolerant && relative5.scheme) {
-        target.scheme = relative5.scheme;
-        target.userinfo = relative5.userinfo;
-        target.host = relative5.host;
-        target.port = relative5.port;
-        target.path = removeDotSegments(relative5.path || "");
-        target.query = relative5.query;
+      if (!options.tolerant && relative7.scheme) {
+        target.scheme = relative7.scheme;
+        target.userinfo = relative7.userinfo;
+        target.host = relative7.host;
+        target.port = relative7.port;
+        target.path = removeDotSegments(relative7.path || "");
+        target.query = relative7.query;
       } else {
-        if (relative5.userinfo !== void 0 || relative5.host !== void 0 || relative5.port !== void 0) {
-          target.userinfo = relative5.userinfo;
-          target.host = relative5.host;
-          target.port = relative5.port;
-          target.path = removeDotSegments(relative5.path || "");
-          target.query = relative5.query;
+        if (relative7.userinfo !== void 0 || relative7.host !== void 0 || relative7.port !== void 0) {
+          target.userinfo = relative7.userinfo;
+          target.host = relative7.host;
+          target.port = relative7.port;
+          target.path = removeDotSegments(relative7.path || "");
+          target.query = relative7.query;
         } else {
-          if (!relative5.path) {
+          if (!relative7.path) {
             target.path = base.path;
-            if (relative5.query !== void 0) {
-              target.query = relative5.query;
+            if (relative7.query !== void 0) {
+              target.query = relative7.query;
             } else {
               target.query = base.query;
             }
           } else {
-            if (relative5.path[0] === "/") {
-              target.path = removeDotSegments(relative5.path);
+            if (relative7.path[0] === "/") {
+              target.path = removeDotSegments(relative7.path);
             } else {
               const baseHasAuthority = base.userinfo !== void 0 || base.host !== void 0 || base.port !== void 0;
               if (baseHasAuthority && !base.path) {
-                target.path = "/" + relative5.path;
+                target.path = "/" + relative7.path;
               } else if (!base.path) {
-                target.path = relative5.path;
+                target.path = relative7.path;
               } else {
-                target.path = base.path.slice(0, base.path.lastIndexOf("/") + 1) + relative5.path;
+                target.path = base.path.slice(0, base.path.lastIndexOf("/") + 1) + relative7.path;
               }
               target.path = base.scheme === void 0 && !baseHasAuthority && target.path[0] !== "/" ? removeDotSegmentsRelative(target.path) : removeDotSegments(target.path);
             }
-            target.query = relative5.query;
+            target.query = relative7.query;
           }
           target.userinfo = base.userinfo;
           target.host = base.host;
@@ -30412,7 +32188,7 @@ var require_fast_uri = __commonJS({
         }
         target.scheme = base.scheme;
       }
-      target.fragment = relative5.fragment;
+      target.fragment = relative7.fragment;
       return target;
     }
     function equal(uriA, uriB, options) {
@@ -30716,7 +32492,7 @@ var require_fast_uri = __commonJS({
     var fastUri = {
       SCHEMES,
       normalize: normalize2,
-      resolve: resolve9,
+      resolve: resolve10,
       resolveComponent,
       equal,
       serialize,
@@ -31131,7 +32907,7 @@ var require_core = __commonJS({
       errorsText(errors = this.errors, { separator = ", ", dataVar = "data" } = {}) {
         if (!errors || errors.length === 0)
           return "No errors";
-        return errors.map((e) => `${dataVar}${e.instancePath} ${e.message}`).reduce((text, msg) => text + separator + msg);
+        return errors.map((e) => `${dataVar}${e.instancePath} ${e.message}`).reduce((text2, msg) => text2 + separator + msg);
       }
       $dataMetaSchema(metaSchema, keywordsJsonPointers) {
         const rules = this.RULES.all;
@@ -31741,14 +33517,14 @@ var require_required = __commonJS({
           }
         }
         function exitOnErrorMode() {
-          const missing2 = gen.let("missing");
+          const missing = gen.let("missing");
           if (useLoop || $data) {
             const valid = gen.let("valid", true);
-            cxt.block$data(valid, () => loopUntilMissing(missing2, valid));
+            cxt.block$data(valid, () => loopUntilMissing(missing, valid));
             cxt.ok(valid);
           } else {
-            gen.if((0, code_1.checkMissingProp)(cxt, schema, missing2));
-            (0, code_1.reportMissingProp)(cxt, missing2);
+            gen.if((0, code_1.checkMissingProp)(cxt, schema, missing));
+            (0, code_1.reportMissingProp)(cxt, missing);
             gen.else();
           }
         }
@@ -31758,10 +33534,10 @@ var require_required = __commonJS({
             gen.if((0, code_1.noPropertyInData)(gen, data, prop, opts.ownProperties), () => cxt.error());
           });
         }
-        function loopUntilMissing(missing2, valid) {
-          cxt.setParams({ missingProperty: missing2 });
-          gen.forOf(missing2, schemaCode, () => {
-            gen.assign(valid, (0, code_1.propertyInData)(gen, data, missing2, opts.ownProperties));
+        function loopUntilMissing(missing, valid) {
+          cxt.setParams({ missingProperty: missing });
+          gen.forOf(missing, schemaCode, () => {
+            gen.assign(valid, (0, code_1.propertyInData)(gen, data, missing, opts.ownProperties));
             gen.if((0, codegen_1.not)(valid), () => {
               cxt.error();
               gen.break();
@@ -32299,7 +34075,7 @@ var require_dependencies = __commonJS({
       const { gen, data, it } = cxt;
       if (Object.keys(propertyDeps).length === 0)
         return;
-      const missing2 = gen.let("missing");
+      const missing = gen.let("missing");
       for (const prop in propertyDeps) {
         const deps = propertyDeps[prop];
         if (deps.length === 0)
@@ -32317,8 +34093,8 @@ var require_dependencies = __commonJS({
             }
           });
         } else {
-          gen.if((0, codegen_1._)`${hasProperty} && (${(0, code_1.checkMissingProp)(cxt, deps, missing2)})`);
-          (0, code_1.reportMissingProp)(cxt, missing2);
+          gen.if((0, codegen_1._)`${hasProperty} && (${(0, code_1.checkMissingProp)(cxt, deps, missing)})`);
+          (0, code_1.reportMissingProp)(cxt, missing);
           gen.else();
         }
       }
@@ -33388,1787 +35164,10 @@ var require_ajv = __commonJS({
   }
 });
 
-// node_modules/picomatch/lib/constants.js
-var require_constants6 = __commonJS({
-  "node_modules/picomatch/lib/constants.js"(exports, module) {
-    "use strict";
-    var WIN_SLASH = "\\\\/";
-    var WIN_NO_SLASH = `[^${WIN_SLASH}]`;
-    var DEFAULT_MAX_EXTGLOB_RECURSION = 0;
-    var DOT_LITERAL = "\\.";
-    var PLUS_LITERAL = "\\+";
-    var QMARK_LITERAL = "\\?";
-    var SLASH_LITERAL = "\\/";
-    var ONE_CHAR = "(?=.)";
-    var QMARK = "[^/]";
-    var END_ANCHOR = `(?:${SLASH_LITERAL}|$)`;
-    var START_ANCHOR = `(?:^|${SLASH_LITERAL})`;
-    var DOTS_SLASH = `${DOT_LITERAL}{1,2}${END_ANCHOR}`;
-    var NO_DOT = `(?!${DOT_LITERAL})`;
-    var NO_DOTS = `(?!${START_ANCHOR}${DOTS_SLASH})`;
-    var NO_DOT_SLASH = `(?!${DOT_LITERAL}{0,1}${END_ANCHOR})`;
-    var NO_DOTS_SLASH = `(?!${DOTS_SLASH})`;
-    var QMARK_NO_DOT = `[^.${SLASH_LITERAL}]`;
-    var STAR = `${QMARK}*?`;
-    var SEP = "/";
-    var POSIX_CHARS = {
-      DOT_LITERAL,
-      PLUS_LITERAL,
-      QMARK_LITERAL,
-      SLASH_LITERAL,
-      ONE_CHAR,
-      QMARK,
-      END_ANCHOR,
-      DOTS_SLASH,
-      NO_DOT,
-      NO_DOTS,
-      NO_DOT_SLASH,
-      NO_DOTS_SLASH,
-      QMARK_NO_DOT,
-      STAR,
-      START_ANCHOR,
-      SEP
-    };
-    var WINDOWS_CHARS = {
-      ...POSIX_CHARS,
-      SLASH_LITERAL: `[${WIN_SLASH}]`,
-      QMARK: WIN_NO_SLASH,
-      STAR: `${WIN_NO_SLASH}*?`,
-      DOTS_SLASH: `${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$)`,
-      NO_DOT: `(?!${DOT_LITERAL})`,
-      NO_DOTS: `(?!(?:^|[${WIN_SLASH}])${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$))`,
-      NO_DOT_SLASH: `(?!${DOT_LITERAL}{0,1}(?:[${WIN_SLASH}]|$))`,
-      NO_DOTS_SLASH: `(?!${DOT_LITERAL}{1,2}(?:[${WIN_SLASH}]|$))`,
-      QMARK_NO_DOT: `[^.${WIN_SLASH}]`,
-      START_ANCHOR: `(?:^|[${WIN_SLASH}])`,
-      END_ANCHOR: `(?:[${WIN_SLASH}]|$)`,
-      SEP: "\\"
-    };
-    var POSIX_REGEX_SOURCE = {
-      __proto__: null,
-      alnum: "a-zA-Z0-9",
-      alpha: "a-zA-Z",
-      ascii: "\\x00-\\x7F",
-      blank: " \\t",
-      cntrl: "\\x00-\\x1F\\x7F",
-      digit: "0-9",
-      graph: "\\x21-\\x7E",
-      lower: "a-z",
-      print: "\\x20-\\x7E ",
-      punct: "\\-!\"#$%&'()\\*+,./:;<=>?@[\\]^_`{|}~",
-      space: " \\t\\r\\n\\v\\f",
-      upper: "A-Z",
-      word: "A-Za-z0-9_",
-      xdigit: "A-Fa-f0-9"
-    };
-    module.exports = {
-      DEFAULT_MAX_EXTGLOB_RECURSION,
-      MAX_LENGTH: 1024 * 64,
-      POSIX_REGEX_SOURCE,
-      // regular expressions
-      REGEX_BACKSLASH: /\\(?![*+?^${}(|)[\]])/g,
-      REGEX_NON_SPECIAL_CHARS: /^[^@![\].,$*+?^{}()|\\/]+/,
-      REGEX_SPECIAL_CHARS: /[-*+?.^${}(|)[\]]/,
-      REGEX_SPECIAL_CHARS_BACKREF: /(\\?)((\W)(\3*))/g,
-      REGEX_SPECIAL_CHARS_GLOBAL: /([-*+?.^${}(|)[\]])/g,
-      REGEX_REMOVE_BACKSLASH: /(?:\[.*?[^\\]\]|\\(?=.))/g,
-      // Replace globs with equivalent patterns to reduce parsing time.
-      REPLACEMENTS: {
-        __proto__: null,
-        "***": "*",
-        "**/**": "**",
-        "**/**/**": "**"
-      },
-      // Digits
-      CHAR_0: 48,
-      /* 0 */
-      CHAR_9: 57,
-      /* 9 */
-      // Alphabet chars.
-      CHAR_UPPERCASE_A: 65,
-      /* A */
-      CHAR_LOWERCASE_A: 97,
-      /* a */
-      CHAR_UPPERCASE_Z: 90,
-      /* Z */
-      CHAR_LOWERCASE_Z: 122,
-      /* z */
-      CHAR_LEFT_PARENTHESES: 40,
-      /* ( */
-      CHAR_RIGHT_PARENTHESES: 41,
-      /* ) */
-      CHAR_ASTERISK: 42,
-      /* * */
-      // Non-alphabetic chars.
-      CHAR_AMPERSAND: 38,
-      /* & */
-      CHAR_AT: 64,
-      /* @ */
-      CHAR_BACKWARD_SLASH: 92,
-      /* \ */
-      CHAR_CARRIAGE_RETURN: 13,
-      /* \r */
-      CHAR_CIRCUMFLEX_ACCENT: 94,
-      /* ^ */
-      CHAR_COLON: 58,
-      /* : */
-      CHAR_COMMA: 44,
-      /* , */
-      CHAR_DOT: 46,
-      /* . */
-      CHAR_DOUBLE_QUOTE: 34,
-      /* " */
-      CHAR_EQUAL: 61,
-      /* = */
-      CHAR_EXCLAMATION_MARK: 33,
-      /* ! */
-      CHAR_FORM_FEED: 12,
-      /* \f */
-      CHAR_FORWARD_SLASH: 47,
-      /* / */
-      CHAR_GRAVE_ACCENT: 96,
-      /* ` */
-      CHAR_HASH: 35,
-      /* # */
-      CHAR_HYPHEN_MINUS: 45,
-      /* - */
-      CHAR_LEFT_ANGLE_BRACKET: 60,
-      /* < */
-      CHAR_LEFT_CURLY_BRACE: 123,
-      /* { */
-      CHAR_LEFT_SQUARE_BRACKET: 91,
-      /* [ */
-      CHAR_LINE_FEED: 10,
-      /* \n */
-      CHAR_NO_BREAK_SPACE: 160,
-      /* \u00A0 */
-      CHAR_PERCENT: 37,
-      /* % */
-      CHAR_PLUS: 43,
-      /* + */
-      CHAR_QUESTION_MARK: 63,
-      /* ? */
-      CHAR_RIGHT_ANGLE_BRACKET: 62,
-      /* > */
-      CHAR_RIGHT_CURLY_BRACE: 125,
-      /* } */
-      CHAR_RIGHT_SQUARE_BRACKET: 93,
-      /* ] */
-      CHAR_SEMICOLON: 59,
-      /* ; */
-      CHAR_SINGLE_QUOTE: 39,
-      /* ' */
-      CHAR_SPACE: 32,
-      /*   */
-      CHAR_TAB: 9,
-      /* \t */
-      CHAR_UNDERSCORE: 95,
-      /* _ */
-      CHAR_VERTICAL_LINE: 124,
-      /* | */
-      CHAR_ZERO_WIDTH_NOBREAK_SPACE: 65279,
-      /* \uFEFF */
-      /**
-       * Create EXTGLOB_CHARS
-       */
-      extglobChars(chars) {
-        return {
-          "!": { type: "negate", open: "(?:(?!(?:", close: `))${chars.STAR})` },
-          "?": { type: "qmark", open: "(?:", close: ")?" },
-          "+": { type: "plus", open: "(?:", close: ")+" },
-          "*": { type: "star", open: "(?:", close: ")*" },
-          "@": { type: "at", open: "(?:", close: ")" }
-        };
-      },
-      /**
-       * Create GLOB_CHARS
-       */
-      globChars(win32) {
-        return win32 === true ? WINDOWS_CHARS : POSIX_CHARS;
-      }
-    };
-  }
-});
-
-// node_modules/picomatch/lib/utils.js
-var require_utils3 = __commonJS({
-  "node_modules/picomatch/lib/utils.js"(exports) {
-    "use strict";
-    var {
-      REGEX_BACKSLASH,
-      REGEX_REMOVE_BACKSLASH,
-      REGEX_SPECIAL_CHARS,
-      REGEX_SPECIAL_CHARS_GLOBAL
-    } = require_constants6();
-    exports.isObject = (val) => val !== null && typeof val === "object" && !Array.isArray(val);
-    exports.hasRegexChars = (str) => REGEX_SPECIAL_CHARS.test(str);
-    exports.isRegexChar = (str) => str.length === 1 && exports.hasRegexChars(str);
-    exports.escapeRegex = (str) => str.replace(REGEX_SPECIAL_CHARS_GLOBAL, "\\$1");
-    exports.toPosixSlashes = (str) => str.replace(REGEX_BACKSLASH, "/");
-    exports.isWindows = () => {
-      if (typeof navigator !== "undefined" && navigator.platform) {
-        const platform2 = navigator.platform.toLowerCase();
-        return platform2 === "win32" || platform2 === "windows";
-      }
-      if (typeof process !== "undefined" && process.platform) {
-        return process.platform === "win32";
-      }
-      return false;
-    };
-    exports.removeBackslashes = (str) => {
-      return str.replace(REGEX_REMOVE_BACKSLASH, (match) => {
-        return match === "\\" ? "" : match;
-      });
-    };
-    exports.escapeLast = (input, char, lastIdx) => {
-      const idx = input.lastIndexOf(char, lastIdx);
-      if (idx === -1) return input;
-      if (input[idx - 1] === "\\") return exports.escapeLast(input, char, idx - 1);
-      return `${input.slice(0, idx)}\\${input.slice(idx)}`;
-    };
-    exports.removePrefix = (input, state = {}) => {
-      let output = input;
-      if (output.startsWith("./")) {
-        output = output.slice(2);
-        state.prefix = "./";
-      }
-      return output;
-    };
-    exports.wrapOutput = (input, state = {}, options = {}) => {
-      const prepend = options.contains ? "" : "^";
-      const append = options.contains ? "" : "$";
-      let output = `${prepend}(?:${input})${append}`;
-      if (state.negated === true) {
-        output = `(?:^(?!${output}).*$)`;
-      }
-      return output;
-    };
-    exports.basename = (path6, { windows } = {}) => {
-      const segs = path6.split(windows ? /[\\/]/ : "/");
-      const last = segs[segs.length - 1];
-      if (last === "") {
-        return segs[segs.length - 2];
-      }
-      return last;
-    };
-  }
-});
-
-// node_modules/picomatch/lib/scan.js
-var require_scan = __commonJS({
-  "node_modules/picomatch/lib/scan.js"(exports, module) {
-    "use strict";
-    var utils = require_utils3();
-    var {
-      CHAR_ASTERISK,
-      /* * */
-      CHAR_AT,
-      /* @ */
-      CHAR_BACKWARD_SLASH,
-      /* \ */
-      CHAR_COMMA,
-      /* , */
-      CHAR_DOT,
-      /* . */
-      CHAR_EXCLAMATION_MARK,
-      /* ! */
-      CHAR_FORWARD_SLASH,
-      /* / */
-      CHAR_LEFT_CURLY_BRACE,
-      /* { */
-      CHAR_LEFT_PARENTHESES,
-      /* ( */
-      CHAR_LEFT_SQUARE_BRACKET,
-      /* [ */
-      CHAR_PLUS,
-      /* + */
-      CHAR_QUESTION_MARK,
-      /* ? */
-      CHAR_RIGHT_CURLY_BRACE,
-      /* } */
-      CHAR_RIGHT_PARENTHESES,
-      /* ) */
-      CHAR_RIGHT_SQUARE_BRACKET
-      /* ] */
-    } = require_constants6();
-    var isPathSeparator = (code) => {
-      return code === CHAR_FORWARD_SLASH || code === CHAR_BACKWARD_SLASH;
-    };
-    var depth = (token) => {
-      if (token.isPrefix !== true) {
-        token.depth = token.isGlobstar ? Infinity : 1;
-      }
-    };
-    var scan = (input, options) => {
-      const opts = options || {};
-      const length = input.length - 1;
-      const scanToEnd = opts.parts === true || opts.tokens === true || opts.scanToEnd === true;
-      const slashes = [];
-      const tokens = [];
-      const parts = [];
-      let str = input;
-      let index = -1;
-      let start = 0;
-      let lastIndex = 0;
-      let isBrace = false;
-      let isBracket = false;
-      let isGlob = false;
-      let isExtglob = false;
-      let isGlobstar = false;
-      let braceEscaped = false;
-      let backslashes = false;
-      let negated = false;
-      let negatedExtglob = false;
-      let finished = false;
-      let braces = 0;
-      let prev;
-      let code;
-      let token = { value: "", depth: 0, isGlob: false };
-      const eos = () => index >= length;
-      const peek = () => str.charCodeAt(index + 1);
-      const advance = () => {
-        prev = code;
-        return str.charCodeAt(++index);
-      };
-      while (index < length) {
-        code = advance();
-        let next;
-        if (code === CHAR_BACKWARD_SLASH) {
-          backslashes = token.backslashes = true;
-          code = advance();
-          if (code === CHAR_LEFT_CURLY_BRACE) {
-            braceEscaped = true;
-          }
-          continue;
-        }
-        if (braceEscaped === true || code === CHAR_LEFT_CURLY_BRACE) {
-          braces++;
-          while (eos() !== true && (code = advance())) {
-            if (code === CHAR_BACKWARD_SLASH) {
-              backslashes = token.backslashes = true;
-              advance();
-              continue;
-            }
-            if (code === CHAR_LEFT_CURLY_BRACE) {
-              braces++;
-              continue;
-            }
-            if (braceEscaped !== true && code === CHAR_DOT && (code = advance()) === CHAR_DOT) {
-              isBrace = token.isBrace = true;
-              isGlob = token.isGlob = true;
-              finished = true;
-              if (scanToEnd === true) {
-                continue;
-              }
-              break;
-            }
-            if (braceEscaped !== true && code === CHAR_COMMA) {
-              isBrace = token.isBrace = true;
-              isGlob = token.isGlob = true;
-              finished = true;
-              if (scanToEnd === true) {
-                continue;
-              }
-              break;
-            }
-            if (code === CHAR_RIGHT_CURLY_BRACE) {
-              braces--;
-              if (braces === 0) {
-                braceEscaped = false;
-                isBrace = token.isBrace = true;
-                finished = true;
-                break;
-              }
-            }
-          }
-          if (scanToEnd === true) {
-            continue;
-          }
-          break;
-        }
-        if (code === CHAR_FORWARD_SLASH) {
-          slashes.push(index);
-          tokens.push(token);
-          token = { value: "", depth: 0, isGlob: false };
-          if (finished === true) continue;
-          if (prev === CHAR_DOT && index === start + 1) {
-            start += 2;
-            continue;
-          }
-          lastIndex = index + 1;
-          continue;
-        }
-        if (opts.noext !== true) {
-          const isExtglobChar = code === CHAR_PLUS || code === CHAR_AT || code === CHAR_ASTERISK || code === CHAR_QUESTION_MARK || code === CHAR_EXCLAMATION_MARK;
-          if (isExtglobChar === true && peek() === CHAR_LEFT_PARENTHESES) {
-            isGlob = token.isGlob = true;
-            isExtglob = token.isExtglob = true;
-            finished = true;
-            if (code === CHAR_EXCLAMATION_MARK && index === start) {
-              negatedExtglob = true;
-            }
-            if (scanToEnd === true) {
-              let parens = 0;
-              while (eos() !== true && (code = advance())) {
-                if (code === CHAR_BACKWARD_SLASH) {
-                  backslashes = token.backslashes = true;
-                  advance();
-                  continue;
-                }
-                if (code === CHAR_LEFT_PARENTHESES) {
-                  parens++;
-                  continue;
-                }
-                if (code === CHAR_RIGHT_PARENTHESES && --parens === 0) {
-                  finished = true;
-                  break;
-                }
-              }
-              continue;
-            }
-            break;
-          }
-        }
-        if (code === CHAR_ASTERISK) {
-          if (prev === CHAR_ASTERISK) isGlobstar = token.isGlobstar = true;
-          isGlob = token.isGlob = true;
-          finished = true;
-          if (scanToEnd === true) {
-            continue;
-          }
-          break;
-        }
-        if (code === CHAR_QUESTION_MARK) {
-          isGlob = token.isGlob = true;
-          finished = true;
-          if (scanToEnd === true) {
-            continue;
-          }
-          break;
-        }
-        if (code === CHAR_LEFT_SQUARE_BRACKET) {
-          while (eos() !== true && (next = advance())) {
-            if (next === CHAR_BACKWARD_SLASH) {
-              backslashes = token.backslashes = true;
-              advance();
-              continue;
-            }
-            if (next === CHAR_RIGHT_SQUARE_BRACKET) {
-              isBracket = token.isBracket = true;
-              isGlob = token.isGlob = true;
-              finished = true;
-              break;
-            }
-          }
-          if (scanToEnd === true) {
-            continue;
-          }
-          break;
-        }
-        if (opts.nonegate !== true && code === CHAR_EXCLAMATION_MARK && index === start) {
-          negated = token.negated = true;
-          start++;
-          continue;
-        }
-        if (opts.noparen !== true && code === CHAR_LEFT_PARENTHESES) {
-          isGlob = token.isGlob = true;
-          if (scanToEnd === true) {
-            let parens = 1;
-            while (eos() !== true && (code = advance())) {
-              if (code === CHAR_BACKWARD_SLASH) {
-                backslashes = token.backslashes = true;
-                advance();
-                continue;
-              }
-              if (code === CHAR_LEFT_PARENTHESES) {
-                parens++;
-                continue;
-              }
-              if (code === CHAR_RIGHT_PARENTHESES && --parens === 0) {
-                finished = true;
-                break;
-              }
-            }
-            continue;
-          }
-          break;
-        }
-        if (isGlob === true) {
-          finished = true;
-          if (scanToEnd === true) {
-            continue;
-          }
-          break;
-        }
-      }
-      if (opts.noext === true) {
-        isExtglob = false;
-        isGlob = false;
-      }
-      let base = str;
-      let prefix = "";
-      let glob = "";
-      if (start > 0) {
-        prefix = str.slice(0, start);
-        str = str.slice(start);
-        lastIndex -= start;
-      }
-      if (base && isGlob === true && lastIndex > 0) {
-        base = str.slice(0, lastIndex);
-        glob = str.slice(lastIndex);
-      } else if (isGlob === true) {
-        base = "";
-        glob = str;
-      } else {
-        base = str;
-      }
-      if (base && base !== "" && base !== "/" && base !== str) {
-        if (isPathSeparator(base.charCodeAt(base.length - 1))) {
-          base = base.slice(0, -1);
-        }
-      }
-      if (opts.unescape === true) {
-        if (glob) glob = utils.removeBackslashes(glob);
-        if (base && backslashes === true) {
-          base = utils.removeBackslashes(base);
-        }
-      }
-      const state = {
-        prefix,
-        input,
-        start,
-        base,
-        glob,
-        isBrace,
-        isBracket,
-        isGlob,
-        isExtglob,
-        isGlobstar,
-        negated,
-        negatedExtglob
-      };
-      if (opts.tokens === true) {
-        state.maxDepth = 0;
-        if (!isPathSeparator(code)) {
-          tokens.push(token);
-        }
-        state.tokens = tokens;
-      }
-      if (opts.parts === true || opts.tokens === true) {
-        let prevIndex;
-        for (let idx = 0; idx < slashes.length; idx++) {
-          const n2 = prevIndex !== void 0 ? prevIndex + 1 : start;
-          const i = slashes[idx];
-          const value2 = input.slice(n2, i);
-          if (opts.tokens) {
-            if (idx === 0 && start !== 0) {
-              tokens[idx].isPrefix = true;
-              tokens[idx].value = prefix;
-            } else {
-              tokens[idx].value = value2;
-            }
-            depth(tokens[idx]);
-            state.maxDepth += tokens[idx].depth;
-          }
-          if (i >= start) {
-            parts.push(value2);
-            prevIndex = i;
-          }
-        }
-        const n = prevIndex !== void 0 ? prevIndex + 1 : start;
-        const value = input.slice(n);
-        parts.push(value);
-        if (opts.tokens && prevIndex && prevIndex + 1 < input.length) {
-          tokens[tokens.length - 1].value = value;
-          depth(tokens[tokens.length - 1]);
-          state.maxDepth += tokens[tokens.length - 1].depth;
-        }
-        state.slashes = slashes;
-        state.parts = parts;
-      }
-      return state;
-    };
-    module.exports = scan;
-  }
-});
-
-// node_modules/picomatch/lib/parse.js
-var require_parse2 = __commonJS({
-  "node_modules/picomatch/lib/parse.js"(exports, module) {
-    "use strict";
-    var constants4 = require_constants6();
-    var utils = require_utils3();
-    var {
-      MAX_LENGTH,
-      POSIX_REGEX_SOURCE,
-      REGEX_NON_SPECIAL_CHARS,
-      REGEX_SPECIAL_CHARS_BACKREF,
-      REPLACEMENTS
-    } = constants4;
-    var expandRange = (args, options) => {
-      if (typeof options.expandRange === "function") {
-        return options.expandRange(...args, options);
-      }
-      args.sort();
-      const value = `[${args.join("-")}]`;
-      try {
-        new RegExp(value);
-      } catch (ex) {
-        return args.map((v) => utils.escapeRegex(v)).join("..");
-      }
-      return value;
-    };
-    var syntaxError = (type, char) => {
-      return `Missing ${type}: "${char}" - use "\\\\${char}" to match literal characters`;
-    };
-    var splitTopLevel = (input) => {
-      const parts = [];
-      let bracket = 0;
-      let paren = 0;
-      let quote = 0;
-      let value = "";
-      let escaped = false;
-      for (const ch of input) {
-        if (escaped === true) {
-          value += ch;
-          escaped = false;
-          continue;
-        }
-        if (ch === "\\") {
-          value += ch;
-          escaped = true;
-          continue;
-        }
-        if (ch === '"') {
-          quote = quote === 1 ? 0 : 1;
-          value += ch;
-          continue;
-        }
-        if (quote === 0) {
-          if (ch === "[") {
-            bracket++;
-          } else if (ch === "]" && bracket > 0) {
-            bracket--;
-          } else if (bracket === 0) {
-            if (ch === "(") {
-              paren++;
-            } else if (ch === ")" && paren > 0) {
-              paren--;
-            } else if (ch === "|" && paren === 0) {
-              parts.push(value);
-              value = "";
-              continue;
-            }
-          }
-        }
-        value += ch;
-      }
-      parts.push(value);
-      return parts;
-    };
-    var isPlainBranch = (branch) => {
-      let escaped = false;
-      for (const ch of branch) {
-        if (escaped === true) {
-          escaped = false;
-          continue;
-        }
-        if (ch === "\\") {
-          escaped = true;
-          continue;
-        }
-        if (/[?*+@!()[\]{}]/.test(ch)) {
-          return false;
-        }
-      }
-      return true;
-    };
-    var normalizeSimpleBranch = (branch) => {
-      let value = branch.trim();
-      let changed = true;
-      while (changed === true) {
-        changed = false;
-        if (/^@\([^\\()[\]{}|]+\)$/.test(value)) {
-          value = value.slice(2, -1);
-          changed = true;
-        }
-      }
-      if (!isPlainBranch(value)) {
-        return;
-      }
-      return value.replace(/\\(.)/g, "$1");
-    };
-    var hasRepeatedCharPrefixOverlap = (branches) => {
-      const values = branches.map(normalizeSimpleBranch).filter(Boolean);
-      for (let i = 0; i < values.length; i++) {
-        for (let j = i + 1; j < values.length; j++) {
-          const a = values[i];
-          const b = values[j];
-          const char = a[0];
-          if (!char || a !== char.repeat(a.length) || b !== char.repeat(b.length)) {
-            continue;
-          }
-          if (a === b || a.startsWith(b) || b.startsWith(a)) {
-            return true;
-          }
-        }
-      }
-      return false;
-    };
-    var parseRepeatedExtglob = (pattern, requireEnd = true) => {
-      if (pattern[0] !== "+" && pattern[0] !== "*" || pattern[1] !== "(") {
-        return;
-      }
-      let bracket = 0;
-      let paren = 0;
-      let quote = 0;
-      let escaped = false;
-      for (let i = 1; i < pattern.length; i++) {
-        const ch = pattern[i];
-        if (escaped === true) {
-          escaped = false;
-          continue;
-        }
-        if (ch === "\\") {
-          escaped = true;
-          continue;
-        }
-        if (ch === '"') {
-          quote = quote === 1 ? 0 : 1;
-          continue;
-        }
-        if (quote === 1) {
-          continue;
-        }
-        if (ch === "[") {
-          bracket++;
-          continue;
-        }
-        if (ch === "]" && bracket > 0) {
-          bracket--;
-          continue;
-        }
-        if (bracket > 0) {
-          continue;
-        }
-        if (ch === "(") {
-          paren++;
-          continue;
-        }
-        if (ch === ")") {
-          paren--;
-          if (paren === 0) {
-            if (requireEnd === true && i !== pattern.length - 1) {
-              return;
-            }
-            return {
-              type: pattern[0],
-              body: pattern.slice(2, i),
-              end: i
-            };
-          }
-        }
-      }
-    };
-    var buildCharClassStar = (chars) => {
-      const source = chars.length === 1 ? utils.escapeRegex(chars[0]) : `[${chars.map((ch) => utils.escapeRegex(ch)).join("")}]`;
-      return `${source}*`;
-    };
-    var getStarExtglobSequenceChars = (pattern) => {
-      let index = 0;
-      const chars = [];
-      while (index < pattern.length) {
-        const match = parseRepeatedExtglob(pattern.slice(index), false);
-        if (!match || match.type !== "*") {
-          return;
-        }
-        const branches = splitTopLevel(match.body).map((branch2) => branch2.trim());
-        if (branches.length !== 1) {
-          return;
-        }
-        const branch = normalizeSimpleBranch(branches[0]);
-        if (!branch || branch.length !== 1) {
-          return;
-        }
-        chars.push(branch);
-        index += match.end + 1;
-      }
-      if (chars.length < 1) {
-        return;
-      }
-      return chars;
-    };
-    var repeatedExtglobRecursion = (pattern) => {
-      let depth = 0;
-      let value = pattern.trim();
-      let match = parseRepeatedExtglob(value);
-      while (match) {
-        depth++;
-        value = match.body.trim();
-        match = parseRepeatedExtglob(value);
-      }
-      return depth;
-    };
-    var analyzeRepeatedExtglob = (body, options) => {
-      if (options.maxExtglobRecursion === false) {
-        return { risky: false };
-      }
-      const max = typeof options.maxExtglobRecursion === "number" ? options.maxExtglobRecursion : constants4.DEFAULT_MAX_EXTGLOB_RECURSION;
-      const branches = splitTopLevel(body).map((branch) => branch.trim());
-      if (branches.length > 1) {
-        if (branches.some((branch) => branch === "") || branches.some((branch) => /^[*?]+$/.test(branch)) || hasRepeatedCharPrefixOverlap(branches)) {
-          return { risky: true };
-        }
-      }
-      const safeChars = [];
-      let sawStarSequence = false;
-      let combinable = true;
-      for (const branch of branches) {
-        const chars = getStarExtglobSequenceChars(branch);
-        if (chars) {
-          sawStarSequence = true;
-          safeChars.push(...chars);
-          continue;
-        }
-        const literal = normalizeSimpleBranch(branch);
-        if (literal && literal.length === 1) {
-          safeChars.push(literal);
-          continue;
-        }
-        combinable = false;
-        if (repeatedExtglobRecursion(branch) > max) {
-          return { risky: true };
-        }
-      }
-      if (sawStarSequence) {
-        return combinable ? { risky: true, safeOutput: buildCharClassStar([...new Set(safeChars)]) } : { risky: true };
-      }
-      return { risky: false };
-    };
-    var parse = (input, options) => {
-      if (typeof input !== "string") {
-        throw new TypeError("Expected a string");
-      }
-      input = REPLACEMENTS[input] || input;
-      const opts = { ...options };
-      const max = typeof opts.maxLength === "number" ? Math.min(MAX_LENGTH, opts.maxLength) : MAX_LENGTH;
-      let len = input.length;
-      if (len > max) {
-        throw new SyntaxError(`Input length: ${len}, exceeds maximum allowed length: ${max}`);
-      }
-      const bos = { type: "bos", value: "", output: opts.prepend || "" };
-      const tokens = [bos];
-      const capture = opts.capture ? "" : "?:";
-      const PLATFORM_CHARS = constants4.globChars(opts.windows);
-      const EXTGLOB_CHARS = constants4.extglobChars(PLATFORM_CHARS);
-      const {
-        DOT_LITERAL,
-        PLUS_LITERAL,
-        SLASH_LITERAL,
-        ONE_CHAR,
-        DOTS_SLASH,
-        NO_DOT,
-        NO_DOT_SLASH,
-        NO_DOTS_SLASH,
-        QMARK,
-        QMARK_NO_DOT,
-        STAR,
-        START_ANCHOR
-      } = PLATFORM_CHARS;
-      const globstar = (opts2) => {
-        return `(${capture}(?:(?!${START_ANCHOR}${opts2.dot ? DOTS_SLASH : DOT_LITERAL}).)*?)`;
-      };
-      const nodot = opts.dot ? "" : NO_DOT;
-      const qmarkNoDot = opts.dot ? QMARK : QMARK_NO_DOT;
-      let star = opts.bash === true ? globstar(opts) : STAR;
-      if (opts.capture) {
-        star = `(${star})`;
-      }
-      if (typeof opts.noext === "boolean") {
-        opts.noextglob = opts.noext;
-      }
-      const state = {
-        input,
-        index: -1,
-        start: 0,
-        dot: opts.dot === true,
-        consumed: "",
-        output: "",
-        prefix: "",
-        backtrack: false,
-        negated: false,
-        brackets: 0,
-        braces: 0,
-        parens: 0,
-        quotes: 0,
-        globstar: false,
-        tokens
-      };
-      input = utils.removePrefix(input, state);
-      len = input.length;
-      const extglobs = [];
-      const braces = [];
-      const stack = [];
-      let prev = bos;
-      let value;
-      const eos = () => state.index === len - 1;
-      const peek = state.peek = (n = 1) => input[state.index + n];
-      const advance = state.advance = () => input[++state.index] || "";
-      const remaining = () => input.slice(state.index + 1);
-      const consume = (value2 = "", num = 0) => {
-        state.consumed += value2;
-        state.index += num;
-      };
-      const append = (token) => {
-        state.output += token.output != null ? token.output : token.value;
-        consume(token.value);
-      };
-      const negate = () => {
-        let count = 1;
-        while (peek() === "!" && (peek(2) !== "(" || peek(3) === "?")) {
-          advance();
-          state.start++;
-          count++;
-        }
-        if (count % 2 === 0) {
-          return false;
-        }
-        state.negated = true;
-        state.start++;
-        return true;
-      };
-      const increment = (type) => {
-        state[type]++;
-        stack.push(type);
-      };
-      const decrement = (type) => {
-        state[type]--;
-        stack.pop();
-      };
-      const push = (tok) => {
-        if (prev.type === "globstar") {
-          const isBrace = state.braces > 0 && (tok.type === "comma" || tok.type === "brace");
-          const isExtglob = tok.extglob === true || extglobs.length && (tok.type === "pipe" || tok.type === "paren");
-          if (tok.type !== "slash" && tok.type !== "paren" && !isBrace && !isExtglob) {
-            state.output = state.output.slice(0, -prev.output.length);
-            prev.type = "star";
-            prev.value = "*";
-            prev.output = star;
-            state.output += prev.output;
-          }
-        }
-        if (extglobs.length && tok.type !== "paren") {
-          extglobs[extglobs.length - 1].inner += tok.value;
-        }
-        if (tok.value || tok.output) append(tok);
-        if (prev && prev.type === "text" && tok.type === "text") {
-          prev.output = (prev.output || prev.value) + tok.value;
-          prev.value += tok.value;
-          return;
-        }
-        tok.prev = prev;
-        tokens.push(tok);
-        prev = tok;
-      };
-      const extglobOpen = (type, value2) => {
-        const token = { ...EXTGLOB_CHARS[value2], conditions: 1, inner: "" };
-        token.prev = prev;
-        token.parens = state.parens;
-        token.output = state.output;
-        token.startIndex = state.index;
-        token.tokensIndex = tokens.length;
-        const output = (opts.capture ? "(" : "") + token.open;
-        increment("parens");
-        push({ type, value: value2, output: state.output ? "" : ONE_CHAR });
-        push({ type: "paren", extglob: true, value: advance(), output });
-        extglobs.push(token);
-      };
-      const extglobClose = (token) => {
-        const literal = input.slice(token.startIndex, state.index + 1);
-        const body = input.slice(token.startIndex + 2, state.index);
-        const analysis = analyzeRepeatedExtglob(body, opts);
-        if ((token.type === "plus" || token.type === "star") && analysis.risky) {
-          const safeOutput = analysis.safeOutput ? (token.output ? "" : ONE_CHAR) + (opts.capture ? `(${analysis.safeOutput})` : analysis.safeOutput) : void 0;
-          const open2 = tokens[token.tokensIndex];
-          open2.type = "text";
-          open2.value = literal;
-          open2.output = safeOutput || utils.escapeRegex(literal);
-          for (let i = token.tokensIndex + 1; i < tokens.length; i++) {
-            tokens[i].value = "";
-            tokens[i].output = "";
-            delete tokens[i].suffix;
-          }
-          state.output = token.output + open2.output;
-          state.backtrack = true;
-          push({ type: "paren", extglob: true, value, output: "" });
-          decrement("parens");
-          return;
-        }
-        let output = token.close + (opts.capture ? ")" : "");
-        let rest;
-        if (token.type === "negate") {
-          let extglobStar = star;
-          if (token.inner && token.inner.length > 1 && token.inner.includes("/")) {
-            extglobStar = globstar(opts);
-          }
-          if (extglobStar !== star || eos() || /^\)+$/.test(remaining())) {
-            output = token.close = `)$))${extglobStar}`;
-          }
-          if (token.inner.includes("*") && (rest = remaining()) && /^\.[^\\/.]+$/.test(rest)) {
-            const expression = parse(rest, { ...options, fastpaths: false }).output;
-            output = token.close = `)${expression})${extglobStar})`;
-          }
-          if (token.prev.type === "bos") {
-            state.negatedExtglob = true;
-          }
-        }
-        push({ type: "paren", extglob: true, value, output });
-        decrement("parens");
-      };
-      if (opts.fastpaths !== false && !/(^[*!]|[/()[\]{}"])/.test(input)) {
-        let backslashes = false;
-        let output = input.replace(REGEX_SPECIAL_CHARS_BACKREF, (m, esc, chars, first, rest, index) => {
-          if (first === "\\") {
-            backslashes = true;
-            return m;
-          }
-          if (first === "?") {
-            if (esc) {
-              return esc + first + (rest ? QMARK.repeat(rest.length) : "");
-            }
-            if (index === 0) {
-              return qmarkNoDot + (rest ? QMARK.repeat(rest.length) : "");
-            }
-            return QMARK.repeat(chars.length);
-          }
-          if (first === ".") {
-            return DOT_LITERAL.repeat(chars.length);
-          }
-          if (first === "*") {
-            if (esc) {
-              return esc + first + (rest ? star : "");
-            }
-            return star;
-          }
-          return esc ? m : `\\${m}`;
-        });
-        if (backslashes === true) {
-          if (opts.unescape === true) {
-            output = output.replace(/\\/g, "");
-          } else {
-            output = output.replace(/\\+/g, (m) => {
-              return m.length % 2 === 0 ? "\\\\" : m ? "\\" : "";
-            });
-          }
-        }
-        if (output === input && opts.contains === true) {
-          state.output = input;
-          return state;
-        }
-        state.output = utils.wrapOutput(output, state, options);
-        return state;
-      }
-      while (!eos()) {
-        value = advance();
-        if (value === "\0") {
-          continue;
-        }
-        if (value === "\\") {
-          const next = peek();
-          if (next === "/" && opts.bash !== true) {
-            continue;
-          }
-          if (next === "." || next === ";") {
-            continue;
-          }
-          if (!next) {
-            value += "\\";
-            push({ type: "text", value });
-            continue;
-          }
-          const match = /^\\+/.exec(remaining());
-          let slashes = 0;
-          if (match && match[0].length > 2) {
-            slashes = match[0].length;
-            state.index += slashes;
-            if (slashes % 2 !== 0) {
-              value += "\\";
-            }
-          }
-          if (opts.unescape === true) {
-            value = advance();
-          } else {
-            value += advance();
-          }
-          if (state.brackets === 0) {
-            push({ type: "text", value });
-            continue;
-          }
-        }
-        if (state.brackets > 0 && (value !== "]" || prev.value === "[" || prev.value === "[^")) {
-          if (opts.posix !== false && value === ":") {
-            const inner = prev.value.slice(1);
-            if (inner.includes("[")) {
-              prev.posix = true;
-              if (inner.includes(":")) {
-                const idx = prev.value.lastIndexOf("[");
-                const pre = prev.value.slice(0, idx);
-                const rest2 = prev.value.slice(idx + 2);
-                const posix2 = POSIX_REGEX_SOURCE[rest2];
-                if (posix2) {
-                  prev.value = pre + posix2;
-                  state.backtrack = true;
-                  advance();
-                  if (!bos.output && tokens.indexOf(prev) === 1) {
-                    bos.output = ONE_CHAR;
-                  }
-                  continue;
-                }
-              }
-            }
-          }
-          if (value === "[" && peek() !== ":" || value === "-" && peek() === "]") {
-            value = `\\${value}`;
-          }
-          if (value === "]" && (prev.value === "[" || prev.value === "[^")) {
-            value = `\\${value}`;
-          }
-          if (opts.posix === true && value === "!" && prev.value === "[") {
-            value = "^";
-          }
-          prev.value += value;
-          append({ value });
-          continue;
-        }
-        if (state.quotes === 1 && value !== '"') {
-          value = utils.escapeRegex(value);
-          prev.value += value;
-          append({ value });
-          continue;
-        }
-        if (value === '"') {
-          state.quotes = state.quotes === 1 ? 0 : 1;
-          if (opts.keepQuotes === true) {
-            push({ type: "text", value });
-          }
-          continue;
-        }
-        if (value === "(") {
-          increment("parens");
-          push({ type: "paren", value });
-          continue;
-        }
-        if (value === ")") {
-          if (state.parens === 0 && opts.strictBrackets === true) {
-            throw new SyntaxError(syntaxError("opening", "("));
-          }
-          const extglob = extglobs[extglobs.length - 1];
-          if (extglob && state.parens === extglob.parens + 1) {
-            extglobClose(extglobs.pop());
-            continue;
-          }
-          push({ type: "paren", value, output: state.parens ? ")" : "\\)" });
-          decrement("parens");
-          continue;
-        }
-        if (value === "[") {
-          if (opts.nobracket === true || !remaining().includes("]")) {
-            if (opts.nobracket !== true && opts.strictBrackets === true) {
-              throw new SyntaxError(syntaxError("closing", "]"));
-            }
-            value = `\\${value}`;
-          } else {
-            increment("brackets");
-          }
-          push({ type: "bracket", value });
-          continue;
-        }
-        if (value === "]") {
-          if (opts.nobracket === true || prev && prev.type === "bracket" && prev.value.length === 1) {
-            push({ type: "text", value, output: `\\${value}` });
-            continue;
-          }
-          if (state.brackets === 0) {
-            if (opts.strictBrackets === true) {
-              throw new SyntaxError(syntaxError("opening", "["));
-            }
-            push({ type: "text", value, output: `\\${value}` });
-            continue;
-          }
-          decrement("brackets");
-          const prevValue = prev.value.slice(1);
-          if (prev.posix !== true && prevValue[0] === "^" && !prevValue.includes("/")) {
-            value = `/${value}`;
-          }
-          prev.value += value;
-          append({ value });
-          if (opts.literalBrackets === false || utils.hasRegexChars(prevValue)) {
-            continue;
-          }
-          const escaped = utils.escapeRegex(prev.value);
-          state.output = state.output.slice(0, -prev.value.length);
-          if (opts.literalBrackets === true) {
-            state.output += escaped;
-            prev.value = escaped;
-            continue;
-          }
-          prev.value = `(${capture}${escaped}|${prev.value})`;
-          state.output += prev.value;
-          continue;
-        }
-        if (value === "{" && opts.nobrace !== true) {
-          increment("braces");
-          const open2 = {
-            type: "brace",
-            value,
-            output: "(",
-            outputIndex: state.output.length,
-            tokensIndex: state.tokens.length
-          };
-          braces.push(open2);
-          push(open2);
-          continue;
-        }
-        if (value === "}") {
-          const brace = braces[braces.length - 1];
-          if (opts.nobrace === true || !brace) {
-            push({ type: "text", value, output: value });
-            continue;
-          }
-          let output = ")";
-          if (brace.dots === true) {
-            const arr = tokens.slice();
-            const range2 = [];
-            for (let i = arr.length - 1; i >= 0; i--) {
-              tokens.pop();
-              if (arr[i].type === "brace") {
-                break;
-              }
-              if (arr[i].type !== "dots") {
-                range2.unshift(arr[i].value);
-              }
-            }
-            output = expandRange(range2, opts);
-            state.backtrack = true;
-          }
-          if (brace.comma !== true && brace.dots !== true) {
-            const out = state.output.slice(0, brace.outputIndex);
-            const toks = state.tokens.slice(brace.tokensIndex);
-            brace.value = brace.output = "\\{";
-            value = output = "\\}";
-            state.output = out;
-            for (const t of toks) {
-              state.output += t.output || t.value;
-            }
-          }
-          push({ type: "brace", value, output });
-          decrement("braces");
-          braces.pop();
-          continue;
-        }
-        if (value === "|") {
-          if (extglobs.length > 0) {
-            extglobs[extglobs.length - 1].conditions++;
-          }
-          push({ type: "text", value });
-          continue;
-        }
-        if (value === ",") {
-          let output = value;
-          const brace = braces[braces.length - 1];
-          if (brace && stack[stack.length - 1] === "braces") {
-            brace.comma = true;
-            output = "|";
-          }
-          push({ type: "comma", value, output });
-          continue;
-        }
-        if (value === "/") {
-          if (prev.type === "dot" && state.index === state.start + 1) {
-            state.start = state.index + 1;
-            state.consumed = "";
-            state.output = "";
-            tokens.pop();
-            prev = bos;
-            continue;
-          }
-          push({ type: "slash", value, output: SLASH_LITERAL });
-          continue;
-        }
-        if (value === ".") {
-          if (state.braces > 0 && prev.type === "dot") {
-            if (prev.value === ".") prev.output = DOT_LITERAL;
-            const brace = braces[braces.length - 1];
-            prev.type = "dots";
-            prev.output += value;
-            prev.value += value;
-            brace.dots = true;
-            continue;
-          }
-          if (state.braces + state.parens === 0 && prev.type !== "bos" && prev.type !== "slash") {
-            push({ type: "text", value, output: DOT_LITERAL });
-            continue;
-          }
-          push({ type: "dot", value, output: DOT_LITERAL });
-          continue;
-        }
-        if (value === "?") {
-          const isGroup = prev && prev.value === "(";
-          if (!isGroup && opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
-            extglobOpen("qmark", value);
-            continue;
-          }
-          if (prev && prev.type === "paren") {
-            const next = peek();
-            let output = value;
-            if (prev.value === "(" && !/[!=<:]/.test(next) || next === "<" && !/<([!=]|\w+>)/.test(remaining())) {
-              output = `\\${value}`;
-            }
-            push({ type: "text", value, output });
-            continue;
-          }
-          if (opts.dot !== true && (prev.type === "slash" || prev.type === "bos")) {
-            push({ type: "qmark", value, output: QMARK_NO_DOT });
-            continue;
-          }
-          push({ type: "qmark", value, output: QMARK });
-          continue;
-        }
-        if (value === "!") {
-          if (opts.noextglob !== true && peek() === "(") {
-            if (peek(2) !== "?" || !/[!=<:]/.test(peek(3))) {
-              extglobOpen("negate", value);
-              continue;
-            }
-          }
-          if (opts.nonegate !== true && state.index === 0) {
-            negate();
-            continue;
-          }
-        }
-        if (value === "+") {
-          if (opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
-            extglobOpen("plus", value);
-            continue;
-          }
-          if (prev && prev.value === "(" || opts.regex === false) {
-            push({ type: "plus", value, output: PLUS_LITERAL });
-            continue;
-          }
-          if (prev && (prev.type === "bracket" || prev.type === "paren" || prev.type === "brace") || state.parens > 0) {
-            push({ type: "plus", value });
-            continue;
-          }
-          push({ type: "plus", value: PLUS_LITERAL });
-          continue;
-        }
-        if (value === "@") {
-          if (opts.noextglob !== true && peek() === "(" && peek(2) !== "?") {
-            push({ type: "at", extglob: true, value, output: "" });
-            continue;
-          }
-          push({ type: "text", value });
-          continue;
-        }
-        if (value !== "*") {
-          if (value === "$" || value === "^") {
-            value = `\\${value}`;
-          }
-          const match = REGEX_NON_SPECIAL_CHARS.exec(remaining());
-          if (match) {
-            value += match[0];
-            state.index += match[0].length;
-          }
-          push({ type: "text", value });
-          continue;
-        }
-        if (prev && (prev.type === "globstar" || prev.star === true)) {
-          prev.type = "star";
-          prev.star = true;
-          prev.value += value;
-          prev.output = star;
-          state.backtrack = true;
-          state.globstar = true;
-          consume(value);
-          continue;
-        }
-        let rest = remaining();
-        if (opts.noextglob !== true && /^\([^?]/.test(rest)) {
-          extglobOpen("star", value);
-          continue;
-        }
-        if (prev.type === "star") {
-          if (opts.noglobstar === true) {
-            consume(value);
-            continue;
-          }
-          const prior = prev.prev;
-          const before = prior.prev;
-          const isStart = prior.type === "slash" || prior.type === "bos";
-          const afterStar = before && (before.type === "star" || before.type === "globstar");
-          if (opts.bash === true && (!isStart || rest[0] && rest[0] !== "/")) {
-            push({ type: "star", value, output: "" });
-            continue;
-          }
-          const isBrace = state.braces > 0 && (prior.type === "comma" || prior.type === "brace");
-          const isExtglob = extglobs.length && (prior.type === "pipe" || prior.type === "paren");
-          if (!isStart && prior.type !== "paren" && !isBrace && !isExtglob) {
-            push({ type: "star", value, output: "" });
-            continue;
-          }
-          while (rest.slice(0, 3) === "/**") {
-            const after = input[state.index + 4];
-            if (after && after !== "/") {
-              break;
-            }
-            rest = rest.slice(3);
-            consume("/**", 3);
-          }
-          const isEnd = eos() || state.parens > 0 && rest === ")".repeat(state.parens) && !extglobs.some((extglob) => extglob.type === "negate");
-          if (prior.type === "bos" && eos()) {
-            prev.type = "globstar";
-            prev.value += value;
-            prev.output = globstar(opts);
-            state.output = prev.output;
-            state.globstar = true;
-            consume(value);
-            continue;
-          }
-          if (prior.type === "slash" && prior.prev.type !== "bos" && !afterStar && isEnd) {
-            state.output = state.output.slice(0, -(prior.output + prev.output).length);
-            prior.output = `(?:${prior.output}`;
-            prev.type = "globstar";
-            prev.output = globstar(opts) + (opts.strictSlashes ? ")" : "|$)");
-            prev.value += value;
-            state.globstar = true;
-            state.output += prior.output + prev.output;
-            consume(value);
-            continue;
-          }
-          if (prior.type === "slash" && prior.prev.type !== "bos" && rest[0] === "/") {
-            const end = rest[1] !== void 0 ? "|$" : "";
-            state.output = state.output.slice(0, -(prior.output + prev.output).length);
-            prior.output = `(?:${prior.output}`;
-            prev.type = "globstar";
-            prev.output = `${globstar(opts)}${SLASH_LITERAL}|${SLASH_LITERAL}${end})`;
-            prev.value += value;
-            state.output += prior.output + prev.output;
-            state.globstar = true;
-            consume(value + advance());
-            push({ type: "slash", value: "/", output: "" });
-            continue;
-          }
-          if (prior.type === "bos" && rest[0] === "/") {
-            prev.type = "globstar";
-            prev.value += value;
-            prev.output = `(?:^|${SLASH_LITERAL}|${globstar(opts)}${SLASH_LITERAL})`;
-            state.output = prev.output;
-            state.globstar = true;
-            consume(value + advance());
-            push({ type: "slash", value: "/", output: "" });
-            continue;
-          }
-          state.output = state.output.slice(0, -prev.output.length);
-          prev.type = "globstar";
-          prev.output = globstar(opts);
-          prev.value += value;
-          state.output += prev.output;
-          state.globstar = true;
-          consume(value);
-          continue;
-        }
-        const token = { type: "star", value, output: star };
-        if (opts.bash === true) {
-          token.output = ".*?";
-          if (prev.type === "bos" || prev.type === "slash") {
-            token.output = nodot + token.output;
-          }
-          push(token);
-          continue;
-        }
-        if (prev && (prev.type === "bracket" || prev.type === "paren") && opts.regex === true) {
-          token.output = value;
-          push(token);
-          continue;
-        }
-        if (state.index === state.start || prev.type === "slash" || prev.type === "dot") {
-          if (prev.type === "dot") {
-            state.output += NO_DOT_SLASH;
-            prev.output += NO_DOT_SLASH;
-          } else if (opts.dot === true) {
-            state.output += NO_DOTS_SLASH;
-            prev.output += NO_DOTS_SLASH;
-          } else {
-            state.output += nodot;
-            prev.output += nodot;
-          }
-          if (peek() !== "*") {
-            state.output += ONE_CHAR;
-            prev.output += ONE_CHAR;
-          }
-        }
-        push(token);
-      }
-      while (state.brackets > 0) {
-        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", "]"));
-        state.output = utils.escapeLast(state.output, "[");
-        decrement("brackets");
-      }
-      while (state.parens > 0) {
-        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", ")"));
-        state.output = utils.escapeLast(state.output, "(");
-        decrement("parens");
-      }
-      while (state.braces > 0) {
-        if (opts.strictBrackets === true) throw new SyntaxError(syntaxError("closing", "}"));
-        state.output = utils.escapeLast(state.output, "{");
-        decrement("braces");
-      }
-      if (opts.strictSlashes !== true && (prev.type === "star" || prev.type === "bracket")) {
-        push({ type: "maybe_slash", value: "", output: `${SLASH_LITERAL}?` });
-      }
-      if (state.backtrack === true) {
-        state.output = "";
-        for (const token of state.tokens) {
-          state.output += token.output != null ? token.output : token.value;
-          if (token.suffix) {
-            state.output += token.suffix;
-          }
-        }
-      }
-      return state;
-    };
-    parse.fastpaths = (input, options) => {
-      const opts = { ...options };
-      const max = typeof opts.maxLength === "number" ? Math.min(MAX_LENGTH, opts.maxLength) : MAX_LENGTH;
-      const len = input.length;
-      if (len > max) {
-        throw new SyntaxError(`Input length: ${len}, exceeds maximum allowed length: ${max}`);
-      }
-      input = REPLACEMENTS[input] || input;
-      const {
-        DOT_LITERAL,
-        SLASH_LITERAL,
-        ONE_CHAR,
-        DOTS_SLASH,
-        NO_DOT,
-        NO_DOTS,
-        NO_DOTS_SLASH,
-        STAR,
-        START_ANCHOR
-      } = constants4.globChars(opts.windows);
-      const nodot = opts.dot ? NO_DOTS : NO_DOT;
-      const slashDot = opts.dot ? NO_DOTS_SLASH : NO_DOT;
-      const capture = opts.capture ? "" : "?:";
-      const state = { negated: false, prefix: "" };
-      let star = opts.bash === true ? ".*?" : STAR;
-      if (opts.capture) {
-        star = `(${star})`;
-      }
-      const globstar = (opts2) => {
-        if (opts2.noglobstar === true) return star;
-        return `(${capture}(?:(?!${START_ANCHOR}${opts2.dot ? DOTS_SLASH : DOT_LITERAL}).)*?)`;
-      };
-      const create = (str) => {
-        switch (str) {
-          case "*":
-            return `${nodot}${ONE_CHAR}${star}`;
-          case ".*":
-            return `${DOT_LITERAL}${ONE_CHAR}${star}`;
-          case "*.*":
-            return `${nodot}${star}${DOT_LITERAL}${ONE_CHAR}${star}`;
-          case "*/*":
-            return `${nodot}${star}${SLASH_LITERAL}${ONE_CHAR}${slashDot}${star}`;
-          case "**":
-            return nodot + globstar(opts);
-          case "**/*":
-            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${slashDot}${ONE_CHAR}${star}`;
-          case "**/*.*":
-            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${slashDot}${star}${DOT_LITERAL}${ONE_CHAR}${star}`;
-          case "**/.*":
-            return `(?:${nodot}${globstar(opts)}${SLASH_LITERAL})?${DOT_LITERAL}${ONE_CHAR}${star}`;
-          default: {
-            const match = /^(.*?)\.(\w+)$/.exec(str);
-            if (!match) return;
-            const source2 = create(match[1]);
-            if (!source2) return;
-            return source2 + DOT_LITERAL + match[2];
-          }
-        }
-      };
-      const output = utils.removePrefix(input, state);
-      let source = create(output);
-      if (source && opts.strictSlashes !== true) {
-        source += `${SLASH_LITERAL}?`;
-      }
-      return source;
-    };
-    module.exports = parse;
-  }
-});
-
-// node_modules/picomatch/lib/picomatch.js
-var require_picomatch = __commonJS({
-  "node_modules/picomatch/lib/picomatch.js"(exports, module) {
-    "use strict";
-    var scan = require_scan();
-    var parse = require_parse2();
-    var utils = require_utils3();
-    var constants4 = require_constants6();
-    var isObject = (val) => val && typeof val === "object" && !Array.isArray(val);
-    var picomatch3 = (glob, options, returnState = false) => {
-      if (Array.isArray(glob)) {
-        const fns = glob.map((input) => picomatch3(input, options, returnState));
-        const arrayMatcher = (str) => {
-          for (const isMatch of fns) {
-            const state2 = isMatch(str);
-            if (state2) return state2;
-          }
-          return false;
-        };
-        return arrayMatcher;
-      }
-      const isState = isObject(glob) && glob.tokens && glob.input;
-      if (glob === "" || typeof glob !== "string" && !isState) {
-        throw new TypeError("Expected pattern to be a non-empty string");
-      }
-      const opts = options || {};
-      const posix2 = opts.windows;
-      const regex = isState ? picomatch3.compileRe(glob, options) : picomatch3.makeRe(glob, options, false, true);
-      const state = regex.state;
-      delete regex.state;
-      let isIgnored = () => false;
-      if (opts.ignore) {
-        const ignoreOpts = { ...options, ignore: null, onMatch: null, onResult: null };
-        isIgnored = picomatch3(opts.ignore, ignoreOpts, returnState);
-      }
-      const matcher = (input, returnObject = false) => {
-        const { isMatch, match, output } = picomatch3.test(input, regex, options, { glob, posix: posix2 });
-        const result2 = { glob, state, regex, posix: posix2, input, output, match, isMatch };
-        if (typeof opts.onResult === "function") {
-          opts.onResult(result2);
-        }
-        if (isMatch === false) {
-          result2.isMatch = false;
-          return returnObject ? result2 : false;
-        }
-        if (isIgnored(input)) {
-          if (typeof opts.onIgnore === "function") {
-            opts.onIgnore(result2);
-          }
-          result2.isMatch = false;
-          return returnObject ? result2 : false;
-        }
-        if (typeof opts.onMatch === "function") {
-          opts.onMatch(result2);
-        }
-        return returnObject ? result2 : true;
-      };
-      if (returnState) {
-        matcher.state = state;
-      }
-      return matcher;
-    };
-    picomatch3.test = (input, regex, options, { glob, posix: posix2 } = {}) => {
-      if (typeof input !== "string") {
-        throw new TypeError("Expected input to be a string");
-      }
-      if (input === "") {
-        return { isMatch: false, output: "" };
-      }
-      const opts = options || {};
-      const format = opts.format || (posix2 ? utils.toPosixSlashes : null);
-      let match = input === glob;
-      let output = match && format ? format(input) : input;
-      if (match === false) {
-        output = format ? format(input) : input;
-        match = output === glob;
-      }
-      if (match === false || opts.capture === true) {
-        if (opts.matchBase === true || opts.basename === true) {
-          match = picomatch3.matchBase(input, regex, options, posix2);
-        } else {
-          match = regex.exec(output);
-        }
-      }
-      return { isMatch: Boolean(match), match, output };
-    };
-    picomatch3.matchBase = (input, glob, options, posix2 = options && options.windows) => {
-      const regex = glob instanceof RegExp ? glob : picomatch3.makeRe(glob, options);
-      return regex.test(utils.basename(input, { windows: posix2 }));
-    };
-    picomatch3.isMatch = (str, patterns, options) => picomatch3(patterns, options)(str);
-    picomatch3.parse = (pattern, options) => {
-      if (Array.isArray(pattern)) return pattern.map((p) => picomatch3.parse(p, options));
-      return parse(pattern, { ...options, fastpaths: false });
-    };
-    picomatch3.scan = (input, options) => scan(input, options);
-    picomatch3.compileRe = (state, options, returnOutput = false, returnState = false) => {
-      if (returnOutput === true) {
-        return state.output;
-      }
-      const opts = options || {};
-      const prepend = opts.contains ? "" : "^";
-      const append = opts.contains ? "" : "$";
-      let source = `${prepend}(?:${state.output})${append}`;
-      if (state && state.negated === true) {
-        source = `^(?!${source}).*$`;
-      }
-      const regex = picomatch3.toRegex(source, options);
-      if (returnState === true) {
-        regex.state = state;
-      }
-      return regex;
-    };
-    picomatch3.makeRe = (input, options = {}, returnOutput = false, returnState = false) => {
-      if (!input || typeof input !== "string") {
-        throw new TypeError("Expected a non-empty string");
-      }
-      let parsed = { negated: false, fastpaths: true };
-      if (options.fastpaths !== false && (input[0] === "." || input[0] === "*")) {
-        parsed.output = parse.fastpaths(input, options);
-      }
-      if (!parsed.output) {
-        parsed = parse(input, options);
-      }
-      return picomatch3.compileRe(parsed, options, returnOutput, returnState);
-    };
-    picomatch3.toRegex = (source, options) => {
-      try {
-        const opts = options || {};
-        return new RegExp(source, opts.flags || (opts.nocase ? "i" : ""));
-      } catch (err) {
-        if (options && options.debug === true) throw err;
-        return /$^/;
-      }
-    };
-    picomatch3.constants = constants4;
-    module.exports = picomatch3;
-  }
-});
-
-// node_modules/picomatch/index.js
-var require_picomatch2 = __commonJS({
-  "node_modules/picomatch/index.js"(exports, module) {
-    "use strict";
-    var pico = require_picomatch();
-    var utils = require_utils3();
-    function picomatch3(glob, options, returnState = false) {
-      if (options && (options.windows === null || options.windows === void 0)) {
-        options = { ...options, windows: utils.isWindows() };
-      }
-      return pico(glob, options, returnState);
-    }
-    Object.assign(picomatch3, pico);
-    module.exports = picomatch3;
-  }
-});
-
 // src/action/main.ts
 import { randomUUID as randomUUID2 } from "node:crypto";
-import { existsSync as existsSync4 } from "node:fs";
 import { EOL as EOL6, tmpdir } from "node:os";
-import { join as join7, resolve as resolve8 } from "node:path";
+import { resolve as resolve9 } from "node:path";
 
 // node_modules/@actions/core/lib/core.js
 var core_exports = {};
@@ -35391,11 +35390,11 @@ var tunnel = __toESM(require_tunnel2(), 1);
 var import_undici = __toESM(require_undici(), 1);
 var __awaiter = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -35411,7 +35410,7 @@ var __awaiter = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -35484,26 +35483,26 @@ var HttpClientResponse = class {
   }
   readBody() {
     return __awaiter(this, void 0, void 0, function* () {
-      return new Promise((resolve9) => __awaiter(this, void 0, void 0, function* () {
+      return new Promise((resolve10) => __awaiter(this, void 0, void 0, function* () {
         let output = Buffer.alloc(0);
         this.message.on("data", (chunk) => {
           output = Buffer.concat([output, chunk]);
         });
         this.message.on("end", () => {
-          resolve9(output.toString());
+          resolve10(output.toString());
         });
       }));
     });
   }
   readBodyBuffer() {
     return __awaiter(this, void 0, void 0, function* () {
-      return new Promise((resolve9) => __awaiter(this, void 0, void 0, function* () {
+      return new Promise((resolve10) => __awaiter(this, void 0, void 0, function* () {
         const chunks = [];
         this.message.on("data", (chunk) => {
           chunks.push(chunk);
         });
         this.message.on("end", () => {
-          resolve9(Buffer.concat(chunks));
+          resolve10(Buffer.concat(chunks));
         });
       }));
     });
@@ -35706,14 +35705,14 @@ var HttpClient = class {
    */
   requestRaw(info2, data) {
     return __awaiter(this, void 0, void 0, function* () {
-      return new Promise((resolve9, reject) => {
+      return new Promise((resolve10, reject) => {
         function callbackForResult(err, res) {
           if (err) {
             reject(err);
           } else if (!res) {
             reject(new Error("Unknown error"));
           } else {
-            resolve9(res);
+            resolve10(res);
           }
         }
         this.requestRawWithCallback(info2, data, callbackForResult);
@@ -35957,12 +35956,12 @@ var HttpClient = class {
     return __awaiter(this, void 0, void 0, function* () {
       retryNumber = Math.min(ExponentialBackoffCeiling, retryNumber);
       const ms = ExponentialBackoffTimeSlice * Math.pow(2, retryNumber);
-      return new Promise((resolve9) => setTimeout(() => resolve9(), ms));
+      return new Promise((resolve10) => setTimeout(() => resolve10(), ms));
     });
   }
   _processResponse(res, options) {
     return __awaiter(this, void 0, void 0, function* () {
-      return new Promise((resolve9, reject) => __awaiter(this, void 0, void 0, function* () {
+      return new Promise((resolve10, reject) => __awaiter(this, void 0, void 0, function* () {
         const statusCode = res.message.statusCode || 0;
         const response = {
           statusCode,
@@ -35970,7 +35969,7 @@ var HttpClient = class {
           headers: {}
         };
         if (statusCode === HttpCodes.NotFound) {
-          resolve9(response);
+          resolve10(response);
         }
         function dateTimeDeserializer(key, value) {
           if (typeof value === "string") {
@@ -36009,7 +36008,7 @@ var HttpClient = class {
           err.result = response.result;
           reject(err);
         } else {
-          resolve9(response);
+          resolve10(response);
         }
       }));
     });
@@ -36020,11 +36019,11 @@ var lowercaseKeys = (obj) => Object.keys(obj).reduce((c, k) => (c[k.toLowerCase(
 // node_modules/@actions/http-client/lib/auth.js
 var __awaiter2 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36040,7 +36039,7 @@ var __awaiter2 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36071,11 +36070,11 @@ var BearerCredentialHandler = class {
 // node_modules/@actions/core/lib/oidc-utils.js
 var __awaiter3 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36091,7 +36090,7 @@ var __awaiter3 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36160,11 +36159,11 @@ import { EOL as EOL3 } from "os";
 import { constants, promises } from "fs";
 var __awaiter4 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36180,7 +36179,7 @@ var __awaiter4 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36224,8 +36223,8 @@ var Summary = class {
    *
    * @returns {string} content wrapped in HTML element
    */
-  wrap(tag, content, attrs = {}) {
-    const htmlAttrs = Object.entries(attrs).map(([key, value]) => ` ${key}="${value}"`).join("");
+  wrap(tag, content, attrs2 = {}) {
+    const htmlAttrs = Object.entries(attrs2).map(([key, value]) => ` ${key}="${value}"`).join("");
     if (!content) {
       return `<${tag}${htmlAttrs}>`;
     }
@@ -36290,8 +36289,8 @@ var Summary = class {
    *
    * @returns {Summary} summary instance
    */
-  addRaw(text, addEOL = false) {
-    this._buffer += text;
+  addRaw(text2, addEOL = false) {
+    this._buffer += text2;
     return addEOL ? this.addEOL() : this;
   }
   /**
@@ -36311,8 +36310,8 @@ var Summary = class {
    * @returns {Summary} summary instance
    */
   addCodeBlock(code, lang) {
-    const attrs = Object.assign({}, lang && { lang });
-    const element = this.wrap("pre", this.wrap("code", code), attrs);
+    const attrs2 = Object.assign({}, lang && { lang });
+    const element = this.wrap("pre", this.wrap("code", code), attrs2);
     return this.addRaw(element).addEOL();
   }
   /**
@@ -36344,8 +36343,8 @@ var Summary = class {
         }
         const { header, data, colspan, rowspan } = cell;
         const tag = header ? "th" : "td";
-        const attrs = Object.assign(Object.assign({}, colspan && { colspan }), rowspan && { rowspan });
-        return this.wrap(tag, data, attrs);
+        const attrs2 = Object.assign(Object.assign({}, colspan && { colspan }), rowspan && { rowspan });
+        return this.wrap(tag, data, attrs2);
       }).join("");
       return this.wrap("tr", cells);
     }).join("");
@@ -36375,8 +36374,8 @@ var Summary = class {
    */
   addImage(src, alt, options) {
     const { width, height } = options || {};
-    const attrs = Object.assign(Object.assign({}, width && { width }), height && { height });
-    const element = this.wrap("img", null, Object.assign({ src, alt }, attrs));
+    const attrs2 = Object.assign(Object.assign({}, width && { width }), height && { height });
+    const element = this.wrap("img", null, Object.assign({ src, alt }, attrs2));
     return this.addRaw(element).addEOL();
   }
   /**
@@ -36387,10 +36386,10 @@ var Summary = class {
    *
    * @returns {Summary} summary instance
    */
-  addHeading(text, level) {
+  addHeading(text2, level) {
     const tag = `h${level}`;
     const allowedTag = ["h1", "h2", "h3", "h4", "h5", "h6"].includes(tag) ? tag : "h1";
-    const element = this.wrap(allowedTag, text);
+    const element = this.wrap(allowedTag, text2);
     return this.addRaw(element).addEOL();
   }
   /**
@@ -36419,9 +36418,9 @@ var Summary = class {
    *
    * @returns {Summary} summary instance
    */
-  addQuote(text, cite) {
-    const attrs = Object.assign({}, cite && { cite });
-    const element = this.wrap("blockquote", text, attrs);
+  addQuote(text2, cite) {
+    const attrs2 = Object.assign({}, cite && { cite });
+    const element = this.wrap("blockquote", text2, attrs2);
     return this.addRaw(element).addEOL();
   }
   /**
@@ -36432,8 +36431,8 @@ var Summary = class {
    *
    * @returns {Summary} summary instance
    */
-  addLink(text, href) {
-    const element = this.wrap("a", text, { href });
+  addLink(text2, href) {
+    const element = this.wrap("a", text2, { href });
     return this.addRaw(element).addEOL();
   }
 };
@@ -36482,11 +36481,11 @@ import * as fs2 from "fs";
 import * as path2 from "path";
 var __awaiter5 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36502,7 +36501,7 @@ var __awaiter5 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36606,11 +36605,11 @@ function isUnixExecutable(stats) {
 // node_modules/@actions/io/lib/io.js
 var __awaiter6 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36626,7 +36625,7 @@ var __awaiter6 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36700,11 +36699,11 @@ function findInPath(tool) {
 import { setTimeout as setTimeout2 } from "timers";
 var __awaiter7 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -36720,7 +36719,7 @@ var __awaiter7 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -36939,7 +36938,7 @@ var ToolRunner = class extends events.EventEmitter {
         this.toolPath = path4.resolve(process.cwd(), this.options.cwd || process.cwd(), this.toolPath);
       }
       this.toolPath = yield which(this.toolPath, true);
-      return new Promise((resolve9, reject) => __awaiter7(this, void 0, void 0, function* () {
+      return new Promise((resolve10, reject) => __awaiter7(this, void 0, void 0, function* () {
         this._debug(`exec tool: ${this.toolPath}`);
         this._debug("arguments:");
         for (const arg of this.args) {
@@ -37022,7 +37021,7 @@ var ToolRunner = class extends events.EventEmitter {
           if (error2) {
             reject(error2);
           } else {
-            resolve9(exitCode);
+            resolve10(exitCode);
           }
         });
         if (this.options.input) {
@@ -37145,11 +37144,11 @@ var ExecState = class _ExecState extends events.EventEmitter {
 // node_modules/@actions/exec/lib/exec.js
 var __awaiter8 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -37165,7 +37164,7 @@ var __awaiter8 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -37218,11 +37217,11 @@ function getExecOutput(commandLine, args, options) {
 // node_modules/@actions/core/lib/platform.js
 var __awaiter9 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -37238,7 +37237,7 @@ var __awaiter9 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -37297,11 +37296,11 @@ function getDetails() {
 // node_modules/@actions/core/lib/core.js
 var __awaiter10 = function(thisArg, _arguments, P, generator) {
   function adopt2(value) {
-    return value instanceof P ? value : new P(function(resolve9) {
-      resolve9(value);
+    return value instanceof P ? value : new P(function(resolve10) {
+      resolve10(value);
     });
   }
-  return new (P || (P = Promise))(function(resolve9, reject) {
+  return new (P || (P = Promise))(function(resolve10, reject) {
     function fulfilled(value) {
       try {
         step(generator.next(value));
@@ -37317,7 +37316,7 @@ var __awaiter10 = function(thisArg, _arguments, P, generator) {
       }
     }
     function step(result2) {
-      result2.done ? resolve9(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
+      result2.done ? resolve10(result2.value) : adopt2(result2.value).then(fulfilled, rejected);
     }
     step((generator = generator.apply(thisArg, _arguments || [])).next());
   });
@@ -37489,9 +37488,14 @@ function checkText(outcome, options) {
   let passes = 0;
   if (outcome.base) out.push(`compared with base ${outcome.base.slice(0, 12)}`, "");
   for (const n of outcome.notices) out.push(`${paint("36", "notice")}  ${n.file}:${n.line}: ${n.message}`, "");
+  if (!options.quiet && outcome.skipped.length > 0) {
+    for (const x of outcome.skipped) out.push(`${paint("36", "skipped")} ${x.path}: ${x.reason}`);
+    out.push("");
+  }
   for (const c of outcome.checked) {
     if (!c.result) {
-      if (!options.quiet) out.push(`${c.file} — policy ${c.policy.id}: deleted by this change, nothing to check`, "");
+      if (c.failing) fails++;
+      if (!options.quiet || c.failing) out.push(`${paint(c.failing ? "1;31" : "33", c.failing ? "REMOVED " : "removed ")}  ${removalMessage(c)}`, "");
       continue;
     }
     const r = c.result;
@@ -37502,7 +37506,7 @@ function checkText(outcome, options) {
       else passes++;
     }
     if (shown2.length === 0) continue;
-    const against = c.comparison === "new" ? ", new config (no base to compare)" : "";
+    const against = c.comparison === "new" ? ", new config (no base to compare)" : c.renamedFrom !== void 0 ? `, renamed from ${c.renamedFrom}` : "";
     out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${against}`);
     for (const { q, d } of shown2) {
       if (q.failing || d?.dropFails) {
@@ -37515,6 +37519,13 @@ function checkText(outcome, options) {
   }
   out.push(`${outcome.checked.length} config × policy checks: ${fails} failing, ${unproven} unproven (warnings), ${passes} passing`);
   return out.join("\n") + "\n";
+}
+function removalMessage(c) {
+  const counts = c.failing ? `policy ${c.policy.id} counts this as failing (removal: fail)` : `policy ${c.policy.id} counts this as a warning (set removal: fail to make it fail)`;
+  if (c.movedTo) {
+    return `${c.path} was governed by policy ${c.policy.id} at the base and is renamed to ${c.movedTo.path}, which it does not check: ${c.movedTo.why}; ${counts}`;
+  }
+  return `${c.path} was governed by policy ${c.policy.id} at the base and this change deletes it; ${counts}`;
 }
 function label(q, d, paint) {
   if (q.failing) return paint("1;31", q.verdict === "fail" ? "FAIL    " : "UNPROVEN");
@@ -37584,7 +37595,7 @@ function explainRequirement(q, d) {
 }
 
 // src/check/repo-files.ts
-import { existsSync as existsSync2, readdirSync } from "node:fs";
+import { existsSync as existsSync2 } from "node:fs";
 import { dirname as dirname3, join as join3, relative as relative2, resolve as resolve2, sep as sep3 } from "node:path";
 function findRepoRoot(start) {
   let dir = resolve2(start);
@@ -37597,21 +37608,6 @@ function findRepoRoot(start) {
 }
 function toRootRelative(root, path6) {
   return relative2(root, resolve2(path6)).split(sep3).join("/");
-}
-var SKIP = /* @__PURE__ */ new Set([".git", "node_modules", "build", "dist"]);
-function listYamlFiles(root) {
-  const out = [];
-  const walk = (dir) => {
-    for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
-      if (entry.isDirectory()) {
-        if (!SKIP.has(entry.name)) walk(join3(dir, entry.name));
-      } else if (entry.isFile() && /\.ya?ml$/i.test(entry.name)) {
-        out.push(toRootRelative(root, join3(dir, entry.name)));
-      }
-    }
-  };
-  walk(root);
-  return out.sort();
 }
 
 // src/check/findings.ts
@@ -37630,6 +37626,10 @@ function findingsOf(outcome, cwd) {
     });
   }
   for (const c of outcome.checked) {
+    if (c.comparison === "deleted" || c.comparison === "moved-out") {
+      out.push(removalFinding(c));
+      continue;
+    }
     if (!c.result) continue;
     c.result.requirements.forEach((q, i) => {
       const d = c.deltas?.[i];
@@ -37658,32 +37658,124 @@ function findingsOf(outcome, cwd) {
   return out;
 }
 function errorFinding(e, root, cwd) {
-  const path6 = toRootRelative(root, resolve3(cwd, e.file));
+  const relative7 = toRootRelative(root, resolve3(cwd, e.file));
+  const path6 = relative7 === "" || relative7 === ".." || relative7.startsWith("../") ? e.file : relative7;
   return {
     rule: "input-error",
     level: "error",
     title: `cannot check ${e.file}`,
     message: `${e.message} [${e.code}]`,
     file: path6,
-    line: e.span?.line ?? 1,
-    column: e.span?.column ?? 1,
+    ...e.span ? { line: e.span.line, column: e.span.column } : {},
     fingerprint: `input-error|${path6}|${e.code}|${e.span?.offset ?? 0}`
   };
 }
+function removalFinding(c) {
+  const file = c.movedTo?.path ?? c.path;
+  return {
+    rule: "config-removed",
+    level: c.failing ? "error" : "warning",
+    title: `${c.path}: ${c.movedTo ? "moved out of" : "deleted from"} policy ${c.policy.id}`,
+    message: removalMessage(c),
+    file,
+    fingerprint: `config-removed|${c.path}|${c.policy.id}`
+  };
+}
 
-// src/check/write-whole.ts
-import { mkdirSync, renameSync, writeFileSync } from "node:fs";
-import { dirname as dirname4 } from "node:path";
-function writeWhole(path6, text) {
-  mkdirSync(dirname4(path6), { recursive: true });
-  const tmp = `${path6}.tmp-${process.pid}`;
-  writeFileSync(tmp, text);
-  renameSync(tmp, path6);
+// src/check/write-report.ts
+import { randomBytes } from "node:crypto";
+import * as fs3 from "node:fs";
+import { basename as basename3, dirname as dirname4, isAbsolute, join as join4, relative as relative3, resolve as resolve4 } from "node:path";
+var ReportWriteError = class extends Error {
+  name = "ReportWriteError";
+};
+var CREATE_FLAGS = fs3.constants.O_WRONLY | fs3.constants.O_CREAT | fs3.constants.O_EXCL | (fs3.constants.O_NOFOLLOW ?? 0);
+function writeReport(path6, content, options = {}) {
+  const io = { ...fs3, ...options.fs };
+  const target = resolve4(path6);
+  const refuse = (why) => {
+    throw new ReportWriteError(`cannot write ${path6}: ${why}`);
+  };
+  if (options.inside !== void 0) {
+    const root = realOrSelf(resolve4(options.inside));
+    if (!isInside(resolve4(options.inside), target) && !isInside(root, target)) refuse(`it is outside ${options.inside}`);
+    if (!isInside(root, realOrSelf(nearestExisting(dirname4(target))))) refuse(`its directory leads, through a symbolic link, outside ${options.inside}`);
+  }
+  const dir = dirname4(target);
+  try {
+    fs3.mkdirSync(dir, { recursive: true });
+  } catch (err) {
+    refuse(reason(err));
+  }
+  if (options.inside !== void 0 && !isInside(realOrSelf(resolve4(options.inside)), realOrSelf(dir))) {
+    refuse(`its directory leads, through a symbolic link, outside ${options.inside}`);
+  }
+  const existing = lstatOrUndefined(target);
+  if (existing && !existing.isFile()) refuse(`it exists and is ${kindOf(existing)}, not a regular file; refusing to replace it`);
+  const tmp = join4(dir, `.${basename3(target)}.${randomBytes(6).toString("hex")}.tmp`);
+  let fd;
+  try {
+    fd = io.openSync(tmp, CREATE_FLAGS, 438);
+    const bytes = Buffer.from(content, "utf8");
+    for (let done = 0; done < bytes.length; ) done += io.writeSync(fd, bytes, done, bytes.length - done);
+    io.fsyncSync(fd);
+    io.closeSync(fd);
+    fd = void 0;
+    io.renameSync(tmp, target);
+  } catch (err) {
+    if (fd !== void 0) {
+      try {
+        fs3.closeSync(fd);
+      } catch {
+      }
+    }
+    try {
+      fs3.unlinkSync(tmp);
+    } catch {
+    }
+    refuse(reason(err));
+  }
+}
+function reason(err) {
+  const message = err instanceof Error ? err.message : String(err);
+  return (message.split("\n")[0] ?? "").replace(/, [a-z]+(?: '.*')?$/, "");
+}
+function kindOf(s) {
+  if (s.isSymbolicLink()) return "a symbolic link";
+  if (s.isDirectory()) return "a directory";
+  return "a special file";
+}
+function lstatOrUndefined(path6) {
+  try {
+    return fs3.lstatSync(path6);
+  } catch {
+    return void 0;
+  }
+}
+function nearestExisting(dir) {
+  let d = dir;
+  while (lstatOrUndefined(d) === void 0) {
+    const up = dirname4(d);
+    if (up === d) return d;
+    d = up;
+  }
+  return d;
+}
+function realOrSelf(path6) {
+  try {
+    return fs3.realpathSync(path6);
+  } catch {
+    return path6;
+  }
+}
+function isInside(root, path6) {
+  const rel = relative3(root, path6);
+  return !isAbsolute(rel) && !/^\.\.(?:[\\/]|$)/.test(rel);
 }
 
 // src/check/run-check.ts
-import { readFileSync as readFileSync3, statSync as statSync4 } from "node:fs";
-import { relative as relative4, resolve as resolve7, sep as sep5 } from "node:path";
+var import_picomatch2 = __toESM(require_picomatch2(), 1);
+import { relative as relative6, resolve as resolve8, sep as sep6 } from "node:path";
 
 // src/diagnostic.ts
 function formatDiagnosticLine(d) {
@@ -37700,110 +37792,493 @@ function dedupeDiagnostics(diagnostics) {
   });
 }
 
-// src/config/load-config.ts
-var import_yaml5 = __toESM(require_dist(), 1);
-
-// src/text/suggest.ts
-function editDistance(a, b) {
-  const prev = Array.from({ length: b.length + 1 }, (_, j) => j);
-  for (let i = 1; i <= a.length; i++) {
-    let diag = prev[0];
-    prev[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const up = prev[j];
-      prev[j] = Math.min(up + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
-      diag = up;
-    }
+// src/policy/applies-to.ts
+var import_picomatch = __toESM(require_picomatch2(), 1);
+import { posix } from "node:path";
+function appliesToProblem(pattern) {
+  const body = pattern.startsWith("!") ? pattern.slice(1) : pattern;
+  if (body === "") return `the pattern '${pattern}' is empty`;
+  if (/^[/\\]/.test(body) || /^[A-Za-z]:/.test(body)) {
+    return `the pattern '${pattern}' is absolute; applies_to patterns are relative to the repository root, e.g. 'examples/*.yaml'`;
   }
-  return prev[b.length];
+  if (body.split(/[/\\]/).includes("..")) {
+    return `the pattern '${pattern}' has a '..' segment; applies_to patterns may not leave the repository root`;
+  }
+  return void 0;
 }
-function closest(word, candidates2) {
-  let best;
-  let bestD = Infinity;
-  for (const c of candidates2) {
-    const d = editDistance(word.toLowerCase(), c.toLowerCase());
-    if (d < bestD) {
-      bestD = d;
-      best = c;
-    }
+var matchers = /* @__PURE__ */ new WeakMap();
+function matcherFor(patterns) {
+  const hit = matchers.get(patterns);
+  if (hit) return hit;
+  const options = { dot: true, windows: false };
+  const positive = patterns.filter((p) => !p.startsWith("!"));
+  const negative = patterns.filter((p) => p.startsWith("!")).map((p) => p.slice(1));
+  const compile = (list3) => list3.length === 0 ? () => false : (0, import_picomatch.default)(list3, options);
+  const made = { include: compile(positive), exclude: compile(negative) };
+  matchers.set(patterns, made);
+  return made;
+}
+function policyApplies(policy, configPathRelativeToRoot) {
+  const path6 = normaliseConfigPath(configPathRelativeToRoot);
+  if (path6 === void 0) return false;
+  const m = matcherFor(policy.appliesTo);
+  return m.include(path6) && !m.exclude(path6);
+}
+function normaliseConfigPath(path6) {
+  const slashed = path6.replace(/\\/g, "/");
+  if (slashed === "" || slashed.startsWith("/") || /^[A-Za-z]:/.test(slashed)) return void 0;
+  const normal = posix.normalize(slashed).replace(/^(\.\/)+/, "");
+  if (normal === "." || normal === ".." || normal.startsWith("../")) return void 0;
+  return normal;
+}
+function couldMatchBelow(patterns, dir) {
+  const dirSegments = dir.replace(/\/+$/, "").split("/");
+  return patterns.some((pattern) => !pattern.startsWith("!") && patternReachesBelow(pattern, dirSegments));
+}
+function patternReachesBelow(pattern, dirSegments) {
+  const scan = import_picomatch.default.scan(pattern.replace(/^(\.\/)+/, ""));
+  const base = scan.base === "" ? [] : scan.base.split("/");
+  for (let i = 0; i < Math.min(base.length, dirSegments.length); i++) if (base[i] !== dirSegments[i]) return false;
+  if (dirSegments.length < base.length) return true;
+  if (!scan.isGlob) return false;
+  if (scan.isBrace || scan.isExtglob || scan.glob.includes("**")) return true;
+  const globSegments = scan.glob.split("/");
+  if (base.length + globSegments.length < dirSegments.length + 1) return false;
+  const options = { dot: true, windows: false };
+  for (let j = 0; base.length + j < dirSegments.length; j++) {
+    if (!(0, import_picomatch.default)(globSegments[j], options)(dirSegments[base.length + j])) return false;
   }
-  return bestD <= Math.max(2, Math.floor(word.length / 3)) ? best : void 0;
+  return true;
 }
 
-// src/config/located-value.ts
-var import_yaml2 = __toESM(require_dist(), 1);
-
-// src/config/anchor-index.ts
-var import_yaml = __toESM(require_dist(), 1);
-var AnchorIndex = class {
-  constructor(doc) {
-    this.doc = doc;
+// src/git/git-error.ts
+var GitError = class extends Error {
+  constructor(message, stderr) {
+    super(message);
+    this.stderr = stderr;
   }
-  doc;
-  byName;
-  /** The node of the last `&name` anchor before the alias, as YAML defines it. */
-  resolve(alias) {
-    const candidates2 = this.index().get(alias.source);
-    const at = alias.range?.[0];
-    if (!candidates2 || at === void 0) return void 0;
-    let found2;
-    for (const c of candidates2) {
-      if (c.offset < at) found2 = c.node;
-      else break;
-    }
-    return found2;
-  }
-  index() {
-    if (this.byName) return this.byName;
-    const byName = /* @__PURE__ */ new Map();
-    (0, import_yaml.visit)(this.doc, (_key, node) => {
-      if (((0, import_yaml.isScalar)(node) || (0, import_yaml.isCollection)(node)) && !(0, import_yaml.isAlias)(node) && node.anchor && node.range) {
-        const list3 = byName.get(node.anchor) ?? [];
-        list3.push({ offset: node.range[0], node });
-        byName.set(node.anchor, list3);
-      }
-    });
-    for (const list3 of byName.values()) list3.sort((a, b) => a.offset - b.offset);
-    this.byName = byName;
-    return byName;
-  }
+  stderr;
+  name = "GitError";
 };
 
-// src/config/field-path.ts
-function formatFieldPath(segments, whole = "the model") {
-  let out = "";
-  for (const s of segments) {
-    if (typeof s === "number") out += `[${s}]`;
-    else if (/^[A-Za-z_][A-Za-z0-9_-]*$/.test(s)) out += out === "" ? s : `.${s}`;
-    else out += `[${JSON.stringify(s)}]`;
+// src/git/repo.ts
+import { resolve as resolve5 } from "node:path";
+
+// src/git/git-input.ts
+var CONTROL = /[\u0000-\u001f\u007f]/;
+function checkRevision(rev) {
+  if (rev === "") throw new GitError("a git revision must not be empty", "");
+  if (rev.startsWith("-")) throw new GitError(`refusing the git revision '${rev}': a revision must not start with '-'`, "");
+  if (CONTROL.test(rev)) throw new GitError(`refusing the git revision ${JSON.stringify(rev)}: it contains control characters`, "");
+  return rev;
+}
+function checkRootRelativePath(path6) {
+  const refuse = (why) => {
+    throw new GitError(`refusing the path ${JSON.stringify(path6)}: ${why}`, "");
+  };
+  if (path6 === "") refuse("it is empty");
+  if (path6.includes("\0")) refuse("it contains a NUL character");
+  if (path6.includes("\\")) refuse("use forward slashes, relative to the repository root");
+  if (path6.startsWith("/") || /^[A-Za-z]:/.test(path6)) refuse("it is absolute; give it relative to the repository root");
+  for (const segment of path6.split("/")) {
+    if (segment === "..") refuse("it has a '..' segment");
+    if (segment === "." || segment === "") refuse("it has an empty or '.' segment");
   }
-  return out === "" ? whole : out;
+  return path6;
 }
 
-// src/config/json-pointer.ts
-function parsePointer(pointer) {
-  if (pointer === "") return { ok: true, segments: [] };
-  if (!pointer.startsWith("/")) {
-    return { ok: false, message: `the model path '${pointer}' is not a JSON pointer: it must be empty or start with '/', e.g. '/model' or '/training/model'` };
-  }
-  const segments = [];
-  for (const raw of pointer.slice(1).split("/")) {
-    if (/~(?![01])/.test(raw)) {
-      return { ok: false, message: `the model path '${pointer}' has a bad escape in '${raw}': in a JSON pointer '~' must be followed by 0 ('~') or 1 ('/')` };
+// src/git/run-git.ts
+import { spawnSync } from "node:child_process";
+import { accessSync, constants as constants4, statSync } from "node:fs";
+import { delimiter as delimiter3, isAbsolute as isAbsolute2, join as join5 } from "node:path";
+var MAX_FILE_BYTES = 4 * 1024 * 1024;
+var MAX_LISTING_BYTES = 64 * 1024 * 1024;
+var LOCAL_TIMEOUT_MS = 12e4;
+function gitEnv() {
+  return {
+    ...process.env,
+    GIT_TERMINAL_PROMPT: "0",
+    LC_ALL: "C",
+    // A pre-commit run happens while `git commit` holds the index; refreshing it would contend.
+    GIT_OPTIONAL_LOCKS: "0",
+    // Paths are given to git literally: a config named `*.yaml` means that one file.
+    GIT_LITERAL_PATHSPECS: "1",
+    // In a partial clone a missing object would be fetched from the remote on demand; the tool
+    // never reaches the network behind the user's back, so a missing object is reported instead.
+    GIT_NO_LAZY_FETCH: "1"
+  };
+}
+var found;
+function findGit() {
+  const pathVar = process.env["PATH"] ?? "";
+  if (found?.pathVar === pathVar) return found.git;
+  const names = process.platform === "win32" ? ["git.exe"] : ["git"];
+  let git;
+  search: for (const raw of pathVar.split(delimiter3)) {
+    const dir = raw.replace(/^"(.*)"$/, "$1");
+    if (dir === "" || !isAbsolute2(dir)) continue;
+    for (const name of names) {
+      const candidate = join5(dir, name);
+      if (isExecutableFile(candidate)) {
+        git = candidate;
+        break search;
+      }
     }
-    segments.push(raw.replace(/~1/g, "/").replace(/~0/g, "~"));
   }
-  return { ok: true, segments };
+  found = { pathVar, git };
+  return git;
 }
-function escapeSegment(segment) {
-  return String(segment).replace(/~/g, "~0").replace(/\//g, "~1");
+function isExecutableFile(path6) {
+  try {
+    if (!statSync(path6).isFile()) return false;
+    accessSync(path6, constants4.X_OK);
+    return true;
+  } catch {
+    return false;
+  }
 }
-function formatPointer(segments) {
-  return segments.map((s) => "/" + escapeSegment(s)).join("");
+function gitOrThrow() {
+  const git = findGit();
+  if (git === void 0) {
+    throw new GitError("git was not found on PATH: install git (or put it on PATH) to compare configs across revisions", "");
+  }
+  return git;
 }
-function isArrayIndex(segment) {
-  return /^(0|[1-9][0-9]*)$/.test(segment);
+function describe(args) {
+  return `git ${args.join(" ")}`;
 }
+function firstLine(text2) {
+  return text2.split("\n").find((line) => line.trim() !== "")?.trim() ?? "";
+}
+function runGit(cwd, args, options = {}) {
+  const git = gitOrThrow();
+  const r = spawnSync(git, ["-c", "core.quotepath=off", ...args], {
+    cwd,
+    env: gitEnv(),
+    shell: false,
+    windowsHide: true,
+    stdio: [options.input === void 0 ? "ignore" : "pipe", "pipe", "pipe"],
+    ...options.input === void 0 ? {} : { input: options.input },
+    maxBuffer: options.maxBuffer ?? MAX_LISTING_BYTES,
+    timeout: options.timeoutMs ?? LOCAL_TIMEOUT_MS
+  });
+  const stderr = r.stderr ? r.stderr.toString("utf8") : "";
+  if (r.error) {
+    const code = r.error.code;
+    if (code === "ENOBUFS") {
+      throw options.tooLarge?.() ?? new GitError(`${describe(args)} printed more than ${options.maxBuffer ?? MAX_LISTING_BYTES} bytes`, stderr);
+    }
+    if (code === "ETIMEDOUT") {
+      throw new GitError(`${describe(args)} did not finish within ${Math.round((options.timeoutMs ?? LOCAL_TIMEOUT_MS) / 1e3)} s`, stderr);
+    }
+    if (code === "ENOENT" && !isDirectory2(cwd)) throw new GitError(`cannot run git in '${cwd}': no such directory`, stderr);
+    throw new GitError(`cannot run ${git}: ${r.error.message}`, stderr);
+  }
+  if (r.status === null) throw new GitError(`${describe(args)} was stopped by signal ${r.signal ?? "unknown"}`, stderr);
+  return { status: r.status, stdout: r.stdout, stderr };
+}
+function runGitOk(cwd, args, options = {}) {
+  const r = runGit(cwd, args, options);
+  if (r.status !== 0) throw gitFailure(args, r);
+  return r.stdout;
+}
+function gitFailure(args, r) {
+  const why = firstLine(r.stderr);
+  return new GitError(`${describe(args)} failed (exit ${r.status})${why ? `: ${why}` : ""}`, r.stderr);
+}
+function isDirectory2(path6) {
+  try {
+    return statSync(path6).isDirectory();
+  } catch {
+    return false;
+  }
+}
+
+// src/git/repo.ts
+var FULL_ID = /^(?:[0-9a-f]{40}|[0-9a-f]{64})$/;
+function openRepo(cwd) {
+  if (findGit() === void 0) return void 0;
+  const dir = resolve5(cwd);
+  let r;
+  try {
+    r = runGit(dir, ["rev-parse", "--show-toplevel"]);
+  } catch (err) {
+    if (err instanceof GitError && /no such directory/.test(err.message)) return void 0;
+    throw err;
+  }
+  if (r.status === 0) {
+    const top = r.stdout.toString("utf8").replace(/\r?\n$/, "");
+    return top === "" ? void 0 : { root: resolve5(top) };
+  }
+  if (/not a git repository|must be run in a work tree/i.test(r.stderr)) return void 0;
+  throw gitFailure(["rev-parse", "--show-toplevel"], r);
+}
+function resolveCommit(repo, rev) {
+  checkRevision(rev);
+  const args = ["rev-parse", "--verify", "--quiet", `${rev}^{commit}`];
+  const r = runGit(repo.root, args);
+  if (r.status === 1) return void 0;
+  if (r.status !== 0) throw gitFailure(args, r);
+  const id = r.stdout.toString("utf8").trim();
+  return FULL_ID.test(id) ? id : void 0;
+}
+function requireCommit(repo, rev) {
+  const id = resolveCommit(repo, rev);
+  if (id === void 0) throw new GitError(`unknown git revision '${rev}': no such commit in this clone`, "");
+  return id;
+}
+function isShallow(repo) {
+  return runGitOk(repo.root, ["rev-parse", "--is-shallow-repository"]).toString("utf8").trim() === "true";
+}
+function emptyTree(repo) {
+  const r = runGit(repo.root, ["rev-parse", "--show-object-format"]);
+  const format = r.status === 0 ? r.stdout.toString("utf8").trim() : "sha1";
+  return format === "sha256" ? "6ef19b41225c5369f1c104d45d8d85efa9b057b53b14b4b9b939dd74decc5321" : "4b825dc642cb6eb9a060e54bf8d69288fbee4904";
+}
+
+// src/git/ensure-commit.ts
+var FETCH_TIMEOUT_MS = 3e5;
+var FULL_ID2 = /^(?:[0-9a-f]{40}|[0-9a-f]{64})$/;
+var HINT = "Check out the repository with full history (for GitHub Actions: `fetch-depth: 0` in actions/checkout; elsewhere `git fetch --unshallow origin`).";
+var attempts = /* @__PURE__ */ new WeakMap();
+function ensureCommit(repo, sha) {
+  if (resolveCommit(repo, sha) !== void 0) return { ok: true };
+  const id = sha.toLowerCase();
+  if (!FULL_ID2.test(id)) {
+    return { ok: false, message: `commit '${sha}' is not in this clone, and only a full commit id can be fetched. ${HINT}` };
+  }
+  let tried = attempts.get(repo);
+  if (tried === void 0) attempts.set(repo, tried = /* @__PURE__ */ new Map());
+  const earlier = tried.get(id);
+  if (earlier !== void 0) return earlier;
+  const result2 = fetchCommit(repo, id);
+  tried.set(id, result2);
+  return result2;
+}
+function fetchCommit(repo, id) {
+  const remotes = runGitOk(repo.root, ["remote"]).toString("utf8").split("\n");
+  if (!remotes.includes("origin")) {
+    return { ok: false, message: `commit ${id} is not in this clone, and there is no remote named origin to fetch it from. ${HINT}` };
+  }
+  const shallow = isShallow(repo);
+  const args = ["fetch", "--quiet", "--no-tags", "--no-recurse-submodules", ...shallow ? ["--depth=1"] : [], "origin", id];
+  let why;
+  try {
+    const r = runGit(repo.root, args, { timeoutMs: FETCH_TIMEOUT_MS });
+    if (r.status === 0 && resolveCommit(repo, id) !== void 0) return { ok: true };
+    why = firstLine(r.stderr) || `git fetch exited with status ${r.status}`;
+  } catch (err) {
+    if (!(err instanceof GitError)) throw err;
+    why = err.message;
+  }
+  const clone = shallow ? "this shallow clone" : "this clone";
+  return { ok: false, message: `commit ${id} is not in ${clone}, and fetching it from origin failed (${why}). ${HINT}` };
+}
+
+// src/git/changed-files.ts
+var DIFF_OPTIONS = ["--name-status", "-z", "-M", "--no-color", "--no-ext-diff"];
+function changesSince(repo, base, options = {}) {
+  checkRevision(base);
+  const against = options.against ?? "worktree";
+  switch (against) {
+    case "worktree": {
+      const changes = diff(repo, "worktree", [requireCommit(repo, base)]);
+      return { files: addUntracked(changes.files, untrackedFiles(repo)), renames: changes.renames };
+    }
+    case "head":
+      return diff(repo, "trees", [requireCommit(repo, base), requireCommit(repo, "HEAD")]);
+    case "staged":
+      return diff(repo, "index", [requireCommit(repo, base)]);
+    default:
+      throw new GitError(`unknown comparison '${String(against)}': use 'worktree', 'head' or 'staged'`, "");
+  }
+}
+function stagedChanges(repo) {
+  return diff(repo, "index", [resolveCommit(repo, "HEAD") ?? emptyTree(repo)]);
+}
+function diff(repo, side, ids) {
+  const args = ["diff", ...side === "index" ? ["--cached"] : [], ...DIFF_OPTIONS, ...ids, "--"];
+  const renames = /* @__PURE__ */ new Map();
+  const files = parseNameStatus(runGitOk(repo.root, args).toString("utf8"), renames);
+  return { files: [...files].map(([path6, status]) => ({ path: path6, status })).sort(byPath), renames };
+}
+function parseNameStatus(out, renames) {
+  const fields = out.split("\0");
+  if (fields.at(-1) === "") fields.pop();
+  const files = /* @__PURE__ */ new Map();
+  const add = (path6, status) => {
+    if (path6 === void 0 || path6 === "") return;
+    const seen = files.get(path6);
+    files.set(path6, seen === void 0 || seen === status ? status : "M");
+  };
+  for (let i = 0; i < fields.length; ) {
+    const code = fields[i++] ?? "";
+    const letter = code.charAt(0);
+    if (letter === "R" || letter === "C") {
+      const from = fields[i++];
+      const to = fields[i++];
+      if (letter === "R") {
+        add(from, "D");
+        if (from !== void 0 && to !== void 0) renames?.set(from, to);
+      }
+      add(to, "A");
+    } else {
+      add(fields[i++], letter === "A" ? "A" : letter === "D" ? "D" : "M");
+    }
+  }
+  return files;
+}
+function untrackedFiles(repo) {
+  const out = runGitOk(repo.root, ["ls-files", "--others", "--exclude-standard", "-z", "--full-name"]).toString("utf8");
+  return out.split("\0").filter((p) => p !== "" && !p.endsWith("/"));
+}
+function addUntracked(tracked, untracked) {
+  const files = new Map(tracked.map((f2) => [f2.path, f2.status]));
+  for (const path6 of untracked) {
+    files.set(path6, files.get(path6) === "D" ? "M" : files.get(path6) ?? "A");
+  }
+  return [...files].map(([path6, status]) => ({ path: path6, status })).sort(byPath);
+}
+function byPath(a, b) {
+  return a.path < b.path ? -1 : a.path > b.path ? 1 : 0;
+}
+
+// src/files/file-read.ts
+function refused(code, message) {
+  return { kind: "refused", code, message };
+}
+
+// src/git/revision-files.ts
+var RevisionFiles = class _RevisionFiles {
+  constructor(repo, label2, entries2) {
+    this.repo = repo;
+    this.label = label2;
+    this.entries = entries2;
+    for (const path6 of entries2.keys()) {
+      for (let i = path6.indexOf("/"); i !== -1; i = path6.indexOf("/", i + 1)) this.dirs.add(path6.slice(0, i));
+    }
+  }
+  repo;
+  label;
+  entries;
+  blobs = /* @__PURE__ */ new Map();
+  dirs = /* @__PURE__ */ new Set();
+  /** Every file of `commit` (a full commit id). */
+  static atCommit(repo, commit) {
+    const out = runGitOk(repo.root, ["ls-tree", "-r", "-z", "--full-tree", commit]).toString("utf8");
+    const entries2 = /* @__PURE__ */ new Map();
+    for (const record of out.split("\0")) {
+      const m = /^(\d{6}) (\w+) ([0-9a-f]+)\t([\s\S]+)$/.exec(record);
+      if (m) entries2.set(m[4], { path: m[4], mode: m[1], id: m[3] });
+    }
+    return new _RevisionFiles(repo, `at ${commit.slice(0, 12)}`, entries2);
+  }
+  /** Every file staged in the index (what the next commit would hold). */
+  static inIndex(repo) {
+    const out = runGitOk(repo.root, ["ls-files", "--stage", "-z", "--full-name"]).toString("utf8");
+    const entries2 = /* @__PURE__ */ new Map();
+    for (const record of out.split("\0")) {
+      const m = /^(\d{6}) ([0-9a-f]+) (\d)\t([\s\S]+)$/.exec(record);
+      if (!m) continue;
+      const path6 = m[4];
+      const conflicted = m[3] !== "0" || entries2.has(path6);
+      entries2.set(path6, { path: path6, mode: m[1], id: m[2], ...conflicted ? { conflicted } : {} });
+    }
+    return new _RevisionFiles(repo, "in the index", entries2);
+  }
+  /** Root-relative paths of every entry (files, links, submodules), sorted. */
+  paths() {
+    return [...this.entries.keys()].sort();
+  }
+  entry(path6) {
+    return this.entries.get(path6);
+  }
+  isDirectory(path6) {
+    const dir = path6.replace(/\/+$/, "");
+    return dir === "" || this.dirs.has(dir);
+  }
+  /** Root-relative paths of the entries directly in `dir` ('' for the root), sorted; not subdirectories. */
+  children(dir) {
+    const prefix = dir === "" ? "" : `${dir.replace(/\/+$/, "")}/`;
+    return this.paths().filter((p) => p.startsWith(prefix) && !p.slice(prefix.length).includes("/"));
+  }
+  /** Reads the plain files among `paths` in one batch; later `read` calls are answered from it. */
+  prefetch(paths) {
+    const ids = /* @__PURE__ */ new Set();
+    for (const p of paths) {
+      const e = this.entries.get(p);
+      if (e && isPlainFile(e) && !e.conflicted && !this.blobs.has(e.id)) ids.add(e.id);
+    }
+    if (ids.size > 0) for (const [id, blob] of readBlobs(this.repo, [...ids])) this.blobs.set(id, blob);
+  }
+  read(path6) {
+    checkRootRelativePath(path6);
+    const e = this.entries.get(path6);
+    const what = `${path6} ${this.label}`;
+    if (e === void 0) {
+      return this.dirs.has(path6) ? refused("directory", `${what} is a directory, not a file`) : { kind: "absent" };
+    }
+    if (e.conflicted) return refused("conflict", `${what} has unresolved merge conflicts; resolve them and stage the result`);
+    if (e.mode === "120000") return refused("symlink", `${what} is a symbolic link; links are never followed, point the check at the file itself`);
+    if (e.mode === "160000") return refused("submodule", `${what} is a submodule, not a file`);
+    if (!isPlainFile(e)) return refused("special", `${what} is not a regular file (mode ${e.mode})`);
+    if (!this.blobs.has(e.id)) this.prefetch([path6]);
+    const blob = this.blobs.get(e.id);
+    if (blob === void 0 || !Buffer.isBuffer(blob) && "missing" in blob) {
+      return refused(
+        "missing-object",
+        `${what} (object ${e.id.slice(0, 12)}) is missing from this clone's object store, so it cannot be compared; fetch the missing history (a full clone) and run again`
+      );
+    }
+    if (!Buffer.isBuffer(blob)) {
+      return refused("too-large", `${what} is ${blob.size} bytes; files larger than ${MAX_FILE_BYTES} bytes (4 MiB) are refused`);
+    }
+    return { kind: "file", text: blob.toString("utf8") };
+  }
+};
+function isPlainFile(e) {
+  return e.mode === "100644" || e.mode === "100755" || e.mode === "100664";
+}
+function readBlobs(repo, ids) {
+  const out = /* @__PURE__ */ new Map();
+  const check2 = runGitOk(repo.root, ["cat-file", "--batch-check"], { input: ids.map((id) => `${id}
+`).join("") }).toString("utf8");
+  const wanted = [];
+  for (const line of check2.split("\n")) {
+    const m = /^([0-9a-f]+) (?:(missing)|(\w+) (\d+))$/.exec(line);
+    if (!m) continue;
+    const id = m[1];
+    if (m[2] || m[3] !== "blob") out.set(id, { missing: true });
+    else if (Number(m[4]) > MAX_FILE_BYTES) out.set(id, { size: Number(m[4]) });
+    else wanted.push({ id, size: Number(m[4]) });
+  }
+  if (wanted.length === 0) return out;
+  const total = wanted.reduce((n, w) => n + w.size + w.id.length + 32, 0);
+  const data = runGitOk(repo.root, ["cat-file", "--batch"], { input: wanted.map((w) => `${w.id}
+`).join(""), maxBuffer: total + 1024 });
+  let at = 0;
+  while (at < data.length) {
+    const eol = data.indexOf(10, at);
+    if (eol === -1) break;
+    const header = data.subarray(at, eol).toString("utf8");
+    const m = /^([0-9a-f]+) (?:(missing)|(\w+) (\d+))$/.exec(header);
+    if (!m) break;
+    if (m[2]) {
+      out.set(m[1], { missing: true });
+      at = eol + 1;
+      continue;
+    }
+    const size = Number(m[4]);
+    out.set(m[1], Buffer.from(data.subarray(eol + 1, eol + 1 + size)));
+    at = eol + 1 + size + 1;
+  }
+  for (const w of wanted) if (!out.has(w.id)) out.set(w.id, { missing: true });
+  return out;
+}
+
+// src/files/work-tree.ts
+import { closeSync as closeSync2, constants as constants5, fstatSync, lstatSync as lstatSync2, openSync, readFileSync } from "node:fs";
+import { join as join6 } from "node:path";
 
 // src/config/limits.ts
 var MAX_EXPANDED_LAYERS = 1e4;
@@ -37811,249 +38286,70 @@ var MAX_ALIAS_EXPANSIONS = 100;
 var MAX_DOCUMENT_BYTES = 4 * 1024 * 1024;
 var MAX_NESTING_DEPTH = 100;
 
-// src/config/source-span.ts
-function spanFromOffsets(lines, offset, endOffset) {
-  const start = lines.linePos(offset);
-  const end = lines.linePos(Math.max(offset, endOffset));
-  return {
-    offset,
-    endOffset: Math.max(offset, endOffset),
-    line: start.line,
-    column: start.col,
-    endLine: end.line,
-    endColumn: end.col
-  };
-}
-function spanOfRange(lines, range2) {
-  if (!range2) return void 0;
-  return spanFromOffsets(lines, range2[0], range2[1]);
-}
-function spanJoin(first, last) {
-  if (last.endOffset < first.offset) return first;
-  return { offset: first.offset, line: first.line, column: first.column, endOffset: last.endOffset, endLine: last.endLine, endColumn: last.endColumn };
-}
-
-// src/config/located-value.ts
-function pathOf(node) {
-  const out = [];
-  let cur = node;
-  let root = node;
-  while (cur) {
-    if (cur.segment !== void 0) out.push(cur.segment);
-    root = cur;
-    cur = cur.parent;
-  }
-  out.reverse();
-  return [...root.base ?? [], ...out];
-}
-function displayPath(node, ...more) {
-  let root = node;
-  while (root.parent) root = root.parent;
-  return formatFieldPath([...pathOf(node), ...more], root.rootName);
-}
-function pointerOf(node) {
-  return formatPointer(pathOf(node));
-}
-function entryOf(map, key) {
-  return map.entries.find((e) => e.key === key);
-}
-function fieldOf(map, key) {
-  return entryOf(map, key)?.value;
-}
-function locate(root, segments) {
-  let cur = root;
-  for (const s of segments) {
-    if (!cur) return void 0;
-    if (cur.kind === "map") cur = fieldOf(cur, s);
-    else if (cur.kind === "seq") cur = /^(0|[1-9][0-9]*)$/.test(s) ? cur.items[Number(s)] : void 0;
-    else return void 0;
-  }
-  return cur;
-}
-function toPlain(node) {
-  switch (node.kind) {
-    case "scalar":
-      return node.value;
-    case "seq":
-      return node.items.map(toPlain);
-    case "map": {
-      const out = {};
-      for (const e of node.entries) {
-        Object.defineProperty(out, e.key, { value: toPlain(e.value), enumerable: true, writable: true, configurable: true });
-      }
-      return out;
-    }
-  }
-}
-function describeValue(node) {
-  if (!node) return "nothing";
-  if (node.kind === "map") return "a mapping";
-  if (node.kind === "seq") return "a list";
-  return describeScalar(node.value);
-}
-function describeScalar(value) {
-  if (value === null) return "an empty value";
-  if (typeof value === "string") {
-    const shown2 = value.length > 40 ? `${value.slice(0, 40)}…` : value;
-    return `the string ${JSON.stringify(shown2)}`;
-  }
-  if (typeof value === "number" || typeof value === "boolean") return String(value);
-  if (Array.isArray(value)) return "a list";
-  if (typeof value === "object") return "a mapping";
-  return String(value);
-}
-function convertNode(doc, lines, sink, node, base, fallback, naming = {}) {
-  const state = {
-    anchors: new AnchorIndex(doc),
-    rootName: naming.rootName ?? "the model",
-    subject: naming.subject ?? "architecture",
-    lines,
-    sink,
-    expansions: 0,
-    active: /* @__PURE__ */ new Set(),
-    failed: false,
-    reportedBudget: false,
-    reportedDepth: false
-  };
-  const root = convert(state, node, void 0, void 0, fallback, 0, base, void 0, naming.rootName);
-  return state.failed ? void 0 : root;
-}
-function convert(st, node, parent, segment, fallback, depth, base, aliasSpan, rootName) {
-  const common = (own) => ({
-    span: aliasSpan ?? own ?? fallback,
-    parent,
-    segment,
-    ...base ? { base } : {},
-    ...rootName !== void 0 ? { rootName } : {}
-  });
-  if (depth > MAX_NESTING_DEPTH) {
-    if (!st.reportedDepth) {
-      st.reportedDepth = true;
-      st.sink.error("config/too-deep", `${st.rootName} is nested more than ${MAX_NESTING_DEPTH} levels deep here; no ${st.subject} needs that`, aliasSpan ?? fallback);
-    }
-    st.failed = true;
-    return void 0;
-  }
-  if (node === null || node === void 0) {
-    return { kind: "scalar", value: null, ...common(void 0) };
-  }
-  if ((0, import_yaml2.isAlias)(node)) {
-    const own = spanOfRange(st.lines, node.range) ?? fallback;
-    st.expansions += 1;
-    if (st.expansions > MAX_ALIAS_EXPANSIONS) {
-      if (!st.reportedBudget) {
-        st.reportedBudget = true;
-        st.sink.error(
-          "config/alias-limit",
-          `too many alias expansions: ${st.rootName} expands more than ${MAX_ALIAS_EXPANSIONS} aliases (*${node.source}); a document that multiplies itself through aliases is refused`,
-          own
-        );
-      }
-      st.failed = true;
-      return void 0;
-    }
-    const target = st.anchors.resolve(node);
-    if (!target) {
-      st.sink.error("config/yaml", `the alias *${node.source} refers to no anchor &${node.source} before it`, own);
-      st.failed = true;
-      return void 0;
-    }
-    if (st.active.has(target)) {
-      st.sink.error("config/alias-cycle", `the alias *${node.source} is inside its own anchor &${node.source}, which would make the value infinite`, own);
-      st.failed = true;
-      return void 0;
-    }
-    st.active.add(target);
+// src/files/work-tree.ts
+function inspectWorkTree(root, rel) {
+  const segments = rel.split("/").filter((s) => s !== "" && s !== ".");
+  if (segments.length === 0 || segments.includes("..") || /^[A-Za-z]:/.test(rel) || rel.startsWith("/")) return { kind: "absent" };
+  for (let i = 1; i <= segments.length; i++) {
+    const sub = segments.slice(0, i).join("/");
+    let s;
     try {
-      return convert(st, target, parent, segment, own, depth + 1, base, aliasSpan ?? own, rootName);
-    } finally {
-      st.active.delete(target);
+      s = lstatSync2(join6(root, sub));
+    } catch {
+      return { kind: "absent" };
+    }
+    if (s.isSymbolicLink()) return { kind: "symlink", link: sub };
+    if (i < segments.length && !s.isDirectory()) return { kind: "absent" };
+    if (i === segments.length) {
+      if (s.isFile()) return { kind: "file", size: s.size };
+      return s.isDirectory() ? { kind: "directory" } : { kind: "special" };
     }
   }
-  if ((0, import_yaml2.isScalar)(node)) {
-    const own = spanOfRange(st.lines, node.range);
-    const v = node.value;
-    if (v === null || typeof v === "string" || typeof v === "number" || typeof v === "boolean") {
-      return { kind: "scalar", value: v, ...common(own) };
-    }
-    st.sink.error("config/type", `this value (${typeof v}) is not a plain string, number, boolean or null`, aliasSpan ?? own ?? fallback);
-    st.failed = true;
-    return void 0;
+  return { kind: "absent" };
+}
+function readWorkTree(root, rel) {
+  const entry = inspectWorkTree(root, rel);
+  switch (entry.kind) {
+    case "absent":
+      return { kind: "absent" };
+    case "symlink":
+      return refused("symlink", symlinkMessage(rel, entry.link));
+    case "directory":
+      return refused("directory", `${rel} is a directory, not a file`);
+    case "special":
+      return refused("special", `${rel} is not a regular file`);
+    case "file":
+      break;
   }
-  if ((0, import_yaml2.isSeq)(node)) {
-    const own = spanOfRange(st.lines, node.range);
-    const seq = { kind: "seq", items: [], ...common(own) };
-    node.items.forEach((item, i) => {
-      const child2 = convert(st, item, seq, i, seq.span, depth + 1);
-      if (child2) seq.items.push(child2);
-    });
-    return seq;
+  if (entry.size > MAX_DOCUMENT_BYTES) {
+    return refused("too-large", `${rel} is ${entry.size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
   }
-  if ((0, import_yaml2.isMap)(node)) {
-    const own = spanOfRange(st.lines, node.range);
-    const map = { kind: "map", entries: [], ...common(own) };
-    const firstAt = /* @__PURE__ */ new Map();
-    for (const pair of node.items) {
-      const keyNode = (0, import_yaml2.isAlias)(pair.key) ? st.anchors.resolve(pair.key) : pair.key;
-      const keySpan = ((0, import_yaml2.isAlias)(pair.key) || (0, import_yaml2.isScalar)(pair.key) || (0, import_yaml2.isMap)(pair.key) || (0, import_yaml2.isSeq)(pair.key) ? spanOfRange(st.lines, pair.key.range) : void 0) ?? map.span;
-      if (!(0, import_yaml2.isScalar)(keyNode) || keyNode.value !== null && typeof keyNode.value === "object") {
-        st.sink.error("config/key-type", `${formatFieldPath(pathOf(map), st.rootName)} has a key that is not a plain name; keys must be strings such as 'layers'`, keySpan);
-        st.failed = true;
-        continue;
-      }
-      const key = String(keyNode.value);
-      const earlier = firstAt.get(key);
-      if (earlier) {
-        st.sink.error("config/duplicate-key", `${formatFieldPath([...pathOf(map), key], st.rootName)} is given twice (first on line ${earlier.line}); keep one`, keySpan);
-        st.failed = true;
-        continue;
-      }
-      firstAt.set(key, keySpan);
-      const valueFallback = spanFromOffsets(st.lines, keySpan.endOffset, keySpan.endOffset);
-      const value = convert(st, pair.value, map, key, valueFallback, depth + 1);
-      if (value) map.entries.push({ key, writtenKey: key, keySpan, value });
-    }
-    return map;
+  let fd;
+  try {
+    fd = openSync(join6(root, rel), constants5.O_RDONLY | (constants5.O_NOFOLLOW ?? 0));
+    const s = fstatSync(fd);
+    if (!s.isFile()) return refused("special", `${rel} is not a regular file`);
+    if (s.size > MAX_DOCUMENT_BYTES) return refused("too-large", `${rel} is ${s.size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
+    return { kind: "file", text: readFileSync(fd, "utf8") };
+  } catch (err) {
+    const code = err.code;
+    if (code === "ENOENT") return { kind: "absent" };
+    if (code === "ELOOP") return refused("symlink", symlinkMessage(rel, rel));
+    return refused("unreadable", `cannot read ${rel}: ${err.message}`);
+  } finally {
+    if (fd !== void 0) closeSync2(fd);
   }
-  st.sink.error("config/type", "this YAML node is not a mapping, list or scalar", aliasSpan ?? fallback);
-  st.failed = true;
-  return void 0;
+}
+function symlinkMessage(rel, link) {
+  const where2 = link === rel ? `${rel} is a symbolic link` : `${rel} lies behind the symbolic link ${link}`;
+  return `${where2}; links are never followed (they could lead outside the repository), point the check at the file itself`;
 }
 
-// src/config/located-read.ts
-function asMap(node) {
-  return node?.kind === "map" ? node : void 0;
-}
-function positiveIntegerOf(node) {
-  return node?.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value) && node.value >= 1 ? node.value : void 0;
-}
-function nonNegativeIntegerOf(node) {
-  return node?.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value) && node.value >= 0 ? node.value : void 0;
-}
-function stringOf(node) {
-  return node?.kind === "scalar" && typeof node.value === "string" ? node.value : void 0;
-}
-function booleanOf(node) {
-  return node?.kind === "scalar" && typeof node.value === "boolean" ? node.value : void 0;
-}
-function positiveIntegerListOf(node) {
-  if (node?.kind !== "seq") return void 0;
-  const out = [];
-  for (const item of node.items) {
-    const n = positiveIntegerOf(item);
-    if (n === void 0) return void 0;
-    out.push(n);
-  }
-  return out;
-}
-function fieldSpansOf(body, fields) {
-  const out = {};
-  for (const f2 of fields) {
-    const v = fieldOf(body, f2);
-    if (v) out[f2] = v.span;
-  }
-  return out;
-}
+// src/check/base-evaluation.ts
+import { existsSync as existsSync4 } from "node:fs";
+import { availableParallelism, loadavg } from "node:os";
+import { fileURLToPath as fileURLToPath2 } from "node:url";
+import { MessageChannel, receiveMessageOnPort, Worker } from "node:worker_threads";
 
 // src/config/model.ts
 var INPUT = -1;
@@ -38097,741 +38393,249 @@ function representationOf(model) {
   return best;
 }
 
-// src/config/build-explicit.ts
-var LISTED_POSITIONS = 10;
-function buildExplicitModel(root, file, sink) {
-  const network = asMap(fieldOf(root, "network"));
-  if (!network) return void 0;
-  const shapeNode = fieldOf(network, "shape");
-  const shape = positiveIntegerListOf(shapeNode);
-  const validShape = shape && shape.length >= 1 && shape.length <= 2 ? shape : void 0;
-  const positions = validShape ? positionCount(validShape) : void 0;
-  let ok = validShape !== void 0;
-  const tensors = [];
-  const firstByName = /* @__PURE__ */ new Map();
-  const tensorsNode = fieldOf(network, "tensors");
-  const covered = /* @__PURE__ */ new Set();
-  for (const item of tensorsNode?.kind === "seq" ? tensorsNode.items : []) {
-    const tensor = asMap(item);
-    const nameNode = tensor ? fieldOf(tensor, "name") : void 0;
-    const name = stringOf(nameNode);
-    if (!tensor || name === void 0 || name === "" || !nameNode) {
-      ok = false;
-      continue;
-    }
-    const earlier = firstByName.get(name);
-    if (earlier) {
-      sink.error("config/duplicate-tensor", `${displayPath(nameNode)} is '${name}', which ${displayPath(earlier)} (line ${earlier.span.line}) already names; tensor names must be unique`, nameNode.span);
-      ok = false;
-    } else {
-      firstByName.set(name, nameNode);
-    }
-    const legs = [];
-    const legsNode = fieldOf(tensor, "legs");
-    if (legsNode !== void 0 && legsNode.kind !== "seq") ok = false;
-    for (const legItem of legsNode?.kind === "seq" ? legsNode.items : []) {
-      const leg = asMap(legItem);
-      const positionNode = leg ? fieldOf(leg, "position") : void 0;
-      const position = nonNegativeIntegerOf(positionNode);
-      const dim = positiveIntegerOf(leg ? fieldOf(leg, "dim") : void 0);
-      if (!leg || position === void 0 || dim === void 0 || !positionNode) {
-        ok = false;
-        continue;
-      }
-      if (positions !== void 0 && position >= positions) {
-        sink.error(
-          "config/position-out-of-range",
-          `${displayPath(positionNode)} is ${position}, but the shape [${validShape.join(", ")}] has positions 0 to ${positions - 1} (numbered row-major)`,
-          positionNode.span
-        );
-        ok = false;
-        continue;
-      }
-      covered.add(position);
-      legs.push({ position, dim, span: leg.span });
-    }
-    tensors.push({ name, legs, span: tensor.span });
-  }
-  if (tensorsNode?.kind !== "seq" || tensorsNode.items.length === 0) ok = false;
-  const bonds = [];
-  const bondsNode = fieldOf(network, "bonds");
-  if (bondsNode !== void 0 && bondsNode.kind !== "seq") ok = false;
-  const names = [...firstByName.keys()];
-  for (const item of bondsNode?.kind === "seq" ? bondsNode.items : []) {
-    const bond = asMap(item);
-    const betweenNode = bond ? fieldOf(bond, "between") : void 0;
-    const dim = positiveIntegerOf(bond ? fieldOf(bond, "dim") : void 0);
-    if (!bond || betweenNode?.kind !== "seq" || betweenNode.items.length < 2 || dim === void 0) {
-      ok = false;
-      continue;
-    }
-    const members = [];
-    for (const member of betweenNode.items) {
-      const ref = stringOf(member);
-      if (ref === void 0 || ref === "") {
-        ok = false;
-        continue;
-      }
-      if (!firstByName.has(ref)) {
-        const guess = closest(ref, names);
-        sink.error(
-          "config/unknown-tensor",
-          `${displayPath(member)} names the tensor '${ref}', which is not in network.tensors${guess ? ` (did you mean '${guess}'?)` : ""}`,
-          member.span
-        );
-        ok = false;
-      } else if (members.includes(ref)) {
-        sink.error("config/duplicate-bond-tensor", `${displayPath(member)} repeats '${ref}'; a bond joins different tensors`, member.span);
-        ok = false;
-      }
-      members.push(ref);
-    }
-    bonds.push({ tensors: members, dim, span: bond.span });
-  }
-  if (positions !== void 0 && shapeNode) {
-    const bare = [];
-    for (let p = 0; p < positions && bare.length <= LISTED_POSITIONS; p++) if (!covered.has(p)) bare.push(p);
-    if (bare.length > 0) {
-      const missing2 = positions - covered.size;
-      const listed = bare.slice(0, LISTED_POSITIONS).join(", ");
-      const more = missing2 > LISTED_POSITIONS ? ` and ${missing2 - LISTED_POSITIONS} more` : "";
-      sink.error(
-        "config/position-without-leg",
-        `${missing2 === 1 ? "position" : "positions"} ${listed}${more} of ${displayPath(shapeNode)} [${validShape.join(", ")}] ${missing2 === 1 ? "has" : "have"} no open leg; every input position needs a tensor with a leg there`,
-        shapeNode.span
-      );
-      ok = false;
+// src/text/suggest.ts
+function editDistance(a, b) {
+  const prev = Array.from({ length: b.length + 1 }, (_, j) => j);
+  for (let i = 1; i <= a.length; i++) {
+    let diag = prev[0];
+    prev[0] = i;
+    for (let j = 1; j <= b.length; j++) {
+      const up = prev[j];
+      prev[j] = Math.min(up + 1, prev[j - 1] + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1));
+      diag = up;
     }
   }
-  if (!ok || !validShape) return void 0;
-  return { kind: "explicit", file, shape: validShape, tensors, bonds, span: root.span };
+  return prev[b.length];
+}
+function closest(word, candidates2) {
+  let best;
+  let bestD = Infinity;
+  for (const c of candidates2) {
+    const d = editDistance(word.toLowerCase(), c.toLowerCase());
+    if (d < bestD) {
+      bestD = d;
+      best = c;
+    }
+  }
+  return bestD <= Math.max(2, Math.floor(word.length / 3)) ? best : void 0;
 }
 
-// src/config/pointwise-ops.ts
-var ops = (family, rows) => rows.map(([op, ...aliases]) => ({ op, family, aliases }));
-var POINTWISE_OPS = [
-  ...ops("activation", [
-    ["relu"],
-    ["relu6"],
-    ["gelu"],
-    ["silu", "swish"],
-    ["tanh"],
-    ["sigmoid"],
-    ["hard_sigmoid"],
-    ["elu"],
-    ["selu"],
-    ["celu"],
-    ["leaky_relu", "lrelu"],
-    ["softplus"],
-    ["softsign"],
-    ["mish"],
-    ["hardswish", "hswish", "hard_swish"],
-    ["hardtanh"],
-    ["prelu"],
-    ["softmax"],
-    ["log_softmax"],
-    ["identity"]
-  ]),
-  ...ops("normalisation", [
-    ["batch_norm", "bn", "batchnormalization", "syncbatchnorm"],
-    ["layer_norm", "ln", "layernormalization"],
-    ["group_norm", "gn", "groupnormalization"],
-    ["instance_norm", "instancenormalization"],
-    ["local_response_norm", "lrn", "localresponsenormalization"],
-    ["rms_norm", "rmsnormalization"]
-  ]),
-  ...ops("dropout", [
-    ["dropout"],
-    ["spatial_dropout"],
-    ["alpha_dropout"],
-    ["gaussian_dropout"],
-    ["feature_alpha_dropout"]
-  ]),
-  ...ops("scaling", [
-    ["scale", "scaling", "rescaling"],
-    ["weight_norm", "weightnormalization"]
-  ])
+// src/partition/partition.ts
+var BUILTIN_KINDS = [
+  "start-end",
+  "left-right",
+  "top-bottom",
+  "interleaved",
+  "checkerboard",
+  "block",
+  "positions"
 ];
-function normaliseWord(word) {
-  return word.toLowerCase().replace(/[_\-\s.]/g, "");
+function resolvePartition(spec, shape) {
+  const text2 = spec.trim();
+  const colon = text2.indexOf(":");
+  const name = colon < 0 ? text2 : text2.slice(0, colon);
+  const arg = colon < 0 ? void 0 : text2.slice(colon + 1);
+  const n = positionCount(shape);
+  const side = new Uint8Array(n);
+  const is2d = shape.length === 2;
+  const width = is2d ? shape[1] : n;
+  const height = is2d ? shape[0] : 1;
+  const shapeText = `[${shape.join(", ")}]`;
+  const needs2 = (dims) => shape.length === dims ? void 0 : { ok: false, message: `partition '${name}' needs a ${dims}D input, but the input shape is ${shapeText}` };
+  const noArg = () => arg === void 0 ? void 0 : { ok: false, message: `partition '${name}' takes no argument (got '${arg}')` };
+  let description;
+  switch (name) {
+    case "start-end": {
+      const bad = needs2(1) ?? noArg();
+      if (bad) return bad;
+      const half = Math.floor(n / 2);
+      for (let p = 0; p < half; p++) side[p] = 1;
+      description = `positions 0-${half - 1} against ${half}-${n - 1}`;
+      break;
+    }
+    case "interleaved": {
+      const bad = needs2(1) ?? noArg();
+      if (bad) return bad;
+      for (let p = 0; p < n; p += 2) side[p] = 1;
+      description = "even positions against odd positions";
+      break;
+    }
+    case "left-right": {
+      const bad = needs2(2) ?? noArg();
+      if (bad) return bad;
+      const half = Math.floor(width / 2);
+      for (let r = 0; r < height; r++) for (let c = 0; c < half; c++) side[r * width + c] = 1;
+      description = `columns 0-${half - 1} against columns ${half}-${width - 1}`;
+      break;
+    }
+    case "top-bottom": {
+      const bad = needs2(2) ?? noArg();
+      if (bad) return bad;
+      const half = Math.floor(height / 2);
+      for (let r = 0; r < half; r++) for (let c = 0; c < width; c++) side[r * width + c] = 1;
+      description = `rows 0-${half - 1} against rows ${half}-${height - 1}`;
+      break;
+    }
+    case "checkerboard": {
+      const bad = needs2(2) ?? noArg();
+      if (bad) return bad;
+      for (let r = 0; r < height; r++) for (let c = 0; c < width; c++) if ((r + c) % 2 === 0) side[r * width + c] = 1;
+      description = "positions with (row + column) even against the others";
+      break;
+    }
+    case "block": {
+      if (arg === void 0) {
+        return { ok: false, message: `partition 'block' needs ranges: 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D), half-open` };
+      }
+      const ranges = arg.split(",").map((part) => parseRange(part));
+      if (ranges.some((r) => r === void 0) || ranges.length !== shape.length) {
+        return {
+          ok: false,
+          message: `partition '${text2}': expected ${shape.length === 2 ? "'block:r0-r1,c0-c1'" : "'block:a-b'"} with half-open integer ranges for the input shape ${shapeText}`
+        };
+      }
+      const [rr, cr] = is2d ? [ranges[0], ranges[1]] : [[0, 1], ranges[0]];
+      if (rr[1] > height || cr[1] > width || rr[0] >= rr[1] || cr[0] >= cr[1]) {
+        return { ok: false, message: `partition '${text2}': the ranges must be non-empty and lie inside the input shape ${shapeText}` };
+      }
+      for (let r = rr[0]; r < rr[1]; r++) for (let c = cr[0]; c < cr[1]; c++) side[r * width + c] = 1;
+      description = is2d ? `rows ${rr[0]}-${rr[1] - 1}, columns ${cr[0]}-${cr[1] - 1} against the rest` : `positions ${cr[0]}-${cr[1] - 1} against the rest`;
+      break;
+    }
+    case "positions": {
+      if (arg === void 0 || arg.trim() === "") {
+        return { ok: false, message: `partition 'positions' needs a list: 'positions:0,2,5'` };
+      }
+      for (const part of arg.split(",")) {
+        const t = part.trim();
+        if (!/^\d+$/.test(t)) return { ok: false, message: `partition '${text2}': '${t}' is not a position number` };
+        const p = Number(t);
+        if (p >= n) return { ok: false, message: `partition '${text2}': position ${p} is outside the ${n} positions of shape ${shapeText}` };
+        side[p] = 1;
+      }
+      description = `positions ${arg.split(",").map((s) => s.trim()).join(", ")} against the rest`;
+      break;
+    }
+    default: {
+      const hint = closest(name, BUILTIN_KINDS);
+      return {
+        ok: false,
+        message: `unknown partition '${name}'${hint ? ` (did you mean '${hint}'?)` : ""}; known: ${BUILTIN_KINDS.join(", ")}`
+      };
+    }
+  }
+  const countA = side.reduce((a, b) => a + b, 0);
+  if (countA === 0 || countA === n) {
+    return { ok: false, message: `partition '${text2}' puts every position of shape ${shapeText} on one side` };
+  }
+  return { ok: true, partition: { label: text2, kind: name, side, description } };
 }
-var BY_WORD = /* @__PURE__ */ new Map();
-for (const o of POINTWISE_OPS) for (const w of [o.op, ...o.aliases]) BY_WORD.set(normaliseWord(w), o);
-function pointwiseOpOf(normalisedWord) {
-  return BY_WORD.get(normalisedWord);
-}
-function opsOf(family) {
-  return POINTWISE_OPS.filter((o) => o.family === family).map((o) => o.op);
+function parseRange(part) {
+  const m = /^\s*(\d+)\s*-\s*(\d+)\s*$/.exec(part);
+  if (!m) return void 0;
+  return [Number(m[1]), Number(m[2])];
 }
 
-// src/config/read-input.ts
-function readInput(node, sink) {
-  if (!node) return void 0;
-  const shapeNode = fieldOf(node, "shape");
-  const given = positiveIntegerListOf(shapeNode);
-  const channelsNode = fieldOf(node, "channels");
-  const channels = positiveIntegerOf(channelsNode);
-  const reprNode = fieldOf(node, "representation");
-  const representation = positiveIntegerOf(reprNode);
-  if (!shapeNode || !given || given.length < 1 || given.length > 3) return void 0;
-  if (channelsNode && channels === void 0 || reprNode && representation === void 0) return void 0;
-  let shape = given;
-  if (given.length === 3) {
-    const at = displayPath(shapeNode);
-    const text = `[${given.join(", ")}]`;
-    if (channels === void 0) {
-      sink.error(
-        "config/input-shape",
-        `${at} is ${text}: only 1D ([length]) and 2D ([height, width]) grids are supported; if one entry is the channel count, give it as input.channels too (e.g. channels: ${Math.min(given[0], given[2])}) and it is dropped, or write the shape without it`,
-        shapeNode.span
-      );
-      return void 0;
+// src/network/circuit.ts
+var OP_INPUT = 0;
+var OP_CONST = 1;
+var OP_LINEAR = 2;
+var OP_PRODUCT = 3;
+var OP_SUM = 4;
+var CircuitBuilder = class {
+  constructor(positions, limit) {
+    this.positions = positions;
+    this.limit = limit;
+  }
+  positions;
+  limit;
+  op = new Uint8Array(1024);
+  dim = new Int32Array(1024);
+  position = new Int32Array(1024);
+  tag = new Int32Array(1024);
+  childStart = new Int32Array(1025);
+  childList = new Int32Array(4096);
+  uses = new Uint8Array(1024);
+  n = 0;
+  m = 0;
+  reuse = false;
+  sums = false;
+  tags = [];
+  get size() {
+    return this.n;
+  }
+  get links() {
+    return this.m;
+  }
+  addTag(tag) {
+    this.tags.push(tag);
+    return this.tags.length - 1;
+  }
+  add(op, dim, tag, children, position = -1) {
+    if (this.n >= this.limit || this.m + children.length > this.limit * 4) {
+      throw new NetworkTooLarge(this.limit);
     }
-    const first = given[0] === channels ? given.slice(1) : void 0;
-    const last = given[2] === channels ? given.slice(0, 2) : void 0;
-    if (first && last && (first[0] !== last[0] || first[1] !== last[1])) {
-      sink.error("config/input-shape", `${at} is ${text}, and both its first and its last entry equal input.channels (${channels}); write [height, width]`, shapeNode.span);
-      return void 0;
+    if (this.n + 1 >= this.op.length) this.growNodes();
+    while (this.m + children.length > this.childList.length) this.childList = grow(this.childList, this.childList.length * 2);
+    const v = this.n++;
+    this.op[v] = op;
+    this.dim[v] = dim;
+    this.position[v] = position;
+    this.tag[v] = tag;
+    this.childStart[v] = this.m;
+    for (const c of children) {
+      this.childList[this.m++] = c;
+      if (this.uses[c] > 0) this.reuse = true;
+      this.uses[c] = 1;
     }
-    const kept = first ?? last;
-    if (!kept) {
-      sink.error(
-        "config/input-shape",
-        `${at} is ${text}, but neither its first nor its last entry equals input.channels (${channels}); write [height, width] (only 1D and 2D grids are supported)`,
-        shapeNode.span
-      );
-      return void 0;
+    this.childStart[v + 1] = this.m;
+    if (op === OP_SUM && children.length > 1) this.sums = true;
+    return v;
+  }
+  finish(top) {
+    const bondTag = this.tag.slice(0, this.n);
+    for (let v = 0; v < this.n; v++) {
+      if (this.op[v] === OP_PRODUCT && this.childStart[v + 1] > this.childStart[v]) bondTag[v] = bondTag[this.childList[this.childStart[v]]];
     }
-    shape = kept;
-  }
-  const written = entryOf(node, "channels")?.writtenKey;
-  const featuresAsChannels = written !== void 0 && normaliseWord(written) === "features";
-  return {
-    shape,
-    ...representation !== void 0 ? { representation } : {},
-    ...channels !== void 0 ? { channels } : {},
-    ...featuresAsChannels ? { featuresAsChannels: true } : {},
-    span: node.span,
-    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels"])
-  };
-}
-function readOutput(node) {
-  if (!node) return {};
-  const p = fieldOf(node, "position");
-  if (!p) return { span: node.span };
-  const one = nonNegativeIntegerOf(p);
-  const list3 = p.kind === "seq" ? p.items.map(nonNegativeIntegerOf) : void 0;
-  if (one !== void 0) return { position: [one], span: p.span };
-  if (list3 && list3.every((v) => v !== void 0)) return { position: list3, span: p.span };
-  return void 0;
-}
-
-// src/config/field-readers.ts
-function isInteger(node) {
-  return node.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value);
-}
-function wrong(node, ctx, what, numeric) {
-  const isNumber = node.kind === "scalar" && typeof node.value === "number";
-  const code = numeric && isNumber ? "config/invalid-number" : "config/type";
-  ctx.sink.error(code, `${displayPath(node)} must be ${what}, got ${describeValue(node)}`, node.span);
-  return void 0;
-}
-function readPositiveInteger(node, ctx) {
-  return isInteger(node) && node.value >= 1 ? node.value : wrong(node, ctx, "a positive integer", true);
-}
-function readNonNegativeInteger(node, ctx) {
-  return isInteger(node) && node.value >= 0 ? node.value : wrong(node, ctx, "a non-negative integer", true);
-}
-function readPerAxis(node, ctx, min = 1) {
-  const one = min === 1 ? readPositiveInteger : readNonNegativeInteger;
-  const noun = min === 1 ? "positive integer" : "non-negative integer";
-  if (node.kind === "scalar" && typeof node.value === "number") {
-    const v = one(node, ctx);
-    return v === void 0 || ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(v);
-  }
-  if (node.kind !== "seq") {
-    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
-    return wrong(node, ctx, `a ${noun} or a list ${form}`, false);
-  }
-  const values = node.items.map((item) => one(item, ctx));
-  if (values.some((v) => v === void 0) || ctx.dims === void 0) return void 0;
-  if (values.length !== ctx.dims) {
-    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
-    ctx.sink.error(
-      "config/dimension-mismatch",
-      `${displayPath(node)} has ${values.length} entries, but ${ctx.shapePath} is ${ctx.shapeText} (${ctx.dims}D); give one integer for every axis or ${form}`,
-      node.span
-    );
-    return void 0;
-  }
-  return values;
-}
-function readBoolean(node, ctx) {
-  return node.kind === "scalar" && typeof node.value === "boolean" ? node.value : wrong(node, ctx, "true or false", false);
-}
-function readOnly(node, ctx, value, why) {
-  const v = readBoolean(node, ctx);
-  if (v === void 0) return false;
-  if (v === value) return true;
-  ctx.sink.error("config/unsupported-value", `${displayPath(node)} is ${String(v)}, which is not read: ${why}`, node.span);
-  return false;
-}
-function readChoice(node, ctx, choices, shown2) {
-  if (node.kind === "scalar" && typeof node.value === "string") {
-    const hit = lookupChoice(node.value, choices);
-    if (hit !== void 0) return hit;
-    const guess = closest(normaliseWord(node.value), shown2.map(normaliseWord));
-    const said = guess ? shown2.find((s) => normaliseWord(s) === guess) : void 0;
-    ctx.sink.error(
-      "config/invalid-value",
-      `${displayPath(node)} must be one of ${shown2.map((s) => `'${s}'`).join(", ")}, got ${describeValue(node)}${said ? ` (did you mean '${said}'?)` : ""}`,
-      node.span
-    );
-    return void 0;
-  }
-  return wrong(node, ctx, `one of ${shown2.map((s) => `'${s}'`).join(", ")}`, false);
-}
-function lookupChoice(word, choices) {
-  const n = normaliseWord(word);
-  for (const [k, v] of choices) if (normaliseWord(k) === n) return v;
-  return void 0;
-}
-function readRate(node, ctx) {
-  if (node.kind === "scalar" && typeof node.value === "number" && node.value >= 0 && node.value < 1) return node.value;
-  return wrong(node, ctx, "a number from 0 up to (not including) 1", true);
-}
-function readText(node, ctx) {
-  if (node.kind === "scalar" && typeof node.value === "string") {
-    if (node.value.length > 0) return node.value;
-    ctx.sink.error("config/invalid-value", `${displayPath(node)} must be a non-empty string`, node.span);
-    return void 0;
-  }
-  return wrong(node, ctx, "a string", false);
-}
-
-// src/config/kind-names.ts
-var row = (words, match) => ({ words, match });
-var ROWS = [
-  row(["conv", "convolution"], { reader: "conv", canonical: "conv" }),
-  row(["depthwise_conv", "depthwise_convolution", "dw_conv"], { reader: "conv", canonical: "conv", depthwise: true }),
-  row(["separable_conv", "separable_convolution", "sep_conv", "depthwise_separable_conv"], { reader: "separable_conv", canonical: "separable_conv" }),
-  row(["conv_transpose", "convolution_transpose", "transposed_conv", "transpose_conv", "deconv", "deconvolution", "upconv"], {
-    reader: "conv_transpose",
-    canonical: "conv_transpose"
-  }),
-  row(["pool", "pooling"], { reader: "pool", canonical: "pool" }),
-  row(["max_pool", "max_pooling"], { reader: "pool", canonical: "pool", poolMode: "max" }),
-  row(["avg_pool", "average_pool", "avg_pooling", "average_pooling", "mean_pool"], { reader: "pool", canonical: "pool", poolMode: "average" }),
-  row(["sum_pool", "sum_pooling"], { reader: "pool", canonical: "pool", poolMode: "sum" }),
-  row(["product_pool", "product_pooling"], { reader: "pool", canonical: "pool", poolMode: "product" }),
-  row(["lp_pool", "lp_pooling"], { reader: "pool", canonical: "pool", poolMode: "other" }),
-  row(["global_pool", "global_pooling"], { reader: "pool", canonical: "pool", global: true }),
-  row(["global_max_pool", "global_max_pooling"], { reader: "pool", canonical: "pool", global: true, poolMode: "max" }),
-  row(["global_avg_pool", "global_average_pool", "global_avg_pooling", "global_average_pooling"], {
-    reader: "pool",
-    canonical: "pool",
-    global: true,
-    poolMode: "average"
-  }),
-  row(["adaptive_avg_pool", "adaptive_average_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "average" }),
-  row(["adaptive_max_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "max" }),
-  row(["dense", "linear", "fc", "fully_connected"], { reader: "dense", canonical: "dense" }),
-  row(["flatten"], { reader: "flatten", canonical: "flatten" }),
-  row(["upsample", "upsampling", "interpolate"], { reader: "upsample", canonical: "upsample" }),
-  row(["upsampling_nearest", "upsample_nearest"], { reader: "upsample", canonical: "upsample", upsampleMode: "nearest" }),
-  row(["upsampling_bilinear", "upsample_bilinear"], { reader: "upsample", canonical: "upsample", upsampleMode: "linear" }),
-  row(["recurrent", "rnn", "simple_rnn"], { reader: "recurrent", canonical: "recurrent" }),
-  row(["repeat"], { reader: "repeat", canonical: "repeat" }),
-  row(["residual", "residual_block", "res_block"], { reader: "residual", canonical: "residual" }),
-  row(["branches", "parallel"], { reader: "branches", canonical: "branches" }),
-  row(["add", "sum"], { reader: "add", canonical: "add" }),
-  row(["concat", "concatenate", "cat"], { reader: "concat", canonical: "concat" }),
-  row(["sequence", "sequential", "block"], { reader: "sequence", canonical: "sequence" }),
-  row(["activation"], { reader: "activation", canonical: "activation" }),
-  ...POINTWISE_OPS.map((op) => row([op.op, ...op.aliases], { reader: "pointwise", canonical: op.op, op }))
-];
-var LATER = ["lstm", "gru", "lstm_cell", "gru_cell", "conv_lstm", "embedding", "attention", "multi_head_attention", "multihead_attention", "self_attention", "transformer", "transformer_encoder", "transformer_encoder_layer", "transformer_decoder", "transformer_decoder_layer", "transformer_block", "positional_encoding", "positional_embedding"];
-var BY_WORD2 = /* @__PURE__ */ new Map();
-for (const r of ROWS) for (const w of r.words) BY_WORD2.set(normaliseWord(w), r);
-var LATER_WORDS = new Set(LATER.map(normaliseWord));
-var SUGGESTIONS = /* @__PURE__ */ new Map();
-for (const r of ROWS) for (const w of r.words) SUGGESTIONS.set(normaliseWord(w), w);
-var KIND_SPELLINGS = ROWS.map((r) => r.words);
-function splitDimension(word) {
-  const n = normaliseWord(word);
-  const m = /([123])d(?=transpose$|$)/.exec(n);
-  if (!m) return { base: n, dims3: false };
-  return { base: n.slice(0, m.index) + n.slice(m.index + 2), dims3: m[1] === "3" };
-}
-function lookupKind(written) {
-  const { base, dims3 } = splitDimension(written);
-  const hit = BY_WORD2.get(base);
-  if (hit && dims3) {
-    return { ok: false, code: "config/unsupported-3d", message: `'${written}' is a 3D layer; only 1D ([length]) and 2D ([height, width]) grids are supported` };
-  }
-  if (hit) return { ok: true, match: hit.match };
-  if (LATER_WORDS.has(base)) {
     return {
-      ok: false,
-      code: "config/kind-not-read-yet",
-      message: `'${written}' layers are not read yet: this version reads convolutional, pooling, dense and simple recurrent layers; gated recurrent, embedding and attention layers are planned`
+      bondTag,
+      size: this.n,
+      op: this.op.slice(0, this.n),
+      dim: this.dim.slice(0, this.n),
+      position: this.position.slice(0, this.n),
+      tag: this.tag.slice(0, this.n),
+      childStart: this.childStart.slice(0, this.n + 1),
+      childList: this.childList.slice(0, this.m),
+      top,
+      tags: this.tags,
+      positions: this.positions,
+      reuse: this.reuse,
+      sums: this.sums,
+      homogeneous: !this.sums
     };
   }
-  const guess = closest(base, [...SUGGESTIONS.keys()]) ?? closest(base.replace(/[123]d/g, ""), [...SUGGESTIONS.keys()]);
-  const shown2 = guess ? SUGGESTIONS.get(guess) : void 0;
-  return {
-    ok: false,
-    code: "config/unknown-layer-kind",
-    message: `unknown layer kind '${written}'${shown2 ? ` (did you mean '${shown2}'?)` : ""}`
-  };
-}
-function pointwiseOpNamed(written) {
-  return pointwiseOpOf(splitDimension(written).base);
-}
-
-// src/config/layer-entry.ts
-var KIND_KEYS = /* @__PURE__ */ new Set(["type", "layer", "kind"]);
-var FORMS = "write a layer as '- conv: {channels: 64}', '- {type: Conv2d, out_channels: 64}' or '- relu'";
-function readLayerEntry(item, sink) {
-  const path6 = displayPath(item);
-  if (item.kind === "scalar") {
-    if (typeof item.value !== "string" || item.value.length === 0) {
-      sink.error("config/type", `${path6} must be a layer, got ${item.value === null ? "an empty entry" : String(item.value)}; ${FORMS}`, item.span);
-      return void 0;
-    }
-    return withKind(item, item.value, item.span, item, [], void 0, sink);
-  }
-  if (item.kind === "seq") {
-    sink.error("config/type", `${path6} must be a layer, got a list; ${FORMS}`, item.span);
-    return void 0;
-  }
-  const kindKeys = item.entries.filter((e) => KIND_KEYS.has(normaliseWord(e.key)));
-  if (kindKeys.length > 1) {
-    sink.error("config/layer-kind", `${path6} gives its kind ${kindKeys.length} times (${kindKeys.map((e) => `'${e.writtenKey}'`).join(", ")}); keep one`, kindKeys[1].keySpan);
-    return void 0;
-  }
-  if (kindKeys.length === 1) {
-    const key = kindKeys[0];
-    const v2 = key.value;
-    if (v2.kind !== "scalar" || typeof v2.value !== "string" || v2.value.length === 0) {
-      sink.error("config/type", `${displayPath(v2)} must be a layer kind such as 'Conv2d' or 'relu', got ${v2.kind === "scalar" ? String(v2.value) : `a ${v2.kind === "map" ? "mapping" : "list"}`}`, v2.span);
-      return void 0;
-    }
-    return withKind(item, v2.value, v2.span, item, item.entries.filter((e) => e !== key), void 0, sink);
-  }
-  if (item.entries.length === 0) {
-    sink.error("config/layer-kind", `${path6} is an empty mapping; ${FORMS}`, item.span);
-    return void 0;
-  }
-  if (item.entries.length > 1) {
-    const kinds = item.entries.filter((e) => lookupKind(e.key).ok);
-    const keys = item.entries.map((e) => `'${e.writtenKey}'`).join(", ");
-    if (kinds.length > 1) {
-      sink.error("config/layer-kind", `${path6} has ${kinds.length} kinds (${keys}); one entry is one layer: put each kind in its own '- ' entry`, item.span);
-    } else if (kinds.length === 1) {
-      const stray = item.entries.find((e) => e !== kinds[0]);
-      sink.error(
-        "config/layer-kind",
-        `${path6} has '${stray.writtenKey}' beside its kind '${kinds[0].writtenKey}'; fields go inside the kind ('- ${kinds[0].writtenKey}: {${stray.writtenKey}: …}') or name the kind with 'type: ${kinds[0].writtenKey}'`,
-        stray.keySpan
-      );
-    } else {
-      sink.error("config/layer-kind", `${path6} (${keys}) names no layer kind; give it with 'type', e.g. '- {type: conv, channels: 64}'`, item.span);
-    }
-    return void 0;
-  }
-  const only = item.entries[0];
-  const v = only.value;
-  if (v.kind === "seq") {
-    sink.error("config/type", `${displayPath(v)} must be a mapping of the layer's fields, got a list`, v.span);
-    return void 0;
-  }
-  if (v.kind === "map") return withKind(item, only.key, only.keySpan, v, v.entries, void 0, sink);
-  return withKind(item, only.key, only.keySpan, v, [], v.value === null ? void 0 : v, sink);
-}
-function withKind(item, written, kindSpan, body, fields, scalar, sink) {
-  const found2 = lookupKind(written);
-  if (!found2.ok) {
-    sink.error(found2.code, `${displayPath(item)}: ${found2.message}`, kindSpan);
-    return void 0;
-  }
-  return { item, match: found2.match, kindWritten: written, kindSpan, body, fields, ...scalar ? { scalar } : {} };
-}
-
-// src/config/layer-fields.ts
-var LayerFields = class {
-  constructor(body, entries2, specs, sink) {
-    this.body = body;
-    this.specs = specs;
-    const bySpelling = /* @__PURE__ */ new Map();
-    for (const s of specs) for (const w of [s.name, ...s.aliases ?? []]) bySpelling.set(normaliseWord(w), s);
-    const path6 = displayPath(body);
-    for (const entry of entries2) {
-      const spec = bySpelling.get(normaliseWord(entry.key));
-      if (!spec) {
-        this.unknown(entry, path6, sink);
-        continue;
-      }
-      if (spec.refused) {
-        sink.error("config/unsupported-field", `${path6}.${entry.writtenKey}: ${spec.refused}`, entry.keySpan);
-        this.ok = false;
-        continue;
-      }
-      const earlier = this.values.get(spec.name);
-      if (earlier) {
-        sink.error(
-          "config/alias-conflict",
-          `${path6} gives '${earlier.writtenKey}' and '${entry.writtenKey}', which both mean '${spec.name}'; keep only one of them`,
-          entry.keySpan
-        );
-        this.ok = false;
-        continue;
-      }
-      this.values.set(spec.name, entry);
-    }
-  }
-  body;
-  specs;
-  values = /* @__PURE__ */ new Map();
-  /** Canonical fields that an unknown key was suggested as (a misspelt required field). */
-  suggested = /* @__PURE__ */ new Set();
-  /** False when a key was unknown, refused or given twice (already reported). */
-  ok = true;
-  unknown(entry, path6, sink) {
-    this.ok = false;
-    if (entry.key === "<<") {
-      sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, entry.keySpan);
-      return;
-    }
-    const spellings = this.specs.flatMap((s) => s.refused ? [] : [s.name, ...s.aliases ?? []]);
-    const guess = closest(normaliseWord(entry.key), spellings.map(normaliseWord));
-    const said = guess ? spellings.find((s) => normaliseWord(s) === guess) : void 0;
-    const meant = said ? this.specs.find((s) => s.name === said || s.aliases?.includes(said)) : void 0;
-    if (meant) this.suggested.add(meant.name);
-    const read = this.specs.filter((s) => !s.ignored && !s.refused).map((s) => s.name);
-    sink.error(
-      "config/unknown-field",
-      `unknown field '${entry.writtenKey}' in ${path6}${said ? ` (did you mean '${said}'?)` : ""}; it reads ${read.join(", ")}`,
-      entry.keySpan
-    );
-  }
-  get(name) {
-    return this.values.get(name)?.value;
-  }
-  has(name) {
-    return this.values.has(name);
-  }
-  /** An unknown key was reported with "did you mean" this field (so its absence is not reported again). */
-  wasSuggested(name) {
-    return this.suggested.has(name);
-  }
-  /** The key as written, for messages. */
-  written(name) {
-    return this.values.get(name)?.writtenKey ?? name;
-  }
-  keySpan(name) {
-    return this.values.get(name)?.keySpan;
-  }
-  /** Value spans of the given canonical fields that are present (all read fields when omitted). */
-  spans(names) {
-    const out = {};
-    for (const [name, entry] of this.values) {
-      if (names && !names.includes(name)) continue;
-      const spec = this.specs.find((s) => s.name === name);
-      if (!spec?.ignored) out[name] = entry.value.span;
-    }
-    return out;
+  growNodes() {
+    const size = this.op.length * 2;
+    this.op = grow(this.op, size);
+    this.dim = grow(this.dim, size);
+    this.position = grow(this.position, size);
+    this.tag = grow(this.tag, size);
+    this.uses = grow(this.uses, size);
+    this.childStart = grow(this.childStart, size + 1);
   }
 };
-
-// src/config/layer-vocabulary.ts
-var f = (name, doc, aliases = []) => ({ name, doc, aliases });
-var ignored = (name, doc, aliases = []) => ({ name, doc, aliases, ignored: true });
-var NAME = f("name", "a label for reports, and the name that `add`/`concat` `from:` refers to");
-var SHORTCUT_FIELDS = [
-  f("norm", "a normalisation after the layer: batch, layer, group, instance, …", ["normalization", "normalisation"]),
-  f("batch_norm", "true: a batch normalisation after the layer", ["bn", "use_bn", "use_batch_norm", "batch_normalization"]),
-  f("layer_norm", "true: a layer normalisation after the layer", ["use_layer_norm"]),
-  f("activation", "an activation after the normalisation: relu, gelu, …; `linear`/`none`: no activation", ["act"]),
-  f("dropout", "a dropout (of this rate) after the activation", ["dropout_rate"])
-];
-var TRAINING_ONLY = [
-  ignored("kernel_initializer", "accepted, ignored", ["weight_init", "init"]),
-  ignored("bias_initializer", "accepted, ignored"),
-  ignored("kernel_regularizer", "accepted, ignored"),
-  ignored("bias_regularizer", "accepted, ignored"),
-  ignored("activity_regularizer", "accepted, ignored"),
-  ignored("kernel_constraint", "accepted, ignored"),
-  ignored("bias_constraint", "accepted, ignored"),
-  ignored("trainable", "accepted, ignored"),
-  ignored("dtype", "accepted, ignored"),
-  ignored("data_format", "accepted, ignored (grids are [length] or [height, width]; channels are the width)")
-];
-var BIAS = f("bias", "false: the real layer has no bias (only the parameter count reads it; default true)", ["use_bias"]);
-var IN_CHANNELS = ignored("in_channels", "accepted, ignored: the input width follows from the previous layer", ["in_features", "input_dim"]);
-var WINDOW_CONV = [
-  f("kernel", "window size per axis (default 1)", ["kernel_size"]),
-  f("stride", "per axis (default 1)", ["strides"]),
-  f("dilation", "spacing of the kernel taps per axis (default 1)", ["dilation_rate"])
-];
-var POINTWISE_PARAMS = {
-  activation: ["inplace", "negative_slope", "alpha", "approximate", "beta", "threshold", "dim", "axis", "num_parameters", "max_value", "min_val", "max_val", "lower", "upper"],
-  normalisation: ["num_features", "eps", "epsilon", "momentum", "affine", "track_running_stats", "num_groups", "groups", "num_channels", "normalized_shape", "elementwise_affine", "axis", "center", "scale", "size", "alpha", "beta", "k"],
-  dropout: ["inplace", "noise_shape", "seed"],
-  scaling: ["scale", "offset", "dim", "value"]
+var NetworkTooLarge = class extends Error {
+  constructor(limit) {
+    super(`the tensor network would exceed ${limit} nodes`);
+    this.limit = limit;
+  }
+  limit;
+  name = "NetworkTooLarge";
 };
-function pointwiseFields(family) {
-  const params = (POINTWISE_PARAMS[family] ?? []).map((p) => ignored(p, "accepted, ignored"));
-  const rate = family === "dropout" ? [f("rate", "the dropout rate (accepted; dropout is the identity at inference)", ["p"])] : [];
-  return [...rate, ...params, NAME];
-}
-var LAYER_FIELDS = /* @__PURE__ */ new Map([
-  [
-    "conv",
-    [
-      f("channels", "output channels (required unless depthwise)", ["out_channels", "filters"]),
-      ...WINDOW_CONV,
-      f("padding", "`same` (default), `valid`, `causal` (1D), or zeros per side: an integer or [h, w]"),
-      f("groups", "grouped conv: an integer dividing both widths, or `depthwise` (default 1)"),
-      f("depthwise", "true: one group per input channel", []),
-      f("depth_multiplier", "output channels per input channel of a depthwise conv (default 1)"),
-      IN_CHANNELS,
-      BIAS,
-      ...TRAINING_ONLY,
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  [
-    "conv_transpose",
-    [
-      f("channels", "output channels", ["out_channels", "filters"]),
-      ...WINDOW_CONV,
-      f("padding", "zeros removed from both ends per axis (default 0), or `same` (output n·stride) or `valid`"),
-      f("output_padding", "positions added at the end per axis (default 0)"),
-      f("groups", "grouped transposed conv (default 1)"),
-      IN_CHANNELS,
-      BIAS,
-      ...TRAINING_ONLY,
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  [
-    "separable_conv",
-    [
-      f("channels", "output channels of the 1×1 conv that follows the depthwise conv", ["out_channels", "filters"]),
-      ...WINDOW_CONV,
-      f("padding", "as for conv, of the depthwise conv"),
-      f("depth_multiplier", "as for conv (default 1)"),
-      IN_CHANNELS,
-      BIAS,
-      ignored("depthwise_initializer", "accepted, ignored"),
-      ignored("pointwise_initializer", "accepted, ignored"),
-      ...TRAINING_ONLY,
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  [
-    "pool",
-    [
-      f("window", "window per axis (required unless global)", ["pool_size", "kernel_size"]),
-      f("stride", "per axis (default: the window)", ["strides"]),
-      f("padding", "`valid` (default), `same`, or zeros per side"),
-      f("mode", "`max` (default), `average`/`avg`/`mean`, `sum`, `product`, `lp`"),
-      f("global", "true: one position pooled from all that are left"),
-      f("output_size", "adaptive pooling: only 1 (a global pool) is read"),
-      { name: "ceil_mode", doc: "only false is read", aliases: [] },
-      ignored("count_include_pad", "accepted, ignored"),
-      ignored("keepdims", "accepted, ignored"),
-      ignored("data_format", "accepted, ignored"),
-      NAME
-    ]
-  ],
-  ["dense", [f("units", "output units", ["out_features", "features", "output_dim"]), IN_CHANNELS, BIAS, ...TRAINING_ONLY, ...SHORTCUT_FIELDS, NAME]],
-  ["flatten", [ignored("start_dim", "accepted, ignored"), ignored("end_dim", "accepted, ignored"), ignored("data_format", "accepted, ignored"), NAME]],
-  [
-    "upsample",
-    [
-      f("factor", "integer factor per axis (default 2)", ["scale_factor"]),
-      f("mode", "`nearest` (default) or `linear` (`bilinear`)", ["interpolation"]),
-      { name: "align_corners", doc: "only false is read", aliases: [] },
-      {
-        name: "size",
-        doc: "refused",
-        aliases: [],
-        refused: "'size' is a factor in some frameworks and an output size in others; write 'factor' (the integer factor per axis)"
-      },
-      ignored("data_format", "accepted, ignored"),
-      NAME
-    ]
-  ],
-  [
-    "recurrent",
-    [
-      f("hidden", "hidden state size", ["hidden_size", "units"]),
-      f("depth", "stacked layers (default 1)", ["num_layers"]),
-      { name: "bidirectional", doc: "only false is read", aliases: [] },
-      { name: "return_sequences", doc: "only false is read (the layer ends on its last state)", aliases: [] },
-      ignored("input_size", "accepted, ignored"),
-      ignored("nonlinearity", "accepted, ignored (the surrogate integrates multiplicatively)", ["activation"]),
-      ignored("dropout", "accepted, ignored", ["recurrent_dropout"]),
-      ignored("batch_first", "accepted, ignored"),
-      ignored("bias", "accepted, ignored", ["use_bias"]),
-      ...TRAINING_ONLY,
-      NAME
-    ]
-  ],
-  ["repeat", [f("times", "how many copies (required)", ["count", "repeats"]), f("layers", "the layers repeated, in order"), NAME]],
-  [
-    "residual",
-    [
-      f("layers", "the main path", ["body", "main", "path"]),
-      f("shortcut", "the shortcut path (absent or empty: the identity)", ["projection", "downsample", "skip"]),
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  [
-    "branches",
-    [
-      f("paths", "a list of paths, each a list of layers (empty: the identity); at least two", ["branches"]),
-      f("merge", "`concat` (default) or `sum`", ["mode"]),
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  ["add", [f("from", "the name (or list of names) of earlier layers added to the current grid"), ...SHORTCUT_FIELDS, NAME]],
-  [
-    "concat",
-    [
-      f("from", "the name (or list of names) of earlier layers joined to the current grid"),
-      ignored("axis", "accepted, ignored (always the channels)", ["dim"]),
-      ...SHORTCUT_FIELDS,
-      NAME
-    ]
-  ],
-  ["sequence", [f("layers", "the layers, in order"), NAME]],
-  ["activation", [f("fn", "the function: relu, gelu, …", ["function", "activation"]), ...pointwiseFields("activation").filter((s) => s.name !== "name"), NAME]]
-]);
-function fieldsOf(kind, family) {
-  if (kind === "pointwise") return pointwiseFields(family ?? "activation");
-  return LAYER_FIELDS.get(kind) ?? [NAME];
-}
-
-// src/config/padding-field.ts
-function readPadding(node, ctx, words) {
-  if (node.kind === "scalar" && typeof node.value === "number") {
-    const amount = readPerAxis(node, ctx, 0);
-    return amount && { mode: "explicit", amount };
-  }
-  if (node.kind === "seq") {
-    const amount = readPerAxis(node, ctx, 0);
-    return amount && { mode: "explicit", amount };
-  }
-  const word = readChoice(node, ctx, new Map(words.map((w) => [w, w])), words);
-  return word && { mode: word };
+function grow(a, size) {
+  const b = new a.constructor(size);
+  b.set(a);
+  return b;
 }
 
 // src/config/grid-geometry.ts
@@ -38897,1078 +38701,6 @@ function linearSources(j, n, f2) {
   const i0 = Math.floor(coord / den);
   if (i0 >= n - 1) return { i0: n - 1, i1: n - 1, num: 0, den };
   return { i0, i1: i0 + 1, num: coord - i0 * den, den };
-}
-
-// src/config/shortcut-fields.ts
-var NORM_WORDS = /* @__PURE__ */ new Map([
-  ["batch", "batch_norm"],
-  ["layer", "layer_norm"],
-  ["group", "group_norm"],
-  ["instance", "instance_norm"],
-  ["local_response", "local_response_norm"],
-  ["rms", "rms_norm"]
-]);
-var NONE_WORDS = /* @__PURE__ */ new Set(["none", "null", "linear", "identity", "false", "off"]);
-var BOOLEAN_NORMS = [
-  ["batch_norm", "batch_norm"],
-  ["layer_norm", "layer_norm"]
-];
-function readShortcutFields(fields, ctx) {
-  let ok = true;
-  const out = [];
-  const add = (field2, node, op) => {
-    const keySpan = fields.keySpan(field2) ?? node.span;
-    out.push({
-      body: { kind: "pointwise", family: op.family, op: op.op },
-      site: { path: pointerOf(node), span: spanJoin(keySpan, node.span), fieldSpans: { [field2]: node.span } }
-    });
-  };
-  const norms = [];
-  const normNode = fields.get("norm");
-  if (normNode) {
-    const op = readNorm(normNode, ctx);
-    if (op === void 0) ok = false;
-    else if (op !== null) norms.push({ field: "norm", node: normNode, op });
-  }
-  for (const [field2, opName] of BOOLEAN_NORMS) {
-    const node = fields.get(field2);
-    if (!node) continue;
-    const on = readBoolean(node, ctx);
-    if (on === void 0) ok = false;
-    else if (on) norms.push({ field: field2, node, op: pointwiseOpOf(normaliseWord(opName)) });
-  }
-  if (norms.length > 1) {
-    const second = norms[1];
-    ctx.sink.error(
-      "config/conflicting-fields",
-      `${displayPath(fields.body)} gives a normalisation twice ('${fields.written(norms[0].field)}' and '${fields.written(second.field)}'); keep one`,
-      fields.keySpan(second.field) ?? second.node.span
-    );
-    ok = false;
-  } else if (norms.length === 1) {
-    add(norms[0].field, norms[0].node, norms[0].op);
-  }
-  const actNode = fields.get("activation");
-  if (actNode) {
-    const op = readActivation(actNode, ctx);
-    if (op === void 0) ok = false;
-    else if (op !== null) add("activation", actNode, op);
-  }
-  const dropNode = fields.get("dropout");
-  if (dropNode) {
-    const rate = readRate(dropNode, ctx);
-    if (rate === void 0) ok = false;
-    else if (rate > 0) add("dropout", dropNode, pointwiseOpOf("dropout"));
-  }
-  return ok ? out : void 0;
-}
-function isNone(node) {
-  if (node.kind !== "scalar") return false;
-  if (node.value === null || node.value === false) return true;
-  return typeof node.value === "string" && NONE_WORDS.has(node.value.toLowerCase());
-}
-function readNorm(node, ctx) {
-  if (isNone(node)) return null;
-  if (node.kind === "scalar" && typeof node.value === "string") {
-    const short = lookupChoice(node.value, NORM_WORDS);
-    const op = short !== void 0 ? pointwiseOpOf(normaliseWord(short)) : pointwiseOpNamed(node.value);
-    if (op?.family === "normalisation") return op;
-  }
-  return badOp(node, ctx, "a normalisation", [...NORM_WORDS.keys(), "none"]);
-}
-function readActivation(node, ctx, noneAllowed = true) {
-  if (noneAllowed && isNone(node)) return null;
-  if (node.kind === "scalar" && typeof node.value === "string") {
-    const op = pointwiseOpNamed(node.value);
-    if (op?.family === "activation") return op;
-    if (op) {
-      ctx.sink.error("config/invalid-value", `${displayPath(node)} names ${op.op}, which is a ${op.family} layer, not an activation`, node.span);
-      return void 0;
-    }
-  }
-  return badOp(node, ctx, "an activation function", [...opsOf("activation"), ...noneAllowed ? ["linear"] : []]);
-}
-function badOp(node, ctx, what, known) {
-  const word = node.kind === "scalar" && typeof node.value === "string" ? node.value : void 0;
-  const guess = word ? closest(word, known) : void 0;
-  const got = word !== void 0 ? `'${word}'` : node.kind === "scalar" ? String(node.value) : `a ${node.kind === "map" ? "mapping" : "list"}`;
-  ctx.sink.error(
-    word !== void 0 ? "config/invalid-value" : "config/type",
-    `${displayPath(node)} must be ${what} (${known.join(", ")}), got ${got}${guess ? ` (did you mean '${guess}'?)` : ""}`,
-    node.span
-  );
-  return void 0;
-}
-
-// src/config/entry-read.ts
-function chainOf(r, ctx, layers, shortcuts) {
-  const after = shortcuts ? readShortcutFields(r.fields, ctx) : [];
-  if (!after) return void 0;
-  return { t: "chain", layers: [...layers, ...after], ...r.name ? { name: r.name } : {} };
-}
-function requireField(r, field2, what, ctx) {
-  if (r.fields.has(field2)) return true;
-  if (r.fields.wasSuggested(field2)) return false;
-  ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} is missing '${field2}' (${what})`, r.entry.body.span);
-  return false;
-}
-
-// src/config/read-conv-layers.ts
-function readWindow(r, ctx) {
-  const axis = (field2) => {
-    const node = r.fields.get(field2);
-    if (!node) return ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(1);
-    return readPerAxis(node, ctx);
-  };
-  const kernel = axis("kernel");
-  const stride = axis("stride");
-  const dilation = axis("dilation");
-  return kernel && stride && dilation ? { kernel, stride, dilation } : void 0;
-}
-function optionalPositive(r, field2, ctx) {
-  const node = r.fields.get(field2);
-  if (!node) return void 0;
-  return readPositiveInteger(node, ctx) ?? false;
-}
-function readBias(r, ctx) {
-  const node = r.fields.get("bias");
-  if (!node) return {};
-  const b = readBoolean(node, ctx);
-  if (b === void 0) return void 0;
-  return b ? {} : { bias: false };
-}
-function readConv(r, ctx) {
-  const window = readWindow(r, ctx);
-  const paddingNode = r.fields.get("padding");
-  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
-  const groups = readGroups(r, ctx);
-  const channels = optionalPositive(r, "channels", ctx);
-  const bias = readBias(r, ctx);
-  let ok = window !== void 0 && padding !== void 0 && groups !== void 0 && channels !== false && bias !== void 0;
-  if (groups && groups.groups !== "depthwise" && !r.fields.has("channels")) ok = requireField(r, "channels", "output channels", ctx) && ok;
-  if (!ok || !window || !padding || !groups || channels === false || !bias) return void 0;
-  const body = {
-    kind: "conv",
-    ...channels !== void 0 ? { channels } : {},
-    ...window,
-    padding,
-    groups: groups.groups,
-    depthMultiplier: groups.depthMultiplier,
-    ...bias
-  };
-  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
-}
-function readGroups(r, ctx) {
-  let depthwise = r.entry.match.depthwise === true;
-  let groups = 1;
-  let ok = true;
-  const flag = r.fields.get("depthwise");
-  if (flag) {
-    const v = readBoolean(flag, ctx);
-    if (v === void 0) ok = false;
-    else if (v) depthwise = true;
-  }
-  const groupsNode = r.fields.get("groups");
-  if (groupsNode) {
-    if (groupsNode.kind === "scalar" && typeof groupsNode.value === "string" && groupsNode.value.toLowerCase() === "depthwise") {
-      depthwise = true;
-    } else if (groupsNode.kind === "scalar" && typeof groupsNode.value === "number") {
-      const g = readPositiveInteger(groupsNode, ctx);
-      if (g === void 0) ok = false;
-      else if (depthwise) {
-        ctx.sink.error("config/conflicting-fields", `${displayPath(groupsNode)} is ${g}, but the conv is depthwise (one group per input channel); drop one of them`, groupsNode.span);
-        ok = false;
-      } else groups = g;
-    } else {
-      ctx.sink.error("config/type", `${displayPath(groupsNode)} must be a positive integer or 'depthwise', got ${groupsNode.kind === "scalar" ? String(groupsNode.value) : "a " + (groupsNode.kind === "map" ? "mapping" : "list")}`, groupsNode.span);
-      ok = false;
-    }
-  }
-  const multNode = r.fields.get("depth_multiplier");
-  let depthMultiplier = 1;
-  if (multNode) {
-    const m = readPositiveInteger(multNode, ctx);
-    if (m === void 0) ok = false;
-    else if (!depthwise) {
-      ctx.sink.error("config/conflicting-fields", `${displayPath(multNode)} applies to depthwise convs only; add 'depthwise: true' or drop it`, multNode.span);
-      ok = false;
-    } else depthMultiplier = m;
-  }
-  return ok ? { groups: depthwise ? "depthwise" : groups, depthMultiplier } : void 0;
-}
-function readConvTranspose(r, ctx) {
-  const window = readWindow(r, ctx);
-  const channels = optionalPositive(r, "channels", ctx);
-  const groups = optionalPositive(r, "groups", ctx);
-  const bias = readBias(r, ctx);
-  let ok = requireField(r, "channels", "output channels", ctx);
-  const pads = window && readTransposePadding(r, window, ctx);
-  ok = ok && window !== void 0 && pads !== void 0 && channels !== void 0 && channels !== false && groups !== false && bias !== void 0;
-  if (!ok || !window || !pads || channels === void 0 || channels === false || groups === false || !bias) return void 0;
-  const body = {
-    kind: "conv-transpose",
-    channels,
-    ...window,
-    padding: pads.padding,
-    outputPadding: pads.outputPadding,
-    groups: groups ?? 1,
-    ...bias
-  };
-  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
-}
-function readTransposePadding(r, w, ctx) {
-  const node = r.fields.get("padding");
-  const outNode = r.fields.get("output_padding");
-  const dims = w.kernel.length;
-  const outputPadding = outNode ? readPerAxis(outNode, ctx, 0) : new Array(dims).fill(0);
-  if (!node || node.kind === "seq" || node.kind === "scalar" && typeof node.value === "number") {
-    const padding2 = node ? readPerAxis(node, ctx, 0) : new Array(dims).fill(0);
-    return padding2 && outputPadding ? { padding: padding2, outputPadding } : void 0;
-  }
-  const word = readPadding(node, ctx, ["same", "valid"]);
-  if (!word || !outputPadding) return void 0;
-  if (outNode) {
-    ctx.sink.error("config/conflicting-fields", `${displayPath(outNode)} cannot be combined with padding '${word.mode}', which sets the output length itself; give padding as zeros per side instead`, outNode.span);
-    return void 0;
-  }
-  const padding = [];
-  const extra = [];
-  for (let a = 0; a < dims; a++) {
-    const e = extent(w.kernel[a], w.dilation[a]);
-    const s = w.stride[a];
-    if (word.mode === "same" && e >= s) {
-      const p = Math.ceil((e - s) / 2);
-      padding.push(p);
-      extra.push(2 * p - (e - s));
-    } else {
-      padding.push(0);
-      extra.push(Math.max(s - e, 0));
-    }
-  }
-  return { padding, outputPadding: extra };
-}
-function readSeparableConv(r, ctx) {
-  const window = readWindow(r, ctx);
-  const paddingNode = r.fields.get("padding");
-  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
-  const channels = optionalPositive(r, "channels", ctx);
-  const mult = optionalPositive(r, "depth_multiplier", ctx);
-  const bias = readBias(r, ctx);
-  const ok = requireField(r, "channels", "output channels of the 1×1 conv", ctx);
-  if (!ok || !window || !padding || channels === void 0 || channels === false || mult === false || !bias) return void 0;
-  const ones = window.kernel.map(() => 1);
-  const spans2 = (names) => ({ ...r.site, fieldSpans: r.fields.spans(names) });
-  const depthwise = {
-    body: { kind: "conv", ...window, padding, groups: "depthwise", depthMultiplier: mult ?? 1, bias: false },
-    site: spans2(["kernel", "stride", "dilation", "padding", "depth_multiplier"])
-  };
-  const pointwise = {
-    body: { kind: "conv", channels, kernel: ones, stride: ones, dilation: ones, padding: { mode: "valid" }, groups: 1, depthMultiplier: 1, ...bias },
-    site: spans2(["channels", "bias"]),
-    labelled: true
-  };
-  return chainOf(r, ctx, [depthwise, pointwise], true);
-}
-
-// src/config/read-grid-layers.ts
-var POOL_MODES = /* @__PURE__ */ new Map([
-  ["max", "max"],
-  ["average", "average"],
-  ["avg", "average"],
-  ["mean", "average"],
-  ["sum", "sum"],
-  ["product", "product"],
-  ["prod", "product"],
-  ["lp", "other"]
-]);
-var POOL_MODE_WORDS = ["max", "average", "avg", "mean", "sum", "product", "lp"];
-function readPool(r, ctx) {
-  const { match } = r.entry;
-  let ok = true;
-  let mode = match.poolMode ?? "max";
-  const modeNode = r.fields.get("mode");
-  if (modeNode) {
-    const m = readChoice(modeNode, ctx, POOL_MODES, POOL_MODE_WORDS);
-    if (m === void 0) ok = false;
-    else if (match.poolMode !== void 0 && m !== match.poolMode) {
-      ctx.sink.error("config/conflicting-fields", `${displayPath(modeNode)} says ${m}, but '${r.entry.kindWritten}' is a ${match.poolMode} pool; drop one of them`, modeNode.span);
-      ok = false;
-    } else mode = m;
-  }
-  let global2 = match.global === true;
-  const globalNode = r.fields.get("global");
-  if (globalNode) {
-    const g = readBoolean(globalNode, ctx);
-    if (g === void 0) ok = false;
-    else if (match.global && !g) {
-      ctx.sink.error("config/conflicting-fields", `${displayPath(globalNode)} is false, but '${r.entry.kindWritten}' is a global pool; drop it`, globalNode.span);
-      ok = false;
-    } else global2 = g;
-  }
-  const sizeNode = r.fields.get("output_size");
-  if (sizeNode) {
-    global2 = true;
-    const size = readPerAxis(sizeNode, ctx);
-    if (size === void 0) ok = false;
-    else if (size.some((n) => n !== 1)) {
-      ctx.sink.error(
-        "config/adaptive-pool",
-        `${displayPath(sizeNode)} is [${size.join(", ")}]: adaptive pooling is read only to size 1 (a global pool), because its windows depend on the input size; write a pool with a fixed window instead (window = input size / output size, e.g. window: 2 to go from 14 to 7)`,
-        sizeNode.span
-      );
-      ok = false;
-    }
-  } else if (match.adaptive) {
-    ok = requireField(r, "output_size", "the output size; only 1 is read", ctx) && ok;
-  }
-  const ceil = r.fields.get("ceil_mode");
-  if (ceil && !readOnly(ceil, ctx, false, "rounding the output length up changes the grid; give the padding instead")) ok = false;
-  const windowNode = r.fields.get("window");
-  const strideNode = r.fields.get("stride");
-  const paddingNode = r.fields.get("padding");
-  if (global2) {
-    for (const [node, field2] of [
-      [windowNode, "window"],
-      [strideNode, "stride"],
-      [paddingNode, "padding"]
-    ]) {
-      if (!node) continue;
-      ctx.sink.error("config/conflicting-fields", `${displayPath(r.entry.body)} has both '${r.fields.written(field2)}' and a global pool; give a window or pool globally, not both`, r.fields.keySpan(field2) ?? node.span);
-      ok = false;
-    }
-    if (!ok) return void 0;
-    return chainOf(r, ctx, [{ body: { kind: "pool", mode, window: [], stride: [], padding: { mode: "valid" }, global: true }, site: r.site, labelled: true }], false);
-  }
-  if (!windowNode) {
-    if (r.fields.wasSuggested("window")) return void 0;
-    ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, r.entry.body.span);
-    return void 0;
-  }
-  const window = readPerAxis(windowNode, ctx);
-  const stride = strideNode ? readPerAxis(strideNode, ctx) : window;
-  const padding = paddingNode ? readPadding(paddingNode, ctx, ["valid", "same"]) : { mode: "valid" };
-  if (!ok || !window || !stride || !padding) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "pool", mode, window, stride, padding, global: false }, site: r.site, labelled: true }], false);
-}
-var UPSAMPLE_MODES = /* @__PURE__ */ new Map([
-  ["nearest", "nearest"],
-  ["linear", "linear"],
-  ["bilinear", "linear"]
-]);
-function readUpsample(r, ctx) {
-  let ok = true;
-  let mode = r.entry.match.upsampleMode ?? "nearest";
-  const modeNode = r.fields.get("mode");
-  if (modeNode) {
-    const m = readChoice(modeNode, ctx, UPSAMPLE_MODES, ["nearest", "linear", "bilinear"]);
-    if (m === void 0) ok = false;
-    else mode = m;
-  }
-  const align2 = r.fields.get("align_corners");
-  if (align2 && !readOnly(align2, ctx, false, "linear upsampling is read with half-pixel centres (align_corners false)")) ok = false;
-  const factorNode = r.fields.get("factor");
-  const factor = factorNode ? readPerAxis(factorNode, ctx) : ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(2);
-  if (!ok || !factor) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "upsample", factor, mode }, site: r.site, labelled: true }], false);
-}
-
-// src/config/read-plain-layers.ts
-function readDense(r, ctx) {
-  const ok = requireField(r, "units", "output units", ctx);
-  const unitsNode = r.fields.get("units");
-  const units = unitsNode && readPositiveInteger(unitsNode, ctx);
-  const biasNode = r.fields.get("bias");
-  const bias = biasNode ? readBoolean(biasNode, ctx) : true;
-  if (!ok || units === void 0 || bias === void 0) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "dense", units, ...bias ? {} : { bias: false } }, site: r.site, labelled: true }], true);
-}
-function readFlatten(r, ctx) {
-  return chainOf(r, ctx, [{ body: { kind: "flatten" }, site: r.site, labelled: true }], false);
-}
-function readRecurrent(r, ctx) {
-  let ok = requireField(r, "hidden", "hidden state size", ctx);
-  const hiddenNode = r.fields.get("hidden");
-  const hidden = hiddenNode && readPositiveInteger(hiddenNode, ctx);
-  const depthNode = r.fields.get("depth");
-  const depth = depthNode ? readPositiveInteger(depthNode, ctx) : 1;
-  const bi = r.fields.get("bidirectional");
-  if (bi && !readOnly(bi, ctx, false, "bidirectional recurrent layers are not read yet")) ok = false;
-  const seq = r.fields.get("return_sequences");
-  if (seq && !readOnly(seq, ctx, false, "the layer is read as ending on its last state; per-step outputs are not read yet")) ok = false;
-  if (!ok || hidden === void 0 || depth === void 0) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "recurrent", hidden, depth }, site: r.site, labelled: true }], false);
-}
-function readPointwise(r, ctx) {
-  const op = r.entry.match.op;
-  let ok = true;
-  const rateNode = r.fields.get("rate") ?? r.entry.scalar;
-  if (r.entry.scalar && op.family !== "dropout") {
-    ctx.sink.error("config/type", `${displayPath(r.entry.scalar)} must be a mapping of the layer's fields (or nothing), got ${String(r.entry.scalar.value)}`, r.entry.scalar.span);
-    ok = false;
-  } else if (rateNode && readRate(rateNode, ctx) === void 0) ok = false;
-  if (!ok) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
-}
-function readActivationLayer(r, ctx) {
-  const fnNode = r.fields.get("fn") ?? r.entry.scalar;
-  if (!fnNode) {
-    requireField(r, "fn", "the function, e.g. relu", ctx);
-    return void 0;
-  }
-  const read = readActivation(fnNode, ctx);
-  if (read === void 0) return void 0;
-  const op = read ?? pointwiseOpOf("identity");
-  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
-}
-
-// src/config/read-blocks.ts
-function readRepeat(r, ctx) {
-  const hasTimes = requireField(r, "times", "how many copies", ctx);
-  const hasLayers = requireField(r, "layers", "the layers to repeat", ctx);
-  const timesNode = r.fields.get("times");
-  const times = timesNode && readPositiveInteger(timesNode, ctx);
-  const layersNode = r.fields.get("layers");
-  const body = layersNode && ctx.readList(layersNode, false);
-  if (!hasTimes || !hasLayers || !timesNode || times === void 0 || !body) return void 0;
-  return { t: "repeat", times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body, ...r.name ? { name: r.name } : {} };
-}
-function readSequence(r, ctx) {
-  if (!requireField(r, "layers", "the layers, in order", ctx)) return void 0;
-  const body = ctx.readList(r.fields.get("layers"), false);
-  if (!body) return void 0;
-  return { t: "sequence", body, ...r.name ? { name: r.name } : {} };
-}
-function mergeOf(r, mode, origin) {
-  return { body: { kind: "merge", mode, origin }, site: r.site, labelled: true };
-}
-function block(r, ctx, paths, refs, merge, ok) {
-  const after = readShortcutFields(r.fields, ctx);
-  if (!ok || !after || !refs || paths.some((p) => p === void 0)) return void 0;
-  return { t: "merge", paths, refs, merge, after, ...r.name ? { name: r.name } : {} };
-}
-function readResidual(r, ctx) {
-  const ok = requireField(r, "layers", "the main path, a list of layers", ctx);
-  const mainNode = r.fields.get("layers");
-  const main = mainNode && ctx.readList(mainNode, false);
-  const shortcutNode = r.fields.get("shortcut");
-  const shortcut = shortcutNode ? ctx.readPath(shortcutNode) : [];
-  return block(r, ctx, [main, shortcut], [], mergeOf(r, "sum", "residual"), ok);
-}
-var MERGE_MODES = /* @__PURE__ */ new Map([
-  ["concat", "concat"],
-  ["concatenate", "concat"],
-  ["cat", "concat"],
-  ["sum", "sum"],
-  ["add", "sum"]
-]);
-function readBranches(r, ctx) {
-  let ok = requireField(r, "paths", "a list of paths, each a list of layers", ctx);
-  const modeNode = r.fields.get("merge");
-  const mode = modeNode ? readChoice(modeNode, ctx, MERGE_MODES, ["concat", "sum"]) : "concat";
-  if (!mode) ok = false;
-  const pathsNode = r.fields.get("paths");
-  const paths = [];
-  if (pathsNode) {
-    if (pathsNode.kind !== "seq" || pathsNode.items.length < 2) {
-      const got = pathsNode.kind === "seq" ? `${pathsNode.items.length} path${pathsNode.items.length === 1 ? "" : "s"}` : "no list";
-      ctx.sink.error("config/branches", `${displayPath(pathsNode)} must list at least two paths (each a list of layers; an empty list is the identity), got ${got}`, pathsNode.span);
-      ok = false;
-    } else {
-      for (const p of pathsNode.items) paths.push(ctx.readPath(p));
-    }
-  }
-  return block(r, ctx, paths, [], mergeOf(r, mode ?? "concat", "branches"), ok);
-}
-function readSkip(r, ctx) {
-  const ok = requireField(r, "from", "the name of the earlier layer to merge with", ctx);
-  const fromNode = r.fields.get("from");
-  const refs = fromNode ? readRefs(fromNode, ctx) : [];
-  const mode = r.entry.match.reader === "add" ? "sum" : "concat";
-  return block(r, ctx, [[]], refs, mergeOf(r, mode, "skip"), ok);
-}
-function readRefs(node, ctx) {
-  const items = node.kind === "seq" ? node.items : [node];
-  if (items.length === 0) {
-    ctx.sink.error("config/invalid-value", `${displayPath(node)} is empty; name at least one earlier layer`, node.span);
-    return void 0;
-  }
-  const out = [];
-  let ok = true;
-  for (const item of items) {
-    const m = item.kind === "scalar" && typeof item.value === "string" ? /^([^[\]]+)((?:\[[1-9][0-9]*\])*)$/.exec(item.value) : null;
-    if (!m) {
-      const got = item.kind === "scalar" ? JSON.stringify(item.value) : `a ${item.kind === "map" ? "mapping" : "list"}`;
-      ctx.sink.error("config/invalid-value", `${displayPath(item)} must name an earlier layer ('enc1', or one copy of a repeated layer such as 'down[2]'), got ${got}`, item.span);
-      ok = false;
-      continue;
-    }
-    const copies = [...m[2].matchAll(/\[([0-9]+)\]/g)].map((c) => Number(c[1]));
-    out.push({ text: m[0], base: m[1], copies, span: item.span, where: displayPath(item) });
-  }
-  return ok ? out : void 0;
-}
-
-// src/config/read-layers.ts
-var READERS = {
-  conv: readConv,
-  conv_transpose: readConvTranspose,
-  separable_conv: readSeparableConv,
-  pool: readPool,
-  upsample: readUpsample,
-  dense: readDense,
-  flatten: readFlatten,
-  recurrent: readRecurrent,
-  pointwise: readPointwise,
-  activation: readActivationLayer,
-  repeat: readRepeat,
-  sequence: readSequence,
-  residual: readResidual,
-  branches: readBranches,
-  add: readSkip,
-  concat: readSkip
-};
-var SCALAR_BODIES = /* @__PURE__ */ new Set(["activation", "pointwise"]);
-var RESERVED = /* @__PURE__ */ new Set(["input"]);
-function readLayerList(node, ctx, allowEmpty = false) {
-  const rc = {
-    ...ctx,
-    readList: (n, empty) => readLayerList(n, ctx, empty),
-    readPath: (n) => {
-      if (n.kind === "seq") return readLayerList(n, ctx, true);
-      if (n.kind === "scalar" && n.value === null) return [];
-      const one = readLayer(n, rc);
-      return one ? [one] : void 0;
-    }
-  };
-  if (node.kind !== "seq") {
-    const got = node.kind === "map" ? "a mapping" : node.value === null ? "nothing" : String(node.value);
-    ctx.sink.error("config/type", `${displayPath(node)} must be a list of layers, got ${got}`, node.span);
-    return void 0;
-  }
-  if (node.items.length === 0 && !allowEmpty) {
-    ctx.sink.error("config/empty-layers", `${displayPath(node)} is empty; list at least one layer`, node.span);
-    return void 0;
-  }
-  let ok = true;
-  const out = [];
-  for (const item of node.items) {
-    const t = readLayer(item, rc);
-    if (t) out.push(t);
-    else ok = false;
-  }
-  return ok ? out : void 0;
-}
-function readLayer(item, ctx) {
-  const entry = readLayerEntry(item, ctx.sink);
-  if (!entry) return void 0;
-  if (entry.scalar && !SCALAR_BODIES.has(entry.match.reader)) {
-    const s = entry.scalar;
-    ctx.sink.error("config/type", `${displayPath(s)} must be a mapping of the layer's fields, got ${describeValue(s)}; e.g. '- ${entry.kindWritten}: {…}'`, s.span);
-    return void 0;
-  }
-  const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
-  const nameNode = fields.get("name");
-  const text = nameNode ? readName(nameNode, ctx) : void 0;
-  const site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans() };
-  const read = { entry, fields, site, ...text !== void 0 && nameNode ? { name: { text, span: nameNode.span } } : {} };
-  const t = READERS[entry.match.reader](read, ctx);
-  return t && fields.ok && (nameNode === void 0 || text !== void 0) ? t : void 0;
-}
-function readName(node, ctx) {
-  const text = readText(node, ctx);
-  if (text === void 0) return void 0;
-  if (/[[\]]/.test(text) || RESERVED.has(text)) {
-    const why = RESERVED.has(text) ? `'${text}' is reserved (it means the model input in 'from')` : "'[' and ']' are kept for the copies a repeat makes (name[1], name[2], …)";
-    ctx.sink.error("config/invalid-name", `${displayPath(node)} is '${text}', which cannot name a layer: ${why}`, node.span);
-    return void 0;
-  }
-  return text;
-}
-
-// src/config/layer-names.ts
-function checkNames(templates, sink) {
-  const all = /* @__PURE__ */ new Map();
-  collect(templates, all);
-  const defs = /* @__PURE__ */ new Map();
-  const out = /* @__PURE__ */ new Map();
-  let ok = true;
-  const define = (name, chain) => {
-    if (!name) return;
-    const earlier = defs.get(name.text);
-    if (earlier) {
-      sink.error(
-        "config/duplicate-name",
-        `the layer name '${name.text}' is already used on line ${earlier.span.line}; names must be unique in the model (the copies a repeat makes are numbered ${name.text}[1], ${name.text}[2], … by themselves)`,
-        name.span
-      );
-      ok = false;
-      return;
-    }
-    defs.set(name.text, { span: name.span, chain });
-  };
-  const check2 = (ref, chain) => {
-    if (ref.base === "input") {
-      if (ref.copies.length > 0) {
-        sink.error("config/invalid-copy", `${ref.where}: 'input' is the model input, which has no copies; write 'input'`, ref.span);
-        ok = false;
-      } else out.set(ref, { input: true });
-      return;
-    }
-    const def = defs.get(ref.base);
-    if (!def) {
-      ok = false;
-      const later = all.get(ref.base);
-      if (later) {
-        sink.error("config/forward-reference", `${ref.where} names '${ref.base}', which is defined later (line ${later.line}); a merge reads only layers that come before it`, ref.span);
-        return;
-      }
-      const guess = closest(ref.base, [...defs.keys(), "input"]);
-      sink.error("config/unknown-name", `${ref.where}: no layer before this one is named '${ref.base}'${guess ? ` (did you mean '${guess}'?)` : ""}; give the layer a 'name' to merge with it`, ref.span);
-      return;
-    }
-    let shared = 0;
-    while (shared < def.chain.length && shared < chain.length && def.chain[shared] === chain[shared]) shared++;
-    const outside = def.chain.slice(shared);
-    if (ref.copies.length === 0 && outside.length > 0) {
-      const example = `${ref.base}${outside.map((f2) => `[${f2.times}]`).join("")}`;
-      const count = outside.reduce((a, f2) => a * f2.times, 1);
-      sink.error(
-        "config/ambiguous-name",
-        `${ref.where}: '${ref.base}' is inside a repeat (line ${outside[0].span.line}) that this merge is outside of, so it names ${count} copies; name one, e.g. '${example}'`,
-        ref.span
-      );
-      ok = false;
-      return;
-    }
-    if (ref.copies.length !== outside.length) {
-      const why = outside.length === 0 ? def.chain.length === 0 ? `'${ref.base}' is not inside a repeat` : `inside the repeat that copies it, '${ref.base}' already means the copy of the same iteration` : `'${ref.base}' is inside ${outside.length} repeats that this merge is outside of; give one copy number for each`;
-      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but ${why}`, ref.span);
-      ok = false;
-      return;
-    }
-    const over = ref.copies.findIndex((c, i) => c > outside[i].times);
-    if (over >= 0) {
-      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but the repeat on line ${outside[over].span.line} makes ${outside[over].times} copies`, ref.span);
-      ok = false;
-      return;
-    }
-    out.set(ref, { input: false, shared });
-  };
-  const walk = (list3, chain) => {
-    for (const t of list3) {
-      switch (t.t) {
-        case "chain":
-          break;
-        case "repeat":
-          walk(t.body, [...chain, { times: t.times, span: t.timesSpan }]);
-          break;
-        case "sequence":
-          walk(t.body, chain);
-          break;
-        case "merge":
-          for (const p of t.paths) walk(p, chain);
-          for (const r of t.refs) check2(r, chain);
-          break;
-      }
-      define(t.name, chain);
-    }
-  };
-  walk(templates, []);
-  return ok ? out : void 0;
-}
-function collect(list3, into) {
-  for (const t of list3) {
-    if (t.t === "repeat" || t.t === "sequence") collect(t.body, into);
-    if (t.t === "merge") for (const p of t.paths) collect(p, into);
-    if (t.name && !into.has(t.name.text)) into.set(t.name.text, t.name.span);
-  }
-}
-
-// src/config/layer-templates.ts
-function expandedCount(templates) {
-  let total = 0;
-  for (const t of templates) total += countOne(t);
-  return total;
-}
-function countOne(t) {
-  switch (t.t) {
-    case "chain":
-      return t.layers.length;
-    case "repeat":
-      return t.times * expandedCount(t.body);
-    case "sequence":
-      return expandedCount(t.body);
-    case "merge":
-      return t.paths.reduce((a, p) => a + expandedCount(p), 0) + 1 + t.after.length;
-  }
-}
-
-// src/config/expand-layers.ts
-function expandTemplates(templates, refs, listPath, listSpan, sink) {
-  const total = expandedCount(templates);
-  if (total > MAX_EXPANDED_LAYERS) {
-    const amount = Number.isSafeInteger(total) ? `${total} layers` : `more than ${Number.MAX_SAFE_INTEGER} layers`;
-    const culprit = biggestRepeat(templates);
-    if (culprit) {
-      sink.error(
-        "config/too-many-layers",
-        `${culprit.timesPath} is ${culprit.times}, which makes the model expand to ${amount}; at most ${MAX_EXPANDED_LAYERS} layers are allowed after expanding repeat blocks`,
-        culprit.timesSpan
-      );
-    } else {
-      sink.error("config/too-many-layers", `${listPath} has ${amount}; at most ${MAX_EXPANDED_LAYERS} are allowed`, listSpan);
-    }
-    return void 0;
-  }
-  return new Expansion(refs).run(templates);
-}
-function biggestRepeat(templates) {
-  let best;
-  const visit3 = (list3) => {
-    for (const t of list3) {
-      if (t.t === "repeat") {
-        const count = countOne(t);
-        if (!best || count > best.count) best = { count, t };
-      } else if (t.t === "sequence") visit3(t.body);
-      else if (t.t === "merge") for (const p of t.paths) visit3(p);
-    }
-  };
-  visit3(templates);
-  return best?.t;
-}
-var Expansion = class {
-  constructor(refs) {
-    this.refs = refs;
-  }
-  refs;
-  out = [];
-  /** Label → the output layer of the entry that carries it. */
-  labels = /* @__PURE__ */ new Map();
-  /** Iterations (1-based) of the enclosing repeats, outermost first. */
-  iterations = [];
-  run(templates) {
-    this.list(templates, INPUT);
-    return this.out;
-  }
-  list(templates, input) {
-    let cur = input;
-    for (const t of templates) cur = this.one(t, cur);
-    return cur;
-  }
-  label(text) {
-    return text + this.iterations.map((i) => `[${i}]`).join("");
-  }
-  make(m, inputs, name) {
-    const index = this.out.length;
-    const depth = this.iterations.length;
-    const layer = {
-      ...m.body,
-      index,
-      inputs,
-      path: m.site.path,
-      span: m.site.span,
-      fieldSpans: m.site.fieldSpans,
-      ...name !== void 0 && m.labelled ? { name } : {},
-      ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {}
-    };
-    this.out.push(layer);
-    return index;
-  }
-  chain(layers, input, name) {
-    let cur = input;
-    for (const m of layers) cur = this.make(m, [cur], name);
-    return cur;
-  }
-  /** Records the entry's label; a block's output layer takes it when it has no label of its own. */
-  register(text, output, adopt2) {
-    if (text === void 0) return;
-    const label2 = this.label(text);
-    this.labels.set(label2, output);
-    const layer = this.out[output];
-    if (adopt2 && layer && layer.name === void 0) this.out[output] = { ...layer, name: label2 };
-  }
-  one(t, input) {
-    const name = t.name ? this.label(t.name.text) : void 0;
-    switch (t.t) {
-      case "chain": {
-        const out = this.chain(t.layers, input, name);
-        this.register(t.name?.text, out, false);
-        return out;
-      }
-      case "repeat": {
-        let cur = input;
-        for (let i = 1; i <= t.times; i++) {
-          this.iterations.push(i);
-          cur = this.list(t.body, cur);
-          this.iterations.pop();
-        }
-        this.register(t.name?.text, cur, true);
-        return cur;
-      }
-      case "sequence": {
-        const out = this.list(t.body, input);
-        this.register(t.name?.text, out, true);
-        return out;
-      }
-      case "merge": {
-        const ins = t.paths.map((p) => this.list(p, input));
-        for (const r of t.refs) ins.push(this.resolve(r));
-        const merged = this.make(t.merge, ins, name);
-        const out = this.chain(t.after, merged, void 0);
-        this.register(t.name?.text, out, false);
-        return out;
-      }
-    }
-  }
-  resolve(ref) {
-    const how = this.refs.get(ref);
-    if (!how) throw new Error(`layer expansion: the reference '${ref.text}' was not checked (a loader bug)`);
-    if (how.input) return INPUT;
-    const label2 = ref.base + this.iterations.slice(0, how.shared).map((i) => `[${i}]`).join("") + ref.copies.map((c) => `[${c}]`).join("");
-    const at = this.labels.get(label2);
-    if (at === void 0) throw new Error(`layer expansion: '${label2}' has no layer (a loader bug)`);
-    return at;
-  }
-};
-
-// src/config/build-layered.ts
-function buildLayeredModel(root, file, sink) {
-  const inputNode = asMap(fieldOf(root, "input"));
-  const input = readInput(inputNode, sink);
-  const output = readOutput(asMap(fieldOf(root, "output")));
-  const ws = fieldOf(root, "weight_sharing");
-  const weightSharing = ws === void 0 ? true : booleanOf(ws);
-  const shapeNode = inputNode ? fieldOf(inputNode, "shape") : void 0;
-  const ctx = {
-    sink,
-    dims: input?.shape.length,
-    shapeText: input ? `[${input.shape.join(", ")}]` : "",
-    shapePath: shapeNode ? displayPath(shapeNode) : "the input shape"
-  };
-  const layersNode = fieldOf(root, "layers");
-  const templates = layersNode ? readLayerList(layersNode, ctx) : void 0;
-  const refs = templates && checkNames(templates, sink);
-  if (!input || !output || weightSharing === void 0 || !templates || !refs || !layersNode) return void 0;
-  const layers = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
-  if (!layers) return void 0;
-  return { kind: "layered", file, input, weightSharing, layers, output, span: root.span };
-}
-
-// src/config/diagnostic-sink.ts
-var DiagnosticSink = class {
-  constructor(file) {
-    this.file = file;
-  }
-  file;
-  items = [];
-  seen = /* @__PURE__ */ new Set();
-  error(code, message, span) {
-    const key = span ? `${code}\0${span.offset}\0${span.endOffset}` : `${code}\0${message}`;
-    if (this.seen.has(key)) return;
-    this.seen.add(key);
-    this.items.push(span ? { code, message, file: this.file, span, severity: "error" } : { code, message, file: this.file, severity: "error" });
-  }
-  get count() {
-    return this.items.length;
-  }
-  /** Sorted by offset (position-less ones first), then by end, code and message. */
-  sorted() {
-    return [...this.items].sort(
-      (a, b) => (a.span?.offset ?? -1) - (b.span?.offset ?? -1) || (a.span?.endOffset ?? -1) - (b.span?.endOffset ?? -1) || compare(a.code, b.code) || compare(a.message, b.message)
-    );
-  }
-};
-function compare(a, b) {
-  return a < b ? -1 : a > b ? 1 : 0;
-}
-
-// src/config/field-aliases.ts
-var INPUT_ALIASES = /* @__PURE__ */ new Map([
-  ["features", "channels"],
-  ["in_channels", "channels"],
-  ["num_channels", "channels"]
-]);
-var INPUT_FIELDS = ["shape", "channels", "representation"];
-function normaliseFieldAliases(root, sink) {
-  if (root.kind !== "map") return;
-  const input = fieldOf(root, "input");
-  if (input?.kind === "map") normaliseBody(input, INPUT_FIELDS, INPUT_ALIASES, sink);
-}
-function normaliseBody(body, fields, aliases, sink) {
-  const bySpelling = /* @__PURE__ */ new Map();
-  for (const f2 of fields) bySpelling.set(normaliseWord(f2), f2);
-  for (const [alias, canonical] of aliases) bySpelling.set(normaliseWord(alias), canonical);
-  const byCanonical = /* @__PURE__ */ new Map();
-  for (const entry of body.entries) {
-    const canonical = bySpelling.get(normaliseWord(entry.key)) ?? entry.key;
-    const group2 = byCanonical.get(canonical) ?? [];
-    group2.push(entry);
-    byCanonical.set(canonical, group2);
-  }
-  const dropped = /* @__PURE__ */ new Set();
-  for (const [canonical, group2] of byCanonical) {
-    const first = group2[0];
-    if (!first) continue;
-    first.key = canonical;
-    for (const extra of group2.slice(1)) {
-      dropped.add(extra);
-      const spellings = group2.map((e) => `'${e.writtenKey}'`);
-      const listed = spellings.length === 2 ? `${spellings.join(" and ")}, which both mean` : `${spellings.join(", ")}, which all mean`;
-      sink.error("config/alias-conflict", `${displayPath(body)} gives ${listed} '${canonical}'; keep only one of them`, extra.keySpan);
-    }
-  }
-  if (dropped.size > 0) {
-    const kept = body.entries.filter((e) => !dropped.has(e));
-    body.entries.splice(0, body.entries.length, ...kept);
-  }
-}
-
-// src/config/model-schema.ts
-var import_ajv = __toESM(require_ajv(), 1);
-import { existsSync as existsSync3, readFileSync } from "node:fs";
-import { fileURLToPath } from "node:url";
-var CANDIDATE_DIRS = ["../../schema/", "../schema/"];
-var MODEL_SCHEMA = "model.schema.json";
-var cached = /* @__PURE__ */ new Map();
-function schemaFilePath(name) {
-  for (const dir of CANDIDATE_DIRS) {
-    const path6 = fileURLToPath(new URL(dir + name, import.meta.url));
-    if (existsSync3(path6)) return path6;
-  }
-  const looked = CANDIDATE_DIRS.map((dir) => dir + name).join(" and ");
-  throw new Error(`${name} not found (looked for ${looked} relative to ${import.meta.url}); the installation is incomplete`);
-}
-function compiledSchemaFile(name) {
-  const hit = cached.get(name);
-  if (hit) return hit;
-  const schema = JSON.parse(readFileSync(schemaFilePath(name), "utf8"));
-  const ajv = new import_ajv.Ajv({ allErrors: true, strict: true, verbose: true, allowUnionTypes: true });
-  const validate = ajv.compile(schema);
-  const locations = /* @__PURE__ */ new Map();
-  const walk = (node, at) => {
-    if (node === null || typeof node !== "object") return;
-    if (!Array.isArray(node)) locations.set(node, at);
-    for (const [k, v] of Object.entries(node)) walk(v, `${at}/${k}`);
-  };
-  walk(schema, "");
-  const compiled = { schema, validate, locations };
-  cached.set(name, compiled);
-  return compiled;
-}
-function compiledModelSchema() {
-  return compiledSchemaFile(MODEL_SCHEMA);
-}
-function validateAgainstSchema(value) {
-  const { validate } = compiledModelSchema();
-  return validate(value) ? [] : [...validate.errors ?? []];
-}
-
-// src/config/model-pointer.ts
-var import_yaml3 = __toESM(require_dist(), 1);
-function resolveModelNode(doc, lines, sink, pointer, segments) {
-  const anchors = new AnchorIndex(doc);
-  const docSpan = spanFromOffsets(lines, 0, 0);
-  let cur = doc.contents;
-  let curSpan = spanOfRange(lines, rangeOf(cur)) ?? docSpan;
-  const walked = [];
-  const fail = (detail, hintKeys) => {
-    const where2 = walked.length === 0 ? "the document" : formatFieldPath(walked);
-    const keys = hintKeys.length > 0 ? ` (it has ${hintKeys.slice(0, 8).map((k) => `'${k}'`).join(", ")}${hintKeys.length > 8 ? ", …" : ""})` : "";
-    sink.error(
-      "config/model-missing",
-      `the model path '${pointer}' does not resolve: ${where2} ${detail}${keys}; pass --model-path with the JSON pointer of the architecture, e.g. --model-path /training/model`,
-      curSpan
-    );
-    return void 0;
-  };
-  for (let i = 0; i < segments.length; i++) {
-    const seg = segments[i];
-    if ((0, import_yaml3.isAlias)(cur)) cur = anchors.resolve(cur);
-    if ((0, import_yaml3.isMap)(cur)) {
-      const keys = [];
-      let found2;
-      for (const pair of cur.items) {
-        const k = (0, import_yaml3.isScalar)(pair.key) ? pair.key.value : void 0;
-        if (k === void 0 || k !== null && typeof k === "object") continue;
-        keys.push(String(k));
-        if (String(k) === seg) found2 = { value: pair.value, keyRange: rangeOf(pair.key) };
-      }
-      if (!found2) {
-        const guess = closest(seg, keys);
-        return fail(`has no key '${seg}'${guess ? ` (did you mean '${guess}'?)` : ""}`, guess ? [] : keys);
-      }
-      walked.push(seg);
-      const keySpan = spanOfRange(lines, found2.keyRange) ?? curSpan;
-      cur = found2.value;
-      curSpan = spanOfRange(lines, rangeOf(cur)) ?? spanFromOffsets(lines, keySpan.endOffset, keySpan.endOffset);
-    } else if ((0, import_yaml3.isSeq)(cur)) {
-      if (!isArrayIndex(seg) || Number(seg) >= cur.items.length) {
-        return fail(`is a list of ${cur.items.length} entries, so '${seg}' is not one of its indices`, []);
-      }
-      walked.push(Number(seg));
-      cur = cur.items[Number(seg)];
-      curSpan = spanOfRange(lines, rangeOf(cur)) ?? curSpan;
-    } else {
-      return fail(cur === null || cur === void 0 || (0, import_yaml3.isScalar)(cur) && cur.value === null ? `is empty, so it has no '${seg}'` : `is a single value, so it has no '${seg}'`, []);
-    }
-  }
-  if (cur === null || cur === void 0) {
-    if (segments.length === 0) {
-      sink.error("config/model-missing", `the document is empty; expected the model architecture at '${pointer || "/"}' (see --model-path)`, docSpan);
-      return void 0;
-    }
-  }
-  return { node: cur, segments: walked, fallback: curSpan };
-}
-function rangeOf(node) {
-  if (node && typeof node === "object" && "range" in node) {
-    const r = node.range;
-    if (Array.isArray(r) && r.length === 3) return r;
-  }
-  return void 0;
-}
-
-// src/config/layer-entry-count.ts
-var LIST_KEYS = new Set(["layers", "body", "main", "path", "shortcut", "projection", "downsample", "skip"].map(normaliseWord));
-var PATHS_KEYS = new Set(["paths", "branches"].map(normaliseWord));
-function checkLayerEntryCount(root, sink) {
-  if (root.kind !== "map") return true;
-  const layers = fieldOf(root, "layers");
-  if (layers?.kind !== "seq") return true;
-  const count = countList(layers);
-  if (count <= MAX_EXPANDED_LAYERS) return true;
-  sink.error(
-    "config/too-many-layers",
-    `${displayPath(layers)} lists ${count} layers (counting those inside blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
-    layers.span
-  );
-  return false;
-}
-function countList(list3) {
-  if (list3.kind !== "seq") return 0;
-  let n = 0;
-  for (const item of list3.items) n += countEntry(item);
-  return n;
-}
-function countEntry(item) {
-  if (item.kind !== "map") return 1;
-  const maps = [item, ...item.entries.map((e) => e.value).filter((v) => v.kind === "map")];
-  let nested = 0;
-  let holds = false;
-  for (const m of maps) {
-    if (m.kind !== "map") continue;
-    for (const e of m.entries) {
-      const key = normaliseWord(e.key);
-      if (LIST_KEYS.has(key) && e.value.kind === "seq") {
-        holds = true;
-        nested += countList(e.value);
-      } else if (PATHS_KEYS.has(key) && e.value.kind === "seq") {
-        holds = true;
-        for (const p of e.value.items) nested += p.kind === "seq" ? countList(p) : countEntry(p);
-      }
-    }
-  }
-  return holds ? nested : 1;
 }
 
 // src/config/model-shapes.ts
@@ -40131,1416 +38863,9 @@ function outputPosition(model, shape) {
   return { position, defaulted: positionCount(shape) > 1 };
 }
 
-// src/config/schema-errors.ts
-var MODEL_EITHER_OR = "/allOf/1/else";
-var MODEL_NOT_BOTH = "/allOf/1/then";
-var LAYER_LIST = "/definitions/layerList";
-var INPUT2 = "/definitions/input";
-function reportSchemaErrors(errors, root, locations, sink) {
-  const typeErrorAt = new Set(errors.filter((e) => e.keyword === "type").map((e) => e.instancePath));
-  const suggested = /* @__PURE__ */ new Set();
-  for (const e of errors) {
-    if (e.keyword !== "additionalProperties") continue;
-    const guess = suggestionFor(e, locations);
-    if (guess) suggested.add(`${e.instancePath}\0${guess}`);
-  }
-  const requiredGroups = /* @__PURE__ */ new Map();
-  for (const e of errors) {
-    if (e.keyword === "if") continue;
-    if (e.keyword !== "type" && typeErrorAt.has(e.instancePath)) continue;
-    if (e.keyword === "required") {
-      if (suggested.has(`${e.instancePath}\0${String(e.params["missingProperty"])}`)) continue;
-      const key = `${e.instancePath}\0${where(e, locations)}`;
-      const group2 = requiredGroups.get(key) ?? [];
-      group2.push(e);
-      requiredGroups.set(key, group2);
-      continue;
-    }
-    reportOne(e, root, locations, sink);
-  }
-  for (const group2 of requiredGroups.values()) reportRequired(group2, root, locations, sink);
-}
-function where(e, locations) {
-  return e.parentSchema ? locations.get(e.parentSchema) : void 0;
-}
-function segmentsOf(instancePath) {
-  if (instancePath === "") return [];
-  return instancePath.slice(1).split("/").map((s) => s.replace(/~1/g, "/").replace(/~0/g, "~"));
-}
-function reportOne(e, root, locations, sink) {
-  const node = locate(root, segmentsOf(e.instancePath)) ?? root;
-  const path6 = displayPath(node);
-  const loc = where(e, locations);
-  const parent = e.parentSchema ?? {};
-  const params = e.params;
-  const at = node.span;
-  switch (e.keyword) {
-    case "type": {
-      const isNumber = typeof e.data === "number";
-      const code = isNumber && typeIncludes(parent, "integer") ? "config/invalid-number" : "config/type";
-      sink.error(code, `${path6} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}`, at);
-      return;
-    }
-    case "minimum":
-    case "exclusiveMinimum":
-    case "maximum":
-    case "exclusiveMaximum": {
-      const limit = Number(params["limit"]);
-      const noun = typeIncludes(parent, "integer") ? "integer" : "number";
-      const what = e.keyword === "minimum" && limit === 1 && noun === "integer" ? "a positive integer" : e.keyword === "minimum" && limit === 0 ? `a non-negative ${noun}` : `${params["comparison"] ?? ""} ${limit}`.trim();
-      sink.error("config/invalid-number", `${path6} must be ${what}, got ${describeScalar(e.data)}`, at);
-      return;
-    }
-    case "enum": {
-      const allowed = (Array.isArray(e.schema) ? e.schema : []).map(String);
-      const guess = typeof e.data === "string" ? closest(e.data, allowed) : void 0;
-      sink.error(
-        "config/invalid-value",
-        `${path6} must be one of ${allowed.map((a) => `'${a}'`).join(", ")}, got ${describeScalar(e.data)}${guess ? ` (did you mean '${guess}'?)` : ""}`,
-        at
-      );
-      return;
-    }
-    case "const":
-      sink.error("config/invalid-value", `${path6} must be ${JSON.stringify(e.schema)}, got ${describeScalar(e.data)}`, at);
-      return;
-    case "minLength":
-      sink.error("config/invalid-value", `${path6} must be a non-empty string`, at);
-      return;
-    case "minItems":
-    case "maxItems": {
-      const count = Array.isArray(e.data) ? e.data.length : 0;
-      if (loc === LAYER_LIST) {
-        sink.error("config/empty-layers", `${path6} is empty; list at least one layer`, at);
-        return;
-      }
-      sink.error("config/invalid-length", `${path6} must have ${lengthRule(parent)}, got ${count}${lengthHint(loc)}`, at);
-      return;
-    }
-    case "additionalProperties": {
-      reportUnknownKey(e, node, loc, parent, sink);
-      return;
-    }
-    case "not": {
-      if (loc === MODEL_NOT_BOTH && node.kind === "map") {
-        const layered = ["input", "output", "layers", "weight_sharing"].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
-        sink.error(
-          "config/model-kind",
-          `${path6} has both 'network' and ${layered.join(", ")}; a model is either layered ('input' + 'layers') or an explicit tensor network ('network'), not both`,
-          at
-        );
-        return;
-      }
-      break;
-    }
-    default:
-      break;
-  }
-  sink.error("config/schema", `${path6} ${e.message ?? "is not valid"}`, at);
-}
-function reportUnknownKey(e, node, loc, parent, sink) {
-  const key = String(e.params["additionalProperty"]);
-  const entry = node.kind === "map" ? entryOf(node, key) : void 0;
-  const at = entry?.keySpan ?? node.span;
-  const path6 = displayPath(node);
-  if (key === "<<") {
-    sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, at);
-    return;
-  }
-  const allowed = Object.keys(parent["properties"] ?? {});
-  const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
-  sink.error(
-    "config/unknown-field",
-    `unknown field '${key}' in ${path6}${guess ? ` (did you mean '${guess}'?)` : ""}; allowed: ${allowed.join(", ")}`,
-    at
-  );
-}
-function aliasesAt(loc) {
-  return loc === INPUT2 ? [...INPUT_ALIASES.keys()] : [];
-}
-function suggestionFor(e, locations) {
-  const key = String(e.params["additionalProperty"]);
-  const loc = where(e, locations);
-  const allowed = Object.keys(e.parentSchema?.["properties"] ?? {});
-  const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
-  if (!guess) return void 0;
-  return (loc === INPUT2 ? INPUT_ALIASES.get(guess) : void 0) ?? guess;
-}
-function reportRequired(group2, root, locations, sink) {
-  const first = group2[0];
-  if (!first) return;
-  const node = locate(root, segmentsOf(first.instancePath)) ?? root;
-  const path6 = displayPath(node);
-  const loc = where(first, locations);
-  const missing2 = group2.map((e) => String(e.params["missingProperty"]));
-  const quoted = missing2.map((m) => `'${m}'`).join(" and ");
-  if (loc === MODEL_EITHER_OR) {
-    sink.error(
-      "config/model-kind",
-      `${path6} needs either 'input' and 'layers' (a layered model) or 'network' (an explicit tensor network); missing ${quoted}`,
-      node.span
-    );
-    return;
-  }
-  const properties = first.parentSchema?.["properties"] ?? {};
-  const explained = missing2.map((m) => {
-    const d = Object.hasOwn(properties, m) ? properties[m]?.description : void 0;
-    return typeof d === "string" ? `'${m}' (${d.replace(/\.$/, "").replace(/^[A-Z](?=[a-z])/, (c) => c.toLowerCase())})` : `'${m}'`;
-  });
-  sink.error("config/missing-field", `${path6} is missing ${explained.join(" and ")}`, node.span);
-}
-function typeIncludes(schema, type) {
-  const t = schema["type"];
-  return t === type || Array.isArray(t) && t.includes(type);
-}
-function expected(schema, loc) {
-  if (loc === LAYER_LIST) return "a list of layers";
-  if (loc === "") return "a mapping (with 'input' and 'layers', or 'network')";
-  const t = schema["type"];
-  const types = Array.isArray(t) ? t.map(String) : [String(t)];
-  const words = types.map((type) => {
-    switch (type) {
-      case "integer":
-        return schema["minimum"] === 0 ? "a non-negative integer" : "a positive integer";
-      case "array": {
-        const items = schema["items"];
-        if (types.length > 1 && items?.["type"] === "integer") return `a list of ${lengthRule(schema).replace(/ entries$/, "")} positive integers`;
-        return "a list";
-      }
-      case "object":
-        return "a mapping";
-      case "string":
-        return Array.isArray(schema["enum"]) ? `one of ${schema["enum"].map((v) => `'${String(v)}'`).join(", ")}` : "a string";
-      case "boolean":
-        return "true or false";
-      default:
-        return type;
-    }
-  });
-  return words.join(" or ");
-}
-function lengthRule(schema) {
-  const min = typeof schema["minItems"] === "number" ? schema["minItems"] : void 0;
-  const max = typeof schema["maxItems"] === "number" ? schema["maxItems"] : void 0;
-  if (min !== void 0 && max !== void 0) {
-    if (min === max) return `${min} entries`;
-    return max === min + 1 ? `${min} or ${max} entries` : `${min} to ${max} entries`;
-  }
-  if (min !== void 0) return `at least ${min} entries`;
-  if (max !== void 0) return `at most ${max} entries`;
-  return "a valid number of entries";
-}
-function lengthHint(loc) {
-  if (loc?.endsWith("/properties/shape")) return " ([length] or [height, width])";
-  if (loc === "/definitions/bond/properties/between") return " (a bond joins at least 2 tensors)";
-  return "";
-}
-
-// src/config/yaml-errors.ts
-var import_yaml4 = __toESM(require_dist(), 1);
-function reportYamlErrors(doc, lines, sink) {
-  const duplicates = doc.errors.some((e) => e.code === "DUPLICATE_KEY") ? duplicateKeys(doc, lines) : /* @__PURE__ */ new Map();
-  for (const e of doc.errors) {
-    const span = spanFromOffsets(lines, e.pos[0], e.pos[1]);
-    if (e.code === "DUPLICATE_KEY") {
-      const detail = duplicates.get(e.pos[0]);
-      sink.error("config/duplicate-key", detail ?? "this key appears twice in one mapping; keep one", span);
-    } else {
-      sink.error("config/yaml", `invalid YAML: ${e.message}`, span);
-    }
-  }
-}
-function duplicateKeys(doc, lines) {
-  const out = /* @__PURE__ */ new Map();
-  (0, import_yaml4.visit)(doc, {
-    Map(_, map) {
-      const first = /* @__PURE__ */ new Map();
-      for (const pair of map.items) {
-        if (!(0, import_yaml4.isScalar)(pair.key) || !pair.key.range) continue;
-        const name = String(pair.key.value);
-        const at = pair.key.range[0];
-        const earlier = first.get(name);
-        if (earlier === void 0) first.set(name, at);
-        else out.set(at, `the key '${name}' appears twice in one mapping (first on line ${lines.linePos(earlier).line}); keep one`);
-      }
-    }
-  });
-  return out;
-}
-
-// src/config/load-config.ts
-var DEFAULT_MODEL_PATH = "/model";
-function loadConfigText(text, file, options = {}) {
-  const sink = new DiagnosticSink(file);
-  const fail = () => ({ ok: false, diagnostics: sink.sorted() });
-  const bytes = Buffer.byteLength(text, "utf8");
-  if (bytes > MAX_DOCUMENT_BYTES) return tooLarge(sink, bytes);
-  const modelPath = options.modelPath ?? DEFAULT_MODEL_PATH;
-  const pointer = parsePointer(modelPath);
-  if (!pointer.ok) {
-    sink.error("config/model-path", pointer.message);
-    return fail();
-  }
-  const lines = new import_yaml5.LineCounter();
-  const doc = (0, import_yaml5.parseDocument)(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
-  reportYamlErrors(doc, lines, sink);
-  if (sink.count > 0) return fail();
-  const found2 = resolveModelNode(doc, lines, sink, modelPath, pointer.segments);
-  if (!found2) return fail();
-  const root = convertNode(doc, lines, sink, found2.node, found2.segments, found2.fallback);
-  if (!root) return fail();
-  normaliseFieldAliases(root, sink);
-  if (!checkLayerEntryCount(root, sink)) return fail();
-  const schema = compiledModelSchema();
-  reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
-  let model;
-  if (root.kind === "map") {
-    const explicit = entryOf(root, "network") !== void 0;
-    const layered = ["input", "output", "layers", "weight_sharing"].some((k) => entryOf(root, k) !== void 0);
-    if (explicit && !layered) model = buildExplicitModel(root, file, sink);
-    else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
-  }
-  if (model?.kind === "layered" && sink.count === 0) {
-    const shapes = inferShapes(model);
-    if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
-  }
-  if (sink.count > 0 || !model) {
-    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
-    return fail();
-  }
-  return { ok: true, model };
-}
-function tooLarge(sink, bytes) {
-  sink.error(
-    "config/too-large",
-    `the config is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`
-  );
-  return { ok: false, diagnostics: sink.sorted() };
-}
-
-// src/config/model-diff.ts
-var same = (...names) => names.map((n) => [n, n]);
-var FIELDS = {
-  conv: [...same("channels", "kernel", "stride", "dilation", "padding", "groups"), ["depthMultiplier", "depth_multiplier"]],
-  "conv-transpose": [...same("channels", "kernel", "stride", "dilation", "padding"), ["outputPadding", "output_padding"], ["groups", "groups"]],
-  pool: same("mode", "window", "stride", "padding", "global"),
-  dense: same("units"),
-  flatten: [],
-  upsample: same("factor", "mode"),
-  recurrent: same("hidden", "depth"),
-  pointwise: same("op"),
-  merge: same("mode")
-};
-function diffModels(base, head) {
-  if (base.kind !== "layered" || head.kind !== "layered") {
-    return base.kind === head.kind && JSON.stringify(stripSpans(base)) === JSON.stringify(stripSpans(head)) ? [] : [{ layer: "model", field: "network", from: base.kind, to: head.kind, span: head.span }];
-  }
-  const changes = [];
-  const field2 = (layer, name, from, to, span) => {
-    const a = show(from);
-    const b = show(to);
-    if (a !== b) changes.push({ layer, field: name, from: a, to: b, span });
-  };
-  for (const name of ["shape", "channels", "representation"]) {
-    field2("input", name, base.input[name], head.input[name], head.input.fieldSpans[name] ?? head.input.span);
-  }
-  field2("model", "weight_sharing", base.weightSharing, head.weightSharing, head.span);
-  field2("output", "position", base.output.position, head.output.position, head.output.span ?? head.span);
-  for (const [b, h] of align(base, head)) {
-    if (b && h) {
-      for (const [property, name] of FIELDS[h.kind]) {
-        field2(layerLabel(h), name, b[property], h[property], h.fieldSpans[name] ?? h.span);
-      }
-      if (b.kind === "merge" && h.kind === "merge" && h.origin === "skip") {
-        field2(layerLabel(h), "from", skipSources(base, b), skipSources(head, h), h.fieldSpans["from"] ?? h.span);
-      }
-    } else if (h) {
-      changes.push({ layer: layerLabel(h), field: "layer", from: "(none)", to: h.kind, span: h.span });
-    } else if (b) {
-      const next = head.layers.find((l) => l.index >= b.index);
-      changes.push({ layer: layerLabel(b), field: "layer", from: b.kind, to: "(removed)", span: next?.span ?? head.span });
-    }
-  }
-  return changes;
-}
-function show(v) {
-  if (v === void 0) return "(none)";
-  if (Array.isArray(v)) return `[${v.join(", ")}]`;
-  if (v && typeof v === "object" && "mode" in v) {
-    const p = v;
-    return p.mode === "explicit" ? `[${p.amount.join(", ")}]` : p.mode;
-  }
-  return String(v);
-}
-function skipSources(model, layer) {
-  return layer.inputs.slice(1).map((i) => i === INPUT ? "input" : String(layerLabel(model.layers[i])));
-}
-function align(base, head) {
-  const a = base.layers;
-  const b = head.layers;
-  const n = a.length;
-  const m = b.length;
-  const lcs = Array.from({ length: n + 1 }, () => new Array(m + 1).fill(0));
-  for (let i2 = n - 1; i2 >= 0; i2--) {
-    for (let j2 = m - 1; j2 >= 0; j2--) {
-      lcs[i2][j2] = a[i2].kind === b[j2].kind ? lcs[i2 + 1][j2 + 1] + 1 : Math.max(lcs[i2 + 1][j2], lcs[i2][j2 + 1]);
-    }
-  }
-  const out = [];
-  let i = 0;
-  let j = 0;
-  while (i < n || j < m) {
-    if (i < n && j < m && a[i].kind === b[j].kind && lcs[i][j] === lcs[i + 1][j + 1] + 1) out.push([a[i++], b[j++]]);
-    else if (j < m && (i >= n || lcs[i][j + 1] >= lcs[i + 1][j])) out.push([void 0, b[j++]]);
-    else out.push([a[i++], void 0]);
-  }
-  return out;
-}
-function stripSpans(value) {
-  if (Array.isArray(value)) return value.map(stripSpans);
-  if (value && typeof value === "object") {
-    const out = {};
-    for (const [k, v] of Object.entries(value)) if (k !== "span" && k !== "file") out[k] = stripSpans(v);
-    return out;
-  }
-  return value;
-}
-
-// src/policy/load-policy.ts
-import { readdirSync as readdirSync2, statSync as statSync2 } from "node:fs";
-import { join as join5, resolve as resolve5 } from "node:path";
-
-// src/policy/policy-document.ts
-var import_yaml6 = __toESM(require_dist(), 1);
-
-// src/policy/applies-to.ts
-var import_picomatch = __toESM(require_picomatch2(), 1);
-import { posix } from "node:path";
-function appliesToProblem(pattern) {
-  const body = pattern.startsWith("!") ? pattern.slice(1) : pattern;
-  if (body === "") return `the pattern '${pattern}' is empty`;
-  if (/^[/\\]/.test(body) || /^[A-Za-z]:/.test(body)) {
-    return `the pattern '${pattern}' is absolute; applies_to patterns are relative to the repository root, e.g. 'examples/*.yaml'`;
-  }
-  if (body.split(/[/\\]/).includes("..")) {
-    return `the pattern '${pattern}' has a '..' segment; applies_to patterns may not leave the repository root`;
-  }
-  return void 0;
-}
-var matchers = /* @__PURE__ */ new WeakMap();
-function matcherFor(patterns) {
-  const hit = matchers.get(patterns);
-  if (hit) return hit;
-  const options = { dot: true, windows: false };
-  const positive = patterns.filter((p) => !p.startsWith("!"));
-  const negative = patterns.filter((p) => p.startsWith("!")).map((p) => p.slice(1));
-  const compile = (list3) => list3.length === 0 ? () => false : (0, import_picomatch.default)(list3, options);
-  const made = { include: compile(positive), exclude: compile(negative) };
-  matchers.set(patterns, made);
-  return made;
-}
-function policyApplies(policy, configPathRelativeToRoot) {
-  const path6 = normaliseConfigPath(configPathRelativeToRoot);
-  if (path6 === void 0) return false;
-  const m = matcherFor(policy.appliesTo);
-  return m.include(path6) && !m.exclude(path6);
-}
-function normaliseConfigPath(path6) {
-  const slashed = path6.replace(/\\/g, "/");
-  if (slashed === "" || slashed.startsWith("/") || /^[A-Za-z]:/.test(slashed)) return void 0;
-  const normal = posix.normalize(slashed).replace(/^(\.\/)+/, "");
-  if (normal === "." || normal === ".." || normal.startsWith("../")) return void 0;
-  return normal;
-}
-
-// src/partition/partition.ts
-var BUILTIN_KINDS = [
-  "start-end",
-  "left-right",
-  "top-bottom",
-  "interleaved",
-  "checkerboard",
-  "block",
-  "positions"
-];
-function resolvePartition(spec, shape) {
-  const text = spec.trim();
-  const colon = text.indexOf(":");
-  const name = colon < 0 ? text : text.slice(0, colon);
-  const arg = colon < 0 ? void 0 : text.slice(colon + 1);
-  const n = positionCount(shape);
-  const side = new Uint8Array(n);
-  const is2d = shape.length === 2;
-  const width = is2d ? shape[1] : n;
-  const height = is2d ? shape[0] : 1;
-  const shapeText = `[${shape.join(", ")}]`;
-  const needs2 = (dims) => shape.length === dims ? void 0 : { ok: false, message: `partition '${name}' needs a ${dims}D input, but the input shape is ${shapeText}` };
-  const noArg = () => arg === void 0 ? void 0 : { ok: false, message: `partition '${name}' takes no argument (got '${arg}')` };
-  let description;
-  switch (name) {
-    case "start-end": {
-      const bad = needs2(1) ?? noArg();
-      if (bad) return bad;
-      const half = Math.floor(n / 2);
-      for (let p = 0; p < half; p++) side[p] = 1;
-      description = `positions 0-${half - 1} against ${half}-${n - 1}`;
-      break;
-    }
-    case "interleaved": {
-      const bad = needs2(1) ?? noArg();
-      if (bad) return bad;
-      for (let p = 0; p < n; p += 2) side[p] = 1;
-      description = "even positions against odd positions";
-      break;
-    }
-    case "left-right": {
-      const bad = needs2(2) ?? noArg();
-      if (bad) return bad;
-      const half = Math.floor(width / 2);
-      for (let r = 0; r < height; r++) for (let c = 0; c < half; c++) side[r * width + c] = 1;
-      description = `columns 0-${half - 1} against columns ${half}-${width - 1}`;
-      break;
-    }
-    case "top-bottom": {
-      const bad = needs2(2) ?? noArg();
-      if (bad) return bad;
-      const half = Math.floor(height / 2);
-      for (let r = 0; r < half; r++) for (let c = 0; c < width; c++) side[r * width + c] = 1;
-      description = `rows 0-${half - 1} against rows ${half}-${height - 1}`;
-      break;
-    }
-    case "checkerboard": {
-      const bad = needs2(2) ?? noArg();
-      if (bad) return bad;
-      for (let r = 0; r < height; r++) for (let c = 0; c < width; c++) if ((r + c) % 2 === 0) side[r * width + c] = 1;
-      description = "positions with (row + column) even against the others";
-      break;
-    }
-    case "block": {
-      if (arg === void 0) {
-        return { ok: false, message: `partition 'block' needs ranges: 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D), half-open` };
-      }
-      const ranges = arg.split(",").map((part) => parseRange(part));
-      if (ranges.some((r) => r === void 0) || ranges.length !== shape.length) {
-        return {
-          ok: false,
-          message: `partition '${text}': expected ${shape.length === 2 ? "'block:r0-r1,c0-c1'" : "'block:a-b'"} with half-open integer ranges for the input shape ${shapeText}`
-        };
-      }
-      const [rr, cr] = is2d ? [ranges[0], ranges[1]] : [[0, 1], ranges[0]];
-      if (rr[1] > height || cr[1] > width || rr[0] >= rr[1] || cr[0] >= cr[1]) {
-        return { ok: false, message: `partition '${text}': the ranges must be non-empty and lie inside the input shape ${shapeText}` };
-      }
-      for (let r = rr[0]; r < rr[1]; r++) for (let c = cr[0]; c < cr[1]; c++) side[r * width + c] = 1;
-      description = is2d ? `rows ${rr[0]}-${rr[1] - 1}, columns ${cr[0]}-${cr[1] - 1} against the rest` : `positions ${cr[0]}-${cr[1] - 1} against the rest`;
-      break;
-    }
-    case "positions": {
-      if (arg === void 0 || arg.trim() === "") {
-        return { ok: false, message: `partition 'positions' needs a list: 'positions:0,2,5'` };
-      }
-      for (const part of arg.split(",")) {
-        const t = part.trim();
-        if (!/^\d+$/.test(t)) return { ok: false, message: `partition '${text}': '${t}' is not a position number` };
-        const p = Number(t);
-        if (p >= n) return { ok: false, message: `partition '${text}': position ${p} is outside the ${n} positions of shape ${shapeText}` };
-        side[p] = 1;
-      }
-      description = `positions ${arg.split(",").map((s) => s.trim()).join(", ")} against the rest`;
-      break;
-    }
-    default: {
-      const hint = closest(name, BUILTIN_KINDS);
-      return {
-        ok: false,
-        message: `unknown partition '${name}'${hint ? ` (did you mean '${hint}'?)` : ""}; known: ${BUILTIN_KINDS.join(", ")}`
-      };
-    }
-  }
-  const countA = side.reduce((a, b) => a + b, 0);
-  if (countA === 0 || countA === n) {
-    return { ok: false, message: `partition '${text}' puts every position of shape ${shapeText} on one side` };
-  }
-  return { ok: true, partition: { label: text, kind: name, side, description } };
-}
-function parseRange(part) {
-  const m = /^\s*(\d+)\s*-\s*(\d+)\s*$/.exec(part);
-  if (!m) return void 0;
-  return [Number(m[1]), Number(m[2])];
-}
-
-// src/policy/builtin-partition-spec.ts
-var ARGUMENT_FREE = /* @__PURE__ */ new Set(["start-end", "left-right", "top-bottom", "interleaved", "checkerboard"]);
-var RANGE = /^\s*(\d+)\s*-\s*(\d+)\s*$/;
-function isBuiltinKind(name) {
-  return BUILTIN_KINDS.includes(name);
-}
-function checkBuiltinSpec(spec) {
-  const text = spec.trim();
-  const colon = text.indexOf(":");
-  const kind = colon < 0 ? text : text.slice(0, colon);
-  const arg = colon < 0 ? void 0 : text.slice(colon + 1);
-  const invalid = (message) => ({ ok: false, unknownKind: false, kind, message });
-  if (!isBuiltinKind(kind)) {
-    return { ok: false, unknownKind: true, kind, message: `unknown partition '${kind}'; known kinds: ${BUILTIN_KINDS.join(", ")}` };
-  }
-  if (ARGUMENT_FREE.has(kind)) {
-    if (arg !== void 0) return invalid(`partition '${kind}' takes no argument (got '${arg}')`);
-    return { ok: true, kind, canonical: kind };
-  }
-  if (kind === "block") {
-    if (arg === void 0) return invalid(`partition 'block' needs ranges: 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D), half-open`);
-    const parts = arg.split(",");
-    const ranges = parts.map((p) => RANGE.exec(p));
-    if (parts.length > 2 || ranges.some((r) => r === null)) {
-      return invalid(`partition '${text}': expected 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D) with half-open integer ranges`);
-    }
-    for (const r of ranges) {
-      if (Number(r[1]) >= Number(r[2])) return invalid(`partition '${text}': the range ${r[1]}-${r[2]} is empty; half-open ranges need start < end`);
-    }
-    return { ok: true, kind, canonical: `block:${ranges.map((r) => `${Number(r[1])}-${Number(r[2])}`).join(",")}` };
-  }
-  if (arg === void 0 || arg.trim() === "") return invalid(`partition 'positions' needs a list: 'positions:0,2,5'`);
-  const items = arg.split(",").map((p) => p.trim());
-  const bad = items.find((p) => !/^\d+$/.test(p));
-  if (bad !== void 0) return invalid(`partition '${text}': '${bad}' is not a position number`);
-  return { ok: true, kind, canonical: `positions:${items.map((p) => String(Number(p))).join(",")}` };
-}
-
-// src/policy/named-partitions.ts
-var NAME_PATTERN = /^[a-z0-9][a-z0-9._-]*$/;
-var BODY_FIELDS = ["rows", "cols", "range", "positions"];
-function readNamedPartitions(node, file, sink) {
-  const out = /* @__PURE__ */ new Map();
-  for (const entry of node.entries) {
-    const name = entry.key;
-    if (!NAME_PATTERN.test(name)) {
-      sink.error(
-        "policy/invalid-partition-name",
-        `the partition name '${name}' in ${displayPath(node)} must be lower-case letters, digits, '.', '_' or '-', starting with a letter or digit`,
-        entry.keySpan
-      );
-      continue;
-    }
-    if (isBuiltinKind(name)) {
-      sink.error(
-        "policy/partition-shadows-builtin",
-        `the partition name '${name}' is a built-in partition kind; a named partition may not shadow one (built-in: ${BUILTIN_KINDS.join(", ")}); choose another name`,
-        entry.keySpan
-      );
-      continue;
-    }
-    const spec = specOf(entry.value, sink);
-    if (spec !== void 0) out.set(name, { name, spec, file, span: entry.keySpan });
-  }
-  return out;
-}
-function specOf(body, sink) {
-  if (body.kind !== "map") return void 0;
-  const kind = stringOf(fieldOf(body, "kind"));
-  if (kind === void 0 || !isBuiltinKind(kind)) return void 0;
-  const path6 = displayPath(body);
-  const present = BODY_FIELDS.filter((f2) => entryOf(body, f2) !== void 0);
-  const misplaced = (allowed, why) => {
-    let bad = false;
-    for (const f2 of present) {
-      if (allowed.includes(f2)) continue;
-      sink.error("policy/invalid-partition", `${path6} has '${f2}', but ${why}`, entryOf(body, f2).keySpan);
-      bad = true;
-    }
-    return bad;
-  };
-  switch (kind) {
-    case "block": {
-      if (misplaced(["rows", "cols", "range"], `a block takes 'rows' and 'cols' (2D) or 'range' (1D)`)) return void 0;
-      const has = (f2) => present.includes(f2);
-      const twoD = has("rows") && has("cols") && !has("range");
-      const oneD = has("range") && !has("rows") && !has("cols");
-      if (!twoD && !oneD) {
-        sink.error(
-          "policy/invalid-partition",
-          `${path6} is a block, which needs 'rows' and 'cols' (2D, e.g. {kind: block, rows: [8, 24], cols: [8, 24]}) or 'range' (1D, e.g. {kind: block, range: [0, 16]}), not ${present.length === 0 ? "none of them" : present.map((f2) => `'${f2}'`).join(" and ")}`,
-          body.span
-        );
-        return void 0;
-      }
-      const ranges = (twoD ? ["rows", "cols"] : ["range"]).map((f2) => rangeOf2(fieldOf(body, f2), sink));
-      if (ranges.some((r) => r === void 0)) return void 0;
-      return `block:${ranges.map((r) => `${r[0]}-${r[1]}`).join(",")}`;
-    }
-    case "positions": {
-      if (misplaced(["positions"], `the positions kind takes only 'positions'`)) return void 0;
-      const list3 = fieldOf(body, "positions");
-      if (!list3) {
-        sink.error("policy/invalid-partition", `${path6} needs 'positions', the list of side-A positions, e.g. {kind: positions, positions: [0, 5, 9]}`, body.span);
-        return void 0;
-      }
-      if (list3.kind !== "seq" || list3.items.length === 0) return void 0;
-      const values = list3.items.map(nonNegativeIntegerOf);
-      if (values.some((v) => v === void 0)) return void 0;
-      return `positions:${values.join(",")}`;
-    }
-    default:
-      if (misplaced([], `the kind '${kind}' takes no fields besides 'kind'`)) return void 0;
-      return kind;
-  }
-}
-function rangeOf2(node, sink) {
-  if (node?.kind !== "seq" || node.items.length !== 2) return void 0;
-  const start = nonNegativeIntegerOf(node.items[0]);
-  const end = nonNegativeIntegerOf(node.items[1]);
-  if (start === void 0 || end === void 0) return void 0;
-  if (start >= end) {
-    sink.error("policy/invalid-partition", `${displayPath(node)} is [${start}, ${end}], an empty range; half-open ranges need start < end`, node.span);
-    return void 0;
-  }
-  return [start, end];
-}
-
-// src/policy/policy-schema.ts
-var POLICY_SCHEMA = "policy.schema.json";
-var MINIMUM_CHOICE = "/definitions/requirement/allOf/1";
-function reportPolicySchemaErrors(root, sink) {
-  const { validate, locations } = compiledSchemaFile(POLICY_SCHEMA);
-  if (validate(toPlain(root))) return;
-  const where2 = (e) => (e.parentSchema ? locations.get(e.parentSchema) : void 0) ?? "";
-  const errors = (validate.errors ?? []).filter(
-    (e) => e.keyword !== "pattern" && e.keyword !== "propertyNames" && !where2(e).startsWith(MINIMUM_CHOICE)
-  );
-  reportSchemaErrors(errors, root, locations, sink);
-}
-
-// src/policy/power-of-two-ceiling.ts
-function ceilPowerOfTwo(numerator, denominator) {
-  if (numerator < 0n || denominator <= 0n) throw new RangeError(`ceilPowerOfTwo needs b = ${numerator}/${denominator} >= 0`);
-  const g = gcd(numerator, denominator);
-  const E = numerator / g;
-  const q = denominator / g;
-  if (q === 1n) return 1n << E;
-  const wholeBits = Number(E / q);
-  const guard = 64 + 2 * bitLength(q);
-  const exact = (wholeBits + 2) * Number(q) + guard;
-  for (let precision = wholeBits + guard; ; precision *= 2) {
-    const r = ceiling(approximate(E, q, precision));
-    if (exceeds(power({ m: r, e: 0 }, q, precision, false), E) && below(r - 1n, q, precision, E)) return r;
-    if (precision > exact) throw new Error(`ceilPowerOfTwo(${numerator}/${denominator}): no certified result (a bug)`);
-  }
-}
-function approximate(E, q, precision) {
-  const whole = E / q;
-  const start = 2 ** (Number(E - whole * q) / Number(q));
-  let x = { m: BigInt(Math.round(start * 2 ** 52)), e: Number(whole) - 52 };
-  let bits2 = 48;
-  for (let final = 0; final < 2; ) {
-    bits2 = Math.min(2 * bits2, precision);
-    if (bits2 === precision) final++;
-    x = newtonStep(x, E, q, bits2 + 16);
-  }
-  return x;
-}
-function newtonStep(x, E, q, bits2) {
-  const t = power(x, q, bits2, false);
-  const shift = Number(E) - t.e + bits2;
-  const ratio = shift >= 0 ? (1n << BigInt(shift)) / t.m : 0n;
-  const factor = (q - 1n) * (1n << BigInt(bits2)) + ratio;
-  return rounded(x.m * factor / q, x.e - bits2, bits2, false);
-}
-function power(base, k, bits2, up) {
-  const b = rounded(base.m, base.e, bits2, up);
-  let acc = { m: 1n, e: 0 };
-  for (const digit of k.toString(2)) {
-    acc = rounded(acc.m * acc.m, 2 * acc.e, bits2, up);
-    if (digit === "1") acc = rounded(acc.m * b.m, acc.e + b.e, bits2, up);
-  }
-  return acc;
-}
-function rounded(m, e, bits2, up) {
-  const excess = bitLength(m) - bits2;
-  if (excess <= 0) return { m, e };
-  const k = BigInt(excess);
-  let t = m >> k;
-  if (up && t << k !== m) t += 1n;
-  return { m: t, e: e + excess };
-}
-function exceeds(lower, E) {
-  const top = lower.e + bitLength(lower.m) - 1;
-  const isPowerOfTwo = (lower.m & lower.m - 1n) === 0n;
-  return top > Number(E) || top === Number(E) && !isPowerOfTwo;
-}
-function below(rMinus1, q, bits2, E) {
-  if (rMinus1 <= 0n) return true;
-  const upper = power({ m: rMinus1, e: 0 }, q, bits2, true);
-  return upper.e + bitLength(upper.m) - 1 < Number(E);
-}
-function ceiling(x) {
-  if (x.e >= 0) return x.m << BigInt(x.e);
-  const k = BigInt(-x.e);
-  return x.m + (1n << k) - 1n >> k;
-}
-function bitLength(m) {
-  return m === 0n ? 0 : m.toString(2).length;
-}
-function gcd(a, b) {
-  while (b !== 0n) [a, b] = [b, a % b];
-  return a;
-}
-
-// src/policy/policy-limits.ts
-var MAX_MINIMUM_BITS = 1e6;
-var MAX_MINIMUM_DIGITS = Math.ceil(MAX_MINIMUM_BITS * Math.log10(2));
-var MAX_MIN_BITS_DECIMALS = 6;
-var MAX_FRACTIONAL_MIN_BITS = 65536;
-var MAX_EXTENDS_DEPTH = 32;
-
-// src/policy/minimum-rank.ts
-var POWER = /^\s*([0-9]+)\s*(?:(\^|\*\*)\s*([0-9]+)\s*)?$/;
-var DECIMAL = /^\+?(?:([0-9]+)(?:\.([0-9]*))?|\.([0-9]+))(?:[eE]([+-]?[0-9]+))?$/;
-var MAX_LITERAL_EXPONENT = 400;
-var LIMIT = 1n << BigInt(MAX_MINIMUM_BITS);
-function readMinRank(value, source) {
-  let text;
-  if (typeof value === "string") text = value.trim();
-  else if (source !== void 0 && /^\+?[0-9]+$/.test(source.trim())) text = source.trim().replace(/^\+/, "");
-  else if (Number.isSafeInteger(value)) text = String(value);
-  else {
-    return invalidRank(`${shown(source?.trim() ?? String(value))} is not an exact integer; write its digits, or a power such as '2^100'`);
-  }
-  const written = `min_rank: ${text}`;
-  const m = POWER.exec(text);
-  if (!m) {
-    return invalidRank(`'${shown(text)}' is neither a positive integer nor a power such as '2^40' or '2**40' (integer base and exponent)`);
-  }
-  const baseDigits = stripZeros(m[1]);
-  const exponentDigits = m[3] === void 0 ? void 0 : stripZeros(m[3]);
-  if (exponentDigits === void 0) {
-    if (baseDigits === "0") return invalidRank(`the minimum rank must be a positive integer, got ${shown(text)}`);
-    if (baseDigits.length > MAX_MINIMUM_DIGITS) return tooLarge2(text);
-    const n2 = BigInt(baseDigits);
-    return n2 <= LIMIT ? { ok: true, minRank: n2, written } : tooLarge2(text);
-  }
-  if (baseDigits === "0") return invalidRank(`'${shown(text)}': the base of a power must be at least 1`);
-  if (exponentDigits === "0" || baseDigits === "1") return { ok: true, minRank: 1n, written };
-  if (baseDigits.length > MAX_MINIMUM_DIGITS) return tooLarge2(text);
-  const base = BigInt(baseDigits);
-  const exponent = BigInt(exponentDigits);
-  const lowBits = BigInt(bitLength2(base) - 1) * exponent;
-  if (lowBits > BigInt(MAX_MINIMUM_BITS)) return tooLarge2(text);
-  const n = base ** exponent;
-  return n <= LIMIT ? { ok: true, minRank: n, written } : tooLarge2(text);
-}
-function readMinBits(value, source) {
-  const literal = source?.trim();
-  const text = literal !== void 0 && DECIMAL.test(literal) ? literal : String(value);
-  const written = `min_bits: ${text}`;
-  const fraction = decimalFraction(text);
-  if (!fraction) {
-    return { ok: false, code: "policy/invalid-min-bits", message: `${shown(text)} is not a decimal number of bits such as 12 or 12.5` };
-  }
-  const [num, den] = fraction;
-  if (num % den === 0n) return { ok: true, minRank: 1n << num / den, written };
-  if (num * 10n ** BigInt(MAX_MIN_BITS_DECIMALS) % den !== 0n) {
-    return {
-      ok: false,
-      code: "policy/invalid-min-bits",
-      message: `${shown(text)} has more than ${MAX_MIN_BITS_DECIMALS} decimals; round it, or use min_rank for an exact minimum`
-    };
-  }
-  if (num > BigInt(MAX_FRACTIONAL_MIN_BITS) * den) {
-    return {
-      ok: false,
-      code: "policy/invalid-min-bits",
-      message: `${shown(text)} is not a whole number of bits and above ${MAX_FRACTIONAL_MIN_BITS}; use a whole number there`
-    };
-  }
-  return { ok: true, minRank: ceilPowerOfTwo(num, den), written };
-}
-function decimalFraction(text) {
-  const m = DECIMAL.exec(text);
-  if (!m) return void 0;
-  const whole = m[1] ?? "";
-  const frac = m[2] ?? m[3] ?? "";
-  const exponent = m[4] === void 0 ? 0 : Number(m[4]);
-  if (!Number.isSafeInteger(exponent) || Math.abs(exponent) > MAX_LITERAL_EXPONENT) return void 0;
-  let num = BigInt((whole + frac).replace(/^0+(?=.)/, "") || "0");
-  let den = 10n ** BigInt(frac.length);
-  if (exponent >= 0) num *= 10n ** BigInt(exponent);
-  else den *= 10n ** BigInt(-exponent);
-  return [num, den];
-}
-function invalidRank(message) {
-  return { ok: false, code: "policy/invalid-min-rank", message };
-}
-function tooLarge2(text) {
-  return {
-    ok: false,
-    code: "policy/minimum-too-large",
-    message: `${shown(text)} is above 2^${MAX_MINIMUM_BITS}; no network of a feasible size reaches such a rank`
-  };
-}
-function shown(text) {
-  return text.length > 60 ? `${text.slice(0, 60)}…` : text;
-}
-function stripZeros(digits) {
-  return digits.replace(/^0+(?=.)/, "");
-}
-function bitLength2(n) {
-  return n.toString(2).length;
-}
-
-// src/policy/requirements.ts
-var MINIMUM_FIELDS = ["min_rank", "min_bits"];
-function readRequirements(list3, file, sourceOf, sink) {
-  const requirements = [];
-  const references = [];
-  const firstLineByKey = /* @__PURE__ */ new Map();
-  for (const item of list3.items) {
-    if (item.kind !== "map") continue;
-    const partitionNode = fieldOf(item, "partition");
-    const partition = stringOf(partitionNode)?.trim();
-    let ok = partition !== void 0 && partition !== "" && partitionNode !== void 0;
-    if (ok && partition !== void 0 && partitionNode) {
-      references.push({ partition, span: partitionNode.span });
-      const key = partitionKey(partition);
-      const earlier = firstLineByKey.get(key);
-      if (earlier !== void 0) {
-        sink.error(
-          "policy/duplicate-requirement",
-          `${displayPath(partitionNode)} requires '${partition}' again (first on line ${earlier}); keep one requirement per partition in a file`,
-          partitionNode.span
-        );
-        ok = false;
-      } else {
-        firstLineByKey.set(key, partitionNode.span.line);
-      }
-    }
-    const rankEntry = entryOf(item, "min_rank");
-    const bitsEntry = entryOf(item, "min_bits");
-    if (rankEntry && bitsEntry) {
-      const later = rankEntry.keySpan.offset > bitsEntry.keySpan.offset ? rankEntry : bitsEntry;
-      sink.error(
-        "policy/min-rank-or-bits",
-        `${displayPath(item)} has both 'min_rank' and 'min_bits'; give the minimum once, as a rank (min_rank: 2^40) or in bits (min_bits: 40)`,
-        later.keySpan
-      );
-      ok = false;
-    } else if (!rankEntry && !bitsEntry && !item.entries.some((e) => closest(e.key, MINIMUM_FIELDS) !== void 0)) {
-      sink.error(
-        "policy/min-rank-or-bits",
-        `${displayPath(item)} has no minimum; add 'min_rank' (e.g. min_rank: 64 or min_rank: 2^40) or 'min_bits' (e.g. min_bits: 12)`,
-        item.span
-      );
-      ok = false;
-    }
-    const minimum = rankEntry ? readRank(rankEntry.value, sourceOf, sink) : bitsEntry ? readBits(bitsEntry.value, sourceOf, sink) : void 0;
-    const unprovenNode = fieldOf(item, "unproven");
-    const unproven = unprovenNode === void 0 ? void 0 : unprovenModeOf(unprovenNode);
-    const dropNode = fieldOf(item, "max_drop_bits");
-    const maxDropBits = dropNode === void 0 ? void 0 : dropBitsOf(dropNode);
-    if (unprovenNode && !unproven || dropNode && maxDropBits === void 0) ok = false;
-    if (!ok || !minimum || partition === void 0 || !partitionNode) continue;
-    requirements.push({
-      key: partitionKey(partition),
-      partition,
-      partitionSpan: partitionNode.span,
-      minRank: minimum.minRank,
-      written: minimum.written,
-      ...unproven !== void 0 ? { unproven } : {},
-      ...maxDropBits !== void 0 ? { maxDropBits } : {},
-      file,
-      span: item.span
-    });
-  }
-  return { requirements, references };
-}
-function checkPartitionReferences(references, named, sink) {
-  for (const r of references) {
-    if (named.has(r.partition)) continue;
-    const check2 = checkBuiltinSpec(r.partition);
-    if (check2.ok) continue;
-    if (check2.unknownKind) {
-      const names = [...named.keys()];
-      const guess = closest(check2.kind, [...names, ...BUILTIN_KINDS]);
-      const namedText = names.length > 0 ? `named partitions: ${names.join(", ")}; ` : "";
-      sink.error(
-        "policy/unknown-partition",
-        `unknown partition '${r.partition}'${guess ? ` (did you mean '${guess}'?)` : ""}; ${namedText}built-in: ${BUILTIN_KINDS.join(", ")}`,
-        r.span
-      );
-    } else {
-      sink.error("policy/invalid-partition-spec", check2.message, r.span);
-    }
-  }
-}
-function partitionKey(partition) {
-  return partition.replace(/\s+/g, "");
-}
-function readRank(node, sourceOf, sink) {
-  if (node.kind !== "scalar" || typeof node.value !== "string" && typeof node.value !== "number") return void 0;
-  if (typeof node.value === "number" && !Number.isInteger(node.value)) return void 0;
-  if (typeof node.value === "number" && node.value < 1) return void 0;
-  const read = readMinRank(node.value, sourceOf(node));
-  if (!read.ok) {
-    sink.error(read.code, `${displayPath(node)}: ${read.message}`, node.span);
-    return void 0;
-  }
-  return read;
-}
-function readBits(node, sourceOf, sink) {
-  if (node.kind !== "scalar" || typeof node.value !== "number") return void 0;
-  if (!Number.isFinite(node.value) || node.value < 0 || node.value > MAX_MINIMUM_BITS) return void 0;
-  const read = readMinBits(node.value, sourceOf(node));
-  if (!read.ok) {
-    sink.error(read.code, `${displayPath(node)}: ${read.message}`, node.span);
-    return void 0;
-  }
-  return read;
-}
-function unprovenModeOf(node) {
-  const s = stringOf(node);
-  return s === "warn" || s === "fail" ? s : void 0;
-}
-function dropBitsOf(node) {
-  return node?.kind === "scalar" && typeof node.value === "number" && Number.isFinite(node.value) && node.value >= 0 ? node.value : void 0;
-}
-
-// src/policy/policy-document.ts
-function readPolicyDocument(text, file, sink) {
-  const bytes = Buffer.byteLength(text, "utf8");
-  if (bytes > MAX_DOCUMENT_BYTES) {
-    sink.error("policy/too-large", `the policy file is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
-    return void 0;
-  }
-  const lines = new import_yaml6.LineCounter();
-  const doc = (0, import_yaml6.parseDocument)(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
-  const partitionKeys = partitionKeyOffsets(doc);
-  adopt(
-    sink,
-    file,
-    (scratch) => reportYamlErrors(doc, lines, scratch),
-    (d) => d.code === "config/duplicate-key" && d.span && partitionKeys.has(d.span.offset) ? "policy/duplicate-partition" : policyCode(d.code)
-  );
-  if (sink.count > 0) return void 0;
-  const start = spanFromOffsets(lines, 0, 0);
-  const root = adopt(sink, file, (scratch) => convertNode(doc, lines, scratch, doc.contents, [], start, { rootName: "the policy", subject: "policy" }));
-  if (!root) return void 0;
-  if (root.kind !== "map") {
-    const empty = root.kind === "scalar" && root.value === null;
-    sink.error(
-      empty ? "policy/empty" : "policy/type",
-      `${empty ? "the policy file is empty" : `the policy file holds ${describeValue(root)}`}; a policy is a mapping with at least 'id' and 'description'`,
-      root.span
-    );
-    return void 0;
-  }
-  adopt(sink, file, (scratch) => reportPolicySchemaErrors(root, scratch));
-  return readFields(root, file, text, sink);
-}
-function readFields(root, file, text, sink) {
-  const idNode = fieldOf(root, "id");
-  const id = stringOf(idNode);
-  if (id !== void 0 && idNode && !NAME_PATTERN.test(id)) {
-    sink.error(
-      "policy/invalid-id",
-      `${displayPath(idNode)} is '${id}'; a policy id is lower-case letters, digits, '.', '_' or '-', starting with a letter or digit (e.g. renal-pairs)`,
-      idNode.span
-    );
-  }
-  const extendsNode = fieldOf(root, "extends");
-  const extendsPath = stringOf(extendsNode);
-  const modelPathNode = fieldOf(root, "model_path");
-  const modelPath = stringOf(modelPathNode);
-  if (modelPath !== void 0 && modelPathNode) {
-    const parsed = parsePointer(modelPath);
-    if (!parsed.ok) sink.error("policy/model-path", `${displayPath(modelPathNode)}: ${parsed.message}`, modelPathNode.span);
-  }
-  const surrogate = stringOf(fieldOf(root, "surrogate"));
-  const appliesTo = readAppliesTo(fieldOf(root, "applies_to"), sink);
-  const unproven = unprovenModeOf(fieldOf(root, "unproven"));
-  const maxDropBits = dropBitsOf(fieldOf(root, "max_drop_bits"));
-  const partitionsNode = asMap(fieldOf(root, "partitions"));
-  const partitions = partitionsNode ? readNamedPartitions(partitionsNode, file, sink) : /* @__PURE__ */ new Map();
-  const requireNode = fieldOf(root, "require");
-  const sourceOf = (node) => text.slice(node.span.offset, node.span.endOffset);
-  const { requirements, references } = requireNode?.kind === "seq" ? readRequirements(requireNode, file, sourceOf, sink) : { requirements: [], references: [] };
-  const description = stringOf(fieldOf(root, "description"));
-  return {
-    file,
-    span: root.span,
-    ...id !== void 0 && idNode ? { id, idSpan: idNode.span } : {},
-    ...description !== void 0 ? { description } : {},
-    ...extendsPath !== void 0 && extendsPath !== "" && extendsNode ? { extends: { path: extendsPath, span: extendsNode.span } } : {},
-    ...surrogate === "tree" || surrogate === "overlap" ? { surrogate } : {},
-    ...modelPath !== void 0 ? { modelPath } : {},
-    ...appliesTo !== void 0 ? { appliesTo } : {},
-    ...unproven !== void 0 ? { unproven } : {},
-    ...maxDropBits !== void 0 ? { maxDropBits } : {},
-    partitions,
-    declaredPartitions: new Set(partitionsNode?.entries.map((e) => e.key) ?? []),
-    requirements,
-    references
-  };
-}
-function readAppliesTo(node, sink) {
-  if (node?.kind !== "seq") return void 0;
-  const out = [];
-  for (const item of node.items) {
-    const pattern = stringOf(item);
-    if (pattern === void 0 || pattern === "") continue;
-    const problem = appliesToProblem(pattern);
-    if (problem) sink.error("policy/applies-to", `${displayPath(item)}: ${problem}`, item.span);
-    else out.push(pattern);
-  }
-  return out;
-}
-function partitionKeyOffsets(doc) {
-  const out = /* @__PURE__ */ new Set();
-  if (!(0, import_yaml6.isMap)(doc.contents)) return out;
-  for (const pair of doc.contents.items) {
-    if (!(0, import_yaml6.isScalar)(pair.key) || pair.key.value !== "partitions" || !(0, import_yaml6.isMap)(pair.value)) continue;
-    for (const inner of pair.value.items) if ((0, import_yaml6.isScalar)(inner.key) && inner.key.range) out.add(inner.key.range[0]);
-  }
-  return out;
-}
-function policyCode(code) {
-  return code.startsWith("config/") ? `policy/${code.slice("config/".length)}` : code;
-}
-function adopt(sink, file, run2, rename2 = (d) => policyCode(d.code)) {
-  const scratch = new DiagnosticSink(file);
-  const result2 = run2(scratch);
-  for (const d of scratch.sorted()) sink.error(rename2(d), d.message, d.span);
-  return result2;
-}
-
-// src/policy/policy-merge.ts
-function mergePolicy(own, parent) {
-  const partitions = new Map(parent?.partitions ?? []);
-  for (const [name, p] of own.partitions) partitions.set(name, p);
-  const ownByKey = new Map(own.requirements.map((r) => [r.key, r]));
-  const inherited = (parent?.requirements ?? []).map((r) => ownByKey.get(r.key) ?? r);
-  const inheritedKeys = new Set(inherited.map((r) => r.key));
-  const requirements = [...inherited, ...own.requirements.filter((r) => !inheritedKeys.has(r.key))];
-  const surrogate = own.surrogate ?? parent?.surrogate;
-  const modelPath = own.modelPath ?? parent?.modelPath;
-  const appliesTo = own.appliesTo ?? parent?.appliesTo;
-  const unproven = own.unproven ?? parent?.unproven;
-  const maxDropBits = own.maxDropBits ?? parent?.maxDropBits;
-  return {
-    id: own.id,
-    description: own.description,
-    file: own.file,
-    span: own.span,
-    ...surrogate !== void 0 ? { surrogate } : {},
-    ...modelPath !== void 0 ? { modelPath } : {},
-    ...appliesTo !== void 0 ? { appliesTo } : {},
-    ...unproven !== void 0 ? { unproven } : {},
-    ...maxDropBits !== void 0 ? { maxDropBits } : {},
-    partitions,
-    requirements,
-    chain: [own.file, ...parent?.chain ?? []]
-  };
-}
-function finalisePolicy(draft) {
-  const unproven = draft.unproven ?? "warn";
-  const requirements = draft.requirements.map((r) => {
-    const maxDropBits = r.maxDropBits ?? draft.maxDropBits;
-    return {
-      partition: r.partition,
-      minRank: r.minRank,
-      written: r.written,
-      unproven: r.unproven ?? unproven,
-      ...maxDropBits !== void 0 ? { maxDropBits } : {},
-      file: r.file,
-      span: r.span
-    };
-  });
-  return {
-    id: draft.id,
-    description: draft.description,
-    file: draft.file,
-    surrogate: draft.surrogate ?? "tree",
-    ...draft.modelPath !== void 0 ? { modelPath: draft.modelPath } : {},
-    appliesTo: draft.appliesTo ?? [],
-    partitions: draft.partitions,
-    requirements,
-    unproven,
-    ...draft.maxDropBits !== void 0 ? { maxDropBits: draft.maxDropBits } : {},
-    chain: draft.chain,
-    span: draft.span
-  };
-}
-
-// src/policy/extends-target.ts
-import { readFileSync as readFileSync2, realpathSync, statSync } from "node:fs";
-import { dirname as dirname5, isAbsolute, join as join4, normalize, relative as relative3, resolve as resolve4, sep as sep4 } from "node:path";
-function resolveExtendsTarget(value, fromFile, repoRoot, readFile) {
-  const display = isAbsolute(value) ? normalize(value) : join4(dirname5(fromFile), value);
-  const fromDir = dirname5(resolve4(fromFile));
-  const lexical = resolve4(realpathOrSelf(fromDir), value);
-  const root = realpathOrSelf(resolve4(repoRoot));
-  const outside = (why) => ({
-    ok: false,
-    code: "policy/extends-outside-root",
-    message: `extends '${value}' ${why} the repository root ${root}; a policy may only extend policies inside the repository`
-  });
-  let real;
-  try {
-    real = realpathSync(lexical);
-  } catch {
-    if (!inside(lexical, root)) return outside("points outside");
-    if (!readFile) return missing(value, lexical);
-    real = lexical;
-  }
-  if (!inside(real, root)) return outside(inside(lexical, root) ? "leads, through a symbolic link, outside" : "points outside");
-  const readPath = readFile ? join4(resolve4(repoRoot), relative3(root, real)) : real;
-  try {
-    return { ok: true, display, real, text: (readFile ?? readPolicyFromDisk)(readPath) };
-  } catch (err) {
-    if (isNotFound(err)) return missing(value, real);
-    if (err instanceof TooLargeError) return { ok: false, code: "policy/too-large", message: `extends '${value}': ${err.message}` };
-    const reason = err instanceof Error ? err.message : String(err);
-    return { ok: false, code: "policy/extends-unreadable", message: `extends '${value}': cannot read ${real}: ${reason}` };
-  }
-}
-var TooLargeError = class extends Error {
-  name = "TooLargeError";
-};
-function readPolicyFromDisk(path6) {
-  const size = statSync(path6).size;
-  if (size > MAX_DOCUMENT_BYTES) {
-    throw new TooLargeError(`the policy file is ${size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
-  }
-  return readFileSync2(path6, "utf8");
-}
-function realpathOrSelf(path6) {
-  try {
-    return realpathSync(path6);
-  } catch {
-    return path6;
-  }
-}
-function missing(value, path6) {
-  return { ok: false, code: "policy/extends-missing", message: `extends '${value}': there is no file ${path6}` };
-}
-function inside(path6, root) {
-  const rel = relative3(root, path6);
-  return rel === "" || rel !== ".." && !rel.startsWith(`..${sep4}`) && !isAbsolute(rel);
-}
-function isNotFound(err) {
-  return typeof err === "object" && err !== null && err.code === "ENOENT";
-}
-
-// src/policy/load-policy.ts
-function loadPolicyFile(path6, options) {
-  const loaded = loadFromDisk(path6, options);
-  return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
-}
-function loadPolicyText(text, file, options, readFile) {
-  const loaded = loadChain(text, file, realpathOrSelf(resolve5(file)), options, readFile, []);
-  return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
-}
-function loadPolicyDirectory(dir, options) {
-  let names;
-  try {
-    names = readdirSync2(dir).filter((n) => /\.ya?ml$/.test(n) && isFile(join5(dir, n)));
-  } catch (err) {
-    const reason = err instanceof Error ? err.message : String(err);
-    return { policies: [], diagnostics: [{ code: "policy/unreadable", message: `cannot read the policy directory: ${reason}`, file: dir, severity: "error" }] };
-  }
-  names.sort((a, b) => a < b ? -1 : a > b ? 1 : 0);
-  const policies = [];
-  const diagnostics = [];
-  const report = (d) => diagnostics.push(d);
-  const firstById = /* @__PURE__ */ new Map();
-  for (const name of names) {
-    const file = join5(dir, name);
-    const loaded = loadFromDisk(file, options);
-    loaded.diagnostics.forEach(report);
-    if (!loaded.draft) continue;
-    const policy = finalisePolicy(loaded.draft);
-    const earlier = firstById.get(policy.id);
-    if (earlier) {
-      report(duplicateIdDiagnostic(policy.id, earlier.file, file, loaded.idSpan));
-      continue;
-    }
-    firstById.set(policy.id, policy);
-    policies.push(policy);
-  }
-  return { policies, diagnostics: dedupeDiagnostics(diagnostics) };
-}
-function duplicateIdDiagnostic(id, earlierFile, file, span) {
-  return {
-    code: "policy/duplicate-id",
-    message: `the policy id '${id}' is already used by ${earlierFile}; ids must be unique among the policies of a directory`,
-    file,
-    ...span ? { span } : {},
-    severity: "error"
-  };
-}
-function loadFromDisk(path6, options) {
-  let text;
-  try {
-    text = readPolicyFromDisk(path6);
-  } catch (err) {
-    const tooLarge3 = err instanceof TooLargeError;
-    const reason = err instanceof Error ? err.message : String(err);
-    const d = {
-      code: tooLarge3 ? "policy/too-large" : "policy/unreadable",
-      message: tooLarge3 ? reason : `cannot read the policy file: ${reason}`,
-      file: path6,
-      severity: "error"
-    };
-    return { diagnostics: [d] };
-  }
-  return loadChain(text, path6, realpathOrSelf(resolve5(path6)), options, void 0, []);
-}
-function loadChain(text, file, real, options, readFile, stack) {
-  const sink = new DiagnosticSink(file);
-  const doc = readPolicyDocument(text, file, sink);
-  const inherited = [];
-  let parent;
-  if (doc?.extends) {
-    const at = doc.extends.span;
-    const chain = [...stack, { real, display: file }];
-    const target = resolveExtendsTarget(doc.extends.path, file, options.repoRoot, readFile);
-    if (!target.ok) {
-      sink.error(target.code, target.message, at);
-    } else if (chain.some((link) => link.real === target.real)) {
-      const from = chain.findIndex((link) => link.real === target.real);
-      const cycle = [...chain.slice(from).map((link) => link.display), target.display].join(" → ");
-      sink.error("policy/extends-cycle", `extends '${doc.extends.path}' closes a cycle: ${cycle}; a policy cannot extend itself, directly or through others`, at);
-    } else if (chain.length >= MAX_EXTENDS_DEPTH) {
-      sink.error("policy/extends-too-deep", `extends '${doc.extends.path}' makes the extends chain longer than ${MAX_EXTENDS_DEPTH} files`, at);
-    } else {
-      const loaded = loadChain(target.text, target.display, target.real, options, readFile, chain);
-      inherited.push(...loaded.diagnostics);
-      if (loaded.draft) parent = loaded.draft;
-      else sink.error("policy/extends-failed", `extends '${doc.extends.path}': ${target.display} did not load (its problems are listed with it)`, at);
-    }
-  }
-  if (doc) {
-    const visible = /* @__PURE__ */ new Set([...parent?.partitions.keys() ?? [], ...doc.declaredPartitions]);
-    checkPartitionReferences(doc.references, visible, sink);
-  }
-  if (!doc || sink.count > 0 || doc.id === void 0 || doc.description === void 0) {
-    if (sink.count === 0) throw new Error(`policy loader: no policy and no diagnostic for ${file} (a loader bug)`);
-    return { diagnostics: [...sink.sorted(), ...inherited] };
-  }
-  const draft = mergePolicy({ ...doc, id: doc.id, description: doc.description }, parent);
-  return { draft, ...doc.idSpan ? { idSpan: doc.idSpan } : {}, diagnostics: inherited };
-}
-function isFile(path6) {
-  try {
-    return statSync2(path6).isFile();
-  } catch {
-    return false;
-  }
-}
-
-// src/network/circuit.ts
-var OP_INPUT = 0;
-var OP_CONST = 1;
-var OP_LINEAR = 2;
-var OP_PRODUCT = 3;
-var OP_SUM = 4;
-var CircuitBuilder = class {
-  constructor(positions, limit) {
-    this.positions = positions;
-    this.limit = limit;
-  }
-  positions;
-  limit;
-  op = new Uint8Array(1024);
-  dim = new Int32Array(1024);
-  position = new Int32Array(1024);
-  tag = new Int32Array(1024);
-  childStart = new Int32Array(1025);
-  childList = new Int32Array(4096);
-  uses = new Uint8Array(1024);
-  n = 0;
-  m = 0;
-  reuse = false;
-  sums = false;
-  tags = [];
-  get size() {
-    return this.n;
-  }
-  get links() {
-    return this.m;
-  }
-  addTag(tag) {
-    this.tags.push(tag);
-    return this.tags.length - 1;
-  }
-  add(op, dim, tag, children, position = -1) {
-    if (this.n >= this.limit || this.m + children.length > this.limit * 4) {
-      throw new NetworkTooLarge(this.limit);
-    }
-    if (this.n + 1 >= this.op.length) this.growNodes();
-    while (this.m + children.length > this.childList.length) this.childList = grow(this.childList, this.childList.length * 2);
-    const v = this.n++;
-    this.op[v] = op;
-    this.dim[v] = dim;
-    this.position[v] = position;
-    this.tag[v] = tag;
-    this.childStart[v] = this.m;
-    for (const c of children) {
-      this.childList[this.m++] = c;
-      if (this.uses[c] > 0) this.reuse = true;
-      this.uses[c] = 1;
-    }
-    this.childStart[v + 1] = this.m;
-    if (op === OP_SUM && children.length > 1) this.sums = true;
-    return v;
-  }
-  finish(top) {
-    const bondTag = this.tag.slice(0, this.n);
-    for (let v = 0; v < this.n; v++) {
-      if (this.op[v] === OP_PRODUCT && this.childStart[v + 1] > this.childStart[v]) bondTag[v] = bondTag[this.childList[this.childStart[v]]];
-    }
-    return {
-      bondTag,
-      size: this.n,
-      op: this.op.slice(0, this.n),
-      dim: this.dim.slice(0, this.n),
-      position: this.position.slice(0, this.n),
-      tag: this.tag.slice(0, this.n),
-      childStart: this.childStart.slice(0, this.n + 1),
-      childList: this.childList.slice(0, this.m),
-      top,
-      tags: this.tags,
-      positions: this.positions,
-      reuse: this.reuse,
-      sums: this.sums,
-      homogeneous: !this.sums
-    };
-  }
-  growNodes() {
-    const size = this.op.length * 2;
-    this.op = grow(this.op, size);
-    this.dim = grow(this.dim, size);
-    this.position = grow(this.position, size);
-    this.tag = grow(this.tag, size);
-    this.uses = grow(this.uses, size);
-    this.childStart = grow(this.childStart, size + 1);
-  }
-};
-var NetworkTooLarge = class extends Error {
-  constructor(limit) {
-    super(`the tensor network would exceed ${limit} nodes`);
-    this.limit = limit;
-  }
-  limit;
-  name = "NetworkTooLarge";
-};
-function grow(a, size) {
-  const b = new a.constructor(size);
-  b.set(a);
-  return b;
-}
-
 // src/network/square-rule.ts
 var WEIGHTED = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent"]);
-function readPointwise2(model, shapes) {
+function readPointwise(model, shapes) {
   const layers = model.layers;
   const reachesWeighted = new Uint8Array(layers.length);
   for (let i = layers.length - 1; i >= 0; i--) {
@@ -41610,7 +38935,7 @@ function buildCircuit(model, options) {
   let estimate = positionCount(model.input.shape);
   for (const s of shapes.layers) estimate += positionCount(s.shape);
   if (estimate > limit) return tooLarge3();
-  const pointwise = readPointwise2(model, shapes);
+  const pointwise = readPointwise(model, shapes);
   const notes = new Notes(model, shapes, pointwise, options.surrogate);
   const b = new CircuitBuilder(positionCount(model.input.shape), limit);
   try {
@@ -42550,7 +39875,7 @@ function buildNetwork(model, partition) {
   for (let i = 0; i < model.tensors.length; i++) fresh();
   let hyper = false;
   let cycle = false;
-  const join8 = (a, b) => {
+  const join11 = (a, b) => {
     const ra = find(a);
     const rb = find(b);
     if (ra === rb) cycle = true;
@@ -42566,9 +39891,9 @@ function buildNetwork(model, partition) {
     if (members.length >= 3) {
       hyper = true;
       const h = fresh();
-      for (const m of members) join8(h, m);
+      for (const m of members) join11(h, m);
     } else if (members.length === 2) {
-      join8(members[0], members[1]);
+      join11(members[0], members[1]);
     } else {
       cycle = true;
     }
@@ -42724,11 +40049,174 @@ var FROM_SIDE_B = 5;
 var MAX_BITS = 4e6;
 function rankPropagation(c, side) {
   const plan = planOf(c);
-  const logs = propagate(c, plan, side, LOG);
+  const logs = propagateFloat(c, plan, side, true);
   let largest = 0;
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v], logs.rb[v]);
-  const rank = () => largest > MAX_BITS ? void 0 : big(propagate(c, plan, side, EXACT).lam[c.top]);
+  const rank = () => {
+    if (largest > MAX_BITS) return void 0;
+    if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]);
+    return big(propagate(c, plan, side, EXACT).lam[c.top]);
+  };
   return { log2: logs.lam[c.top], rank, counts: recordWidths(c, plan, logs) };
+}
+function propagateFloat(c, plan, side, log) {
+  const n = c.size;
+  const { op, dim, childStart, childList } = c;
+  const { start, childOf, times, mStart, members } = plan;
+  const dep = new Uint8Array(n);
+  const one = log ? 0 : 1;
+  const ra = new Float64Array(n).fill(one);
+  const rb = new Float64Array(n).fill(one);
+  const kap = new Float64Array(n).fill(one);
+  const lam = new Float64Array(n).fill(one);
+  const whyA = new Uint8Array(n).fill(FROM_PURE);
+  const whyB = new Uint8Array(n).fill(FROM_PURE);
+  const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const of = (x) => log ? Math.log2(x) : x;
+  const mul = (x, y) => log ? x + y : x * y;
+  const add = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
+  const symPow = (x, a) => log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a));
+  const term = (t, r) => {
+    const node = childOf[t];
+    if (mStart[t + 1] === mStart[t]) return r[node];
+    let sum2 = r[members[mStart[t]]];
+    for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum2 = add(sum2, r[members[i]]);
+    return Math.min(r[node], sum2);
+  };
+  for (let v = 0; v < n; v++) {
+    const kind = op[v];
+    if (kind === OP_INPUT) {
+      const onA = side[c.position[v]] === 1;
+      dep[v] = onA ? 1 : 2;
+      if (onA) rb[v] = of(dim[v]);
+      else ra[v] = of(dim[v]);
+      continue;
+    }
+    if (kind === OP_CONST) continue;
+    let d = 0;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) d |= dep[childList[i]];
+    dep[v] = d;
+    const D = of(dim[v]);
+    if (d !== 3) {
+      const own = kind === OP_LINEAR ? childList[childStart[v]] : -1;
+      if (d === 1) rb[v] = own >= 0 ? Math.min(rb[own], D) : D;
+      if (d === 2) ra[v] = own >= 0 ? Math.min(ra[own], D) : D;
+      continue;
+    }
+    let a;
+    let b;
+    let k;
+    let l;
+    let lWhy = FROM_CHILDREN;
+    if (kind === OP_LINEAR) {
+      const ch = childList[childStart[v]];
+      a = ra[ch];
+      b = rb[ch];
+      l = lam[ch];
+      k = l;
+    } else if (kind === OP_PRODUCT) {
+      a = one;
+      b = one;
+      k = one;
+      for (let t = start[v]; t < start[v + 1]; t++) {
+        const ch = childOf[t];
+        const m = times[t];
+        a = mul(a, m === 1 ? ra[ch] : symPow(ra[ch], m));
+        b = mul(b, m === 1 ? rb[ch] : symPow(rb[ch], m));
+        k = mul(k, m === 1 ? kap[ch] : symPow(kap[ch], m));
+      }
+      l = mul(D, k);
+      lWhy = FROM_DIM_KAPPA;
+    } else {
+      [a, b, l] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      k = l;
+    }
+    whyA[v] = FROM_CHILDREN;
+    whyB[v] = FROM_CHILDREN;
+    whyL[v] = lWhy;
+    const viaB = mul(D, b);
+    const viaA = mul(D, a);
+    const viaK = mul(D, k);
+    if (a > Math.min(viaB, viaK)) {
+      whyA[v] = viaB <= viaK ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      a = Math.min(viaB, viaK);
+    }
+    if (b > Math.min(viaA, viaK)) {
+      whyB[v] = viaA <= viaK ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
+      b = Math.min(viaA, viaK);
+    }
+    if (l > Math.min(a, b)) {
+      whyL[v] = a <= b ? FROM_SIDE_A : FROM_SIDE_B;
+      l = Math.min(a, b);
+    }
+    ra[v] = a;
+    rb[v] = b;
+    lam[v] = l;
+    kap[v] = Math.min(k, l);
+  }
+  return { dep, ra, rb, lam, whyA, whyB, whyL };
+}
+var PlainSum = class {
+  value = 0;
+  add(x) {
+    this.value += x;
+  }
+};
+var Log2Sum = class {
+  m = -Infinity;
+  s = 0;
+  add(x) {
+    if (x > this.m) {
+      this.s = this.s * 2 ** (this.m - x) + 1;
+      this.m = x;
+    } else this.s += 2 ** (x - this.m);
+  }
+  get value() {
+    return this.m === -Infinity ? 0 : this.m + Math.log2(this.s);
+  }
+};
+function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
+  const sum2 = () => log ? new Log2Sum() : new PlainSum();
+  const one = log ? 0 : 1;
+  const a = sum2();
+  const b = sum2();
+  const l = sum2();
+  const pureAonB = sum2();
+  const pureBonA = sum2();
+  let pureA = false;
+  let pureB = false;
+  let constant = false;
+  for (let t = start[v]; t < start[v + 1]; t++) {
+    const d = dep[childOf[t]];
+    if (d === 0) constant = true;
+    else if (d === 1) {
+      pureA = true;
+      pureAonB.add(termB(t));
+    } else if (d === 2) {
+      pureB = true;
+      pureBonA.add(termA(t));
+    } else {
+      a.add(termA(t));
+      b.add(termB(t));
+      l.add(termL(t));
+    }
+  }
+  if (constant && !pureA && !pureB) {
+    a.add(one);
+    b.add(one);
+    l.add(one);
+  }
+  if (pureA) {
+    a.add(one);
+    b.add(Math.min(D, pureAonB.value));
+    l.add(one);
+  }
+  if (pureB) {
+    a.add(Math.min(D, pureBonA.value));
+    b.add(one);
+    l.add(one);
+  }
+  return [a.value, b.value, l.value];
 }
 var plans2 = /* @__PURE__ */ new WeakMap();
 function planOf(c) {
@@ -42872,9 +40360,9 @@ function termRank(plan, t, r, ar) {
   const { childOf, mStart, members } = plan;
   const node = childOf[t];
   if (mStart[t + 1] === mStart[t]) return r[node];
-  let sum = r[members[mStart[t]]];
-  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = ar.add(sum, r[members[i]]);
-  return ar.le(r[node], sum) ? r[node] : sum;
+  let sum2 = r[members[mStart[t]]];
+  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum2 = ar.add(sum2, r[members[i]]);
+  return ar.le(r[node], sum2) ? r[node] : sum2;
 }
 function sumRule(plan, v, D, dep, ra, rb, lam, ar) {
   const min = (x, y) => ar.le(x, y) ? x : y;
@@ -43027,7 +40515,7 @@ function keepOneInput(model, pick, reading, shapes) {
   const consumers = layers.map(() => []);
   for (const l of layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
   const replaced = /* @__PURE__ */ new Map();
-  const resolve9 = (i) => replaced.get(i) ?? i;
+  const resolve10 = (i) => replaced.get(i) ?? i;
   for (const l of layers) {
     if (l.kind !== "merge") continue;
     const coordinatewise = l.mode === "concat" && onlyCoordinatewiseUntilWeighted(layers, consumers, l.index);
@@ -43035,28 +40523,28 @@ function keepOneInput(model, pick, reading, shapes) {
     const ends = pick === "first" ? [0, l.inputs.length - 1] : [l.inputs.length - 1, 0];
     const keptAt = ends.find(canKeep);
     if (keptAt === void 0) return void 0;
-    replaced.set(l.index, resolve9(l.inputs[keptAt]));
+    replaced.set(l.index, resolve10(l.inputs[keptAt]));
   }
-  const last = resolve9(layers.length - 1);
+  const last = resolve10(layers.length - 1);
   const live = /* @__PURE__ */ new Set();
   const stack = [last];
   while (stack.length > 0) {
     const i = stack.pop();
     if (i === INPUT || live.has(i)) continue;
     live.add(i);
-    for (const j of layers[i].inputs) stack.push(resolve9(j));
+    for (const j of layers[i].inputs) stack.push(resolve10(j));
   }
   const order = layers.filter((l) => live.has(l.index) && l.kind !== "merge");
   const newIndex = new Map(order.map((l, k) => [l.index, k]));
   const kept = order.map((l, k) => ({
     ...l,
     index: k,
-    inputs: l.inputs.map((j) => j === INPUT ? INPUT : newIndex.get(resolve9(j)))
+    inputs: l.inputs.map((j) => j === INPUT ? INPUT : newIndex.get(resolve10(j)))
   }));
   const reduced = { ...model, layers: kept };
   const shaped = inferShapes(reduced);
   if (!shaped.ok) return void 0;
-  const again = readPointwise2(reduced, shaped.shapes);
+  const again = readPointwise(reduced, shaped.shapes);
   for (const l of order) {
     const k = newIndex.get(l.index);
     if (reading.squared.has(l.index) !== again.squared.has(k) || reading.ignored.has(l.index) !== again.ignored.has(k)) return void 0;
@@ -43533,546 +41021,2560 @@ function evaluatePolicy(model, policy, options = {}) {
   };
 }
 
-// src/git/git-error.ts
-var GitError = class extends Error {
-  constructor(message, stderr) {
-    super(message);
-    this.stderr = stderr;
+// src/config/load-config.ts
+var import_yaml5 = __toESM(require_dist(), 1);
+
+// src/config/located-value.ts
+var import_yaml2 = __toESM(require_dist(), 1);
+
+// src/config/anchor-index.ts
+var import_yaml = __toESM(require_dist(), 1);
+var AnchorIndex = class {
+  constructor(doc) {
+    this.doc = doc;
   }
-  stderr;
-  name = "GitError";
+  doc;
+  byName;
+  /** The node of the last `&name` anchor before the alias, as YAML defines it. */
+  resolve(alias) {
+    const candidates2 = this.index().get(alias.source);
+    const at = alias.range?.[0];
+    if (!candidates2 || at === void 0) return void 0;
+    let found2;
+    for (const c of candidates2) {
+      if (c.offset < at) found2 = c.node;
+      else break;
+    }
+    return found2;
+  }
+  index() {
+    if (this.byName) return this.byName;
+    const byName = /* @__PURE__ */ new Map();
+    (0, import_yaml.visit)(this.doc, (_key, node) => {
+      if (((0, import_yaml.isScalar)(node) || (0, import_yaml.isCollection)(node)) && !(0, import_yaml.isAlias)(node) && node.anchor && node.range) {
+        const list3 = byName.get(node.anchor) ?? [];
+        list3.push({ offset: node.range[0], node });
+        byName.set(node.anchor, list3);
+      }
+    });
+    for (const list3 of byName.values()) list3.sort((a, b) => a.offset - b.offset);
+    this.byName = byName;
+    return byName;
+  }
 };
 
-// src/git/repo.ts
-import { resolve as resolve6 } from "node:path";
-
-// src/git/git-input.ts
-var CONTROL = /[\u0000-\u001f\u007f]/;
-function checkRevision(rev) {
-  if (rev === "") throw new GitError("a git revision must not be empty", "");
-  if (rev.startsWith("-")) throw new GitError(`refusing the git revision '${rev}': a revision must not start with '-'`, "");
-  if (CONTROL.test(rev)) throw new GitError(`refusing the git revision ${JSON.stringify(rev)}: it contains control characters`, "");
-  return rev;
-}
-function checkRootRelativePath(path6) {
-  const refuse = (why) => {
-    throw new GitError(`refusing the path ${JSON.stringify(path6)}: ${why}`, "");
-  };
-  if (path6 === "") refuse("it is empty");
-  if (path6.includes("\0")) refuse("it contains a NUL character");
-  if (path6.includes("\\")) refuse("use forward slashes, relative to the repository root");
-  if (path6.startsWith("/") || /^[A-Za-z]:/.test(path6)) refuse("it is absolute; give it relative to the repository root");
-  for (const segment of path6.split("/")) {
-    if (segment === "..") refuse("it has a '..' segment");
-    if (segment === "." || segment === "") refuse("it has an empty or '.' segment");
+// src/config/field-path.ts
+function formatFieldPath(segments, whole = "the model") {
+  let out = "";
+  for (const s of segments) {
+    if (typeof s === "number") out += `[${s}]`;
+    else if (/^[A-Za-z_][A-Za-z0-9_-]*$/.test(s)) out += out === "" ? s : `.${s}`;
+    else out += `[${JSON.stringify(s)}]`;
   }
-  return path6;
+  return out === "" ? whole : out;
 }
 
-// src/git/run-git.ts
-import { spawnSync } from "node:child_process";
-import { accessSync, constants as constants3, statSync as statSync3 } from "node:fs";
-import { delimiter as delimiter3, isAbsolute as isAbsolute2, join as join6 } from "node:path";
-var MAX_FILE_BYTES = 4 * 1024 * 1024;
-var MAX_LISTING_BYTES = 64 * 1024 * 1024;
-var LOCAL_TIMEOUT_MS = 12e4;
-function gitEnv() {
+// src/config/json-pointer.ts
+function parsePointer(pointer) {
+  if (pointer === "") return { ok: true, segments: [] };
+  if (!pointer.startsWith("/")) {
+    return { ok: false, message: `the model path '${pointer}' is not a JSON pointer: it must be empty or start with '/', e.g. '/model' or '/training/model'` };
+  }
+  const segments = [];
+  for (const raw of pointer.slice(1).split("/")) {
+    if (/~(?![01])/.test(raw)) {
+      return { ok: false, message: `the model path '${pointer}' has a bad escape in '${raw}': in a JSON pointer '~' must be followed by 0 ('~') or 1 ('/')` };
+    }
+    segments.push(raw.replace(/~1/g, "/").replace(/~0/g, "~"));
+  }
+  return { ok: true, segments };
+}
+function escapeSegment(segment) {
+  return String(segment).replace(/~/g, "~0").replace(/\//g, "~1");
+}
+function formatPointer(segments) {
+  return segments.map((s) => "/" + escapeSegment(s)).join("");
+}
+function isArrayIndex(segment) {
+  return /^(0|[1-9][0-9]*)$/.test(segment);
+}
+
+// src/config/source-span.ts
+function spanFromOffsets(lines, offset, endOffset) {
+  const start = lines.linePos(offset);
+  const end = lines.linePos(Math.max(offset, endOffset));
   return {
-    ...process.env,
-    GIT_TERMINAL_PROMPT: "0",
-    LC_ALL: "C",
-    // A pre-commit run happens while `git commit` holds the index; refreshing it would contend.
-    GIT_OPTIONAL_LOCKS: "0",
-    // Paths are given to git literally: a config named `*.yaml` means that one file.
-    GIT_LITERAL_PATHSPECS: "1"
+    offset,
+    endOffset: Math.max(offset, endOffset),
+    line: start.line,
+    column: start.col,
+    endLine: end.line,
+    endColumn: end.col
   };
 }
-var found;
-function findGit() {
-  const pathVar = process.env["PATH"] ?? "";
-  if (found?.pathVar === pathVar) return found.git;
-  const names = process.platform === "win32" ? ["git.exe"] : ["git"];
-  let git;
-  search: for (const raw of pathVar.split(delimiter3)) {
-    const dir = raw.replace(/^"(.*)"$/, "$1");
-    if (dir === "" || !isAbsolute2(dir)) continue;
-    for (const name of names) {
-      const candidate = join6(dir, name);
-      if (isExecutableFile(candidate)) {
-        git = candidate;
-        break search;
+function spanOfRange(lines, range2) {
+  if (!range2) return void 0;
+  return spanFromOffsets(lines, range2[0], range2[1]);
+}
+function spanJoin(first, last) {
+  if (last.endOffset < first.offset) return first;
+  return { offset: first.offset, line: first.line, column: first.column, endOffset: last.endOffset, endLine: last.endLine, endColumn: last.endColumn };
+}
+
+// src/config/located-value.ts
+function pathOf(node) {
+  const out = [];
+  let cur = node;
+  let root = node;
+  while (cur) {
+    if (cur.segment !== void 0) out.push(cur.segment);
+    root = cur;
+    cur = cur.parent;
+  }
+  out.reverse();
+  return [...root.base ?? [], ...out];
+}
+function displayPath(node, ...more) {
+  let root = node;
+  while (root.parent) root = root.parent;
+  return formatFieldPath([...pathOf(node), ...more], root.rootName);
+}
+function pointerOf(node) {
+  return formatPointer(pathOf(node));
+}
+function entryOf(map, key) {
+  return map.entries.find((e) => e.key === key);
+}
+function fieldOf(map, key) {
+  return entryOf(map, key)?.value;
+}
+function locate(root, segments) {
+  let cur = root;
+  for (const s of segments) {
+    if (!cur) return void 0;
+    if (cur.kind === "map") cur = fieldOf(cur, s);
+    else if (cur.kind === "seq") cur = /^(0|[1-9][0-9]*)$/.test(s) ? cur.items[Number(s)] : void 0;
+    else return void 0;
+  }
+  return cur;
+}
+function toPlain(node) {
+  switch (node.kind) {
+    case "scalar":
+      return node.value;
+    case "seq":
+      return node.items.map(toPlain);
+    case "map": {
+      const out = {};
+      for (const e of node.entries) {
+        Object.defineProperty(out, e.key, { value: toPlain(e.value), enumerable: true, writable: true, configurable: true });
+      }
+      return out;
+    }
+  }
+}
+function describeValue(node) {
+  if (!node) return "nothing";
+  if (node.kind === "map") return "a mapping";
+  if (node.kind === "seq") return "a list";
+  return describeScalar(node.value);
+}
+function describeScalar(value) {
+  if (value === null) return "an empty value";
+  if (typeof value === "string") {
+    const shown2 = value.length > 40 ? `${value.slice(0, 40)}…` : value;
+    return `the string ${JSON.stringify(shown2)}`;
+  }
+  if (typeof value === "number" || typeof value === "boolean") return String(value);
+  if (Array.isArray(value)) return "a list";
+  if (typeof value === "object") return "a mapping";
+  return String(value);
+}
+function convertNode(doc, lines, sink, node, base, fallback, naming = {}) {
+  const state = {
+    anchors: new AnchorIndex(doc),
+    rootName: naming.rootName ?? "the model",
+    subject: naming.subject ?? "architecture",
+    lines,
+    sink,
+    expansions: 0,
+    active: /* @__PURE__ */ new Set(),
+    failed: false,
+    reportedBudget: false,
+    reportedDepth: false
+  };
+  const root = convert(state, node, void 0, void 0, fallback, 0, base, void 0, naming.rootName);
+  return state.failed ? void 0 : root;
+}
+function convert(st, node, parent, segment, fallback, depth, base, aliasSpan, rootName) {
+  const common = (own) => ({
+    span: aliasSpan ?? own ?? fallback,
+    parent,
+    segment,
+    ...base ? { base } : {},
+    ...rootName !== void 0 ? { rootName } : {}
+  });
+  if (depth > MAX_NESTING_DEPTH) {
+    if (!st.reportedDepth) {
+      st.reportedDepth = true;
+      st.sink.error("config/too-deep", `${st.rootName} is nested more than ${MAX_NESTING_DEPTH} levels deep here; no ${st.subject} needs that`, aliasSpan ?? fallback);
+    }
+    st.failed = true;
+    return void 0;
+  }
+  if (node === null || node === void 0) {
+    return { kind: "scalar", value: null, ...common(void 0) };
+  }
+  if ((0, import_yaml2.isAlias)(node)) {
+    const own = spanOfRange(st.lines, node.range) ?? fallback;
+    st.expansions += 1;
+    if (st.expansions > MAX_ALIAS_EXPANSIONS) {
+      if (!st.reportedBudget) {
+        st.reportedBudget = true;
+        st.sink.error(
+          "config/alias-limit",
+          `too many alias expansions: ${st.rootName} expands more than ${MAX_ALIAS_EXPANSIONS} aliases (*${node.source}); a document that multiplies itself through aliases is refused`,
+          own
+        );
+      }
+      st.failed = true;
+      return void 0;
+    }
+    const target = st.anchors.resolve(node);
+    if (!target) {
+      st.sink.error("config/yaml", `the alias *${node.source} refers to no anchor &${node.source} before it`, own);
+      st.failed = true;
+      return void 0;
+    }
+    if (st.active.has(target)) {
+      st.sink.error("config/alias-cycle", `the alias *${node.source} is inside its own anchor &${node.source}, which would make the value infinite`, own);
+      st.failed = true;
+      return void 0;
+    }
+    st.active.add(target);
+    try {
+      return convert(st, target, parent, segment, own, depth + 1, base, aliasSpan ?? own, rootName);
+    } finally {
+      st.active.delete(target);
+    }
+  }
+  if ((0, import_yaml2.isScalar)(node)) {
+    const own = spanOfRange(st.lines, node.range);
+    const v = node.value;
+    if (v === null || typeof v === "string" || typeof v === "number" || typeof v === "boolean") {
+      return { kind: "scalar", value: v, ...common(own) };
+    }
+    st.sink.error("config/type", `this value (${typeof v}) is not a plain string, number, boolean or null`, aliasSpan ?? own ?? fallback);
+    st.failed = true;
+    return void 0;
+  }
+  if ((0, import_yaml2.isSeq)(node)) {
+    const own = spanOfRange(st.lines, node.range);
+    const seq = { kind: "seq", items: [], ...common(own) };
+    node.items.forEach((item, i) => {
+      const child2 = convert(st, item, seq, i, seq.span, depth + 1);
+      if (child2) seq.items.push(child2);
+    });
+    return seq;
+  }
+  if ((0, import_yaml2.isMap)(node)) {
+    const own = spanOfRange(st.lines, node.range);
+    const map = { kind: "map", entries: [], ...common(own) };
+    const firstAt = /* @__PURE__ */ new Map();
+    for (const pair of node.items) {
+      const keyNode = (0, import_yaml2.isAlias)(pair.key) ? st.anchors.resolve(pair.key) : pair.key;
+      const keySpan = ((0, import_yaml2.isAlias)(pair.key) || (0, import_yaml2.isScalar)(pair.key) || (0, import_yaml2.isMap)(pair.key) || (0, import_yaml2.isSeq)(pair.key) ? spanOfRange(st.lines, pair.key.range) : void 0) ?? map.span;
+      if (!(0, import_yaml2.isScalar)(keyNode) || keyNode.value !== null && typeof keyNode.value === "object") {
+        st.sink.error("config/key-type", `${formatFieldPath(pathOf(map), st.rootName)} has a key that is not a plain name; keys must be strings such as 'layers'`, keySpan);
+        st.failed = true;
+        continue;
+      }
+      const key = String(keyNode.value);
+      const earlier = firstAt.get(key);
+      if (earlier) {
+        st.sink.error("config/duplicate-key", `${formatFieldPath([...pathOf(map), key], st.rootName)} is given twice (first on line ${earlier.line}); keep one`, keySpan);
+        st.failed = true;
+        continue;
+      }
+      firstAt.set(key, keySpan);
+      const valueFallback = spanFromOffsets(st.lines, keySpan.endOffset, keySpan.endOffset);
+      const value = convert(st, pair.value, map, key, valueFallback, depth + 1);
+      if (value) map.entries.push({ key, writtenKey: key, keySpan, value });
+    }
+    return map;
+  }
+  st.sink.error("config/type", "this YAML node is not a mapping, list or scalar", aliasSpan ?? fallback);
+  st.failed = true;
+  return void 0;
+}
+
+// src/config/located-read.ts
+function asMap(node) {
+  return node?.kind === "map" ? node : void 0;
+}
+function positiveIntegerOf(node) {
+  return node?.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value) && node.value >= 1 ? node.value : void 0;
+}
+function nonNegativeIntegerOf(node) {
+  return node?.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value) && node.value >= 0 ? node.value : void 0;
+}
+function stringOf(node) {
+  return node?.kind === "scalar" && typeof node.value === "string" ? node.value : void 0;
+}
+function booleanOf(node) {
+  return node?.kind === "scalar" && typeof node.value === "boolean" ? node.value : void 0;
+}
+function positiveIntegerListOf(node) {
+  if (node?.kind !== "seq") return void 0;
+  const out = [];
+  for (const item of node.items) {
+    const n = positiveIntegerOf(item);
+    if (n === void 0) return void 0;
+    out.push(n);
+  }
+  return out;
+}
+function fieldSpansOf(body, fields) {
+  const out = {};
+  for (const f2 of fields) {
+    const v = fieldOf(body, f2);
+    if (v) out[f2] = v.span;
+  }
+  return out;
+}
+
+// src/config/build-explicit.ts
+var LISTED_POSITIONS = 10;
+function buildExplicitModel(root, file, sink) {
+  const network = asMap(fieldOf(root, "network"));
+  if (!network) return void 0;
+  const shapeNode = fieldOf(network, "shape");
+  const shape = positiveIntegerListOf(shapeNode);
+  const validShape = shape && shape.length >= 1 && shape.length <= 2 ? shape : void 0;
+  const positions = validShape ? positionCount(validShape) : void 0;
+  let ok = validShape !== void 0;
+  const tensors = [];
+  const firstByName = /* @__PURE__ */ new Map();
+  const tensorsNode = fieldOf(network, "tensors");
+  const covered = /* @__PURE__ */ new Set();
+  for (const item of tensorsNode?.kind === "seq" ? tensorsNode.items : []) {
+    const tensor = asMap(item);
+    const nameNode = tensor ? fieldOf(tensor, "name") : void 0;
+    const name = stringOf(nameNode);
+    if (!tensor || name === void 0 || name === "" || !nameNode) {
+      ok = false;
+      continue;
+    }
+    const earlier = firstByName.get(name);
+    if (earlier) {
+      sink.error("config/duplicate-tensor", `${displayPath(nameNode)} is '${name}', which ${displayPath(earlier)} (line ${earlier.span.line}) already names; tensor names must be unique`, nameNode.span);
+      ok = false;
+    } else {
+      firstByName.set(name, nameNode);
+    }
+    const legs = [];
+    const legsNode = fieldOf(tensor, "legs");
+    if (legsNode !== void 0 && legsNode.kind !== "seq") ok = false;
+    for (const legItem of legsNode?.kind === "seq" ? legsNode.items : []) {
+      const leg = asMap(legItem);
+      const positionNode = leg ? fieldOf(leg, "position") : void 0;
+      const position = nonNegativeIntegerOf(positionNode);
+      const dim = positiveIntegerOf(leg ? fieldOf(leg, "dim") : void 0);
+      if (!leg || position === void 0 || dim === void 0 || !positionNode) {
+        ok = false;
+        continue;
+      }
+      if (positions !== void 0 && position >= positions) {
+        sink.error(
+          "config/position-out-of-range",
+          `${displayPath(positionNode)} is ${position}, but the shape [${validShape.join(", ")}] has positions 0 to ${positions - 1} (numbered row-major)`,
+          positionNode.span
+        );
+        ok = false;
+        continue;
+      }
+      covered.add(position);
+      legs.push({ position, dim, span: leg.span });
+    }
+    tensors.push({ name, legs, span: tensor.span });
+  }
+  if (tensorsNode?.kind !== "seq" || tensorsNode.items.length === 0) ok = false;
+  const bonds = [];
+  const bondsNode = fieldOf(network, "bonds");
+  if (bondsNode !== void 0 && bondsNode.kind !== "seq") ok = false;
+  const names = [...firstByName.keys()];
+  for (const item of bondsNode?.kind === "seq" ? bondsNode.items : []) {
+    const bond = asMap(item);
+    const betweenNode = bond ? fieldOf(bond, "between") : void 0;
+    const dim = positiveIntegerOf(bond ? fieldOf(bond, "dim") : void 0);
+    if (!bond || betweenNode?.kind !== "seq" || betweenNode.items.length < 2 || dim === void 0) {
+      ok = false;
+      continue;
+    }
+    const members = [];
+    for (const member of betweenNode.items) {
+      const ref = stringOf(member);
+      if (ref === void 0 || ref === "") {
+        ok = false;
+        continue;
+      }
+      if (!firstByName.has(ref)) {
+        const guess = closest(ref, names);
+        sink.error(
+          "config/unknown-tensor",
+          `${displayPath(member)} names the tensor '${ref}', which is not in network.tensors${guess ? ` (did you mean '${guess}'?)` : ""}`,
+          member.span
+        );
+        ok = false;
+      } else if (members.includes(ref)) {
+        sink.error("config/duplicate-bond-tensor", `${displayPath(member)} repeats '${ref}'; a bond joins different tensors`, member.span);
+        ok = false;
+      }
+      members.push(ref);
+    }
+    bonds.push({ tensors: members, dim, span: bond.span });
+  }
+  if (positions !== void 0 && shapeNode) {
+    const bare = [];
+    for (let p = 0; p < positions && bare.length <= LISTED_POSITIONS; p++) if (!covered.has(p)) bare.push(p);
+    if (bare.length > 0) {
+      const missing = positions - covered.size;
+      const listed = bare.slice(0, LISTED_POSITIONS).join(", ");
+      const more = missing > LISTED_POSITIONS ? ` and ${missing - LISTED_POSITIONS} more` : "";
+      sink.error(
+        "config/position-without-leg",
+        `${missing === 1 ? "position" : "positions"} ${listed}${more} of ${displayPath(shapeNode)} [${validShape.join(", ")}] ${missing === 1 ? "has" : "have"} no open leg; every input position needs a tensor with a leg there`,
+        shapeNode.span
+      );
+      ok = false;
+    }
+  }
+  if (!ok || !validShape) return void 0;
+  return { kind: "explicit", file, shape: validShape, tensors, bonds, span: root.span };
+}
+
+// src/config/pointwise-ops.ts
+var ops = (family, rows) => rows.map(([op, ...aliases]) => ({ op, family, aliases }));
+var POINTWISE_OPS = [
+  ...ops("activation", [
+    ["relu"],
+    ["relu6"],
+    ["gelu"],
+    ["silu", "swish"],
+    ["tanh"],
+    ["sigmoid"],
+    ["hard_sigmoid"],
+    ["elu"],
+    ["selu"],
+    ["celu"],
+    ["leaky_relu", "lrelu"],
+    ["softplus"],
+    ["softsign"],
+    ["mish"],
+    ["hardswish", "hswish", "hard_swish"],
+    ["hardtanh"],
+    ["prelu"],
+    ["softmax"],
+    ["log_softmax"],
+    ["identity"]
+  ]),
+  ...ops("normalisation", [
+    ["batch_norm", "bn", "batchnormalization", "syncbatchnorm"],
+    ["layer_norm", "ln", "layernormalization"],
+    ["group_norm", "gn", "groupnormalization"],
+    ["instance_norm", "instancenormalization"],
+    ["local_response_norm", "lrn", "localresponsenormalization"],
+    ["rms_norm", "rmsnormalization"]
+  ]),
+  ...ops("dropout", [
+    ["dropout"],
+    ["spatial_dropout"],
+    ["alpha_dropout"],
+    ["gaussian_dropout"],
+    ["feature_alpha_dropout"]
+  ]),
+  ...ops("scaling", [
+    ["scale", "scaling", "rescaling"],
+    ["weight_norm", "weightnormalization"]
+  ])
+];
+function normaliseWord(word) {
+  return word.toLowerCase().replace(/[_\-\s.]/g, "");
+}
+var BY_WORD = /* @__PURE__ */ new Map();
+for (const o of POINTWISE_OPS) for (const w of [o.op, ...o.aliases]) BY_WORD.set(normaliseWord(w), o);
+function pointwiseOpOf(normalisedWord) {
+  return BY_WORD.get(normalisedWord);
+}
+function opsOf(family) {
+  return POINTWISE_OPS.filter((o) => o.family === family).map((o) => o.op);
+}
+
+// src/config/read-input.ts
+function readInput(node, sink) {
+  if (!node) return void 0;
+  const shapeNode = fieldOf(node, "shape");
+  const given = positiveIntegerListOf(shapeNode);
+  const channelsNode = fieldOf(node, "channels");
+  const channels = positiveIntegerOf(channelsNode);
+  const reprNode = fieldOf(node, "representation");
+  const representation = positiveIntegerOf(reprNode);
+  if (!shapeNode || !given || given.length < 1 || given.length > 3) return void 0;
+  if (channelsNode && channels === void 0 || reprNode && representation === void 0) return void 0;
+  let shape = given;
+  if (given.length === 3) {
+    const at = displayPath(shapeNode);
+    const text2 = `[${given.join(", ")}]`;
+    if (channels === void 0) {
+      sink.error(
+        "config/input-shape",
+        `${at} is ${text2}: only 1D ([length]) and 2D ([height, width]) grids are supported; if one entry is the channel count, give it as input.channels too (e.g. channels: ${Math.min(given[0], given[2])}) and it is dropped, or write the shape without it`,
+        shapeNode.span
+      );
+      return void 0;
+    }
+    const first = given[0] === channels ? given.slice(1) : void 0;
+    const last = given[2] === channels ? given.slice(0, 2) : void 0;
+    if (first && last && (first[0] !== last[0] || first[1] !== last[1])) {
+      sink.error("config/input-shape", `${at} is ${text2}, and both its first and its last entry equal input.channels (${channels}); write [height, width]`, shapeNode.span);
+      return void 0;
+    }
+    const kept = first ?? last;
+    if (!kept) {
+      sink.error(
+        "config/input-shape",
+        `${at} is ${text2}, but neither its first nor its last entry equals input.channels (${channels}); write [height, width] (only 1D and 2D grids are supported)`,
+        shapeNode.span
+      );
+      return void 0;
+    }
+    shape = kept;
+  }
+  const written = entryOf(node, "channels")?.writtenKey;
+  const featuresAsChannels = written !== void 0 && normaliseWord(written) === "features";
+  return {
+    shape,
+    ...representation !== void 0 ? { representation } : {},
+    ...channels !== void 0 ? { channels } : {},
+    ...featuresAsChannels ? { featuresAsChannels: true } : {},
+    span: node.span,
+    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels"])
+  };
+}
+function readOutput(node) {
+  if (!node) return {};
+  const p = fieldOf(node, "position");
+  if (!p) return { span: node.span };
+  const one = nonNegativeIntegerOf(p);
+  const list3 = p.kind === "seq" ? p.items.map(nonNegativeIntegerOf) : void 0;
+  if (one !== void 0) return { position: [one], span: p.span };
+  if (list3 && list3.every((v) => v !== void 0)) return { position: list3, span: p.span };
+  return void 0;
+}
+
+// src/config/field-readers.ts
+function isInteger(node) {
+  return node.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value);
+}
+function wrong(node, ctx, what, numeric) {
+  const isNumber = node.kind === "scalar" && typeof node.value === "number";
+  const code = numeric && isNumber ? "config/invalid-number" : "config/type";
+  ctx.sink.error(code, `${displayPath(node)} must be ${what}, got ${describeValue(node)}`, node.span);
+  return void 0;
+}
+function readPositiveInteger(node, ctx) {
+  return isInteger(node) && node.value >= 1 ? node.value : wrong(node, ctx, "a positive integer", true);
+}
+function readNonNegativeInteger(node, ctx) {
+  return isInteger(node) && node.value >= 0 ? node.value : wrong(node, ctx, "a non-negative integer", true);
+}
+function readPerAxis(node, ctx, min = 1) {
+  const one = min === 1 ? readPositiveInteger : readNonNegativeInteger;
+  const noun = min === 1 ? "positive integer" : "non-negative integer";
+  if (node.kind === "scalar" && typeof node.value === "number") {
+    const v = one(node, ctx);
+    return v === void 0 || ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(v);
+  }
+  if (node.kind !== "seq") {
+    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
+    return wrong(node, ctx, `a ${noun} or a list ${form}`, false);
+  }
+  const values = node.items.map((item) => one(item, ctx));
+  if (values.some((v) => v === void 0) || ctx.dims === void 0) return void 0;
+  if (values.length !== ctx.dims) {
+    const form = ctx.dims === 1 ? "[n]" : "[height, width]";
+    ctx.sink.error(
+      "config/dimension-mismatch",
+      `${displayPath(node)} has ${values.length} entries, but ${ctx.shapePath} is ${ctx.shapeText} (${ctx.dims}D); give one integer for every axis or ${form}`,
+      node.span
+    );
+    return void 0;
+  }
+  return values;
+}
+function readBoolean(node, ctx) {
+  return node.kind === "scalar" && typeof node.value === "boolean" ? node.value : wrong(node, ctx, "true or false", false);
+}
+function readOnly(node, ctx, value, why) {
+  const v = readBoolean(node, ctx);
+  if (v === void 0) return false;
+  if (v === value) return true;
+  ctx.sink.error("config/unsupported-value", `${displayPath(node)} is ${String(v)}, which is not read: ${why}`, node.span);
+  return false;
+}
+function readChoice(node, ctx, choices, shown2) {
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const hit = lookupChoice(node.value, choices);
+    if (hit !== void 0) return hit;
+    const guess = closest(normaliseWord(node.value), shown2.map(normaliseWord));
+    const said = guess ? shown2.find((s) => normaliseWord(s) === guess) : void 0;
+    ctx.sink.error(
+      "config/invalid-value",
+      `${displayPath(node)} must be one of ${shown2.map((s) => `'${s}'`).join(", ")}, got ${describeValue(node)}${said ? ` (did you mean '${said}'?)` : ""}`,
+      node.span
+    );
+    return void 0;
+  }
+  return wrong(node, ctx, `one of ${shown2.map((s) => `'${s}'`).join(", ")}`, false);
+}
+function lookupChoice(word, choices) {
+  const n = normaliseWord(word);
+  for (const [k, v] of choices) if (normaliseWord(k) === n) return v;
+  return void 0;
+}
+function readRate(node, ctx) {
+  if (node.kind === "scalar" && typeof node.value === "number" && node.value >= 0 && node.value < 1) return node.value;
+  return wrong(node, ctx, "a number from 0 up to (not including) 1", true);
+}
+function readText(node, ctx) {
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    if (node.value.length > 0) return node.value;
+    ctx.sink.error("config/invalid-value", `${displayPath(node)} must be a non-empty string`, node.span);
+    return void 0;
+  }
+  return wrong(node, ctx, "a string", false);
+}
+
+// src/config/kind-names.ts
+var row = (words, match) => ({ words, match });
+var ROWS = [
+  row(["conv", "convolution"], { reader: "conv", canonical: "conv" }),
+  row(["depthwise_conv", "depthwise_convolution", "dw_conv"], { reader: "conv", canonical: "conv", depthwise: true }),
+  row(["separable_conv", "separable_convolution", "sep_conv", "depthwise_separable_conv"], { reader: "separable_conv", canonical: "separable_conv" }),
+  row(["conv_transpose", "convolution_transpose", "transposed_conv", "transpose_conv", "deconv", "deconvolution", "upconv"], {
+    reader: "conv_transpose",
+    canonical: "conv_transpose"
+  }),
+  row(["pool", "pooling"], { reader: "pool", canonical: "pool" }),
+  row(["max_pool", "max_pooling"], { reader: "pool", canonical: "pool", poolMode: "max" }),
+  row(["avg_pool", "average_pool", "avg_pooling", "average_pooling", "mean_pool"], { reader: "pool", canonical: "pool", poolMode: "average" }),
+  row(["sum_pool", "sum_pooling"], { reader: "pool", canonical: "pool", poolMode: "sum" }),
+  row(["product_pool", "product_pooling"], { reader: "pool", canonical: "pool", poolMode: "product" }),
+  row(["lp_pool", "lp_pooling"], { reader: "pool", canonical: "pool", poolMode: "other" }),
+  row(["global_pool", "global_pooling"], { reader: "pool", canonical: "pool", global: true }),
+  row(["global_max_pool", "global_max_pooling"], { reader: "pool", canonical: "pool", global: true, poolMode: "max" }),
+  row(["global_avg_pool", "global_average_pool", "global_avg_pooling", "global_average_pooling"], {
+    reader: "pool",
+    canonical: "pool",
+    global: true,
+    poolMode: "average"
+  }),
+  row(["adaptive_avg_pool", "adaptive_average_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "average" }),
+  row(["adaptive_max_pool"], { reader: "pool", canonical: "pool", adaptive: true, poolMode: "max" }),
+  row(["dense", "linear", "fc", "fully_connected"], { reader: "dense", canonical: "dense" }),
+  row(["flatten"], { reader: "flatten", canonical: "flatten" }),
+  row(["upsample", "upsampling", "interpolate"], { reader: "upsample", canonical: "upsample" }),
+  row(["upsampling_nearest", "upsample_nearest"], { reader: "upsample", canonical: "upsample", upsampleMode: "nearest" }),
+  row(["upsampling_bilinear", "upsample_bilinear"], { reader: "upsample", canonical: "upsample", upsampleMode: "linear" }),
+  row(["recurrent", "rnn", "simple_rnn"], { reader: "recurrent", canonical: "recurrent" }),
+  row(["repeat"], { reader: "repeat", canonical: "repeat" }),
+  row(["residual", "residual_block", "res_block"], { reader: "residual", canonical: "residual" }),
+  row(["branches", "parallel"], { reader: "branches", canonical: "branches" }),
+  row(["add", "sum"], { reader: "add", canonical: "add" }),
+  row(["concat", "concatenate", "cat"], { reader: "concat", canonical: "concat" }),
+  row(["sequence", "sequential", "block"], { reader: "sequence", canonical: "sequence" }),
+  row(["activation"], { reader: "activation", canonical: "activation" }),
+  ...POINTWISE_OPS.map((op) => row([op.op, ...op.aliases], { reader: "pointwise", canonical: op.op, op }))
+];
+var LATER = ["lstm", "gru", "lstm_cell", "gru_cell", "conv_lstm", "embedding", "attention", "multi_head_attention", "multihead_attention", "self_attention", "transformer", "transformer_encoder", "transformer_encoder_layer", "transformer_decoder", "transformer_decoder_layer", "transformer_block", "positional_encoding", "positional_embedding"];
+var BY_WORD2 = /* @__PURE__ */ new Map();
+for (const r of ROWS) for (const w of r.words) BY_WORD2.set(normaliseWord(w), r);
+var LATER_WORDS = new Set(LATER.map(normaliseWord));
+var SUGGESTIONS = /* @__PURE__ */ new Map();
+for (const r of ROWS) for (const w of r.words) SUGGESTIONS.set(normaliseWord(w), w);
+var KIND_SPELLINGS = ROWS.map((r) => r.words);
+function splitDimension(word) {
+  const n = normaliseWord(word);
+  const m = /([123])d(?=transpose$|$)/.exec(n);
+  if (!m) return { base: n, dims3: false };
+  return { base: n.slice(0, m.index) + n.slice(m.index + 2), dims3: m[1] === "3" };
+}
+function lookupKind(written) {
+  const { base, dims3 } = splitDimension(written);
+  const hit = BY_WORD2.get(base);
+  if (hit && dims3) {
+    return { ok: false, code: "config/unsupported-3d", message: `'${written}' is a 3D layer; only 1D ([length]) and 2D ([height, width]) grids are supported` };
+  }
+  if (hit) return { ok: true, match: hit.match };
+  if (LATER_WORDS.has(base)) {
+    return {
+      ok: false,
+      code: "config/kind-not-read-yet",
+      message: `'${written}' layers are not read yet: this version reads convolutional, pooling, dense and simple recurrent layers; gated recurrent, embedding and attention layers are planned`
+    };
+  }
+  const guess = closest(base, [...SUGGESTIONS.keys()]) ?? closest(base.replace(/[123]d/g, ""), [...SUGGESTIONS.keys()]);
+  const shown2 = guess ? SUGGESTIONS.get(guess) : void 0;
+  return {
+    ok: false,
+    code: "config/unknown-layer-kind",
+    message: `unknown layer kind '${written}'${shown2 ? ` (did you mean '${shown2}'?)` : ""}`
+  };
+}
+function pointwiseOpNamed(written) {
+  return pointwiseOpOf(splitDimension(written).base);
+}
+
+// src/config/layer-entry.ts
+var KIND_KEYS = /* @__PURE__ */ new Set(["type", "layer", "kind"]);
+var FORMS = "write a layer as '- conv: {channels: 64}', '- {type: Conv2d, out_channels: 64}' or '- relu'";
+function readLayerEntry(item, sink) {
+  const path6 = displayPath(item);
+  if (item.kind === "scalar") {
+    if (typeof item.value !== "string" || item.value.length === 0) {
+      sink.error("config/type", `${path6} must be a layer, got ${item.value === null ? "an empty entry" : String(item.value)}; ${FORMS}`, item.span);
+      return void 0;
+    }
+    return withKind(item, item.value, item.span, item, [], void 0, sink);
+  }
+  if (item.kind === "seq") {
+    sink.error("config/type", `${path6} must be a layer, got a list; ${FORMS}`, item.span);
+    return void 0;
+  }
+  const kindKeys = item.entries.filter((e) => KIND_KEYS.has(normaliseWord(e.key)));
+  if (kindKeys.length > 1) {
+    sink.error("config/layer-kind", `${path6} gives its kind ${kindKeys.length} times (${kindKeys.map((e) => `'${e.writtenKey}'`).join(", ")}); keep one`, kindKeys[1].keySpan);
+    return void 0;
+  }
+  if (kindKeys.length === 1) {
+    const key = kindKeys[0];
+    const v2 = key.value;
+    if (v2.kind !== "scalar" || typeof v2.value !== "string" || v2.value.length === 0) {
+      sink.error("config/type", `${displayPath(v2)} must be a layer kind such as 'Conv2d' or 'relu', got ${v2.kind === "scalar" ? String(v2.value) : `a ${v2.kind === "map" ? "mapping" : "list"}`}`, v2.span);
+      return void 0;
+    }
+    return withKind(item, v2.value, v2.span, item, item.entries.filter((e) => e !== key), void 0, sink);
+  }
+  if (item.entries.length === 0) {
+    sink.error("config/layer-kind", `${path6} is an empty mapping; ${FORMS}`, item.span);
+    return void 0;
+  }
+  if (item.entries.length > 1) {
+    const kinds = item.entries.filter((e) => lookupKind(e.key).ok);
+    const keys = item.entries.map((e) => `'${e.writtenKey}'`).join(", ");
+    if (kinds.length > 1) {
+      sink.error("config/layer-kind", `${path6} has ${kinds.length} kinds (${keys}); one entry is one layer: put each kind in its own '- ' entry`, item.span);
+    } else if (kinds.length === 1) {
+      const stray = item.entries.find((e) => e !== kinds[0]);
+      sink.error(
+        "config/layer-kind",
+        `${path6} has '${stray.writtenKey}' beside its kind '${kinds[0].writtenKey}'; fields go inside the kind ('- ${kinds[0].writtenKey}: {${stray.writtenKey}: …}') or name the kind with 'type: ${kinds[0].writtenKey}'`,
+        stray.keySpan
+      );
+    } else {
+      sink.error("config/layer-kind", `${path6} (${keys}) names no layer kind; give it with 'type', e.g. '- {type: conv, channels: 64}'`, item.span);
+    }
+    return void 0;
+  }
+  const only = item.entries[0];
+  const v = only.value;
+  if (v.kind === "seq") {
+    sink.error("config/type", `${displayPath(v)} must be a mapping of the layer's fields, got a list`, v.span);
+    return void 0;
+  }
+  if (v.kind === "map") return withKind(item, only.key, only.keySpan, v, v.entries, void 0, sink);
+  return withKind(item, only.key, only.keySpan, v, [], v.value === null ? void 0 : v, sink);
+}
+function withKind(item, written, kindSpan, body, fields, scalar, sink) {
+  const found2 = lookupKind(written);
+  if (!found2.ok) {
+    sink.error(found2.code, `${displayPath(item)}: ${found2.message}`, kindSpan);
+    return void 0;
+  }
+  return { item, match: found2.match, kindWritten: written, kindSpan, body, fields, ...scalar ? { scalar } : {} };
+}
+
+// src/config/layer-fields.ts
+var LayerFields = class {
+  constructor(body, entries2, specs, sink) {
+    this.body = body;
+    this.specs = specs;
+    const bySpelling = /* @__PURE__ */ new Map();
+    for (const s of specs) for (const w of [s.name, ...s.aliases ?? []]) bySpelling.set(normaliseWord(w), s);
+    const path6 = displayPath(body);
+    for (const entry of entries2) {
+      const spec = bySpelling.get(normaliseWord(entry.key));
+      if (!spec) {
+        this.unknown(entry, path6, sink);
+        continue;
+      }
+      if (spec.refused) {
+        sink.error("config/unsupported-field", `${path6}.${entry.writtenKey}: ${spec.refused}`, entry.keySpan);
+        this.ok = false;
+        continue;
+      }
+      const earlier = this.values.get(spec.name);
+      if (earlier) {
+        sink.error(
+          "config/alias-conflict",
+          `${path6} gives '${earlier.writtenKey}' and '${entry.writtenKey}', which both mean '${spec.name}'; keep only one of them`,
+          entry.keySpan
+        );
+        this.ok = false;
+        continue;
+      }
+      this.values.set(spec.name, entry);
+    }
+  }
+  body;
+  specs;
+  values = /* @__PURE__ */ new Map();
+  /** Canonical fields that an unknown key was suggested as (a misspelt required field). */
+  suggested = /* @__PURE__ */ new Set();
+  /** False when a key was unknown, refused or given twice (already reported). */
+  ok = true;
+  unknown(entry, path6, sink) {
+    this.ok = false;
+    if (entry.key === "<<") {
+      sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, entry.keySpan);
+      return;
+    }
+    const spellings = this.specs.flatMap((s) => s.refused ? [] : [s.name, ...s.aliases ?? []]);
+    const guess = closest(normaliseWord(entry.key), spellings.map(normaliseWord));
+    const said = guess ? spellings.find((s) => normaliseWord(s) === guess) : void 0;
+    const meant = said ? this.specs.find((s) => s.name === said || s.aliases?.includes(said)) : void 0;
+    if (meant) this.suggested.add(meant.name);
+    const read = this.specs.filter((s) => !s.ignored && !s.refused).map((s) => s.name);
+    sink.error(
+      "config/unknown-field",
+      `unknown field '${entry.writtenKey}' in ${path6}${said ? ` (did you mean '${said}'?)` : ""}; it reads ${read.join(", ")}`,
+      entry.keySpan
+    );
+  }
+  get(name) {
+    return this.values.get(name)?.value;
+  }
+  has(name) {
+    return this.values.has(name);
+  }
+  /** An unknown key was reported with "did you mean" this field (so its absence is not reported again). */
+  wasSuggested(name) {
+    return this.suggested.has(name);
+  }
+  /** The key as written, for messages. */
+  written(name) {
+    return this.values.get(name)?.writtenKey ?? name;
+  }
+  keySpan(name) {
+    return this.values.get(name)?.keySpan;
+  }
+  /** Value spans of the given canonical fields that are present (all read fields when omitted). */
+  spans(names) {
+    const out = {};
+    for (const [name, entry] of this.values) {
+      if (names && !names.includes(name)) continue;
+      const spec = this.specs.find((s) => s.name === name);
+      if (!spec?.ignored) out[name] = entry.value.span;
+    }
+    return out;
+  }
+};
+
+// src/config/layer-vocabulary.ts
+var f = (name, doc, aliases = []) => ({ name, doc, aliases });
+var ignored = (name, doc, aliases = []) => ({ name, doc, aliases, ignored: true });
+var NAME = f("name", "a label for reports, and the name that `add`/`concat` `from:` refers to");
+var SHORTCUT_FIELDS = [
+  f("norm", "a normalisation after the layer: batch, layer, group, instance, …", ["normalization", "normalisation"]),
+  f("batch_norm", "true: a batch normalisation after the layer", ["bn", "use_bn", "use_batch_norm", "batch_normalization"]),
+  f("layer_norm", "true: a layer normalisation after the layer", ["use_layer_norm"]),
+  f("activation", "an activation after the normalisation: relu, gelu, …; `linear`/`none`: no activation", ["act"]),
+  f("dropout", "a dropout (of this rate) after the activation", ["dropout_rate"])
+];
+var TRAINING_ONLY = [
+  ignored("kernel_initializer", "accepted, ignored", ["weight_init", "init"]),
+  ignored("bias_initializer", "accepted, ignored"),
+  ignored("kernel_regularizer", "accepted, ignored"),
+  ignored("bias_regularizer", "accepted, ignored"),
+  ignored("activity_regularizer", "accepted, ignored"),
+  ignored("kernel_constraint", "accepted, ignored"),
+  ignored("bias_constraint", "accepted, ignored"),
+  ignored("trainable", "accepted, ignored"),
+  ignored("dtype", "accepted, ignored"),
+  ignored("data_format", "accepted, ignored (grids are [length] or [height, width]; channels are the width)")
+];
+var BIAS = f("bias", "false: the real layer has no bias (only the parameter count reads it; default true)", ["use_bias"]);
+var IN_CHANNELS = ignored("in_channels", "accepted, ignored: the input width follows from the previous layer", ["in_features", "input_dim"]);
+var WINDOW_CONV = [
+  f("kernel", "window size per axis (default 1)", ["kernel_size"]),
+  f("stride", "per axis (default 1)", ["strides"]),
+  f("dilation", "spacing of the kernel taps per axis (default 1)", ["dilation_rate"])
+];
+var POINTWISE_PARAMS = {
+  activation: ["inplace", "negative_slope", "alpha", "approximate", "beta", "threshold", "dim", "axis", "num_parameters", "max_value", "min_val", "max_val", "lower", "upper"],
+  normalisation: ["num_features", "eps", "epsilon", "momentum", "affine", "track_running_stats", "num_groups", "groups", "num_channels", "normalized_shape", "elementwise_affine", "axis", "center", "scale", "size", "alpha", "beta", "k"],
+  dropout: ["inplace", "noise_shape", "seed"],
+  scaling: ["scale", "offset", "dim", "value"]
+};
+function pointwiseFields(family) {
+  const params = (POINTWISE_PARAMS[family] ?? []).map((p) => ignored(p, "accepted, ignored"));
+  const rate = family === "dropout" ? [f("rate", "the dropout rate (accepted; dropout is the identity at inference)", ["p"])] : [];
+  return [...rate, ...params, NAME];
+}
+var LAYER_FIELDS = /* @__PURE__ */ new Map([
+  [
+    "conv",
+    [
+      f("channels", "output channels (required unless depthwise)", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "`same` (default), `valid`, `causal` (1D), or zeros per side: an integer or [h, w]"),
+      f("groups", "grouped conv: an integer dividing both widths, or `depthwise` (default 1)"),
+      f("depthwise", "true: one group per input channel", []),
+      f("depth_multiplier", "output channels per input channel of a depthwise conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "conv_transpose",
+    [
+      f("channels", "output channels", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "zeros removed from both ends per axis (default 0), or `same` (output n·stride) or `valid`"),
+      f("output_padding", "positions added at the end per axis (default 0)"),
+      f("groups", "grouped transposed conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "separable_conv",
+    [
+      f("channels", "output channels of the 1×1 conv that follows the depthwise conv", ["out_channels", "filters"]),
+      ...WINDOW_CONV,
+      f("padding", "as for conv, of the depthwise conv"),
+      f("depth_multiplier", "as for conv (default 1)"),
+      IN_CHANNELS,
+      BIAS,
+      ignored("depthwise_initializer", "accepted, ignored"),
+      ignored("pointwise_initializer", "accepted, ignored"),
+      ...TRAINING_ONLY,
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "pool",
+    [
+      f("window", "window per axis (required unless global)", ["pool_size", "kernel_size"]),
+      f("stride", "per axis (default: the window)", ["strides"]),
+      f("padding", "`valid` (default), `same`, or zeros per side"),
+      f("mode", "`max` (default), `average`/`avg`/`mean`, `sum`, `product`, `lp`"),
+      f("global", "true: one position pooled from all that are left"),
+      f("output_size", "adaptive pooling: only 1 (a global pool) is read"),
+      { name: "ceil_mode", doc: "only false is read", aliases: [] },
+      ignored("count_include_pad", "accepted, ignored"),
+      ignored("keepdims", "accepted, ignored"),
+      ignored("data_format", "accepted, ignored"),
+      NAME
+    ]
+  ],
+  ["dense", [f("units", "output units", ["out_features", "features", "output_dim"]), IN_CHANNELS, BIAS, ...TRAINING_ONLY, ...SHORTCUT_FIELDS, NAME]],
+  ["flatten", [ignored("start_dim", "accepted, ignored"), ignored("end_dim", "accepted, ignored"), ignored("data_format", "accepted, ignored"), NAME]],
+  [
+    "upsample",
+    [
+      f("factor", "integer factor per axis (default 2)", ["scale_factor"]),
+      f("mode", "`nearest` (default) or `linear` (`bilinear`)", ["interpolation"]),
+      { name: "align_corners", doc: "only false is read", aliases: [] },
+      {
+        name: "size",
+        doc: "refused",
+        aliases: [],
+        refused: "'size' is a factor in some frameworks and an output size in others; write 'factor' (the integer factor per axis)"
+      },
+      ignored("data_format", "accepted, ignored"),
+      NAME
+    ]
+  ],
+  [
+    "recurrent",
+    [
+      f("hidden", "hidden state size", ["hidden_size", "units"]),
+      f("depth", "stacked layers (default 1)", ["num_layers"]),
+      { name: "bidirectional", doc: "only false is read", aliases: [] },
+      { name: "return_sequences", doc: "only false is read (the layer ends on its last state)", aliases: [] },
+      ignored("input_size", "accepted, ignored"),
+      ignored("nonlinearity", "accepted, ignored (the surrogate integrates multiplicatively)", ["activation"]),
+      ignored("dropout", "accepted, ignored", ["recurrent_dropout"]),
+      ignored("batch_first", "accepted, ignored"),
+      ignored("bias", "accepted, ignored", ["use_bias"]),
+      ...TRAINING_ONLY,
+      NAME
+    ]
+  ],
+  ["repeat", [f("times", "how many copies (required)", ["count", "repeats"]), f("layers", "the layers repeated, in order"), NAME]],
+  [
+    "residual",
+    [
+      f("layers", "the main path", ["body", "main", "path"]),
+      f("shortcut", "the shortcut path (absent or empty: the identity)", ["projection", "downsample", "skip"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  [
+    "branches",
+    [
+      f("paths", "a list of paths, each a list of layers (empty: the identity); at least two", ["branches"]),
+      f("merge", "`concat` (default) or `sum`", ["mode"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  ["add", [f("from", "the name (or list of names) of earlier layers added to the current grid"), ...SHORTCUT_FIELDS, NAME]],
+  [
+    "concat",
+    [
+      f("from", "the name (or list of names) of earlier layers joined to the current grid"),
+      ignored("axis", "accepted, ignored (always the channels)", ["dim"]),
+      ...SHORTCUT_FIELDS,
+      NAME
+    ]
+  ],
+  ["sequence", [f("layers", "the layers, in order"), NAME]],
+  ["activation", [f("fn", "the function: relu, gelu, …", ["function", "activation"]), ...pointwiseFields("activation").filter((s) => s.name !== "name"), NAME]]
+]);
+function fieldsOf(kind, family) {
+  if (kind === "pointwise") return pointwiseFields(family ?? "activation");
+  return LAYER_FIELDS.get(kind) ?? [NAME];
+}
+
+// src/config/padding-field.ts
+function readPadding(node, ctx, words) {
+  if (node.kind === "scalar" && typeof node.value === "number") {
+    const amount = readPerAxis(node, ctx, 0);
+    return amount && { mode: "explicit", amount };
+  }
+  if (node.kind === "seq") {
+    const amount = readPerAxis(node, ctx, 0);
+    return amount && { mode: "explicit", amount };
+  }
+  const word = readChoice(node, ctx, new Map(words.map((w) => [w, w])), words);
+  return word && { mode: word };
+}
+
+// src/config/shortcut-fields.ts
+var NORM_WORDS = /* @__PURE__ */ new Map([
+  ["batch", "batch_norm"],
+  ["layer", "layer_norm"],
+  ["group", "group_norm"],
+  ["instance", "instance_norm"],
+  ["local_response", "local_response_norm"],
+  ["rms", "rms_norm"]
+]);
+var NONE_WORDS = /* @__PURE__ */ new Set(["none", "null", "linear", "identity", "false", "off"]);
+var BOOLEAN_NORMS = [
+  ["batch_norm", "batch_norm"],
+  ["layer_norm", "layer_norm"]
+];
+function readShortcutFields(fields, ctx) {
+  let ok = true;
+  const out = [];
+  const add = (field2, node, op) => {
+    const keySpan = fields.keySpan(field2) ?? node.span;
+    out.push({
+      body: { kind: "pointwise", family: op.family, op: op.op },
+      site: { path: pointerOf(node), span: spanJoin(keySpan, node.span), fieldSpans: { [field2]: node.span } }
+    });
+  };
+  const norms = [];
+  const normNode = fields.get("norm");
+  if (normNode) {
+    const op = readNorm(normNode, ctx);
+    if (op === void 0) ok = false;
+    else if (op !== null) norms.push({ field: "norm", node: normNode, op });
+  }
+  for (const [field2, opName] of BOOLEAN_NORMS) {
+    const node = fields.get(field2);
+    if (!node) continue;
+    const on = readBoolean(node, ctx);
+    if (on === void 0) ok = false;
+    else if (on) norms.push({ field: field2, node, op: pointwiseOpOf(normaliseWord(opName)) });
+  }
+  if (norms.length > 1) {
+    const second = norms[1];
+    ctx.sink.error(
+      "config/conflicting-fields",
+      `${displayPath(fields.body)} gives a normalisation twice ('${fields.written(norms[0].field)}' and '${fields.written(second.field)}'); keep one`,
+      fields.keySpan(second.field) ?? second.node.span
+    );
+    ok = false;
+  } else if (norms.length === 1) {
+    add(norms[0].field, norms[0].node, norms[0].op);
+  }
+  const actNode = fields.get("activation");
+  if (actNode) {
+    const op = readActivation(actNode, ctx);
+    if (op === void 0) ok = false;
+    else if (op !== null) add("activation", actNode, op);
+  }
+  const dropNode = fields.get("dropout");
+  if (dropNode) {
+    const rate = readRate(dropNode, ctx);
+    if (rate === void 0) ok = false;
+    else if (rate > 0) add("dropout", dropNode, pointwiseOpOf("dropout"));
+  }
+  return ok ? out : void 0;
+}
+function isNone(node) {
+  if (node.kind !== "scalar") return false;
+  if (node.value === null || node.value === false) return true;
+  return typeof node.value === "string" && NONE_WORDS.has(node.value.toLowerCase());
+}
+function readNorm(node, ctx) {
+  if (isNone(node)) return null;
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const short = lookupChoice(node.value, NORM_WORDS);
+    const op = short !== void 0 ? pointwiseOpOf(normaliseWord(short)) : pointwiseOpNamed(node.value);
+    if (op?.family === "normalisation") return op;
+  }
+  return badOp(node, ctx, "a normalisation", [...NORM_WORDS.keys(), "none"]);
+}
+function readActivation(node, ctx, noneAllowed = true) {
+  if (noneAllowed && isNone(node)) return null;
+  if (node.kind === "scalar" && typeof node.value === "string") {
+    const op = pointwiseOpNamed(node.value);
+    if (op?.family === "activation") return op;
+    if (op) {
+      ctx.sink.error("config/invalid-value", `${displayPath(node)} names ${op.op}, which is a ${op.family} layer, not an activation`, node.span);
+      return void 0;
+    }
+  }
+  return badOp(node, ctx, "an activation function", [...opsOf("activation"), ...noneAllowed ? ["linear"] : []]);
+}
+function badOp(node, ctx, what, known) {
+  const word = node.kind === "scalar" && typeof node.value === "string" ? node.value : void 0;
+  const guess = word ? closest(word, known) : void 0;
+  const got = word !== void 0 ? `'${word}'` : node.kind === "scalar" ? String(node.value) : `a ${node.kind === "map" ? "mapping" : "list"}`;
+  ctx.sink.error(
+    word !== void 0 ? "config/invalid-value" : "config/type",
+    `${displayPath(node)} must be ${what} (${known.join(", ")}), got ${got}${guess ? ` (did you mean '${guess}'?)` : ""}`,
+    node.span
+  );
+  return void 0;
+}
+
+// src/config/entry-read.ts
+function chainOf(r, ctx, layers, shortcuts) {
+  const after = shortcuts ? readShortcutFields(r.fields, ctx) : [];
+  if (!after) return void 0;
+  return { t: "chain", layers: [...layers, ...after], ...r.name ? { name: r.name } : {} };
+}
+function requireField(r, field2, what, ctx) {
+  if (r.fields.has(field2)) return true;
+  if (r.fields.wasSuggested(field2)) return false;
+  ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} is missing '${field2}' (${what})`, r.entry.body.span);
+  return false;
+}
+
+// src/config/read-conv-layers.ts
+function readWindow(r, ctx) {
+  const axis = (field2) => {
+    const node = r.fields.get(field2);
+    if (!node) return ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(1);
+    return readPerAxis(node, ctx);
+  };
+  const kernel = axis("kernel");
+  const stride = axis("stride");
+  const dilation = axis("dilation");
+  return kernel && stride && dilation ? { kernel, stride, dilation } : void 0;
+}
+function optionalPositive(r, field2, ctx) {
+  const node = r.fields.get(field2);
+  if (!node) return void 0;
+  return readPositiveInteger(node, ctx) ?? false;
+}
+function readBias(r, ctx) {
+  const node = r.fields.get("bias");
+  if (!node) return {};
+  const b = readBoolean(node, ctx);
+  if (b === void 0) return void 0;
+  return b ? {} : { bias: false };
+}
+function readConv(r, ctx) {
+  const window = readWindow(r, ctx);
+  const paddingNode = r.fields.get("padding");
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
+  const groups = readGroups(r, ctx);
+  const channels = optionalPositive(r, "channels", ctx);
+  const bias = readBias(r, ctx);
+  let ok = window !== void 0 && padding !== void 0 && groups !== void 0 && channels !== false && bias !== void 0;
+  if (groups && groups.groups !== "depthwise" && !r.fields.has("channels")) ok = requireField(r, "channels", "output channels", ctx) && ok;
+  if (!ok || !window || !padding || !groups || channels === false || !bias) return void 0;
+  const body = {
+    kind: "conv",
+    ...channels !== void 0 ? { channels } : {},
+    ...window,
+    padding,
+    groups: groups.groups,
+    depthMultiplier: groups.depthMultiplier,
+    ...bias
+  };
+  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
+}
+function readGroups(r, ctx) {
+  let depthwise = r.entry.match.depthwise === true;
+  let groups = 1;
+  let ok = true;
+  const flag = r.fields.get("depthwise");
+  if (flag) {
+    const v = readBoolean(flag, ctx);
+    if (v === void 0) ok = false;
+    else if (v) depthwise = true;
+  }
+  const groupsNode = r.fields.get("groups");
+  if (groupsNode) {
+    if (groupsNode.kind === "scalar" && typeof groupsNode.value === "string" && groupsNode.value.toLowerCase() === "depthwise") {
+      depthwise = true;
+    } else if (groupsNode.kind === "scalar" && typeof groupsNode.value === "number") {
+      const g = readPositiveInteger(groupsNode, ctx);
+      if (g === void 0) ok = false;
+      else if (depthwise) {
+        ctx.sink.error("config/conflicting-fields", `${displayPath(groupsNode)} is ${g}, but the conv is depthwise (one group per input channel); drop one of them`, groupsNode.span);
+        ok = false;
+      } else groups = g;
+    } else {
+      ctx.sink.error("config/type", `${displayPath(groupsNode)} must be a positive integer or 'depthwise', got ${groupsNode.kind === "scalar" ? String(groupsNode.value) : "a " + (groupsNode.kind === "map" ? "mapping" : "list")}`, groupsNode.span);
+      ok = false;
+    }
+  }
+  const multNode = r.fields.get("depth_multiplier");
+  let depthMultiplier = 1;
+  if (multNode) {
+    const m = readPositiveInteger(multNode, ctx);
+    if (m === void 0) ok = false;
+    else if (!depthwise) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(multNode)} applies to depthwise convs only; add 'depthwise: true' or drop it`, multNode.span);
+      ok = false;
+    } else depthMultiplier = m;
+  }
+  return ok ? { groups: depthwise ? "depthwise" : groups, depthMultiplier } : void 0;
+}
+function readConvTranspose(r, ctx) {
+  const window = readWindow(r, ctx);
+  const channels = optionalPositive(r, "channels", ctx);
+  const groups = optionalPositive(r, "groups", ctx);
+  const bias = readBias(r, ctx);
+  let ok = requireField(r, "channels", "output channels", ctx);
+  const pads = window && readTransposePadding(r, window, ctx);
+  ok = ok && window !== void 0 && pads !== void 0 && channels !== void 0 && channels !== false && groups !== false && bias !== void 0;
+  if (!ok || !window || !pads || channels === void 0 || channels === false || groups === false || !bias) return void 0;
+  const body = {
+    kind: "conv-transpose",
+    channels,
+    ...window,
+    padding: pads.padding,
+    outputPadding: pads.outputPadding,
+    groups: groups ?? 1,
+    ...bias
+  };
+  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], true);
+}
+function readTransposePadding(r, w, ctx) {
+  const node = r.fields.get("padding");
+  const outNode = r.fields.get("output_padding");
+  const dims = w.kernel.length;
+  const outputPadding = outNode ? readPerAxis(outNode, ctx, 0) : new Array(dims).fill(0);
+  if (!node || node.kind === "seq" || node.kind === "scalar" && typeof node.value === "number") {
+    const padding2 = node ? readPerAxis(node, ctx, 0) : new Array(dims).fill(0);
+    return padding2 && outputPadding ? { padding: padding2, outputPadding } : void 0;
+  }
+  const word = readPadding(node, ctx, ["same", "valid"]);
+  if (!word || !outputPadding) return void 0;
+  if (outNode) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(outNode)} cannot be combined with padding '${word.mode}', which sets the output length itself; give padding as zeros per side instead`, outNode.span);
+    return void 0;
+  }
+  const padding = [];
+  const extra = [];
+  for (let a = 0; a < dims; a++) {
+    const e = extent(w.kernel[a], w.dilation[a]);
+    const s = w.stride[a];
+    if (word.mode === "same" && e >= s) {
+      const p = Math.ceil((e - s) / 2);
+      padding.push(p);
+      extra.push(2 * p - (e - s));
+    } else {
+      padding.push(0);
+      extra.push(Math.max(s - e, 0));
+    }
+  }
+  return { padding, outputPadding: extra };
+}
+function readSeparableConv(r, ctx) {
+  const window = readWindow(r, ctx);
+  const paddingNode = r.fields.get("padding");
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["same", "valid", "causal"]) : { mode: "same" };
+  const channels = optionalPositive(r, "channels", ctx);
+  const mult = optionalPositive(r, "depth_multiplier", ctx);
+  const bias = readBias(r, ctx);
+  const ok = requireField(r, "channels", "output channels of the 1×1 conv", ctx);
+  if (!ok || !window || !padding || channels === void 0 || channels === false || mult === false || !bias) return void 0;
+  const ones = window.kernel.map(() => 1);
+  const spans2 = (names) => ({ ...r.site, fieldSpans: r.fields.spans(names) });
+  const depthwise = {
+    body: { kind: "conv", ...window, padding, groups: "depthwise", depthMultiplier: mult ?? 1, bias: false },
+    site: spans2(["kernel", "stride", "dilation", "padding", "depth_multiplier"])
+  };
+  const pointwise = {
+    body: { kind: "conv", channels, kernel: ones, stride: ones, dilation: ones, padding: { mode: "valid" }, groups: 1, depthMultiplier: 1, ...bias },
+    site: spans2(["channels", "bias"]),
+    labelled: true
+  };
+  return chainOf(r, ctx, [depthwise, pointwise], true);
+}
+
+// src/config/read-grid-layers.ts
+var POOL_MODES = /* @__PURE__ */ new Map([
+  ["max", "max"],
+  ["average", "average"],
+  ["avg", "average"],
+  ["mean", "average"],
+  ["sum", "sum"],
+  ["product", "product"],
+  ["prod", "product"],
+  ["lp", "other"]
+]);
+var POOL_MODE_WORDS = ["max", "average", "avg", "mean", "sum", "product", "lp"];
+function readPool(r, ctx) {
+  const { match } = r.entry;
+  let ok = true;
+  let mode = match.poolMode ?? "max";
+  const modeNode = r.fields.get("mode");
+  if (modeNode) {
+    const m = readChoice(modeNode, ctx, POOL_MODES, POOL_MODE_WORDS);
+    if (m === void 0) ok = false;
+    else if (match.poolMode !== void 0 && m !== match.poolMode) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(modeNode)} says ${m}, but '${r.entry.kindWritten}' is a ${match.poolMode} pool; drop one of them`, modeNode.span);
+      ok = false;
+    } else mode = m;
+  }
+  let global2 = match.global === true;
+  const globalNode = r.fields.get("global");
+  if (globalNode) {
+    const g = readBoolean(globalNode, ctx);
+    if (g === void 0) ok = false;
+    else if (match.global && !g) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(globalNode)} is false, but '${r.entry.kindWritten}' is a global pool; drop it`, globalNode.span);
+      ok = false;
+    } else global2 = g;
+  }
+  const sizeNode = r.fields.get("output_size");
+  if (sizeNode) {
+    global2 = true;
+    const size = readPerAxis(sizeNode, ctx);
+    if (size === void 0) ok = false;
+    else if (size.some((n) => n !== 1)) {
+      ctx.sink.error(
+        "config/adaptive-pool",
+        `${displayPath(sizeNode)} is [${size.join(", ")}]: adaptive pooling is read only to size 1 (a global pool), because its windows depend on the input size; write a pool with a fixed window instead (window = input size / output size, e.g. window: 2 to go from 14 to 7)`,
+        sizeNode.span
+      );
+      ok = false;
+    }
+  } else if (match.adaptive) {
+    ok = requireField(r, "output_size", "the output size; only 1 is read", ctx) && ok;
+  }
+  const ceil = r.fields.get("ceil_mode");
+  if (ceil && !readOnly(ceil, ctx, false, "rounding the output length up changes the grid; give the padding instead")) ok = false;
+  const windowNode = r.fields.get("window");
+  const strideNode = r.fields.get("stride");
+  const paddingNode = r.fields.get("padding");
+  if (global2) {
+    for (const [node, field2] of [
+      [windowNode, "window"],
+      [strideNode, "stride"],
+      [paddingNode, "padding"]
+    ]) {
+      if (!node) continue;
+      ctx.sink.error("config/conflicting-fields", `${displayPath(r.entry.body)} has both '${r.fields.written(field2)}' and a global pool; give a window or pool globally, not both`, r.fields.keySpan(field2) ?? node.span);
+      ok = false;
+    }
+    if (!ok) return void 0;
+    return chainOf(r, ctx, [{ body: { kind: "pool", mode, window: [], stride: [], padding: { mode: "valid" }, global: true }, site: r.site, labelled: true }], false);
+  }
+  if (!windowNode) {
+    if (r.fields.wasSuggested("window")) return void 0;
+    ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} needs 'window' (the pooling window, e.g. 2 or [2, 2]) or 'global: true'`, r.entry.body.span);
+    return void 0;
+  }
+  const window = readPerAxis(windowNode, ctx);
+  const stride = strideNode ? readPerAxis(strideNode, ctx) : window;
+  const padding = paddingNode ? readPadding(paddingNode, ctx, ["valid", "same"]) : { mode: "valid" };
+  if (!ok || !window || !stride || !padding) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "pool", mode, window, stride, padding, global: false }, site: r.site, labelled: true }], false);
+}
+var UPSAMPLE_MODES = /* @__PURE__ */ new Map([
+  ["nearest", "nearest"],
+  ["linear", "linear"],
+  ["bilinear", "linear"]
+]);
+function readUpsample(r, ctx) {
+  let ok = true;
+  let mode = r.entry.match.upsampleMode ?? "nearest";
+  const modeNode = r.fields.get("mode");
+  if (modeNode) {
+    const m = readChoice(modeNode, ctx, UPSAMPLE_MODES, ["nearest", "linear", "bilinear"]);
+    if (m === void 0) ok = false;
+    else mode = m;
+  }
+  const align2 = r.fields.get("align_corners");
+  if (align2 && !readOnly(align2, ctx, false, "linear upsampling is read with half-pixel centres (align_corners false)")) ok = false;
+  const factorNode = r.fields.get("factor");
+  const factor = factorNode ? readPerAxis(factorNode, ctx) : ctx.dims === void 0 ? void 0 : new Array(ctx.dims).fill(2);
+  if (!ok || !factor) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "upsample", factor, mode }, site: r.site, labelled: true }], false);
+}
+
+// src/config/read-plain-layers.ts
+function readDense(r, ctx) {
+  const ok = requireField(r, "units", "output units", ctx);
+  const unitsNode = r.fields.get("units");
+  const units = unitsNode && readPositiveInteger(unitsNode, ctx);
+  const biasNode = r.fields.get("bias");
+  const bias = biasNode ? readBoolean(biasNode, ctx) : true;
+  if (!ok || units === void 0 || bias === void 0) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "dense", units, ...bias ? {} : { bias: false } }, site: r.site, labelled: true }], true);
+}
+function readFlatten(r, ctx) {
+  return chainOf(r, ctx, [{ body: { kind: "flatten" }, site: r.site, labelled: true }], false);
+}
+function readRecurrent(r, ctx) {
+  let ok = requireField(r, "hidden", "hidden state size", ctx);
+  const hiddenNode = r.fields.get("hidden");
+  const hidden = hiddenNode && readPositiveInteger(hiddenNode, ctx);
+  const depthNode = r.fields.get("depth");
+  const depth = depthNode ? readPositiveInteger(depthNode, ctx) : 1;
+  const bi = r.fields.get("bidirectional");
+  if (bi && !readOnly(bi, ctx, false, "bidirectional recurrent layers are not read yet")) ok = false;
+  const seq = r.fields.get("return_sequences");
+  if (seq && !readOnly(seq, ctx, false, "the layer is read as ending on its last state; per-step outputs are not read yet")) ok = false;
+  if (!ok || hidden === void 0 || depth === void 0) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "recurrent", hidden, depth }, site: r.site, labelled: true }], false);
+}
+function readPointwise2(r, ctx) {
+  const op = r.entry.match.op;
+  let ok = true;
+  const rateNode = r.fields.get("rate") ?? r.entry.scalar;
+  if (r.entry.scalar && op.family !== "dropout") {
+    ctx.sink.error("config/type", `${displayPath(r.entry.scalar)} must be a mapping of the layer's fields (or nothing), got ${String(r.entry.scalar.value)}`, r.entry.scalar.span);
+    ok = false;
+  } else if (rateNode && readRate(rateNode, ctx) === void 0) ok = false;
+  if (!ok) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
+}
+function readActivationLayer(r, ctx) {
+  const fnNode = r.fields.get("fn") ?? r.entry.scalar;
+  if (!fnNode) {
+    requireField(r, "fn", "the function, e.g. relu", ctx);
+    return void 0;
+  }
+  const read = readActivation(fnNode, ctx);
+  if (read === void 0) return void 0;
+  const op = read ?? pointwiseOpOf("identity");
+  return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
+}
+
+// src/config/read-blocks.ts
+function readRepeat(r, ctx) {
+  const hasTimes = requireField(r, "times", "how many copies", ctx);
+  const hasLayers = requireField(r, "layers", "the layers to repeat", ctx);
+  const timesNode = r.fields.get("times");
+  const times = timesNode && readPositiveInteger(timesNode, ctx);
+  const layersNode = r.fields.get("layers");
+  const body = layersNode && ctx.readList(layersNode, false);
+  if (!hasTimes || !hasLayers || !timesNode || times === void 0 || !body) return void 0;
+  return { t: "repeat", times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body, ...r.name ? { name: r.name } : {} };
+}
+function readSequence(r, ctx) {
+  if (!requireField(r, "layers", "the layers, in order", ctx)) return void 0;
+  const body = ctx.readList(r.fields.get("layers"), false);
+  if (!body) return void 0;
+  return { t: "sequence", body, ...r.name ? { name: r.name } : {} };
+}
+function mergeOf(r, mode, origin) {
+  return { body: { kind: "merge", mode, origin }, site: r.site, labelled: true };
+}
+function block(r, ctx, paths, refs, merge, ok) {
+  const after = readShortcutFields(r.fields, ctx);
+  if (!ok || !after || !refs || paths.some((p) => p === void 0)) return void 0;
+  return { t: "merge", paths, refs, merge, after, ...r.name ? { name: r.name } : {} };
+}
+function readResidual(r, ctx) {
+  const ok = requireField(r, "layers", "the main path, a list of layers", ctx);
+  const mainNode = r.fields.get("layers");
+  const main = mainNode && ctx.readList(mainNode, false);
+  const shortcutNode = r.fields.get("shortcut");
+  const shortcut = shortcutNode ? ctx.readPath(shortcutNode) : [];
+  return block(r, ctx, [main, shortcut], [], mergeOf(r, "sum", "residual"), ok);
+}
+var MERGE_MODES = /* @__PURE__ */ new Map([
+  ["concat", "concat"],
+  ["concatenate", "concat"],
+  ["cat", "concat"],
+  ["sum", "sum"],
+  ["add", "sum"]
+]);
+function readBranches(r, ctx) {
+  let ok = requireField(r, "paths", "a list of paths, each a list of layers", ctx);
+  const modeNode = r.fields.get("merge");
+  const mode = modeNode ? readChoice(modeNode, ctx, MERGE_MODES, ["concat", "sum"]) : "concat";
+  if (!mode) ok = false;
+  const pathsNode = r.fields.get("paths");
+  const paths = [];
+  if (pathsNode) {
+    if (pathsNode.kind !== "seq" || pathsNode.items.length < 2) {
+      const got = pathsNode.kind === "seq" ? `${pathsNode.items.length} path${pathsNode.items.length === 1 ? "" : "s"}` : "no list";
+      ctx.sink.error("config/branches", `${displayPath(pathsNode)} must list at least two paths (each a list of layers; an empty list is the identity), got ${got}`, pathsNode.span);
+      ok = false;
+    } else {
+      for (const p of pathsNode.items) paths.push(ctx.readPath(p));
+    }
+  }
+  return block(r, ctx, paths, [], mergeOf(r, mode ?? "concat", "branches"), ok);
+}
+function readSkip(r, ctx) {
+  const ok = requireField(r, "from", "the name of the earlier layer to merge with", ctx);
+  const fromNode = r.fields.get("from");
+  const refs = fromNode ? readRefs(fromNode, ctx) : [];
+  const mode = r.entry.match.reader === "add" ? "sum" : "concat";
+  return block(r, ctx, [[]], refs, mergeOf(r, mode, "skip"), ok);
+}
+function readRefs(node, ctx) {
+  const items = node.kind === "seq" ? node.items : [node];
+  if (items.length === 0) {
+    ctx.sink.error("config/invalid-value", `${displayPath(node)} is empty; name at least one earlier layer`, node.span);
+    return void 0;
+  }
+  const out = [];
+  let ok = true;
+  for (const item of items) {
+    const m = item.kind === "scalar" && typeof item.value === "string" ? /^([^[\]]+)((?:\[[1-9][0-9]*\])*)$/.exec(item.value) : null;
+    if (!m) {
+      const got = item.kind === "scalar" ? JSON.stringify(item.value) : `a ${item.kind === "map" ? "mapping" : "list"}`;
+      ctx.sink.error("config/invalid-value", `${displayPath(item)} must name an earlier layer ('enc1', or one copy of a repeated layer such as 'down[2]'), got ${got}`, item.span);
+      ok = false;
+      continue;
+    }
+    const copies = [...m[2].matchAll(/\[([0-9]+)\]/g)].map((c) => Number(c[1]));
+    out.push({ text: m[0], base: m[1], copies, span: item.span, where: displayPath(item) });
+  }
+  return ok ? out : void 0;
+}
+
+// src/config/read-layers.ts
+var READERS = {
+  conv: readConv,
+  conv_transpose: readConvTranspose,
+  separable_conv: readSeparableConv,
+  pool: readPool,
+  upsample: readUpsample,
+  dense: readDense,
+  flatten: readFlatten,
+  recurrent: readRecurrent,
+  pointwise: readPointwise2,
+  activation: readActivationLayer,
+  repeat: readRepeat,
+  sequence: readSequence,
+  residual: readResidual,
+  branches: readBranches,
+  add: readSkip,
+  concat: readSkip
+};
+var SCALAR_BODIES = /* @__PURE__ */ new Set(["activation", "pointwise"]);
+var RESERVED = /* @__PURE__ */ new Set(["input"]);
+function readLayerList(node, ctx, allowEmpty = false) {
+  const rc = {
+    ...ctx,
+    readList: (n, empty) => readLayerList(n, ctx, empty),
+    readPath: (n) => {
+      if (n.kind === "seq") return readLayerList(n, ctx, true);
+      if (n.kind === "scalar" && n.value === null) return [];
+      const one = readLayer(n, rc);
+      return one ? [one] : void 0;
+    }
+  };
+  if (node.kind !== "seq") {
+    const got = node.kind === "map" ? "a mapping" : node.value === null ? "nothing" : String(node.value);
+    ctx.sink.error("config/type", `${displayPath(node)} must be a list of layers, got ${got}`, node.span);
+    return void 0;
+  }
+  if (node.items.length === 0 && !allowEmpty) {
+    ctx.sink.error("config/empty-layers", `${displayPath(node)} is empty; list at least one layer`, node.span);
+    return void 0;
+  }
+  let ok = true;
+  const out = [];
+  for (const item of node.items) {
+    const t = readLayer(item, rc);
+    if (t) out.push(t);
+    else ok = false;
+  }
+  return ok ? out : void 0;
+}
+function readLayer(item, ctx) {
+  const entry = readLayerEntry(item, ctx.sink);
+  if (!entry) return void 0;
+  if (entry.scalar && !SCALAR_BODIES.has(entry.match.reader)) {
+    const s = entry.scalar;
+    ctx.sink.error("config/type", `${displayPath(s)} must be a mapping of the layer's fields, got ${describeValue(s)}; e.g. '- ${entry.kindWritten}: {…}'`, s.span);
+    return void 0;
+  }
+  const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
+  const nameNode = fields.get("name");
+  const text2 = nameNode ? readName(nameNode, ctx) : void 0;
+  const site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans() };
+  const read = { entry, fields, site, ...text2 !== void 0 && nameNode ? { name: { text: text2, span: nameNode.span } } : {} };
+  const t = READERS[entry.match.reader](read, ctx);
+  return t && fields.ok && (nameNode === void 0 || text2 !== void 0) ? t : void 0;
+}
+function readName(node, ctx) {
+  const text2 = readText(node, ctx);
+  if (text2 === void 0) return void 0;
+  if (/[[\]]/.test(text2) || RESERVED.has(text2)) {
+    const why = RESERVED.has(text2) ? `'${text2}' is reserved (it means the model input in 'from')` : "'[' and ']' are kept for the copies a repeat makes (name[1], name[2], …)";
+    ctx.sink.error("config/invalid-name", `${displayPath(node)} is '${text2}', which cannot name a layer: ${why}`, node.span);
+    return void 0;
+  }
+  return text2;
+}
+
+// src/config/layer-names.ts
+function checkNames(templates, sink) {
+  const all = /* @__PURE__ */ new Map();
+  collect(templates, all);
+  const defs = /* @__PURE__ */ new Map();
+  const out = /* @__PURE__ */ new Map();
+  let ok = true;
+  const define = (name, chain) => {
+    if (!name) return;
+    const earlier = defs.get(name.text);
+    if (earlier) {
+      sink.error(
+        "config/duplicate-name",
+        `the layer name '${name.text}' is already used on line ${earlier.span.line}; names must be unique in the model (the copies a repeat makes are numbered ${name.text}[1], ${name.text}[2], … by themselves)`,
+        name.span
+      );
+      ok = false;
+      return;
+    }
+    defs.set(name.text, { span: name.span, chain });
+  };
+  const check2 = (ref, chain) => {
+    if (ref.base === "input") {
+      if (ref.copies.length > 0) {
+        sink.error("config/invalid-copy", `${ref.where}: 'input' is the model input, which has no copies; write 'input'`, ref.span);
+        ok = false;
+      } else out.set(ref, { input: true });
+      return;
+    }
+    const def = defs.get(ref.base);
+    if (!def) {
+      ok = false;
+      const later = all.get(ref.base);
+      if (later) {
+        sink.error("config/forward-reference", `${ref.where} names '${ref.base}', which is defined later (line ${later.line}); a merge reads only layers that come before it`, ref.span);
+        return;
+      }
+      const guess = closest(ref.base, [...defs.keys(), "input"]);
+      sink.error("config/unknown-name", `${ref.where}: no layer before this one is named '${ref.base}'${guess ? ` (did you mean '${guess}'?)` : ""}; give the layer a 'name' to merge with it`, ref.span);
+      return;
+    }
+    let shared = 0;
+    while (shared < def.chain.length && shared < chain.length && def.chain[shared] === chain[shared]) shared++;
+    const outside = def.chain.slice(shared);
+    if (ref.copies.length === 0 && outside.length > 0) {
+      const example = `${ref.base}${outside.map((f2) => `[${f2.times}]`).join("")}`;
+      const count = outside.reduce((a, f2) => a * f2.times, 1);
+      sink.error(
+        "config/ambiguous-name",
+        `${ref.where}: '${ref.base}' is inside a repeat (line ${outside[0].span.line}) that this merge is outside of, so it names ${count} copies; name one, e.g. '${example}'`,
+        ref.span
+      );
+      ok = false;
+      return;
+    }
+    if (ref.copies.length !== outside.length) {
+      const why = outside.length === 0 ? def.chain.length === 0 ? `'${ref.base}' is not inside a repeat` : `inside the repeat that copies it, '${ref.base}' already means the copy of the same iteration` : `'${ref.base}' is inside ${outside.length} repeats that this merge is outside of; give one copy number for each`;
+      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but ${why}`, ref.span);
+      ok = false;
+      return;
+    }
+    const over = ref.copies.findIndex((c, i) => c > outside[i].times);
+    if (over >= 0) {
+      sink.error("config/invalid-copy", `${ref.where} is '${ref.text}', but the repeat on line ${outside[over].span.line} makes ${outside[over].times} copies`, ref.span);
+      ok = false;
+      return;
+    }
+    out.set(ref, { input: false, shared });
+  };
+  const walk2 = (list3, chain) => {
+    for (const t of list3) {
+      switch (t.t) {
+        case "chain":
+          break;
+        case "repeat":
+          walk2(t.body, [...chain, { times: t.times, span: t.timesSpan }]);
+          break;
+        case "sequence":
+          walk2(t.body, chain);
+          break;
+        case "merge":
+          for (const p of t.paths) walk2(p, chain);
+          for (const r of t.refs) check2(r, chain);
+          break;
+      }
+      define(t.name, chain);
+    }
+  };
+  walk2(templates, []);
+  return ok ? out : void 0;
+}
+function collect(list3, into) {
+  for (const t of list3) {
+    if (t.t === "repeat" || t.t === "sequence") collect(t.body, into);
+    if (t.t === "merge") for (const p of t.paths) collect(p, into);
+    if (t.name && !into.has(t.name.text)) into.set(t.name.text, t.name.span);
+  }
+}
+
+// src/config/layer-templates.ts
+function expandedCount(templates) {
+  let total = 0;
+  for (const t of templates) total += countOne(t);
+  return total;
+}
+function countOne(t) {
+  switch (t.t) {
+    case "chain":
+      return t.layers.length;
+    case "repeat":
+      return t.times * expandedCount(t.body);
+    case "sequence":
+      return expandedCount(t.body);
+    case "merge":
+      return t.paths.reduce((a, p) => a + expandedCount(p), 0) + 1 + t.after.length;
+  }
+}
+
+// src/config/expand-layers.ts
+function expandTemplates(templates, refs, listPath, listSpan, sink) {
+  const total = expandedCount(templates);
+  if (total > MAX_EXPANDED_LAYERS) {
+    const amount = Number.isSafeInteger(total) ? `${total} layers` : `more than ${Number.MAX_SAFE_INTEGER} layers`;
+    const culprit = biggestRepeat(templates);
+    if (culprit) {
+      sink.error(
+        "config/too-many-layers",
+        `${culprit.timesPath} is ${culprit.times}, which makes the model expand to ${amount}; at most ${MAX_EXPANDED_LAYERS} layers are allowed after expanding repeat blocks`,
+        culprit.timesSpan
+      );
+    } else {
+      sink.error("config/too-many-layers", `${listPath} has ${amount}; at most ${MAX_EXPANDED_LAYERS} are allowed`, listSpan);
+    }
+    return void 0;
+  }
+  return new Expansion(refs).run(templates);
+}
+function biggestRepeat(templates) {
+  let best;
+  const visit3 = (list3) => {
+    for (const t of list3) {
+      if (t.t === "repeat") {
+        const count = countOne(t);
+        if (!best || count > best.count) best = { count, t };
+      } else if (t.t === "sequence") visit3(t.body);
+      else if (t.t === "merge") for (const p of t.paths) visit3(p);
+    }
+  };
+  visit3(templates);
+  return best?.t;
+}
+var Expansion = class {
+  constructor(refs) {
+    this.refs = refs;
+  }
+  refs;
+  out = [];
+  /** Label → the output layer of the entry that carries it. */
+  labels = /* @__PURE__ */ new Map();
+  /** Iterations (1-based) of the enclosing repeats, outermost first. */
+  iterations = [];
+  run(templates) {
+    this.list(templates, INPUT);
+    return this.out;
+  }
+  list(templates, input) {
+    let cur = input;
+    for (const t of templates) cur = this.one(t, cur);
+    return cur;
+  }
+  label(text2) {
+    return text2 + this.iterations.map((i) => `[${i}]`).join("");
+  }
+  make(m, inputs, name) {
+    const index = this.out.length;
+    const depth = this.iterations.length;
+    const layer = {
+      ...m.body,
+      index,
+      inputs,
+      path: m.site.path,
+      span: m.site.span,
+      fieldSpans: m.site.fieldSpans,
+      ...name !== void 0 && m.labelled ? { name } : {},
+      ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {}
+    };
+    this.out.push(layer);
+    return index;
+  }
+  chain(layers, input, name) {
+    let cur = input;
+    for (const m of layers) cur = this.make(m, [cur], name);
+    return cur;
+  }
+  /** Records the entry's label; a block's output layer takes it when it has no label of its own. */
+  register(text2, output, adopt2) {
+    if (text2 === void 0) return;
+    const label2 = this.label(text2);
+    this.labels.set(label2, output);
+    const layer = this.out[output];
+    if (adopt2 && layer && layer.name === void 0) this.out[output] = { ...layer, name: label2 };
+  }
+  one(t, input) {
+    const name = t.name ? this.label(t.name.text) : void 0;
+    switch (t.t) {
+      case "chain": {
+        const out = this.chain(t.layers, input, name);
+        this.register(t.name?.text, out, false);
+        return out;
+      }
+      case "repeat": {
+        let cur = input;
+        for (let i = 1; i <= t.times; i++) {
+          this.iterations.push(i);
+          cur = this.list(t.body, cur);
+          this.iterations.pop();
+        }
+        this.register(t.name?.text, cur, true);
+        return cur;
+      }
+      case "sequence": {
+        const out = this.list(t.body, input);
+        this.register(t.name?.text, out, true);
+        return out;
+      }
+      case "merge": {
+        const ins = t.paths.map((p) => this.list(p, input));
+        for (const r of t.refs) ins.push(this.resolve(r));
+        const merged = this.make(t.merge, ins, name);
+        const out = this.chain(t.after, merged, void 0);
+        this.register(t.name?.text, out, false);
+        return out;
       }
     }
   }
-  found = { pathVar, git };
-  return git;
-}
-function isExecutableFile(path6) {
-  try {
-    if (!statSync3(path6).isFile()) return false;
-    accessSync(path6, constants3.X_OK);
-    return true;
-  } catch {
-    return false;
+  resolve(ref) {
+    const how = this.refs.get(ref);
+    if (!how) throw new Error(`layer expansion: the reference '${ref.text}' was not checked (a loader bug)`);
+    if (how.input) return INPUT;
+    const label2 = ref.base + this.iterations.slice(0, how.shared).map((i) => `[${i}]`).join("") + ref.copies.map((c) => `[${c}]`).join("");
+    const at = this.labels.get(label2);
+    if (at === void 0) throw new Error(`layer expansion: '${label2}' has no layer (a loader bug)`);
+    return at;
   }
+};
+
+// src/config/build-layered.ts
+function buildLayeredModel(root, file, sink) {
+  const inputNode = asMap(fieldOf(root, "input"));
+  const input = readInput(inputNode, sink);
+  const output = readOutput(asMap(fieldOf(root, "output")));
+  const ws = fieldOf(root, "weight_sharing");
+  const weightSharing = ws === void 0 ? true : booleanOf(ws);
+  const shapeNode = inputNode ? fieldOf(inputNode, "shape") : void 0;
+  const ctx = {
+    sink,
+    dims: input?.shape.length,
+    shapeText: input ? `[${input.shape.join(", ")}]` : "",
+    shapePath: shapeNode ? displayPath(shapeNode) : "the input shape"
+  };
+  const layersNode = fieldOf(root, "layers");
+  const templates = layersNode ? readLayerList(layersNode, ctx) : void 0;
+  const refs = templates && checkNames(templates, sink);
+  if (!input || !output || weightSharing === void 0 || !templates || !refs || !layersNode) return void 0;
+  const layers = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
+  if (!layers) return void 0;
+  return { kind: "layered", file, input, weightSharing, layers, output, span: root.span };
 }
-function gitOrThrow() {
-  const git = findGit();
-  if (git === void 0) {
-    throw new GitError("git was not found on PATH: install git (or put it on PATH) to compare configs across revisions", "");
+
+// src/config/diagnostic-sink.ts
+var DiagnosticSink = class {
+  constructor(file) {
+    this.file = file;
   }
-  return git;
+  file;
+  items = [];
+  seen = /* @__PURE__ */ new Set();
+  error(code, message, span) {
+    const key = span ? `${code}\0${span.offset}\0${span.endOffset}` : `${code}\0${message}`;
+    if (this.seen.has(key)) return;
+    this.seen.add(key);
+    this.items.push(span ? { code, message, file: this.file, span, severity: "error" } : { code, message, file: this.file, severity: "error" });
+  }
+  get count() {
+    return this.items.length;
+  }
+  /** Sorted by offset (position-less ones first), then by end, code and message. */
+  sorted() {
+    return [...this.items].sort(
+      (a, b) => (a.span?.offset ?? -1) - (b.span?.offset ?? -1) || (a.span?.endOffset ?? -1) - (b.span?.endOffset ?? -1) || compare(a.code, b.code) || compare(a.message, b.message)
+    );
+  }
+};
+function compare(a, b) {
+  return a < b ? -1 : a > b ? 1 : 0;
 }
-function describe(args) {
-  return `git ${args.join(" ")}`;
+
+// src/config/field-aliases.ts
+var INPUT_ALIASES = /* @__PURE__ */ new Map([
+  ["features", "channels"],
+  ["in_channels", "channels"],
+  ["num_channels", "channels"]
+]);
+var INPUT_FIELDS = ["shape", "channels", "representation"];
+function normaliseFieldAliases(root, sink) {
+  if (root.kind !== "map") return;
+  const input = fieldOf(root, "input");
+  if (input?.kind === "map") normaliseBody(input, INPUT_FIELDS, INPUT_ALIASES, sink);
 }
-function firstLine(text) {
-  return text.split("\n").find((line) => line.trim() !== "")?.trim() ?? "";
-}
-function runGit(cwd, args, options = {}) {
-  const git = gitOrThrow();
-  const r = spawnSync(git, ["-c", "core.quotepath=off", ...args], {
-    cwd,
-    env: gitEnv(),
-    shell: false,
-    windowsHide: true,
-    stdio: ["ignore", "pipe", "pipe"],
-    maxBuffer: options.maxBuffer ?? MAX_LISTING_BYTES,
-    timeout: options.timeoutMs ?? LOCAL_TIMEOUT_MS
-  });
-  const stderr = r.stderr ? r.stderr.toString("utf8") : "";
-  if (r.error) {
-    const code = r.error.code;
-    if (code === "ENOBUFS") {
-      throw options.tooLarge?.() ?? new GitError(`${describe(args)} printed more than ${options.maxBuffer ?? MAX_LISTING_BYTES} bytes`, stderr);
+function normaliseBody(body, fields, aliases, sink) {
+  const bySpelling = /* @__PURE__ */ new Map();
+  for (const f2 of fields) bySpelling.set(normaliseWord(f2), f2);
+  for (const [alias, canonical] of aliases) bySpelling.set(normaliseWord(alias), canonical);
+  const byCanonical = /* @__PURE__ */ new Map();
+  for (const entry of body.entries) {
+    const canonical = bySpelling.get(normaliseWord(entry.key)) ?? entry.key;
+    const group2 = byCanonical.get(canonical) ?? [];
+    group2.push(entry);
+    byCanonical.set(canonical, group2);
+  }
+  const dropped = /* @__PURE__ */ new Set();
+  for (const [canonical, group2] of byCanonical) {
+    const first = group2[0];
+    if (!first) continue;
+    first.key = canonical;
+    for (const extra of group2.slice(1)) {
+      dropped.add(extra);
+      const spellings = group2.map((e) => `'${e.writtenKey}'`);
+      const listed = spellings.length === 2 ? `${spellings.join(" and ")}, which both mean` : `${spellings.join(", ")}, which all mean`;
+      sink.error("config/alias-conflict", `${displayPath(body)} gives ${listed} '${canonical}'; keep only one of them`, extra.keySpan);
     }
-    if (code === "ETIMEDOUT") {
-      throw new GitError(`${describe(args)} did not finish within ${Math.round((options.timeoutMs ?? LOCAL_TIMEOUT_MS) / 1e3)} s`, stderr);
+  }
+  if (dropped.size > 0) {
+    const kept = body.entries.filter((e) => !dropped.has(e));
+    body.entries.splice(0, body.entries.length, ...kept);
+  }
+}
+
+// src/config/model-schema.ts
+var import_ajv = __toESM(require_ajv(), 1);
+import { existsSync as existsSync3, readFileSync as readFileSync2 } from "node:fs";
+import { fileURLToPath } from "node:url";
+var CANDIDATE_DIRS = ["../../schema/", "../schema/"];
+var MODEL_SCHEMA = "model.schema.json";
+var cached = /* @__PURE__ */ new Map();
+function schemaFilePath(name) {
+  for (const dir of CANDIDATE_DIRS) {
+    const path6 = fileURLToPath(new URL(dir + name, import.meta.url));
+    if (existsSync3(path6)) return path6;
+  }
+  const looked = CANDIDATE_DIRS.map((dir) => dir + name).join(" and ");
+  throw new Error(`${name} not found (looked for ${looked} relative to ${import.meta.url}); the installation is incomplete`);
+}
+function compiledSchemaFile(name) {
+  const hit = cached.get(name);
+  if (hit) return hit;
+  const schema = JSON.parse(readFileSync2(schemaFilePath(name), "utf8"));
+  const ajv = new import_ajv.Ajv({ allErrors: true, strict: true, verbose: true, allowUnionTypes: true });
+  const validate = ajv.compile(schema);
+  const locations = /* @__PURE__ */ new Map();
+  const walk2 = (node, at) => {
+    if (node === null || typeof node !== "object") return;
+    if (!Array.isArray(node)) locations.set(node, at);
+    for (const [k, v] of Object.entries(node)) walk2(v, `${at}/${k}`);
+  };
+  walk2(schema, "");
+  const compiled = { schema, validate, locations };
+  cached.set(name, compiled);
+  return compiled;
+}
+function compiledModelSchema() {
+  return compiledSchemaFile(MODEL_SCHEMA);
+}
+function validateAgainstSchema(value) {
+  const { validate } = compiledModelSchema();
+  return validate(value) ? [] : [...validate.errors ?? []];
+}
+
+// src/config/model-pointer.ts
+var import_yaml3 = __toESM(require_dist(), 1);
+function resolveModelNode(doc, lines, sink, pointer, segments) {
+  const anchors = new AnchorIndex(doc);
+  const docSpan = spanFromOffsets(lines, 0, 0);
+  let cur = doc.contents;
+  let curSpan = spanOfRange(lines, rangeOf(cur)) ?? docSpan;
+  const walked = [];
+  const fail = (detail, hintKeys) => {
+    const where2 = walked.length === 0 ? "the document" : formatFieldPath(walked);
+    const keys = hintKeys.length > 0 ? ` (it has ${hintKeys.slice(0, 8).map((k) => `'${k}'`).join(", ")}${hintKeys.length > 8 ? ", …" : ""})` : "";
+    sink.error(
+      "config/model-missing",
+      `the model path '${pointer}' does not resolve: ${where2} ${detail}${keys}; pass --model-path with the JSON pointer of the architecture, e.g. --model-path /training/model`,
+      curSpan
+    );
+    return void 0;
+  };
+  for (let i = 0; i < segments.length; i++) {
+    const seg = segments[i];
+    if ((0, import_yaml3.isAlias)(cur)) cur = anchors.resolve(cur);
+    if ((0, import_yaml3.isMap)(cur)) {
+      const keys = [];
+      let found2;
+      for (const pair of cur.items) {
+        const k = (0, import_yaml3.isScalar)(pair.key) ? pair.key.value : void 0;
+        if (k === void 0 || k !== null && typeof k === "object") continue;
+        keys.push(String(k));
+        if (String(k) === seg) found2 = { value: pair.value, keyRange: rangeOf(pair.key) };
+      }
+      if (!found2) {
+        const guess = closest(seg, keys);
+        return fail(`has no key '${seg}'${guess ? ` (did you mean '${guess}'?)` : ""}`, guess ? [] : keys);
+      }
+      walked.push(seg);
+      const keySpan = spanOfRange(lines, found2.keyRange) ?? curSpan;
+      cur = found2.value;
+      curSpan = spanOfRange(lines, rangeOf(cur)) ?? spanFromOffsets(lines, keySpan.endOffset, keySpan.endOffset);
+    } else if ((0, import_yaml3.isSeq)(cur)) {
+      if (!isArrayIndex(seg) || Number(seg) >= cur.items.length) {
+        return fail(`is a list of ${cur.items.length} entries, so '${seg}' is not one of its indices`, []);
+      }
+      walked.push(Number(seg));
+      cur = cur.items[Number(seg)];
+      curSpan = spanOfRange(lines, rangeOf(cur)) ?? curSpan;
+    } else {
+      return fail(cur === null || cur === void 0 || (0, import_yaml3.isScalar)(cur) && cur.value === null ? `is empty, so it has no '${seg}'` : `is a single value, so it has no '${seg}'`, []);
     }
-    if (code === "ENOENT" && !isDirectory2(cwd)) throw new GitError(`cannot run git in '${cwd}': no such directory`, stderr);
-    throw new GitError(`cannot run ${git}: ${r.error.message}`, stderr);
   }
-  if (r.status === null) throw new GitError(`${describe(args)} was stopped by signal ${r.signal ?? "unknown"}`, stderr);
-  return { status: r.status, stdout: r.stdout, stderr };
-}
-function runGitOk(cwd, args, options = {}) {
-  const r = runGit(cwd, args, options);
-  if (r.status !== 0) throw gitFailure(args, r);
-  return r.stdout;
-}
-function gitFailure(args, r) {
-  const why = firstLine(r.stderr);
-  return new GitError(`${describe(args)} failed (exit ${r.status})${why ? `: ${why}` : ""}`, r.stderr);
-}
-function isDirectory2(path6) {
-  try {
-    return statSync3(path6).isDirectory();
-  } catch {
-    return false;
+  if (cur === null || cur === void 0) {
+    if (segments.length === 0) {
+      sink.error("config/model-missing", `the document is empty; expected the model architecture at '${pointer || "/"}' (see --model-path)`, docSpan);
+      return void 0;
+    }
   }
+  return { node: cur, segments: walked, fallback: curSpan };
 }
-
-// src/git/repo.ts
-var FULL_ID = /^(?:[0-9a-f]{40}|[0-9a-f]{64})$/;
-function openRepo(cwd) {
-  if (findGit() === void 0) return void 0;
-  const dir = resolve6(cwd);
-  let r;
-  try {
-    r = runGit(dir, ["rev-parse", "--show-toplevel"]);
-  } catch (err) {
-    if (err instanceof GitError && /no such directory/.test(err.message)) return void 0;
-    throw err;
-  }
-  if (r.status === 0) {
-    const top = r.stdout.toString("utf8").replace(/\r?\n$/, "");
-    return top === "" ? void 0 : { root: resolve6(top) };
-  }
-  if (/not a git repository|must be run in a work tree/i.test(r.stderr)) return void 0;
-  throw gitFailure(["rev-parse", "--show-toplevel"], r);
-}
-function resolveCommit(repo, rev) {
-  checkRevision(rev);
-  const args = ["rev-parse", "--verify", "--quiet", `${rev}^{commit}`];
-  const r = runGit(repo.root, args);
-  if (r.status === 1) return void 0;
-  if (r.status !== 0) throw gitFailure(args, r);
-  const id = r.stdout.toString("utf8").trim();
-  return FULL_ID.test(id) ? id : void 0;
-}
-function requireCommit(repo, rev) {
-  const id = resolveCommit(repo, rev);
-  if (id === void 0) throw new GitError(`unknown git revision '${rev}': no such commit in this clone`, "");
-  return id;
-}
-function isShallow(repo) {
-  return runGitOk(repo.root, ["rev-parse", "--is-shallow-repository"]).toString("utf8").trim() === "true";
-}
-function emptyTree(repo) {
-  const r = runGit(repo.root, ["rev-parse", "--show-object-format"]);
-  const format = r.status === 0 ? r.stdout.toString("utf8").trim() : "sha1";
-  return format === "sha256" ? "6ef19b41225c5369f1c104d45d8d85efa9b057b53b14b4b9b939dd74decc5321" : "4b825dc642cb6eb9a060e54bf8d69288fbee4904";
-}
-
-// src/git/ensure-commit.ts
-var FETCH_TIMEOUT_MS = 3e5;
-var FULL_ID2 = /^(?:[0-9a-f]{40}|[0-9a-f]{64})$/;
-var HINT = "Check out the repository with full history (for GitHub Actions: `fetch-depth: 0` in actions/checkout; elsewhere `git fetch --unshallow origin`).";
-var attempts = /* @__PURE__ */ new WeakMap();
-function ensureCommit(repo, sha) {
-  if (resolveCommit(repo, sha) !== void 0) return { ok: true };
-  const id = sha.toLowerCase();
-  if (!FULL_ID2.test(id)) {
-    return { ok: false, message: `commit '${sha}' is not in this clone, and only a full commit id can be fetched. ${HINT}` };
-  }
-  let tried = attempts.get(repo);
-  if (tried === void 0) attempts.set(repo, tried = /* @__PURE__ */ new Map());
-  const earlier = tried.get(id);
-  if (earlier !== void 0) return earlier;
-  const result2 = fetchCommit(repo, id);
-  tried.set(id, result2);
-  return result2;
-}
-function fetchCommit(repo, id) {
-  const remotes = runGitOk(repo.root, ["remote"]).toString("utf8").split("\n");
-  if (!remotes.includes("origin")) {
-    return { ok: false, message: `commit ${id} is not in this clone, and there is no remote named origin to fetch it from. ${HINT}` };
-  }
-  const shallow = isShallow(repo);
-  const args = ["fetch", "--quiet", "--no-tags", "--no-recurse-submodules", ...shallow ? ["--depth=1"] : [], "origin", id];
-  let why;
-  try {
-    const r = runGit(repo.root, args, { timeoutMs: FETCH_TIMEOUT_MS });
-    if (r.status === 0 && resolveCommit(repo, id) !== void 0) return { ok: true };
-    why = firstLine(r.stderr) || `git fetch exited with status ${r.status}`;
-  } catch (err) {
-    if (!(err instanceof GitError)) throw err;
-    why = err.message;
-  }
-  const clone = shallow ? "this shallow clone" : "this clone";
-  return { ok: false, message: `commit ${id} is not in ${clone}, and fetching it from origin failed (${why}). ${HINT}` };
-}
-
-// src/git/read-file.ts
-function readAtRevision(repo, rev, rootRelativePath) {
-  const path6 = checkRootRelativePath(rootRelativePath);
-  const commit = requireCommit(repo, rev);
-  const out = runGitOk(repo.root, ["ls-tree", "-l", "-z", "--full-tree", commit, "--", path6]).toString("utf8");
-  const entry = findEntry(out, path6, parseTreeLine);
-  if (entry === void 0) return null;
-  return readEntry(repo, entry, `'${path6}' at ${rev}`);
-}
-function readStaged(repo, rootRelativePath) {
-  const path6 = checkRootRelativePath(rootRelativePath);
-  const out = runGitOk(repo.root, ["ls-files", "--stage", "-z", "--full-name", "--", path6]).toString("utf8");
-  const entries2 = out.split("\0").map((record) => parseIndexLine(record)).filter((e) => e !== void 0 && e.path === path6);
-  if (entries2.length === 0) return null;
-  const entry = entries2[0];
-  if (entries2.length > 1 || entry === void 0 || entry.stage !== "0") {
-    throw new GitError(`'${path6}' has unresolved merge conflicts in the index; resolve them and stage the result`, "");
-  }
-  return readEntry(repo, entry, `staged '${path6}'`);
-}
-function readEntry(repo, entry, what) {
-  if (entry.type === "tree") throw new GitError(`${what} is a directory, not a file`, "");
-  if (entry.mode === "160000" || entry.type === "commit") throw new GitError(`${what} is a submodule, not a file`, "");
-  if (entry.mode === "120000") throw new GitError(`${what} is a symbolic link; point the check at the file it links to`, "");
-  const tooLarge3 = () => new GitError(`${what} is larger than ${MAX_FILE_BYTES / (1024 * 1024)} MiB; refusing to read it`, "");
-  if (entry.size !== void 0 && entry.size > MAX_FILE_BYTES) throw tooLarge3();
-  const blob = runGitOk(repo.root, ["cat-file", "blob", entry.id], { maxBuffer: MAX_FILE_BYTES + 1, tooLarge: tooLarge3 });
-  if (blob.length > MAX_FILE_BYTES) throw tooLarge3();
-  return blob.toString("utf8");
-}
-function findEntry(out, path6, parse) {
-  for (const record of out.split("\0")) {
-    const entry = parse(record);
-    if (entry?.path === path6) return entry;
+function rangeOf(node) {
+  if (node && typeof node === "object" && "range" in node) {
+    const r = node.range;
+    if (Array.isArray(r) && r.length === 3) return r;
   }
   return void 0;
 }
-function parseTreeLine(record) {
-  const m = /^(\d{6}) (\w+) ([0-9a-f]+) +(\d+|-)\t([\s\S]*)$/.exec(record);
-  if (!m) return void 0;
-  const [, mode = "", type = "", id = "", size = "-", path6 = ""] = m;
-  return { mode, type, id, path: path6, ...size === "-" ? {} : { size: Number(size) } };
+
+// src/config/layer-entry-count.ts
+var LIST_KEYS = new Set(["layers", "body", "main", "path", "shortcut", "projection", "downsample", "skip"].map(normaliseWord));
+var PATHS_KEYS = new Set(["paths", "branches"].map(normaliseWord));
+function checkLayerEntryCount(root, sink) {
+  if (root.kind !== "map") return true;
+  const layers = fieldOf(root, "layers");
+  if (layers?.kind !== "seq") return true;
+  const count = countList(layers);
+  if (count <= MAX_EXPANDED_LAYERS) return true;
+  sink.error(
+    "config/too-many-layers",
+    `${displayPath(layers)} lists ${count} layers (counting those inside blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
+    layers.span
+  );
+  return false;
 }
-function parseIndexLine(record) {
-  const m = /^(\d{6}) ([0-9a-f]+) (\d)\t([\s\S]*)$/.exec(record);
-  if (!m) return void 0;
-  const [, mode = "", id = "", stage = "", path6 = ""] = m;
-  return { mode, type: mode === "160000" ? "commit" : "blob", id, stage, path: path6 };
+function countList(list3) {
+  if (list3.kind !== "seq") return 0;
+  let n = 0;
+  for (const item of list3.items) n += countEntry(item);
+  return n;
+}
+function countEntry(item) {
+  if (item.kind !== "map") return 1;
+  const maps = [item, ...item.entries.map((e) => e.value).filter((v) => v.kind === "map")];
+  let nested = 0;
+  let holds = false;
+  for (const m of maps) {
+    if (m.kind !== "map") continue;
+    for (const e of m.entries) {
+      const key = normaliseWord(e.key);
+      if (LIST_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        nested += countList(e.value);
+      } else if (PATHS_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        for (const p of e.value.items) nested += p.kind === "seq" ? countList(p) : countEntry(p);
+      }
+    }
+  }
+  return holds ? nested : 1;
 }
 
-// src/git/changed-files.ts
-var DIFF_OPTIONS = ["--name-status", "-z", "--no-renames", "--no-color", "--no-ext-diff"];
-function changedFiles(repo, base, options = {}) {
-  checkRevision(base);
-  const against = options.against ?? "worktree";
-  switch (against) {
-    case "worktree": {
-      const files = diff(repo, "worktree", [requireCommit(repo, base)]);
-      return addUntracked(files, untrackedFiles(repo));
+// src/config/schema-errors.ts
+var MODEL_EITHER_OR = "/allOf/1/else";
+var MODEL_NOT_BOTH = "/allOf/1/then";
+var LAYER_LIST = "/definitions/layerList";
+var INPUT2 = "/definitions/input";
+function reportSchemaErrors(errors, root, locations, sink) {
+  const typeErrorAt = new Set(errors.filter((e) => e.keyword === "type").map((e) => e.instancePath));
+  const suggested = /* @__PURE__ */ new Set();
+  for (const e of errors) {
+    if (e.keyword !== "additionalProperties") continue;
+    const guess = suggestionFor(e, locations);
+    if (guess) suggested.add(`${e.instancePath}\0${guess}`);
+  }
+  const requiredGroups = /* @__PURE__ */ new Map();
+  for (const e of errors) {
+    if (e.keyword === "if") continue;
+    if (e.keyword !== "type" && typeErrorAt.has(e.instancePath)) continue;
+    if (e.keyword === "required") {
+      if (suggested.has(`${e.instancePath}\0${String(e.params["missingProperty"])}`)) continue;
+      const key = `${e.instancePath}\0${where(e, locations)}`;
+      const group2 = requiredGroups.get(key) ?? [];
+      group2.push(e);
+      requiredGroups.set(key, group2);
+      continue;
     }
-    case "head":
-      return diff(repo, "trees", [requireCommit(repo, base), requireCommit(repo, "HEAD")]);
-    case "staged":
-      return diff(repo, "index", [requireCommit(repo, base)]);
+    reportOne(e, root, locations, sink);
+  }
+  for (const group2 of requiredGroups.values()) reportRequired(group2, root, locations, sink);
+}
+function where(e, locations) {
+  return e.parentSchema ? locations.get(e.parentSchema) : void 0;
+}
+function segmentsOf(instancePath) {
+  if (instancePath === "") return [];
+  return instancePath.slice(1).split("/").map((s) => s.replace(/~1/g, "/").replace(/~0/g, "~"));
+}
+function reportOne(e, root, locations, sink) {
+  const node = locate(root, segmentsOf(e.instancePath)) ?? root;
+  const path6 = displayPath(node);
+  const loc = where(e, locations);
+  const parent = e.parentSchema ?? {};
+  const params = e.params;
+  const at = node.span;
+  switch (e.keyword) {
+    case "type": {
+      const isNumber = typeof e.data === "number";
+      const code = isNumber && typeIncludes(parent, "integer") ? "config/invalid-number" : "config/type";
+      sink.error(code, `${path6} must be ${expected(parent, loc)}, got ${describeScalar(e.data)}`, at);
+      return;
+    }
+    case "minimum":
+    case "exclusiveMinimum":
+    case "maximum":
+    case "exclusiveMaximum": {
+      const limit = Number(params["limit"]);
+      const noun = typeIncludes(parent, "integer") ? "integer" : "number";
+      const what = e.keyword === "minimum" && limit === 1 && noun === "integer" ? "a positive integer" : e.keyword === "minimum" && limit === 0 ? `a non-negative ${noun}` : `${params["comparison"] ?? ""} ${limit}`.trim();
+      sink.error("config/invalid-number", `${path6} must be ${what}, got ${describeScalar(e.data)}`, at);
+      return;
+    }
+    case "enum": {
+      const allowed = (Array.isArray(e.schema) ? e.schema : []).map(String);
+      const guess = typeof e.data === "string" ? closest(e.data, allowed) : void 0;
+      sink.error(
+        "config/invalid-value",
+        `${path6} must be one of ${allowed.map((a) => `'${a}'`).join(", ")}, got ${describeScalar(e.data)}${guess ? ` (did you mean '${guess}'?)` : ""}`,
+        at
+      );
+      return;
+    }
+    case "const":
+      sink.error("config/invalid-value", `${path6} must be ${JSON.stringify(e.schema)}, got ${describeScalar(e.data)}`, at);
+      return;
+    case "minLength":
+      sink.error("config/invalid-value", `${path6} must be a non-empty string`, at);
+      return;
+    case "minItems":
+    case "maxItems": {
+      const count = Array.isArray(e.data) ? e.data.length : 0;
+      if (loc === LAYER_LIST) {
+        sink.error("config/empty-layers", `${path6} is empty; list at least one layer`, at);
+        return;
+      }
+      sink.error("config/invalid-length", `${path6} must have ${lengthRule(parent)}, got ${count}${lengthHint(loc)}`, at);
+      return;
+    }
+    case "additionalProperties": {
+      reportUnknownKey(e, node, loc, parent, sink);
+      return;
+    }
+    case "not": {
+      if (loc === MODEL_NOT_BOTH && node.kind === "map") {
+        const layered = ["input", "output", "layers", "weight_sharing"].filter((k) => entryOf(node, k)).map((k) => `'${k}'`);
+        sink.error(
+          "config/model-kind",
+          `${path6} has both 'network' and ${layered.join(", ")}; a model is either layered ('input' + 'layers') or an explicit tensor network ('network'), not both`,
+          at
+        );
+        return;
+      }
+      break;
+    }
     default:
-      throw new GitError(`unknown comparison '${String(against)}': use 'worktree', 'head' or 'staged'`, "");
+      break;
   }
+  sink.error("config/schema", `${path6} ${e.message ?? "is not valid"}`, at);
 }
-function stagedFiles(repo) {
-  return diff(repo, "index", [resolveCommit(repo, "HEAD") ?? emptyTree(repo)]);
+function reportUnknownKey(e, node, loc, parent, sink) {
+  const key = String(e.params["additionalProperty"]);
+  const entry = node.kind === "map" ? entryOf(node, key) : void 0;
+  const at = entry?.keySpan ?? node.span;
+  const path6 = displayPath(node);
+  if (key === "<<") {
+    sink.error("config/unknown-field", `${path6} uses a YAML merge key ('<<'), which is not supported; write the fields out, or alias the whole mapping`, at);
+    return;
+  }
+  const allowed = Object.keys(parent["properties"] ?? {});
+  const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
+  sink.error(
+    "config/unknown-field",
+    `unknown field '${key}' in ${path6}${guess ? ` (did you mean '${guess}'?)` : ""}; allowed: ${allowed.join(", ")}`,
+    at
+  );
 }
-function diff(repo, side, ids) {
-  const args = ["diff", ...side === "index" ? ["--cached"] : [], ...DIFF_OPTIONS, ...ids, "--"];
-  const files = parseNameStatus(runGitOk(repo.root, args).toString("utf8"));
-  return [...files].map(([path6, status]) => ({ path: path6, status })).sort(byPath);
+function aliasesAt(loc) {
+  return loc === INPUT2 ? [...INPUT_ALIASES.keys()] : [];
 }
-function parseNameStatus(out) {
-  const fields = out.split("\0");
-  if (fields.at(-1) === "") fields.pop();
-  const files = /* @__PURE__ */ new Map();
-  const add = (path6, status) => {
-    if (path6 === void 0 || path6 === "") return;
-    const seen = files.get(path6);
-    files.set(path6, seen === void 0 || seen === status ? status : "M");
-  };
-  for (let i = 0; i < fields.length; ) {
-    const code = fields[i++] ?? "";
-    const letter = code.charAt(0);
-    if (letter === "R" || letter === "C") {
-      const from = fields[i++];
-      const to = fields[i++];
-      if (letter === "R") add(from, "D");
-      add(to, "A");
+function suggestionFor(e, locations) {
+  const key = String(e.params["additionalProperty"]);
+  const loc = where(e, locations);
+  const allowed = Object.keys(e.parentSchema?.["properties"] ?? {});
+  const guess = closest(key, [...allowed, ...aliasesAt(loc)]);
+  if (!guess) return void 0;
+  return (loc === INPUT2 ? INPUT_ALIASES.get(guess) : void 0) ?? guess;
+}
+function reportRequired(group2, root, locations, sink) {
+  const first = group2[0];
+  if (!first) return;
+  const node = locate(root, segmentsOf(first.instancePath)) ?? root;
+  const path6 = displayPath(node);
+  const loc = where(first, locations);
+  const missing = group2.map((e) => String(e.params["missingProperty"]));
+  const quoted = missing.map((m) => `'${m}'`).join(" and ");
+  if (loc === MODEL_EITHER_OR) {
+    sink.error(
+      "config/model-kind",
+      `${path6} needs either 'input' and 'layers' (a layered model) or 'network' (an explicit tensor network); missing ${quoted}`,
+      node.span
+    );
+    return;
+  }
+  const properties = first.parentSchema?.["properties"] ?? {};
+  const explained = missing.map((m) => {
+    const d = Object.hasOwn(properties, m) ? properties[m]?.description : void 0;
+    return typeof d === "string" ? `'${m}' (${d.replace(/\.$/, "").replace(/^[A-Z](?=[a-z])/, (c) => c.toLowerCase())})` : `'${m}'`;
+  });
+  sink.error("config/missing-field", `${path6} is missing ${explained.join(" and ")}`, node.span);
+}
+function typeIncludes(schema, type) {
+  const t = schema["type"];
+  return t === type || Array.isArray(t) && t.includes(type);
+}
+function expected(schema, loc) {
+  if (loc === LAYER_LIST) return "a list of layers";
+  if (loc === "") return "a mapping (with 'input' and 'layers', or 'network')";
+  const t = schema["type"];
+  const types = Array.isArray(t) ? t.map(String) : [String(t)];
+  const words = types.map((type) => {
+    switch (type) {
+      case "integer":
+        return schema["minimum"] === 0 ? "a non-negative integer" : "a positive integer";
+      case "array": {
+        const items = schema["items"];
+        if (types.length > 1 && items?.["type"] === "integer") return `a list of ${lengthRule(schema).replace(/ entries$/, "")} positive integers`;
+        return "a list";
+      }
+      case "object":
+        return "a mapping";
+      case "string":
+        return Array.isArray(schema["enum"]) ? `one of ${schema["enum"].map((v) => `'${String(v)}'`).join(", ")}` : "a string";
+      case "boolean":
+        return "true or false";
+      default:
+        return type;
+    }
+  });
+  return words.join(" or ");
+}
+function lengthRule(schema) {
+  const min = typeof schema["minItems"] === "number" ? schema["minItems"] : void 0;
+  const max = typeof schema["maxItems"] === "number" ? schema["maxItems"] : void 0;
+  if (min !== void 0 && max !== void 0) {
+    if (min === max) return `${min} entries`;
+    return max === min + 1 ? `${min} or ${max} entries` : `${min} to ${max} entries`;
+  }
+  if (min !== void 0) return `at least ${min} entries`;
+  if (max !== void 0) return `at most ${max} entries`;
+  return "a valid number of entries";
+}
+function lengthHint(loc) {
+  if (loc?.endsWith("/properties/shape")) return " ([length] or [height, width])";
+  if (loc === "/definitions/bond/properties/between") return " (a bond joins at least 2 tensors)";
+  return "";
+}
+
+// src/config/yaml-errors.ts
+var import_yaml4 = __toESM(require_dist(), 1);
+function reportYamlErrors(doc, lines, sink) {
+  const duplicates = doc.errors.some((e) => e.code === "DUPLICATE_KEY") ? duplicateKeys(doc, lines) : /* @__PURE__ */ new Map();
+  for (const e of doc.errors) {
+    const span = spanFromOffsets(lines, e.pos[0], e.pos[1]);
+    if (e.code === "DUPLICATE_KEY") {
+      const detail = duplicates.get(e.pos[0]);
+      sink.error("config/duplicate-key", detail ?? "this key appears twice in one mapping; keep one", span);
     } else {
-      add(fields[i++], letter === "A" ? "A" : letter === "D" ? "D" : "M");
+      sink.error("config/yaml", `invalid YAML: ${e.message}`, span);
     }
   }
-  return files;
 }
-function untrackedFiles(repo) {
-  const out = runGitOk(repo.root, ["ls-files", "--others", "--exclude-standard", "-z", "--full-name"]).toString("utf8");
-  return out.split("\0").filter((p) => p !== "" && !p.endsWith("/"));
+function duplicateKeys(doc, lines) {
+  const out = /* @__PURE__ */ new Map();
+  (0, import_yaml4.visit)(doc, {
+    Map(_, map) {
+      const first = /* @__PURE__ */ new Map();
+      for (const pair of map.items) {
+        if (!(0, import_yaml4.isScalar)(pair.key) || !pair.key.range) continue;
+        const name = String(pair.key.value);
+        const at = pair.key.range[0];
+        const earlier = first.get(name);
+        if (earlier === void 0) first.set(name, at);
+        else out.set(at, `the key '${name}' appears twice in one mapping (first on line ${lines.linePos(earlier).line}); keep one`);
+      }
+    }
+  });
+  return out;
 }
-function addUntracked(tracked, untracked) {
-  const files = new Map(tracked.map((f2) => [f2.path, f2.status]));
-  for (const path6 of untracked) {
-    files.set(path6, files.get(path6) === "D" ? "M" : files.get(path6) ?? "A");
+
+// src/config/load-config.ts
+var DEFAULT_MODEL_PATH = "/model";
+function loadConfigText(text2, file, options = {}) {
+  const sink = new DiagnosticSink(file);
+  const fail = () => ({ ok: false, diagnostics: sink.sorted() });
+  const bytes = Buffer.byteLength(text2, "utf8");
+  if (bytes > MAX_DOCUMENT_BYTES) return tooLarge(sink, bytes);
+  const modelPath = options.modelPath ?? DEFAULT_MODEL_PATH;
+  const pointer = parsePointer(modelPath);
+  if (!pointer.ok) {
+    sink.error("config/model-path", pointer.message);
+    return fail();
   }
-  return [...files].map(([path6, status]) => ({ path: path6, status })).sort(byPath);
+  const lines = new import_yaml5.LineCounter();
+  const doc = (0, import_yaml5.parseDocument)(text2, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
+  reportYamlErrors(doc, lines, sink);
+  if (sink.count > 0) return fail();
+  const found2 = resolveModelNode(doc, lines, sink, modelPath, pointer.segments);
+  if (!found2) return fail();
+  const root = convertNode(doc, lines, sink, found2.node, found2.segments, found2.fallback);
+  if (!root) return fail();
+  normaliseFieldAliases(root, sink);
+  if (!checkLayerEntryCount(root, sink)) return fail();
+  const schema = compiledModelSchema();
+  reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
+  let model;
+  if (root.kind === "map") {
+    const explicit = entryOf(root, "network") !== void 0;
+    const layered = ["input", "output", "layers", "weight_sharing"].some((k) => entryOf(root, k) !== void 0);
+    if (explicit && !layered) model = buildExplicitModel(root, file, sink);
+    else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
+  }
+  if (model?.kind === "layered" && sink.count === 0) {
+    const shapes = inferShapes(model);
+    if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
+  }
+  if (sink.count > 0 || !model) {
+    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
+    return fail();
+  }
+  return { ok: true, model };
 }
-function byPath(a, b) {
-  return a.path < b.path ? -1 : a.path > b.path ? 1 : 0;
+function tooLarge(sink, bytes) {
+  sink.error(
+    "config/too-large",
+    `the config is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`
+  );
+  return { ok: false, diagnostics: sink.sorted() };
 }
 
-// src/git/list-tree.ts
-function listFilesAtRevision(repo, rev, dir) {
-  const commit = requireCommit(repo, rev);
-  const args = ["ls-tree", "-r", "-z", "--name-only", "--full-tree", commit];
-  if (dir !== "" && dir !== ".") args.push("--", checkRootRelativePath(dir.replace(/\/+$/, "")));
-  const out = runGitOk(repo.root, args).toString("utf8");
-  return out.split("\0").filter((p) => p.length > 0).sort();
-}
-
-// src/check/run-check.ts
-var CheckRequestError = class extends Error {
-  name = "CheckRequestError";
+// src/config/model-diff.ts
+var same = (...names) => names.map((n) => [n, n]);
+var FIELDS = {
+  conv: [...same("channels", "kernel", "stride", "dilation", "padding", "groups"), ["depthMultiplier", "depth_multiplier"]],
+  "conv-transpose": [...same("channels", "kernel", "stride", "dilation", "padding"), ["outputPadding", "output_padding"], ["groups", "groups"]],
+  pool: same("mode", "window", "stride", "padding", "global"),
+  dense: same("units"),
+  flatten: [],
+  upsample: same("factor", "mode"),
+  recurrent: same("hidden", "depth"),
+  pointwise: same("op"),
+  merge: same("mode")
 };
-function runCheck(req) {
-  const repo = openRepo(req.cwd);
-  const root = req.root ? resolve7(req.cwd, req.root) : repo?.root ?? findRepoRoot(req.cwd);
-  const comparing = req.base !== void 0 || req.staged === true;
-  if (comparing && !repo) throw new CheckRequestError(`${req.staged ? "--staged" : "--base"} needs a git repository; ${req.cwd} is not in one`);
-  const base = comparing ? resolveBase(repo, req) : void 0;
-  const display = (path6) => relative4(req.cwd, resolve7(root, path6)).split(sep5).join("/") || path6;
-  const sources = {
-    ...repo ? { repo } : {},
-    ...base ? { base } : {},
-    head: (path6) => req.staged ? readStaged(repo, path6) : readWorkTree(root, path6)
+function diffModels(base, head) {
+  if (base.kind !== "layered" || head.kind !== "layered") {
+    return base.kind === head.kind && JSON.stringify(stripSpans(base)) === JSON.stringify(stripSpans(head)) ? [] : [{ layer: "model", field: "network", from: base.kind, to: head.kind, span: head.span }];
+  }
+  const changes = [];
+  const field2 = (layer, name, from, to, span) => {
+    const a = show(from);
+    const b = show(to);
+    if (a !== b) changes.push({ layer, field: name, from: a, to: b, span });
   };
-  const errors = [];
-  const notices = [];
-  const policyRel = toRootRelative(root, resolve7(req.cwd, req.policy));
-  const loadedPolicies = loadPolicies(req, root, policyRel, sources, display, errors, notices);
-  const policies = req.unprovenFails ? loadedPolicies.map((p) => ({ ...p, unproven: "fail", requirements: p.requirements.map((r) => ({ ...r, unproven: "fail" })) })) : loadedPolicies;
-  const singleFile = !isDirectoryAnywhere(root, policyRel, sources);
-  const candidates2 = /* @__PURE__ */ new Set();
-  if (req.configs.length > 0) for (const c of req.configs) candidates2.add(toRootRelative(root, resolve7(req.cwd, c)));
-  else {
-    for (const f2 of req.staged ? stagedFiles(repo).map((s) => s.path) : listYamlFiles(root)) candidates2.add(f2);
-    if (base && !req.staged) {
-      for (const f2 of listFilesAtRevision(repo, base, "")) if (/\.ya?ml$/i.test(f2)) candidates2.add(f2);
+  for (const name of ["shape", "channels", "representation"]) {
+    field2("input", name, base.input[name], head.input[name], head.input.fieldSpans[name] ?? head.input.span);
+  }
+  field2("model", "weight_sharing", base.weightSharing, head.weightSharing, head.span);
+  field2("output", "position", base.output.position, head.output.position, head.output.span ?? head.span);
+  for (const [b, h] of align(base, head)) {
+    if (b && h) {
+      for (const [property, name] of FIELDS[h.kind]) {
+        field2(layerLabel(h), name, b[property], h[property], h.fieldSpans[name] ?? h.span);
+      }
+      if (b.kind === "merge" && h.kind === "merge" && h.origin === "skip") {
+        field2(layerLabel(h), "from", skipSources(base, b), skipSources(head, h), h.fieldSpans["from"] ?? h.span);
+      }
+    } else if (h) {
+      changes.push({ layer: layerLabel(h), field: "layer", from: "(none)", to: h.kind, span: h.span });
+    } else if (b) {
+      const next = head.layers.find((l) => l.index >= b.index);
+      changes.push({ layer: layerLabel(b), field: "layer", from: b.kind, to: "(removed)", span: next?.span ?? head.span });
     }
   }
-  let selected = [...candidates2].sort();
-  if ((req.changed || req.staged) && base && repo) {
-    const changed = new Set((req.staged ? stagedFiles(repo) : changedFiles(repo, base, { against: "worktree" })).map((c) => c.path));
-    const policyChanged = (p) => p.chain.some((f2) => changed.has(toRootRelative(root, resolve7(req.cwd, f2))));
-    selected = selected.filter((f2) => changed.has(f2) || policies.some((p) => policyChanged(p) && policyApplies(p, f2)));
-  }
-  const checked = [];
-  for (const path6 of selected) {
-    for (const policy of policies) {
-      const explicit = req.configs.length > 0 && singleFile;
-      if (!explicit && !policyApplies(policy, path6)) continue;
-      if (path6 === policyRel || policy.chain.some((f2) => toRootRelative(root, resolve7(req.cwd, f2)) === path6)) continue;
-      const one = checkOne(path6, display(path6), policy, sources, errors);
-      if (one) checked.push(one);
-    }
-  }
-  return { root, ...base ? { base } : {}, checked, notices, errors: dedupeDiagnostics(errors) };
+  return changes;
 }
-function resolveBase(repo, req) {
-  if (req.staged && req.base === void 0) return resolveCommit(repo, "HEAD");
-  const rev = req.base;
-  const sha = resolveCommit(repo, rev);
-  if (sha) return sha;
-  if (/^[0-9a-f]{40}([0-9a-f]{24})?$/i.test(rev)) {
-    const fetched = ensureCommit(repo, rev);
-    if (fetched.ok) return resolveCommit(repo, rev);
-    throw new CheckRequestError(fetched.message);
+function show(v) {
+  if (v === void 0) return "(none)";
+  if (Array.isArray(v)) return `[${v.join(", ")}]`;
+  if (v && typeof v === "object" && "mode" in v) {
+    const p = v;
+    return p.mode === "explicit" ? `[${p.amount.join(", ")}]` : p.mode;
   }
-  throw new CheckRequestError(`--base ${rev}: no such commit in this repository; check out with full history (for example fetch-depth: 0)`);
+  return String(v);
 }
-function readWorkTree(root, path6) {
-  try {
-    return readFileSync3(resolve7(root, path6), "utf8");
-  } catch {
-    return null;
+function skipSources(model, layer) {
+  return layer.inputs.slice(1).map((i) => i === INPUT ? "input" : String(layerLabel(model.layers[i])));
+}
+function align(base, head) {
+  const a = base.layers;
+  const b = head.layers;
+  const n = a.length;
+  const m = b.length;
+  const lcs = Array.from({ length: n + 1 }, () => new Array(m + 1).fill(0));
+  for (let i2 = n - 1; i2 >= 0; i2--) {
+    for (let j2 = m - 1; j2 >= 0; j2--) {
+      lcs[i2][j2] = a[i2].kind === b[j2].kind ? lcs[i2 + 1][j2 + 1] + 1 : Math.max(lcs[i2 + 1][j2], lcs[i2][j2 + 1]);
+    }
   }
-}
-function isDirectoryAnywhere(root, policyRel, s) {
-  try {
-    if (statSync4(resolve7(root, policyRel)).isDirectory()) return true;
-  } catch {
+  const out = [];
+  let i = 0;
+  let j = 0;
+  while (i < n || j < m) {
+    if (i < n && j < m && a[i].kind === b[j].kind && lcs[i][j] === lcs[i + 1][j + 1] + 1) out.push([a[i++], b[j++]]);
+    else if (j < m && (i >= n || lcs[i][j + 1] >= lcs[i + 1][j])) out.push([void 0, b[j++]]);
+    else out.push([a[i++], void 0]);
   }
-  return s.repo && s.base ? listFilesAtRevision(s.repo, s.base, policyRel).some((f2) => f2 !== policyRel) : false;
+  return out;
 }
-function loadPolicies(req, root, policyRel, s, display, errors, notices) {
-  const policyPath = resolve7(req.cwd, req.policy);
-  const loaderPath = (rel) => resolve7(req.cwd) === process.cwd() ? display(rel) : resolve7(root, rel);
-  const fromBase = s.base !== void 0 && (req.policyFrom ?? "base") === "base";
-  if (!s.base) {
-    let isDir2;
-    try {
-      isDir2 = statSync4(policyPath).isDirectory();
-    } catch {
-      throw new CheckRequestError(`--policy ${req.policy}: no such file or directory`);
-    }
-    if (isDir2) {
-      const loaded2 = loadPolicyDirectory(loaderPath(policyRel), { repoRoot: root });
-      errors.push(...loaded2.diagnostics);
-      return loaded2.policies;
-    }
-    const loaded = loadPolicyFile(loaderPath(policyRel), { repoRoot: root });
-    if (!loaded.ok) errors.push(...loaded.diagnostics);
-    return loaded.ok ? [loaded.policy] : [];
+function stripSpans(value) {
+  if (Array.isArray(value)) return value.map(stripSpans);
+  if (value && typeof value === "object") {
+    const out = {};
+    for (const [k, v] of Object.entries(value)) if (k !== "span" && k !== "file") out[k] = stripSpans(v);
+    return out;
   }
-  const repo = s.repo;
-  const base = s.base;
-  const isDir = isDirectoryAnywhere(root, policyRel, s);
-  const files = /* @__PURE__ */ new Set();
-  if (isDir) {
-    for (const f2 of listFilesAtRevision(repo, base, policyRel)) if (isDirectChild(policyRel, f2)) files.add(f2);
-    try {
-      for (const f2 of listYamlFiles(resolve7(root, policyRel))) if (!f2.includes("/")) files.add(`${policyRel}/${f2}`);
-    } catch {
-    }
-  } else files.add(policyRel);
-  const policies = [];
-  const ids = /* @__PURE__ */ new Map();
-  for (const f2 of [...files].filter((x) => /\.ya?ml$/i.test(x)).sort()) {
-    const headText = s.head(f2) ?? readWorkTree(root, f2);
-    const baseText = readAtRevision(repo, base, f2);
-    const useBase = fromBase && baseText !== null;
-    const text = useBase ? baseText : headText;
-    if (text === null) {
-      if (!isDir) throw new CheckRequestError(`--policy ${req.policy}: no such file at the base or in the working tree`);
-      continue;
-    }
-    if (useBase && headText !== null && headText !== baseText) {
-      notices.push({
-        file: display(f2),
-        path: f2,
-        line: firstDifferentLine(baseText, headText),
-        message: `the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)`
-      });
-    }
-    const readAt = (abs) => {
-      const rel = toRootRelative(root, abs);
-      const t = useBase ? readAtRevision(repo, base, rel) : s.head(rel) ?? readWorkTree(root, rel);
-      if (t === null) throw Object.assign(new Error(`${rel} does not exist`), { code: "ENOENT" });
-      return t;
-    };
-    const loaded = loadPolicyText(text, loaderPath(f2), { repoRoot: root }, readAt);
-    if (!loaded.ok) {
-      errors.push(...loaded.diagnostics);
-      continue;
-    }
-    const earlier = ids.get(loaded.policy.id);
-    if (earlier !== void 0) {
-      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, display(f2), loaded.policy.span));
-      continue;
-    }
-    ids.set(loaded.policy.id, display(f2));
-    policies.push(loaded.policy);
+  return value;
+}
+
+// src/check/input-errors.ts
+function refusalDiagnostic(refusal, file, owner) {
+  const code = refusal.code === "missing-object" || refusal.code === "conflict" ? `git/${refusal.code}` : refusal.code === "symlink" || refusal.code === "too-large" ? `${owner}/${refusal.code}` : `${owner}/unreadable`;
+  return { code, message: refusal.message, file, severity: "error" };
+}
+
+// src/check/compare-config.ts
+function evaluateHead(path6, file, policy, head, errors) {
+  if (head.kind === "refused") {
+    errors.push(refusalDiagnostic(head, file, "config"));
+    return void 0;
   }
-  return policies;
+  if (head.kind === "absent") {
+    errors.push({ code: "config/unreadable", message: "cannot read the config file: it does not exist", file, severity: "error" });
+    return void 0;
+  }
+  const model = loadConfig(head.text, file, policy, errors);
+  if (!model) return void 0;
+  const evaluated = evaluatePolicy(model, policy);
+  if (!evaluated.ok) {
+    errors.push(...evaluated.diagnostics);
+    return void 0;
+  }
+  return { path: path6, file, policy, text: head.text, model, result: evaluated.result };
 }
-function isDirectChild(dir, path6) {
-  const prefix = dir === "" || dir === "." ? "" : `${dir.replace(/\/+$/, "")}/`;
-  return path6.startsWith(prefix) && !path6.slice(prefix.length).includes("/");
+function compareWithBase(head, base, errors) {
+  const { path: path6, file, policy, model, result: result2 } = head;
+  const plain = { file, path: path6, policy, result: result2, changes: [], failing: result2.verdict === "fail" };
+  if (!base) return { ...plain, comparison: "none" };
+  if (base.basePath === void 0 || base.read === void 0 || base.read.kind === "absent") return { ...plain, comparison: "new" };
+  if (base.read.kind === "refused") {
+    errors.push(refusalDiagnostic(base.read, file, "config"));
+    return void 0;
+  }
+  const renamed = base.basePath !== path6 ? { renamedFrom: base.basePath } : {};
+  if (!base.answer) return { ...plain, ...renamed, comparison: "new" };
+  const changes = diffModels(base.answer.model, model);
+  const deltas = result2.requirements.map((q) => delta(q, base.answer.result, policy, changes, model));
+  const failing = result2.verdict === "fail" || deltas.some((d) => d.dropFails);
+  return { file, path: path6, policy, result: result2, ...renamed, comparison: "compared", deltas, changes, failing };
 }
-function firstDifferentLine(a, b) {
-  const x = a.split("\n");
-  const y = b.split("\n");
-  for (let i = 0; i < Math.max(x.length, y.length); i++) if (x[i] !== y[i]) return Math.min(i + 1, y.length);
-  return 1;
-}
-function load(text, file, policy, errors) {
-  const loaded = loadConfigText(text, file, policy.modelPath === void 0 ? {} : { modelPath: policy.modelPath });
+function loadConfig(text2, file, policy, errors) {
+  const loaded = loadConfigText(text2, file, policy.modelPath === void 0 ? {} : { modelPath: policy.modelPath });
   if (!loaded.ok) {
     errors.push(...loaded.diagnostics);
     return void 0;
   }
   return loaded.model;
-}
-function checkOne(path6, file, policy, s, errors) {
-  let headText;
-  let baseText = null;
-  try {
-    headText = s.head(path6);
-    if (s.repo && s.base) baseText = readAtRevision(s.repo, s.base, path6);
-  } catch (e) {
-    if (!(e instanceof GitError)) throw e;
-    errors.push({ code: "git/read", message: e.message, file, severity: "error" });
-    return void 0;
-  }
-  if (headText === null) {
-    if (baseText !== null) return { file, path: path6, policy, comparison: "deleted", changes: [], failing: false };
-    errors.push({ code: "config/unreadable", message: "cannot read the config file: it does not exist", file, severity: "error" });
-    return void 0;
-  }
-  const head = load(headText, file, policy, errors);
-  if (!head) return void 0;
-  const evaluated = evaluatePolicy(head, policy);
-  if (!evaluated.ok) {
-    errors.push(...evaluated.diagnostics);
-    return void 0;
-  }
-  const result2 = evaluated.result;
-  if (!s.base) return { file, path: path6, policy, result: result2, comparison: "none", changes: [], failing: result2.verdict === "fail" };
-  if (baseText === null) return { file, path: path6, policy, result: result2, comparison: "new", changes: [], failing: result2.verdict === "fail" };
-  const quiet = [];
-  const baseModel = load(baseText, file, policy, quiet);
-  const baseEval = baseModel ? evaluatePolicy(baseModel, policy, { fixes: false }) : void 0;
-  if (!baseModel || !baseEval || !baseEval.ok) return { file, path: path6, policy, result: result2, comparison: "new", changes: [], failing: result2.verdict === "fail" };
-  const changes = diffModels(baseModel, head);
-  const deltas = result2.requirements.map((q) => delta(q, baseEval.result, policy, changes, head));
-  const failing = result2.verdict === "fail" || deltas.some((d) => d.dropFails);
-  return { file, path: path6, policy, result: result2, comparison: "compared", deltas, changes, failing };
 }
 function delta(q, base, policy, changes, head) {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
@@ -44088,6 +43590,1183 @@ function delta(q, base, policy, changes, head) {
 }
 function maxDrop(r, p) {
   return r.maxDropBits ?? p.maxDropBits;
+}
+
+// src/check/base-evaluation.ts
+var WORKER_MIN_TASKS = 64;
+var WORKER_FILE = new URL("./base-worker.js", import.meta.url);
+function startBaseEvaluation(tasks, thread = "auto") {
+  const wanted = thread === "always" || thread === "auto" && tasks.length >= WORKER_MIN_TASKS && idleCore();
+  const worker = wanted ? startWorker(tasks) : void 0;
+  return worker ?? (() => evaluateBaseTexts(tasks));
+}
+function idleCore() {
+  const cores = availableParallelism();
+  return cores > 1 && loadavg()[0] + 1 <= cores;
+}
+function evaluateBaseTexts(tasks, progress) {
+  const memo = /* @__PURE__ */ new Map();
+  const policyIds = /* @__PURE__ */ new Map();
+  return tasks.map((t) => {
+    progress?.();
+    const model = loadConfig(t.text, t.file, t.policy, []);
+    if (!model) return void 0;
+    let id = policyIds.get(t.policy);
+    if (id === void 0) policyIds.set(t.policy, id = policyIds.size);
+    const key = `${id}\0${modelKey(model)}`;
+    const known = memo.get(key);
+    if (known) return { model, result: known.result };
+    const evaluated = evaluatePolicy(model, t.policy, { fixes: false });
+    const answer = evaluated.ok ? { model, result: evaluated.result } : void 0;
+    memo.set(key, answer);
+    return answer;
+  });
+}
+var PLACE = /* @__PURE__ */ new Set(["file", "span", "fieldSpans"]);
+function modelKey(model) {
+  return JSON.stringify(model, (k, v) => PLACE.has(k) ? void 0 : typeof v === "bigint" ? `${v}n` : v);
+}
+var STALL_MS = 12e4;
+function startWorker(tasks) {
+  if (WORKER_FILE.protocol !== "file:" || !existsSync4(fileURLToPath2(WORKER_FILE))) return void 0;
+  const flag = new Int32Array(new SharedArrayBuffer(8));
+  const { port1, port2 } = new MessageChannel();
+  let worker;
+  try {
+    worker = new Worker(WORKER_FILE, { workerData: { tasks, port: port2, flag }, transferList: [port2] });
+  } catch {
+    return void 0;
+  }
+  return () => {
+    let seen = -1;
+    let since = Date.now();
+    while (Atomics.load(flag, 0) === 0) {
+      Atomics.wait(flag, 0, 0, 1e3);
+      const started = Atomics.load(flag, 1);
+      if (started !== seen) [seen, since] = [started, Date.now()];
+      else if (Date.now() - since > STALL_MS) break;
+    }
+    const message = receiveMessageOnPort(port1)?.message;
+    port1.close();
+    void worker.terminate();
+    return message?.answers ?? evaluateBaseTexts(tasks);
+  };
+}
+
+// src/check/discover-configs.ts
+import { readdirSync, statSync as statSync2 } from "node:fs";
+import { join as join7 } from "node:path";
+
+// src/git/work-tree-files.ts
+function listWorkTreeFiles(repo) {
+  const list3 = (args) => runGitOk(repo.root, ["ls-files", "-z", "--full-name", ...args]).toString("utf8").split("\0").filter((p) => p !== "");
+  const files = [...new Set(list3(["--cached", "--others", "--exclude-standard"]))].sort();
+  const ignored2 = list3(["--others", "--ignored", "--exclude-standard", "--directory"]).sort();
+  return { files, ignored: ignored2 };
+}
+
+// src/check/discover-configs.ts
+var YAML_FILE = /\.ya?ml$/i;
+function discoverConfigs(root, repo, selector) {
+  const files = [];
+  const links = [];
+  const skipped = [];
+  const consider = (path6) => {
+    if (path6.endsWith("/")) {
+      if (selector.couldMatchBelow(path6)) skipped.push({ path: path6, reason: "a nested repository or submodule; its files belong to another repository" });
+      return;
+    }
+    const selected = selector.matches(path6);
+    if (!selected && !selector.couldMatchBelow(path6)) return;
+    const entry = inspectWorkTree(root, path6);
+    switch (entry.kind) {
+      case "file":
+        if (!selected) return;
+        if (YAML_FILE.test(path6)) files.push(path6);
+        else skipped.push({ path: path6, reason: "not a YAML file (.yaml or .yml)" });
+        return;
+      case "symlink":
+        if (selected) links.push({ path: path6, link: entry.link });
+        else if (entry.link === path6 && leadsToDirectory(root, path6)) {
+          skipped.push({ path: `${path6}/`, reason: "a symbolic link to a directory; links are not followed, so configs behind it are not checked" });
+        }
+        return;
+      case "directory":
+        skipped.push({ path: `${path6}/`, reason: "a nested repository or submodule; its files belong to another repository" });
+        return;
+      case "special":
+        if (selected) skipped.push({ path: path6, reason: "not a regular file" });
+        return;
+      case "absent":
+        return;
+    }
+  };
+  if (repo) {
+    const listing = listWorkTreeFiles(repo);
+    for (const path6 of listing.files) consider(path6);
+    for (const path6 of listing.ignored) {
+      if (path6.endsWith("/") ? selector.couldMatchBelow(path6) : selector.matches(path6)) {
+        skipped.push({ path: path6, reason: path6.endsWith("/") ? "a directory ignored by git; its files are not part of the repository" : "ignored by git; not part of the repository" });
+      }
+    }
+  } else {
+    walk(root, "", selector, consider);
+  }
+  const byPath2 = (a, b) => a.path < b.path ? -1 : a.path > b.path ? 1 : 0;
+  return { files: files.sort(), links: links.sort(byPath2), skipped: skipped.sort(byPath2) };
+}
+function walk(root, dir, selector, consider) {
+  let entries2;
+  try {
+    entries2 = readdirSync(dir === "" ? root : join7(root, dir), { withFileTypes: true });
+  } catch {
+    return;
+  }
+  for (const e of entries2.sort((a, b) => a.name < b.name ? -1 : a.name > b.name ? 1 : 0)) {
+    const path6 = dir === "" ? e.name : `${dir}/${e.name}`;
+    if (e.isDirectory()) {
+      if (selector.couldMatchBelow(path6)) walk(root, path6, selector, consider);
+    } else consider(path6);
+  }
+}
+function leadsToDirectory(root, path6) {
+  try {
+    return statSync2(join7(root, path6)).isDirectory();
+  } catch {
+    return false;
+  }
+}
+
+// src/check/head-files.ts
+import { readdirSync as readdirSync2 } from "node:fs";
+import { join as join8 } from "node:path";
+function workTreeFiles(root) {
+  return {
+    label: "in the working tree",
+    read: (rel) => readWorkTree(root, rel),
+    list(dir) {
+      const entry = dir === "" ? { kind: "directory" } : inspectWorkTree(root, dir);
+      if (entry.kind === "absent") return { kind: "absent" };
+      if (entry.kind === "symlink") return refused("symlink", symlinkMessage(dir, entry.link));
+      if (entry.kind !== "directory") return refused("special", `${dir} is not a directory`);
+      const prefix = dir === "" ? "" : `${dir}/`;
+      const paths = readdirSync2(join8(root, dir), { withFileTypes: true }).filter((e) => e.isFile() || e.isSymbolicLink()).map((e) => `${prefix}${e.name}`).sort();
+      return { kind: "directory", paths };
+    },
+    has: (rel) => inspectWorkTree(root, rel).kind !== "absent"
+  };
+}
+function indexFiles(index) {
+  return {
+    label: index.label,
+    read: (rel) => index.read(rel),
+    list: (dir) => index.isDirectory(dir) ? { kind: "directory", paths: index.children(dir) } : { kind: "absent" },
+    has: (rel) => index.entry(rel) !== void 0 || index.isDirectory(rel)
+  };
+}
+
+// src/check/judging-files.ts
+var JudgingFiles = class {
+  /** `judge` is the base revision when it judges; undefined when the head judges itself. */
+  constructor(judge, head) {
+    this.judge = judge;
+    this.head = head;
+  }
+  judge;
+  head;
+  changes = /* @__PURE__ */ new Map();
+  refusals = /* @__PURE__ */ new Map();
+  read(rel) {
+    if (this.judge) {
+      const base = this.judge.read(rel);
+      if (base.kind !== "absent") {
+        if (base.kind === "file") this.compareHead(rel, base.text);
+        return { read: base, from: "base" };
+      }
+    }
+    return { read: this.head.read(rel), from: "head" };
+  }
+  /** The files and links directly in `dir` on either side; a head listing that is refused (a link) is kept as a refusal. */
+  list(dir) {
+    const paths = new Set(this.judge?.isDirectory(dir) ? this.judge.children(dir) : []);
+    const head = this.head.list(dir);
+    if (head.kind === "directory") for (const p of head.paths) paths.add(p);
+    return { paths: [...paths].sort(), ...head.kind === "refused" ? { refusal: head } : {} };
+  }
+  /** A directory on the judging side, or else in the head (without following links). */
+  isDirectory(rel) {
+    if (this.judge?.isDirectory(rel)) return true;
+    return this.head.list(rel).kind === "directory";
+  }
+  exists(rel) {
+    return this.judge?.entry(rel) !== void 0 || this.judge?.isDirectory(rel) === true || this.head.has(rel);
+  }
+  prefetch(paths) {
+    this.judge?.prefetch(paths);
+  }
+  /** Judging files the head changed or deleted, by path. */
+  headChanges() {
+    return [...this.changes.values()].sort((a, b) => a.path < b.path ? -1 : a.path > b.path ? 1 : 0);
+  }
+  /** Judging files whose head version is refused (a link where the base has a file): input errors. */
+  headRefusals() {
+    return [...this.refusals].map(([path6, refusal]) => ({ path: path6, refusal })).sort((a, b) => a.path < b.path ? -1 : a.path > b.path ? 1 : 0);
+  }
+  compareHead(rel, baseText) {
+    if (this.changes.has(rel) || this.refusals.has(rel)) return;
+    const head = this.head.read(rel);
+    if (head.kind === "refused") this.refusals.set(rel, head);
+    else if (head.kind === "absent") this.changes.set(rel, { path: rel, line: 1, deleted: true });
+    else if (head.text !== baseText) this.changes.set(rel, { path: rel, line: firstDifferentLine(baseText, head.text), deleted: false });
+  }
+};
+function firstDifferentLine(a, b) {
+  const x = a.split("\n");
+  const y = b.split("\n");
+  for (let i = 0; i < Math.max(x.length, y.length); i++) if (x[i] !== y[i]) return Math.min(i + 1, y.length);
+  return 1;
+}
+
+// src/policy/load-policy.ts
+import { join as join10, relative as relative5, resolve as resolve7, sep as sep5 } from "node:path";
+
+// src/policy/policy-document.ts
+var import_yaml6 = __toESM(require_dist(), 1);
+
+// src/policy/builtin-partition-spec.ts
+var ARGUMENT_FREE = /* @__PURE__ */ new Set(["start-end", "left-right", "top-bottom", "interleaved", "checkerboard"]);
+var RANGE = /^\s*(\d+)\s*-\s*(\d+)\s*$/;
+function isBuiltinKind(name) {
+  return BUILTIN_KINDS.includes(name);
+}
+function checkBuiltinSpec(spec) {
+  const text2 = spec.trim();
+  const colon = text2.indexOf(":");
+  const kind = colon < 0 ? text2 : text2.slice(0, colon);
+  const arg = colon < 0 ? void 0 : text2.slice(colon + 1);
+  const invalid = (message) => ({ ok: false, unknownKind: false, kind, message });
+  if (!isBuiltinKind(kind)) {
+    return { ok: false, unknownKind: true, kind, message: `unknown partition '${kind}'; known kinds: ${BUILTIN_KINDS.join(", ")}` };
+  }
+  if (ARGUMENT_FREE.has(kind)) {
+    if (arg !== void 0) return invalid(`partition '${kind}' takes no argument (got '${arg}')`);
+    return { ok: true, kind, canonical: kind };
+  }
+  if (kind === "block") {
+    if (arg === void 0) return invalid(`partition 'block' needs ranges: 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D), half-open`);
+    const parts = arg.split(",");
+    const ranges = parts.map((p) => RANGE.exec(p));
+    if (parts.length > 2 || ranges.some((r) => r === null)) {
+      return invalid(`partition '${text2}': expected 'block:r0-r1,c0-c1' (2D) or 'block:a-b' (1D) with half-open integer ranges`);
+    }
+    for (const r of ranges) {
+      if (Number(r[1]) >= Number(r[2])) return invalid(`partition '${text2}': the range ${r[1]}-${r[2]} is empty; half-open ranges need start < end`);
+    }
+    return { ok: true, kind, canonical: `block:${ranges.map((r) => `${Number(r[1])}-${Number(r[2])}`).join(",")}` };
+  }
+  if (arg === void 0 || arg.trim() === "") return invalid(`partition 'positions' needs a list: 'positions:0,2,5'`);
+  const items = arg.split(",").map((p) => p.trim());
+  const bad = items.find((p) => !/^\d+$/.test(p));
+  if (bad !== void 0) return invalid(`partition '${text2}': '${bad}' is not a position number`);
+  return { ok: true, kind, canonical: `positions:${items.map((p) => String(Number(p))).join(",")}` };
+}
+
+// src/policy/named-partitions.ts
+var NAME_PATTERN = /^[a-z0-9][a-z0-9._-]*$/;
+var BODY_FIELDS = ["rows", "cols", "range", "positions"];
+function readNamedPartitions(node, file, sink) {
+  const out = /* @__PURE__ */ new Map();
+  for (const entry of node.entries) {
+    const name = entry.key;
+    if (!NAME_PATTERN.test(name)) {
+      sink.error(
+        "policy/invalid-partition-name",
+        `the partition name '${name}' in ${displayPath(node)} must be lower-case letters, digits, '.', '_' or '-', starting with a letter or digit`,
+        entry.keySpan
+      );
+      continue;
+    }
+    if (isBuiltinKind(name)) {
+      sink.error(
+        "policy/partition-shadows-builtin",
+        `the partition name '${name}' is a built-in partition kind; a named partition may not shadow one (built-in: ${BUILTIN_KINDS.join(", ")}); choose another name`,
+        entry.keySpan
+      );
+      continue;
+    }
+    const spec = specOf(entry.value, sink);
+    if (spec !== void 0) out.set(name, { name, spec, file, span: entry.keySpan });
+  }
+  return out;
+}
+function specOf(body, sink) {
+  if (body.kind !== "map") return void 0;
+  const kind = stringOf(fieldOf(body, "kind"));
+  if (kind === void 0 || !isBuiltinKind(kind)) return void 0;
+  const path6 = displayPath(body);
+  const present = BODY_FIELDS.filter((f2) => entryOf(body, f2) !== void 0);
+  const misplaced = (allowed, why) => {
+    let bad = false;
+    for (const f2 of present) {
+      if (allowed.includes(f2)) continue;
+      sink.error("policy/invalid-partition", `${path6} has '${f2}', but ${why}`, entryOf(body, f2).keySpan);
+      bad = true;
+    }
+    return bad;
+  };
+  switch (kind) {
+    case "block": {
+      if (misplaced(["rows", "cols", "range"], `a block takes 'rows' and 'cols' (2D) or 'range' (1D)`)) return void 0;
+      const has = (f2) => present.includes(f2);
+      const twoD = has("rows") && has("cols") && !has("range");
+      const oneD = has("range") && !has("rows") && !has("cols");
+      if (!twoD && !oneD) {
+        sink.error(
+          "policy/invalid-partition",
+          `${path6} is a block, which needs 'rows' and 'cols' (2D, e.g. {kind: block, rows: [8, 24], cols: [8, 24]}) or 'range' (1D, e.g. {kind: block, range: [0, 16]}), not ${present.length === 0 ? "none of them" : present.map((f2) => `'${f2}'`).join(" and ")}`,
+          body.span
+        );
+        return void 0;
+      }
+      const ranges = (twoD ? ["rows", "cols"] : ["range"]).map((f2) => rangeOf2(fieldOf(body, f2), sink));
+      if (ranges.some((r) => r === void 0)) return void 0;
+      return `block:${ranges.map((r) => `${r[0]}-${r[1]}`).join(",")}`;
+    }
+    case "positions": {
+      if (misplaced(["positions"], `the positions kind takes only 'positions'`)) return void 0;
+      const list3 = fieldOf(body, "positions");
+      if (!list3) {
+        sink.error("policy/invalid-partition", `${path6} needs 'positions', the list of side-A positions, e.g. {kind: positions, positions: [0, 5, 9]}`, body.span);
+        return void 0;
+      }
+      if (list3.kind !== "seq" || list3.items.length === 0) return void 0;
+      const values = list3.items.map(nonNegativeIntegerOf);
+      if (values.some((v) => v === void 0)) return void 0;
+      return `positions:${values.join(",")}`;
+    }
+    default:
+      if (misplaced([], `the kind '${kind}' takes no fields besides 'kind'`)) return void 0;
+      return kind;
+  }
+}
+function rangeOf2(node, sink) {
+  if (node?.kind !== "seq" || node.items.length !== 2) return void 0;
+  const start = nonNegativeIntegerOf(node.items[0]);
+  const end = nonNegativeIntegerOf(node.items[1]);
+  if (start === void 0 || end === void 0) return void 0;
+  if (start >= end) {
+    sink.error("policy/invalid-partition", `${displayPath(node)} is [${start}, ${end}], an empty range; half-open ranges need start < end`, node.span);
+    return void 0;
+  }
+  return [start, end];
+}
+
+// src/policy/policy-schema.ts
+var POLICY_SCHEMA = "policy.schema.json";
+var MINIMUM_CHOICE = "/definitions/requirement/allOf/1";
+function reportPolicySchemaErrors(root, sink) {
+  const { validate, locations } = compiledSchemaFile(POLICY_SCHEMA);
+  if (validate(toPlain(root))) return;
+  const where2 = (e) => (e.parentSchema ? locations.get(e.parentSchema) : void 0) ?? "";
+  const errors = (validate.errors ?? []).filter(
+    (e) => e.keyword !== "pattern" && e.keyword !== "propertyNames" && !where2(e).startsWith(MINIMUM_CHOICE)
+  );
+  reportSchemaErrors(errors, root, locations, sink);
+}
+
+// src/policy/power-of-two-ceiling.ts
+function ceilPowerOfTwo(numerator, denominator) {
+  if (numerator < 0n || denominator <= 0n) throw new RangeError(`ceilPowerOfTwo needs b = ${numerator}/${denominator} >= 0`);
+  const g = gcd(numerator, denominator);
+  const E = numerator / g;
+  const q = denominator / g;
+  if (q === 1n) return 1n << E;
+  const wholeBits = Number(E / q);
+  const guard = 64 + 2 * bitLength(q);
+  const exact = (wholeBits + 2) * Number(q) + guard;
+  for (let precision = wholeBits + guard; ; precision *= 2) {
+    const r = ceiling(approximate(E, q, precision));
+    if (exceeds(power({ m: r, e: 0 }, q, precision, false), E) && below(r - 1n, q, precision, E)) return r;
+    if (precision > exact) throw new Error(`ceilPowerOfTwo(${numerator}/${denominator}): no certified result (a bug)`);
+  }
+}
+function approximate(E, q, precision) {
+  const whole = E / q;
+  const start = 2 ** (Number(E - whole * q) / Number(q));
+  let x = { m: BigInt(Math.round(start * 2 ** 52)), e: Number(whole) - 52 };
+  let bits2 = 48;
+  for (let final = 0; final < 2; ) {
+    bits2 = Math.min(2 * bits2, precision);
+    if (bits2 === precision) final++;
+    x = newtonStep(x, E, q, bits2 + 16);
+  }
+  return x;
+}
+function newtonStep(x, E, q, bits2) {
+  const t = power(x, q, bits2, false);
+  const shift = Number(E) - t.e + bits2;
+  const ratio = shift >= 0 ? (1n << BigInt(shift)) / t.m : 0n;
+  const factor = (q - 1n) * (1n << BigInt(bits2)) + ratio;
+  return rounded(x.m * factor / q, x.e - bits2, bits2, false);
+}
+function power(base, k, bits2, up) {
+  const b = rounded(base.m, base.e, bits2, up);
+  let acc = { m: 1n, e: 0 };
+  for (const digit of k.toString(2)) {
+    acc = rounded(acc.m * acc.m, 2 * acc.e, bits2, up);
+    if (digit === "1") acc = rounded(acc.m * b.m, acc.e + b.e, bits2, up);
+  }
+  return acc;
+}
+function rounded(m, e, bits2, up) {
+  const excess = bitLength(m) - bits2;
+  if (excess <= 0) return { m, e };
+  const k = BigInt(excess);
+  let t = m >> k;
+  if (up && t << k !== m) t += 1n;
+  return { m: t, e: e + excess };
+}
+function exceeds(lower, E) {
+  const top = lower.e + bitLength(lower.m) - 1;
+  const isPowerOfTwo = (lower.m & lower.m - 1n) === 0n;
+  return top > Number(E) || top === Number(E) && !isPowerOfTwo;
+}
+function below(rMinus1, q, bits2, E) {
+  if (rMinus1 <= 0n) return true;
+  const upper = power({ m: rMinus1, e: 0 }, q, bits2, true);
+  return upper.e + bitLength(upper.m) - 1 < Number(E);
+}
+function ceiling(x) {
+  if (x.e >= 0) return x.m << BigInt(x.e);
+  const k = BigInt(-x.e);
+  return x.m + (1n << k) - 1n >> k;
+}
+function bitLength(m) {
+  return m === 0n ? 0 : m.toString(2).length;
+}
+function gcd(a, b) {
+  while (b !== 0n) [a, b] = [b, a % b];
+  return a;
+}
+
+// src/policy/policy-limits.ts
+var MAX_MINIMUM_BITS = 1e6;
+var MAX_MINIMUM_DIGITS = Math.ceil(MAX_MINIMUM_BITS * Math.log10(2));
+var MAX_MIN_BITS_DECIMALS = 6;
+var MAX_FRACTIONAL_MIN_BITS = 65536;
+var MAX_EXTENDS_DEPTH = 32;
+
+// src/policy/minimum-rank.ts
+var POWER = /^\s*([0-9]+)\s*(?:(\^|\*\*)\s*([0-9]+)\s*)?$/;
+var DECIMAL = /^\+?(?:([0-9]+)(?:\.([0-9]*))?|\.([0-9]+))(?:[eE]([+-]?[0-9]+))?$/;
+var MAX_LITERAL_EXPONENT = 400;
+var LIMIT = 1n << BigInt(MAX_MINIMUM_BITS);
+function readMinRank(value, source) {
+  let text2;
+  if (typeof value === "string") text2 = value.trim();
+  else if (source !== void 0 && /^\+?[0-9]+$/.test(source.trim())) text2 = source.trim().replace(/^\+/, "");
+  else if (Number.isSafeInteger(value)) text2 = String(value);
+  else {
+    return invalidRank(`${shown(source?.trim() ?? String(value))} is not an exact integer; write its digits, or a power such as '2^100'`);
+  }
+  const written = `min_rank: ${text2}`;
+  const m = POWER.exec(text2);
+  if (!m) {
+    return invalidRank(`'${shown(text2)}' is neither a positive integer nor a power such as '2^40' or '2**40' (integer base and exponent)`);
+  }
+  const baseDigits = stripZeros(m[1]);
+  const exponentDigits = m[3] === void 0 ? void 0 : stripZeros(m[3]);
+  if (exponentDigits === void 0) {
+    if (baseDigits === "0") return invalidRank(`the minimum rank must be a positive integer, got ${shown(text2)}`);
+    if (baseDigits.length > MAX_MINIMUM_DIGITS) return tooLarge2(text2);
+    const n2 = BigInt(baseDigits);
+    return n2 <= LIMIT ? { ok: true, minRank: n2, written } : tooLarge2(text2);
+  }
+  if (baseDigits === "0") return invalidRank(`'${shown(text2)}': the base of a power must be at least 1`);
+  if (exponentDigits === "0" || baseDigits === "1") return { ok: true, minRank: 1n, written };
+  if (baseDigits.length > MAX_MINIMUM_DIGITS) return tooLarge2(text2);
+  const base = BigInt(baseDigits);
+  const exponent = BigInt(exponentDigits);
+  const lowBits = BigInt(bitLength2(base) - 1) * exponent;
+  if (lowBits > BigInt(MAX_MINIMUM_BITS)) return tooLarge2(text2);
+  const n = base ** exponent;
+  return n <= LIMIT ? { ok: true, minRank: n, written } : tooLarge2(text2);
+}
+function readMinBits(value, source) {
+  const literal = source?.trim();
+  const text2 = literal !== void 0 && DECIMAL.test(literal) ? literal : String(value);
+  const written = `min_bits: ${text2}`;
+  const fraction = decimalFraction(text2);
+  if (!fraction) {
+    return { ok: false, code: "policy/invalid-min-bits", message: `${shown(text2)} is not a decimal number of bits such as 12 or 12.5` };
+  }
+  const [num, den] = fraction;
+  if (num % den === 0n) return { ok: true, minRank: 1n << num / den, written };
+  if (num * 10n ** BigInt(MAX_MIN_BITS_DECIMALS) % den !== 0n) {
+    return {
+      ok: false,
+      code: "policy/invalid-min-bits",
+      message: `${shown(text2)} has more than ${MAX_MIN_BITS_DECIMALS} decimals; round it, or use min_rank for an exact minimum`
+    };
+  }
+  if (num > BigInt(MAX_FRACTIONAL_MIN_BITS) * den) {
+    return {
+      ok: false,
+      code: "policy/invalid-min-bits",
+      message: `${shown(text2)} is not a whole number of bits and above ${MAX_FRACTIONAL_MIN_BITS}; use a whole number there`
+    };
+  }
+  return { ok: true, minRank: ceilPowerOfTwo(num, den), written };
+}
+function decimalFraction(text2) {
+  const m = DECIMAL.exec(text2);
+  if (!m) return void 0;
+  const whole = m[1] ?? "";
+  const frac = m[2] ?? m[3] ?? "";
+  const exponent = m[4] === void 0 ? 0 : Number(m[4]);
+  if (!Number.isSafeInteger(exponent) || Math.abs(exponent) > MAX_LITERAL_EXPONENT) return void 0;
+  let num = BigInt((whole + frac).replace(/^0+(?=.)/, "") || "0");
+  let den = 10n ** BigInt(frac.length);
+  if (exponent >= 0) num *= 10n ** BigInt(exponent);
+  else den *= 10n ** BigInt(-exponent);
+  return [num, den];
+}
+function invalidRank(message) {
+  return { ok: false, code: "policy/invalid-min-rank", message };
+}
+function tooLarge2(text2) {
+  return {
+    ok: false,
+    code: "policy/minimum-too-large",
+    message: `${shown(text2)} is above 2^${MAX_MINIMUM_BITS}; no network of a feasible size reaches such a rank`
+  };
+}
+function shown(text2) {
+  return text2.length > 60 ? `${text2.slice(0, 60)}…` : text2;
+}
+function stripZeros(digits) {
+  return digits.replace(/^0+(?=.)/, "");
+}
+function bitLength2(n) {
+  return n.toString(2).length;
+}
+
+// src/policy/requirements.ts
+var MINIMUM_FIELDS = ["min_rank", "min_bits"];
+function readRequirements(list3, file, sourceOf, sink) {
+  const requirements = [];
+  const references = [];
+  const firstLineByKey = /* @__PURE__ */ new Map();
+  for (const item of list3.items) {
+    if (item.kind !== "map") continue;
+    const partitionNode = fieldOf(item, "partition");
+    const partition = stringOf(partitionNode)?.trim();
+    let ok = partition !== void 0 && partition !== "" && partitionNode !== void 0;
+    if (ok && partition !== void 0 && partitionNode) {
+      references.push({ partition, span: partitionNode.span });
+      const key = partitionKey(partition);
+      const earlier = firstLineByKey.get(key);
+      if (earlier !== void 0) {
+        sink.error(
+          "policy/duplicate-requirement",
+          `${displayPath(partitionNode)} requires '${partition}' again (first on line ${earlier}); keep one requirement per partition in a file`,
+          partitionNode.span
+        );
+        ok = false;
+      } else {
+        firstLineByKey.set(key, partitionNode.span.line);
+      }
+    }
+    const rankEntry = entryOf(item, "min_rank");
+    const bitsEntry = entryOf(item, "min_bits");
+    if (rankEntry && bitsEntry) {
+      const later = rankEntry.keySpan.offset > bitsEntry.keySpan.offset ? rankEntry : bitsEntry;
+      sink.error(
+        "policy/min-rank-or-bits",
+        `${displayPath(item)} has both 'min_rank' and 'min_bits'; give the minimum once, as a rank (min_rank: 2^40) or in bits (min_bits: 40)`,
+        later.keySpan
+      );
+      ok = false;
+    } else if (!rankEntry && !bitsEntry && !item.entries.some((e) => closest(e.key, MINIMUM_FIELDS) !== void 0)) {
+      sink.error(
+        "policy/min-rank-or-bits",
+        `${displayPath(item)} has no minimum; add 'min_rank' (e.g. min_rank: 64 or min_rank: 2^40) or 'min_bits' (e.g. min_bits: 12)`,
+        item.span
+      );
+      ok = false;
+    }
+    const minimum = rankEntry ? readRank(rankEntry.value, sourceOf, sink) : bitsEntry ? readBits(bitsEntry.value, sourceOf, sink) : void 0;
+    const unprovenNode = fieldOf(item, "unproven");
+    const unproven = unprovenNode === void 0 ? void 0 : unprovenModeOf(unprovenNode);
+    const dropNode = fieldOf(item, "max_drop_bits");
+    const maxDropBits = dropNode === void 0 ? void 0 : dropBitsOf(dropNode);
+    if (unprovenNode && !unproven || dropNode && maxDropBits === void 0) ok = false;
+    if (!ok || !minimum || partition === void 0 || !partitionNode) continue;
+    requirements.push({
+      key: partitionKey(partition),
+      partition,
+      partitionSpan: partitionNode.span,
+      minRank: minimum.minRank,
+      written: minimum.written,
+      ...unproven !== void 0 ? { unproven } : {},
+      ...maxDropBits !== void 0 ? { maxDropBits } : {},
+      file,
+      span: item.span
+    });
+  }
+  return { requirements, references };
+}
+function checkPartitionReferences(references, named, sink) {
+  for (const r of references) {
+    if (named.has(r.partition)) continue;
+    const check2 = checkBuiltinSpec(r.partition);
+    if (check2.ok) continue;
+    if (check2.unknownKind) {
+      const names = [...named.keys()];
+      const guess = closest(check2.kind, [...names, ...BUILTIN_KINDS]);
+      const namedText = names.length > 0 ? `named partitions: ${names.join(", ")}; ` : "";
+      sink.error(
+        "policy/unknown-partition",
+        `unknown partition '${r.partition}'${guess ? ` (did you mean '${guess}'?)` : ""}; ${namedText}built-in: ${BUILTIN_KINDS.join(", ")}`,
+        r.span
+      );
+    } else {
+      sink.error("policy/invalid-partition-spec", check2.message, r.span);
+    }
+  }
+}
+function partitionKey(partition) {
+  return partition.replace(/\s+/g, "");
+}
+function readRank(node, sourceOf, sink) {
+  if (node.kind !== "scalar" || typeof node.value !== "string" && typeof node.value !== "number") return void 0;
+  if (typeof node.value === "number" && !Number.isInteger(node.value)) return void 0;
+  if (typeof node.value === "number" && node.value < 1) return void 0;
+  const read = readMinRank(node.value, sourceOf(node));
+  if (!read.ok) {
+    sink.error(read.code, `${displayPath(node)}: ${read.message}`, node.span);
+    return void 0;
+  }
+  return read;
+}
+function readBits(node, sourceOf, sink) {
+  if (node.kind !== "scalar" || typeof node.value !== "number") return void 0;
+  if (!Number.isFinite(node.value) || node.value < 0 || node.value > MAX_MINIMUM_BITS) return void 0;
+  const read = readMinBits(node.value, sourceOf(node));
+  if (!read.ok) {
+    sink.error(read.code, `${displayPath(node)}: ${read.message}`, node.span);
+    return void 0;
+  }
+  return read;
+}
+function unprovenModeOf(node) {
+  const s = stringOf(node);
+  return s === "warn" || s === "fail" ? s : void 0;
+}
+function dropBitsOf(node) {
+  return node?.kind === "scalar" && typeof node.value === "number" && Number.isFinite(node.value) && node.value >= 0 ? node.value : void 0;
+}
+
+// src/policy/policy-document.ts
+function readPolicyDocument(text2, file, sink) {
+  const bytes = Buffer.byteLength(text2, "utf8");
+  if (bytes > MAX_DOCUMENT_BYTES) {
+    sink.error("policy/too-large", `the policy file is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
+    return void 0;
+  }
+  const lines = new import_yaml6.LineCounter();
+  const doc = (0, import_yaml6.parseDocument)(text2, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
+  const partitionKeys = partitionKeyOffsets(doc);
+  adopt(
+    sink,
+    file,
+    (scratch) => reportYamlErrors(doc, lines, scratch),
+    (d) => d.code === "config/duplicate-key" && d.span && partitionKeys.has(d.span.offset) ? "policy/duplicate-partition" : policyCode(d.code)
+  );
+  if (sink.count > 0) return void 0;
+  const start = spanFromOffsets(lines, 0, 0);
+  const root = adopt(sink, file, (scratch) => convertNode(doc, lines, scratch, doc.contents, [], start, { rootName: "the policy", subject: "policy" }));
+  if (!root) return void 0;
+  if (root.kind !== "map") {
+    const empty = root.kind === "scalar" && root.value === null;
+    sink.error(
+      empty ? "policy/empty" : "policy/type",
+      `${empty ? "the policy file is empty" : `the policy file holds ${describeValue(root)}`}; a policy is a mapping with at least 'id' and 'description'`,
+      root.span
+    );
+    return void 0;
+  }
+  adopt(sink, file, (scratch) => reportPolicySchemaErrors(root, scratch));
+  return readFields(root, file, text2, sink);
+}
+function readFields(root, file, text2, sink) {
+  const idNode = fieldOf(root, "id");
+  const id = stringOf(idNode);
+  if (id !== void 0 && idNode && !NAME_PATTERN.test(id)) {
+    sink.error(
+      "policy/invalid-id",
+      `${displayPath(idNode)} is '${id}'; a policy id is lower-case letters, digits, '.', '_' or '-', starting with a letter or digit (e.g. renal-pairs)`,
+      idNode.span
+    );
+  }
+  const extendsNode = fieldOf(root, "extends");
+  const extendsPath = stringOf(extendsNode);
+  const modelPathNode = fieldOf(root, "model_path");
+  const modelPath = stringOf(modelPathNode);
+  if (modelPath !== void 0 && modelPathNode) {
+    const parsed = parsePointer(modelPath);
+    if (!parsed.ok) sink.error("policy/model-path", `${displayPath(modelPathNode)}: ${parsed.message}`, modelPathNode.span);
+  }
+  const surrogate = stringOf(fieldOf(root, "surrogate"));
+  const appliesTo = readAppliesTo(fieldOf(root, "applies_to"), sink);
+  const unproven = unprovenModeOf(fieldOf(root, "unproven"));
+  const maxDropBits = dropBitsOf(fieldOf(root, "max_drop_bits"));
+  const removal = unprovenModeOf(fieldOf(root, "removal"));
+  const partitionsNode = asMap(fieldOf(root, "partitions"));
+  const partitions = partitionsNode ? readNamedPartitions(partitionsNode, file, sink) : /* @__PURE__ */ new Map();
+  const requireNode = fieldOf(root, "require");
+  const sourceOf = (node) => text2.slice(node.span.offset, node.span.endOffset);
+  const { requirements, references } = requireNode?.kind === "seq" ? readRequirements(requireNode, file, sourceOf, sink) : { requirements: [], references: [] };
+  const description = stringOf(fieldOf(root, "description"));
+  return {
+    file,
+    span: root.span,
+    ...id !== void 0 && idNode ? { id, idSpan: idNode.span } : {},
+    ...description !== void 0 ? { description } : {},
+    ...extendsPath !== void 0 && extendsPath !== "" && extendsNode ? { extends: { path: extendsPath, span: extendsNode.span } } : {},
+    ...surrogate === "tree" || surrogate === "overlap" ? { surrogate } : {},
+    ...modelPath !== void 0 ? { modelPath } : {},
+    ...appliesTo !== void 0 ? { appliesTo } : {},
+    ...unproven !== void 0 ? { unproven } : {},
+    ...maxDropBits !== void 0 ? { maxDropBits } : {},
+    ...removal !== void 0 ? { removal } : {},
+    partitions,
+    declaredPartitions: new Set(partitionsNode?.entries.map((e) => e.key) ?? []),
+    requirements,
+    references
+  };
+}
+function readAppliesTo(node, sink) {
+  if (node?.kind !== "seq") return void 0;
+  const out = [];
+  for (const item of node.items) {
+    const pattern = stringOf(item);
+    if (pattern === void 0 || pattern === "") continue;
+    const problem = appliesToProblem(pattern);
+    if (problem) sink.error("policy/applies-to", `${displayPath(item)}: ${problem}`, item.span);
+    else out.push(pattern);
+  }
+  return out;
+}
+function partitionKeyOffsets(doc) {
+  const out = /* @__PURE__ */ new Set();
+  if (!(0, import_yaml6.isMap)(doc.contents)) return out;
+  for (const pair of doc.contents.items) {
+    if (!(0, import_yaml6.isScalar)(pair.key) || pair.key.value !== "partitions" || !(0, import_yaml6.isMap)(pair.value)) continue;
+    for (const inner of pair.value.items) if ((0, import_yaml6.isScalar)(inner.key) && inner.key.range) out.add(inner.key.range[0]);
+  }
+  return out;
+}
+function policyCode(code) {
+  return code.startsWith("config/") ? `policy/${code.slice("config/".length)}` : code;
+}
+function adopt(sink, file, run2, rename2 = (d) => policyCode(d.code)) {
+  const scratch = new DiagnosticSink(file);
+  const result2 = run2(scratch);
+  for (const d of scratch.sorted()) sink.error(rename2(d), d.message, d.span);
+  return result2;
+}
+
+// src/policy/policy-merge.ts
+function mergePolicy(own, parent) {
+  const partitions = new Map(parent?.partitions ?? []);
+  for (const [name, p] of own.partitions) partitions.set(name, p);
+  const ownByKey = new Map(own.requirements.map((r) => [r.key, r]));
+  const inherited = (parent?.requirements ?? []).map((r) => ownByKey.get(r.key) ?? r);
+  const inheritedKeys = new Set(inherited.map((r) => r.key));
+  const requirements = [...inherited, ...own.requirements.filter((r) => !inheritedKeys.has(r.key))];
+  const surrogate = own.surrogate ?? parent?.surrogate;
+  const modelPath = own.modelPath ?? parent?.modelPath;
+  const appliesTo = own.appliesTo ?? parent?.appliesTo;
+  const unproven = own.unproven ?? parent?.unproven;
+  const maxDropBits = own.maxDropBits ?? parent?.maxDropBits;
+  const removal = own.removal ?? parent?.removal;
+  return {
+    id: own.id,
+    description: own.description,
+    file: own.file,
+    span: own.span,
+    ...surrogate !== void 0 ? { surrogate } : {},
+    ...modelPath !== void 0 ? { modelPath } : {},
+    ...appliesTo !== void 0 ? { appliesTo } : {},
+    ...unproven !== void 0 ? { unproven } : {},
+    ...maxDropBits !== void 0 ? { maxDropBits } : {},
+    ...removal !== void 0 ? { removal } : {},
+    partitions,
+    requirements,
+    chain: [own.file, ...parent?.chain ?? []]
+  };
+}
+function finalisePolicy(draft) {
+  const unproven = draft.unproven ?? "warn";
+  const requirements = draft.requirements.map((r) => {
+    const maxDropBits = r.maxDropBits ?? draft.maxDropBits;
+    return {
+      partition: r.partition,
+      minRank: r.minRank,
+      written: r.written,
+      unproven: r.unproven ?? unproven,
+      ...maxDropBits !== void 0 ? { maxDropBits } : {},
+      file: r.file,
+      span: r.span
+    };
+  });
+  return {
+    id: draft.id,
+    description: draft.description,
+    file: draft.file,
+    surrogate: draft.surrogate ?? "tree",
+    ...draft.modelPath !== void 0 ? { modelPath: draft.modelPath } : {},
+    appliesTo: draft.appliesTo ?? [],
+    partitions: draft.partitions,
+    requirements,
+    unproven,
+    ...draft.maxDropBits !== void 0 ? { maxDropBits: draft.maxDropBits } : {},
+    removal: draft.removal ?? "warn",
+    chain: draft.chain,
+    span: draft.span
+  };
+}
+
+// src/policy/extends-target.ts
+import { isAbsolute as isAbsolute3, join as join9, normalize, relative as relative4, resolve as resolve6, sep as sep4 } from "node:path";
+import { dirname as dirname5 } from "node:path";
+var ReadRefusedError = class extends Error {
+  constructor(message, reason2) {
+    super(message);
+    this.reason = reason2;
+  }
+  reason;
+  name = "ReadRefusedError";
+};
+function resolveExtendsTarget(value, fromFile, repoRoot, readFile) {
+  const display = isAbsolute3(value) ? normalize(value) : join9(dirname5(fromFile), value);
+  const root = resolve6(repoRoot);
+  const target = resolve6(dirname5(resolve6(fromFile)), value);
+  if (!inside(target, root)) {
+    return {
+      ok: false,
+      code: "policy/extends-outside-root",
+      message: `extends '${value}' points outside the repository root ${root}; a policy may only extend policies inside the repository`
+    };
+  }
+  try {
+    return { ok: true, display, real: target, text: (readFile ?? workTreeReader(root))(target) };
+  } catch (err) {
+    if (isNotFound(err)) return { ok: false, code: "policy/extends-missing", message: `extends '${value}': there is no file ${target}` };
+    if (err instanceof ReadRefusedError) {
+      const code = err.reason === "too-large" ? "policy/too-large" : err.reason === "symlink" ? "policy/extends-symlink" : "policy/extends-unreadable";
+      return { ok: false, code, message: `extends '${value}': ${err.message}` };
+    }
+    const reason2 = err instanceof Error ? err.message : String(err);
+    return { ok: false, code: "policy/extends-unreadable", message: `extends '${value}': cannot read ${target}: ${reason2}` };
+  }
+}
+function workTreeReader(root) {
+  return (path6) => {
+    const rel = relative4(root, path6).split(sep4).join("/");
+    const read = readWorkTree(root, rel);
+    if (read.kind === "file") return read.text;
+    if (read.kind === "absent") throw Object.assign(new Error(`${path6} does not exist`), { code: "ENOENT" });
+    throw new ReadRefusedError(read.message, read.code);
+  };
+}
+function inside(path6, root) {
+  const rel = relative4(root, path6);
+  return rel === "" || rel !== ".." && !rel.startsWith(`..${sep4}`) && !isAbsolute3(rel);
+}
+function isNotFound(err) {
+  return typeof err === "object" && err !== null && err.code === "ENOENT";
+}
+
+// src/policy/load-policy.ts
+function loadPolicyText(text2, file, options, readFile) {
+  const loaded = loadChain(text2, file, resolve7(file), options, readFile, []);
+  return loaded.draft ? { ok: true, policy: finalisePolicy(loaded.draft) } : { ok: false, diagnostics: loaded.diagnostics };
+}
+function duplicateIdDiagnostic(id, earlierFile, file, span) {
+  return {
+    code: "policy/duplicate-id",
+    message: `the policy id '${id}' is already used by ${earlierFile}; ids must be unique among the policies of a directory`,
+    file,
+    ...span ? { span } : {},
+    severity: "error"
+  };
+}
+function loadChain(text2, file, real, options, readFile, stack) {
+  const sink = new DiagnosticSink(file);
+  const doc = readPolicyDocument(text2, file, sink);
+  const inherited = [];
+  let parent;
+  if (doc?.extends) {
+    const at = doc.extends.span;
+    const chain = [...stack, { real, display: file }];
+    const target = resolveExtendsTarget(doc.extends.path, file, options.repoRoot, readFile);
+    if (!target.ok) {
+      sink.error(target.code, target.message, at);
+    } else if (chain.some((link) => link.real === target.real)) {
+      const from = chain.findIndex((link) => link.real === target.real);
+      const cycle = [...chain.slice(from).map((link) => link.display), target.display].join(" → ");
+      sink.error("policy/extends-cycle", `extends '${doc.extends.path}' closes a cycle: ${cycle}; a policy cannot extend itself, directly or through others`, at);
+    } else if (chain.length >= MAX_EXTENDS_DEPTH) {
+      sink.error("policy/extends-too-deep", `extends '${doc.extends.path}' makes the extends chain longer than ${MAX_EXTENDS_DEPTH} files`, at);
+    } else {
+      const loaded = loadChain(target.text, target.display, target.real, options, readFile, chain);
+      inherited.push(...loaded.diagnostics);
+      if (loaded.draft) parent = loaded.draft;
+      else sink.error("policy/extends-failed", `extends '${doc.extends.path}': ${target.display} did not load (its problems are listed with it)`, at);
+    }
+  }
+  if (doc) {
+    const visible = /* @__PURE__ */ new Set([...parent?.partitions.keys() ?? [], ...doc.declaredPartitions]);
+    checkPartitionReferences(doc.references, visible, sink);
+  }
+  if (!doc || sink.count > 0 || doc.id === void 0 || doc.description === void 0) {
+    if (sink.count === 0) throw new Error(`policy loader: no policy and no diagnostic for ${file} (a loader bug)`);
+    return { diagnostics: [...sink.sorted(), ...inherited] };
+  }
+  const draft = mergePolicy({ ...doc, id: doc.id, description: doc.description }, parent);
+  return { draft, ...doc.idSpan ? { idSpan: doc.idSpan } : {}, diagnostics: inherited };
+}
+
+// src/check/load-judging-policies.ts
+var MissingPolicyError = class extends Error {
+  name = "MissingPolicyError";
+};
+function loadJudgingPolicies(files, req, errors) {
+  if (!files.exists(req.rel)) throw new MissingPolicyError(req.rel);
+  const directory = files.isDirectory(req.rel);
+  let candidates2;
+  if (directory) {
+    const listing = files.list(req.rel);
+    if (listing.refusal) errors.push(refusalDiagnostic(listing.refusal, req.display(req.rel), "policy"));
+    candidates2 = listing.paths.filter((p) => /\.ya?ml$/.test(p));
+  } else candidates2 = [req.rel];
+  files.prefetch(candidates2);
+  const read = /* @__PURE__ */ new Set();
+  const remember = (rel, text2) => {
+    req.sources?.set(req.display(rel), text2);
+    req.sources?.set(req.loaderPath(rel), text2);
+    return text2;
+  };
+  const readFile = (abs) => {
+    const rel = toRootRelative(req.root, abs);
+    read.add(rel);
+    const r = files.read(rel).read;
+    if (r.kind === "file") return remember(rel, r.text);
+    if (r.kind === "absent") throw Object.assign(new Error(`${rel} does not exist`), { code: "ENOENT" });
+    throw new ReadRefusedError(r.message, r.code);
+  };
+  const policies = [];
+  const ids = /* @__PURE__ */ new Map();
+  for (const rel of candidates2) {
+    read.add(rel);
+    const r = files.read(rel).read;
+    if (r.kind === "absent") continue;
+    if (r.kind === "refused") {
+      errors.push(refusalDiagnostic(r, req.display(rel), "policy"));
+      continue;
+    }
+    const loaded = loadPolicyText(remember(rel, r.text), req.loaderPath(rel), { repoRoot: req.root }, readFile);
+    if (!loaded.ok) {
+      errors.push(...loaded.diagnostics);
+      continue;
+    }
+    const earlier = ids.get(loaded.policy.id);
+    if (earlier !== void 0) {
+      errors.push(duplicateIdDiagnostic(loaded.policy.id, earlier, req.display(rel), loaded.policy.span));
+      continue;
+    }
+    ids.set(loaded.policy.id, req.display(rel));
+    policies.push(loaded.policy);
+  }
+  return { policies, directory, files: read };
+}
+
+// src/check/run-check.ts
+var CheckRequestError = class extends Error {
+  name = "CheckRequestError";
+};
+var CHANGED_POLICY = "the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
+var DELETED_POLICY = "the pull request deletes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
+function runCheck(req) {
+  const repo = openRepo(req.cwd);
+  const root = req.root ? resolve8(req.cwd, req.root) : repo?.root ?? findRepoRoot(req.cwd);
+  const comparing = req.base !== void 0 || req.staged === true;
+  if (comparing && !repo) throw new CheckRequestError(`${req.staged ? "--staged" : "--base"} needs a git repository; ${req.cwd} is not in one`);
+  const base = comparing ? resolveBase(repo, req) : void 0;
+  const display = (path6) => relative6(req.cwd, resolve8(root, path6)).split(sep6).join("/") || path6;
+  const errors = [];
+  const baseFiles = base ? RevisionFiles.atCommit(repo, base) : void 0;
+  const index = req.staged ? RevisionFiles.inIndex(repo) : void 0;
+  const head = index ? indexFiles(index) : workTreeFiles(root);
+  const judging = new JudgingFiles((req.policyFrom ?? "base") === "base" ? baseFiles : void 0, head);
+  const policyRel = toRootRelative(root, resolve8(req.cwd, req.policy));
+  if (policyRel === ".." || policyRel.startsWith("../") || policyRel === "" || /^[A-Za-z]:/.test(policyRel)) {
+    throw new CheckRequestError(`--policy ${req.policy}: policies are read from inside the repository root ${root} (give --root)`);
+  }
+  const loaderPath = (rel) => resolve8(req.cwd) === process.cwd() ? display(rel) : resolve8(root, rel);
+  const sources = /* @__PURE__ */ new Map();
+  let loaded;
+  try {
+    loaded = loadJudgingPolicies(judging, { rel: policyRel, root, display, loaderPath, sources }, errors);
+  } catch (e) {
+    if (!(e instanceof MissingPolicyError)) throw e;
+    throw new CheckRequestError(`--policy ${req.policy}: no such file or directory${base ? " at the base revision or in the working tree" : ""}`);
+  }
+  const notices = judging.headChanges().map((c) => ({
+    file: display(c.path),
+    path: c.path,
+    line: c.line,
+    message: c.deleted ? DELETED_POLICY : CHANGED_POLICY
+  }));
+  for (const { path: path6, refusal } of judging.headRefusals()) errors.push({ code: `policy/${refusal.code === "symlink" ? "symlink" : "unreadable"}`, message: refusal.message, file: display(path6), severity: "error" });
+  const policies = req.unprovenFails ? loaded.policies.map((p) => ({ ...p, unproven: "fail", requirements: p.requirements.map((r) => ({ ...r, unproven: "fail" })) })) : loaded.policies;
+  const explicit = req.configs.length > 0 || req.configGlobs !== void 0;
+  const singleFile = !loaded.directory;
+  const selector = req.configGlobs !== void 0 ? globSelector(req.configGlobs) : policySelector(policies);
+  const skipped = [];
+  const headPaths = /* @__PURE__ */ new Set();
+  const basePaths = /* @__PURE__ */ new Set();
+  if (req.configs.length > 0) {
+    for (const c of req.configs) {
+      const rel = toRootRelative(root, resolve8(req.cwd, c));
+      if (rel === "" || rel === ".." || rel.startsWith("../") || /^[A-Za-z]:/.test(rel)) {
+        errors.push({ code: "config/outside-root", message: `the config is outside the repository root ${root}; only files inside the repository are read`, file: c, severity: "error" });
+      } else {
+        headPaths.add(rel);
+        basePaths.add(rel);
+      }
+    }
+  } else if (index) {
+    for (const f2 of stagedChanges(repo).files) if (selector.matches(f2.path)) headPaths.add(f2.path);
+  } else {
+    const found2 = discoverConfigs(root, repo, selector);
+    for (const f2 of found2.files) headPaths.add(f2);
+    for (const l of found2.links) errors.push({ code: "config/symlink", message: symlinkMessage(l.path, l.link), file: display(l.path), severity: "error" });
+    skipped.push(...found2.skipped);
+  }
+  if (baseFiles && req.configs.length === 0) {
+    for (const p of baseFiles.paths()) if (YAML_FILE.test(p) && selector.matches(p)) basePaths.add(p);
+  }
+  const changes = base ? index ? stagedChanges(repo) : changesSince(repo, base, { against: "worktree" }) : void 0;
+  const renamedFrom = /* @__PURE__ */ new Map();
+  for (const [from, to] of changes?.renames ?? []) renamedFrom.set(to, from);
+  let selected = [.../* @__PURE__ */ new Set([...headPaths, ...basePaths])].sort();
+  if ((req.changed || req.staged) && changes) {
+    const changed = new Set(changes.files.map((c) => c.path));
+    const policyChanged = (p) => p.chain.some((f2) => changed.has(toRootRelative(root, resolve8(req.cwd, f2))));
+    selected = selected.filter((f2) => changed.has(f2) || policies.some((p) => policyChanged(p) && policyApplies(p, f2)));
+  }
+  const governs = (p, path6) => explicit && singleFile || policyApplies(p, path6);
+  const checkable = (p, path6) => {
+    if (!YAML_FILE.test(path6)) return "not a YAML file (.yaml or .yml)";
+    if (!governs(p, path6)) return `outside the applies_to of policy ${p.id}`;
+    const r = head.read(path6);
+    return r.kind === "file" ? void 0 : r.kind === "refused" ? r.message : "not there";
+  };
+  const baseOf = (path6) => {
+    if (!baseFiles) return void 0;
+    if (baseFiles.entry(path6)) return path6;
+    const from = renamedFrom.get(path6);
+    return from !== void 0 && baseFiles.entry(from) && !head.has(from) ? from : void 0;
+  };
+  index?.prefetch(selected);
+  baseFiles?.prefetch(selected.flatMap((p) => [p, renamedFrom.get(p) ?? p]));
+  const slots = [];
+  const policySkipped = /* @__PURE__ */ new Set();
+  for (const path6 of selected) {
+    const there = head.has(path6);
+    for (const policy of policies) {
+      if (!governs(policy, path6)) continue;
+      if (loaded.files.has(path6)) {
+        if (there && !policySkipped.has(path6)) skipped.push({ path: path6, reason: "a policy file of this check, not a config" });
+        policySkipped.add(path6);
+        continue;
+      }
+      if (there || !baseFiles?.entry(path6)) {
+        const basePath = baseOf(path6);
+        slots.push({ path: path6, policy, head: head.read(path6), basePath, base: basePath === void 0 ? void 0 : baseFiles.read(basePath) });
+        continue;
+      }
+      const to = changes?.renames.get(path6);
+      const why = to === void 0 ? void 0 : checkable(policy, to);
+      if (to !== void 0 && why === void 0) continue;
+      slots.push({
+        file: display(path6),
+        path: path6,
+        policy,
+        comparison: to === void 0 ? "deleted" : "moved-out",
+        ...to !== void 0 ? { movedTo: { path: to, why } } : {},
+        changes: [],
+        failing: policy.removal === "fail"
+      });
+    }
+  }
+  const tasks = [];
+  for (const slot of slots) {
+    if (!("head" in slot) || slot.base?.kind !== "file") continue;
+    if (slot.head.kind === "file" && slot.head.text === slot.base.text) continue;
+    slot.task = tasks.push({ text: slot.base.text, file: display(slot.path), policy: slot.policy }) - 1;
+  }
+  const collect2 = startBaseEvaluation(tasks);
+  const heads = slots.map((slot) => {
+    if (!("head" in slot)) return void 0;
+    if (slot.head.kind === "file") sources.set(display(slot.path), slot.head.text);
+    return evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors);
+  });
+  const answers = tasks.length > 0 ? collect2() : [];
+  const checked = [];
+  slots.forEach((slot, i) => {
+    if (!("head" in slot)) {
+      checked.push(slot);
+      return;
+    }
+    const evaluated = heads[i];
+    if (!evaluated) return;
+    const answer = slot.task !== void 0 ? answers[slot.task] : { model: evaluated.model, result: evaluated.result };
+    const one = compareWithBase(evaluated, baseFiles ? { basePath: slot.basePath, read: slot.base, answer } : void 0, errors);
+    if (one) checked.push(one);
+  });
+  skipped.sort((a, b) => a.path < b.path ? -1 : a.path > b.path ? 1 : 0);
+  return { root, ...base ? { base } : {}, checked, notices, skipped, errors: dedupeDiagnostics(errors), sources };
+}
+function resolveBase(repo, req) {
+  if (req.staged && req.base === void 0) return resolveCommit(repo, "HEAD");
+  const rev = req.base;
+  const sha = resolveCommit(repo, rev);
+  if (sha) return sha;
+  if (/^[0-9a-f]{40}([0-9a-f]{24})?$/i.test(rev)) {
+    const fetched = ensureCommit(repo, rev);
+    if (fetched.ok) return resolveCommit(repo, rev);
+    throw new CheckRequestError(fetched.message);
+  }
+  throw new CheckRequestError(`--base ${rev}: no such commit in this repository; check out with full history (for example fetch-depth: 0)`);
+}
+function policySelector(policies) {
+  return {
+    matches: (path6) => policies.some((p) => policyApplies(p, path6)),
+    couldMatchBelow: (dir) => policies.some((p) => couldMatchBelow(p.appliesTo, dir))
+  };
+}
+function globSelector(globs) {
+  const clean = (g) => g.replace(/^(\.\/)+/, "");
+  const positive = globs.filter((g) => !g.startsWith("!")).map(clean);
+  const negative = globs.filter((g) => g.startsWith("!")).map((g) => clean(g.slice(1)));
+  const options = { dot: true, windows: false };
+  const include = positive.length > 0 ? (0, import_picomatch2.default)(positive, options) : () => false;
+  const exclude = negative.length > 0 ? (0, import_picomatch2.default)(negative, options) : () => false;
+  return { matches: (path6) => include(path6) && !exclude(path6), couldMatchBelow: (dir) => couldMatchBelow(positive, dir) };
 }
 
 // src/report/bounds-json.ts
@@ -44112,12 +44791,15 @@ function checkJson(outcome) {
     verdict: overallVerdict(outcome),
     results: outcome.checked.map((c) => {
       const r = c.result;
+      const removed = c.comparison === "deleted" || c.comparison === "moved-out";
       return {
         file: c.file,
         policy: c.policy.id,
         surrogate: c.policy.surrogate,
-        verdict: c.failing ? "fail" : "pass",
+        verdict: c.failing ? "fail" : removed ? "warn" : "pass",
         ...c.comparison === "none" ? {} : { comparison: c.comparison },
+        ...c.renamedFrom !== void 0 ? { renamed_from: c.renamedFrom } : {},
+        ...c.movedTo ? { moved_to: c.movedTo.path, moved_why: c.movedTo.why } : {},
         requirements: (r?.requirements ?? []).map((q, i) => {
           const d = c.deltas?.[i];
           return {
@@ -44150,9 +44832,139 @@ function checkJson(outcome) {
       };
     }),
     ...outcome.notices.length > 0 ? { notices: outcome.notices.map((n) => ({ file: n.file, line: n.line, message: n.message })) } : {},
+    ...outcome.skipped.length > 0 ? { skipped: outcome.skipped.map((x) => ({ path: x.path, reason: x.reason })) } : {},
     errors: outcome.errors.filter((e) => e.severity === "error").map((e) => ({ file: e.file, line: e.span?.line ?? null, column: e.span?.column ?? null, message: e.message }))
   };
   return JSON.stringify(doc, null, 2) + "\n";
+}
+
+// src/report/junit.ts
+function junitReport(outcome) {
+  const results = outcome.checked.flatMap((c) => c.result ? [c.result] : []);
+  const removed = outcome.checked.flatMap(
+    (c) => c.comparison === "deleted" || c.comparison === "moved-out" ? [{ file: c.file, policy: c.policy.id, message: removalMessage(c), failing: c.failing }] : []
+  );
+  return junitXml(results, outcome.errors, removed);
+}
+function junitXml(results, errors, removed = []) {
+  const suites = groupSuites(results, removed).map(policySuite);
+  const inputErrors = errors.filter((e) => e.severity === "error");
+  if (inputErrors.length > 0) suites.push(errorSuite(inputErrors));
+  const tests = sum(suites, (s) => s.tests);
+  const failures = sum(suites, (s) => s.failures);
+  const errorCount = sum(suites, (s) => s.errors);
+  const skipped = sum(suites, (s) => s.skipped);
+  const out = [
+    '<?xml version="1.0" encoding="UTF-8"?>',
+    `<testsuites${attrs({ name: "rankfloor", tests, failures, errors: errorCount, skipped })}>`
+  ];
+  for (const s of suites) out.push(...s.lines);
+  out.push("</testsuites>");
+  return out.join("\n") + "\n";
+}
+function groupSuites(results, removed) {
+  const groups = /* @__PURE__ */ new Map();
+  const groupOf = (file, policy) => {
+    const key = JSON.stringify([file, policy]);
+    let g = groups.get(key);
+    if (!g) {
+      g = { file, policy, requirements: [], removed: [] };
+      groups.set(key, g);
+    }
+    return g;
+  };
+  for (const r of results) groupOf(r.file, r.policy.id).requirements.push(...r.requirements);
+  for (const r of removed) groupOf(r.file, r.policy).removed.push(r);
+  return [...groups.values()].sort((a, b) => cmp(a.file, b.file) || cmp(a.policy, b.policy));
+}
+function policySuite(g) {
+  const classname = dotted(g.file);
+  const names = new UniqueNames();
+  const cases = [];
+  let failures = 0;
+  let skipped = 0;
+  for (const q of g.requirements) {
+    const name = names.take(`${g.policy}: ${q.requirement.partition}`);
+    const head = `    <testcase${attrs({ classname, name, file: g.file })}`;
+    if (q.failing) {
+      failures++;
+      cases.push(`${head}>`);
+      cases.push(`      <failure${attrs({ message: requirementSummary(q), type: "requirement-failed" })}>${text(explainRequirement(q).join("\n"))}</failure>`);
+      cases.push("    </testcase>");
+    } else if (q.verdict === "unproven") {
+      skipped++;
+      cases.push(`${head}>`);
+      cases.push(`      <skipped${attrs({ message: `${requirementSummary(q)}; not proven to reach the minimum (counted as a warning by the policy)` })}/>`);
+      cases.push("    </testcase>");
+    } else {
+      cases.push(`${head}/>`);
+    }
+  }
+  for (const r of g.removed) {
+    const name = names.take(`${g.policy}: governed config removed`);
+    cases.push(`    <testcase${attrs({ classname, name, file: g.file })}>`);
+    if (r.failing) {
+      failures++;
+      cases.push(`      <failure${attrs({ message: r.message, type: "config-removed" })}>${text(r.message)}</failure>`);
+    } else {
+      skipped++;
+      cases.push(`      <skipped${attrs({ message: r.message })}/>`);
+    }
+    cases.push("    </testcase>");
+  }
+  const tests = g.requirements.length + g.removed.length;
+  const lines = [
+    `  <testsuite${attrs({ name: `${g.file}: ${g.policy}`, tests, failures, errors: 0, skipped })}>`,
+    ...cases,
+    "  </testsuite>"
+  ];
+  return { tests, failures, errors: 0, skipped, lines };
+}
+function errorSuite(errors) {
+  const names = new UniqueNames();
+  const cases = [];
+  for (const e of errors) {
+    const where2 = e.span ? `${e.file}:${e.span.line}:${e.span.column}` : e.file;
+    const line = `${where2}: ${e.message}`;
+    cases.push(`    <testcase${attrs({ classname: dotted(e.file), name: names.take(`${where2} ${e.code}`), file: e.file })}>`);
+    cases.push(`      <error${attrs({ message: line, type: e.code })}>${text(formatDiagnosticLine(e))}</error>`);
+    cases.push("    </testcase>");
+  }
+  const lines = [
+    `  <testsuite${attrs({ name: "input errors", tests: errors.length, failures: 0, errors: errors.length, skipped: 0 })}>`,
+    ...cases,
+    "  </testsuite>"
+  ];
+  return { tests: errors.length, failures: 0, errors: errors.length, skipped: 0, lines };
+}
+var UniqueNames = class {
+  used = /* @__PURE__ */ new Set();
+  take(base) {
+    let name = base;
+    for (let n = 2; this.used.has(name); n++) name = `${base} #${n}`;
+    this.used.add(name);
+    return name;
+  }
+};
+function dotted(file) {
+  return file.replace(/\\/g, "/").replace(/\//g, ".");
+}
+function sum(suites, f2) {
+  return suites.reduce((n, s) => n + f2(s), 0);
+}
+function cmp(a, b) {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+function attrs(values) {
+  return Object.entries(values).map(([k, v]) => ` ${k}="${attribute(String(v))}"`).join("");
+}
+var NOT_XML_CHAR = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu;
+function xmlText(s) {
+  return s.replace(NOT_XML_CHAR, "").replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&apos;");
+}
+var text = xmlText;
+function attribute(s) {
+  return xmlText(s).replace(/\t/g, "&#9;").replace(/\n/g, "&#10;").replace(/\r/g, "&#13;");
 }
 
 // src/report/sarif.ts
@@ -44199,11 +45011,25 @@ var RULES = [
     full: "The file is not valid YAML, does not match its schema, or refers to something that does not exist; nothing in it was checked.",
     help: "Fix the file at the position given in the message; the message says what is wrong and, where it can, what was meant.",
     level: "error"
+  },
+  {
+    rule: "config-removed",
+    name: "ConfigRemoved",
+    short: "A config a policy governed at the base revision is no longer checked by it.",
+    full: "The change deletes the config, or renames it to a path the policy does not check (outside its applies_to, another extension, a symbolic link). The policy's removal setting makes this a warning (default) or a failure.",
+    help: "If the config is meant to stay governed, keep it where the policy looks; otherwise have the removal reviewed on its own.",
+    level: "warning"
   }
 ];
 var RULE_INDEX = new Map(RULES.map((r, i) => [r.rule, i]));
 function ruleId(rule) {
   return `rankfloor/${rule}`;
+}
+function sarifCategoryProblem(category) {
+  if (category.trim() === "") return "the category is empty";
+  if (/[\u0000-\u001f\u007f]/.test(category)) return "the category contains control characters";
+  if (category.length > 200) return "the category is longer than 200 characters";
+  return void 0;
 }
 function sarifLog(findings, tool) {
   const rules = RULES.map((r) => ({
@@ -44221,6 +45047,7 @@ function sarifLog(findings, tool) {
     runs: [
       {
         tool: { driver: { name: "rankfloor", version: tool.version, rules } },
+        ...tool.category ? { automationDetails: { id: `${tool.category.replace(/\/+$/, "")}/` } } : {},
         // Columns come from offsets into JavaScript strings, which count UTF-16 code units.
         columnKind: "utf16CodeUnits",
         results
@@ -44240,8 +45067,7 @@ function result(f2) {
     level: sarifLevel(f2.level),
     message: { text: messageText(f2) }
   };
-  const location = physicalLocation(f2);
-  if (location) out["locations"] = [{ physicalLocation: location }];
+  out["locations"] = [{ physicalLocation: physicalLocation(f2) }];
   out["partialFingerprints"] = { [FINGERPRINT_KEY]: f2.fingerprint };
   return out;
 }
@@ -44258,12 +45084,11 @@ function messageText(f2) {
 ${body}`;
 }
 function physicalLocation(f2) {
-  const uri = relativeUri(f2.file);
-  if (uri === "") return null;
+  const uri = relativeUri(f2.file) || ".";
   const region = {};
-  if (Number.isInteger(f2.line) && f2.line >= 1) {
+  if (f2.line !== void 0 && Number.isInteger(f2.line) && f2.line >= 1) {
     region["startLine"] = f2.line;
-    if (Number.isInteger(f2.column) && f2.column >= 1) region["startColumn"] = f2.column;
+    if (f2.column !== void 0 && Number.isInteger(f2.column) && f2.column >= 1) region["startColumn"] = f2.column;
   }
   const location = { artifactLocation: { uri, uriBaseId: SRCROOT } };
   if (Object.keys(region).length > 0) location["region"] = region;
@@ -44274,11 +45099,11 @@ function relativeUri(file) {
   while (path6.startsWith("./")) path6 = path6.slice(2);
   return path6.split("/").map((segment) => encodeURIComponent(segment)).join("/");
 }
-function cmp(a, b) {
+function cmp2(a, b) {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 function compareFindings(a, b) {
-  return cmp(a.file, b.file) || a.line - b.line || a.column - b.column || cmp(ruleId(a.rule), ruleId(b.rule)) || cmp(a.fingerprint, b.fingerprint) || cmp(a.title, b.title) || cmp(a.message, b.message);
+  return cmp2(a.file, b.file) || (a.line ?? 0) - (b.line ?? 0) || (a.column ?? 0) - (b.column ?? 0) || cmp2(ruleId(a.rule), ruleId(b.rule)) || cmp2(a.fingerprint, b.fingerprint) || cmp2(a.title, b.title) || cmp2(a.message, b.message);
 }
 
 // src/version.ts
@@ -44293,7 +45118,8 @@ var KIND_OF = {
   "requirement-unproven": "warning",
   "policy-changed": "notice"
 };
-function kindOf(finding) {
+function kindOf2(finding) {
+  if (finding.rule === "config-removed") return finding.level === "error" ? "error" : "warning";
   return KIND_OF[finding.rule];
 }
 function planAnnotations(findings, perKind = ANNOTATIONS_PER_KIND) {
@@ -44301,7 +45127,7 @@ function planAnnotations(findings, perKind = ANNOTATIONS_PER_KIND) {
   const shown2 = [];
   const overflow = [];
   for (const finding of findings) {
-    const kind = kindOf(finding);
+    const kind = kindOf2(finding);
     if (used[kind] >= perKind) {
       overflow.push({ kind, finding });
       continue;
@@ -44310,14 +45136,19 @@ function planAnnotations(findings, perKind = ANNOTATIONS_PER_KIND) {
     shown2.push({
       kind,
       message: finding.message,
-      properties: { title: finding.title, file: finding.file, startLine: finding.line, startColumn: finding.column }
+      properties: {
+        title: finding.title,
+        file: finding.file,
+        ...finding.line !== void 0 ? { startLine: finding.line } : {},
+        ...finding.column !== void 0 ? { startColumn: finding.column } : {}
+      }
     });
   }
   return { shown: shown2, overflow };
 }
 
 // src/action/inputs.ts
-import { readFileSync as readFileSync4 } from "node:fs";
+import { readFileSync as readFileSync3 } from "node:fs";
 var ActionInputError = class extends Error {
   name = "ActionInputError";
 };
@@ -44326,14 +45157,14 @@ function readWorkflowEvent(env) {
   const name = env["GITHUB_EVENT_NAME"] ?? "";
   const path6 = env["GITHUB_EVENT_PATH"];
   if (!path6) return { name, payload: {} };
-  let text;
+  let text2;
   try {
-    text = readFileSync4(path6, "utf8");
+    text2 = readFileSync3(path6, "utf8");
   } catch {
     return { name, payload: {} };
   }
   try {
-    return { name, payload: JSON.parse(text) };
+    return { name, payload: JSON.parse(text2) };
   } catch (e) {
     throw new ActionInputError(`the event payload ${path6} (GITHUB_EVENT_PATH) is not JSON: ${e.message}`);
   }
@@ -44355,6 +45186,17 @@ function readInputs(reader, event) {
   const changedOnly = changedOnlyGiven ? boolean(reader, "changed-only") : PULL_REQUEST_EVENTS.has(event.name);
   const unprovenFails = reader.get("fail-on-unproven") !== "" && boolean(reader, "fail-on-unproven");
   const sarif = reader.get("sarif");
+  const junit = reader.get("junit");
+  for (const [name, value] of [["sarif", sarif], ["junit", junit]]) {
+    const problem = value === "" ? void 0 : reportPathProblem(value);
+    if (problem) throw new ActionInputError(`the input \`${name}\`: ${problem}`);
+  }
+  const sarifCategory = reader.get("sarif-category");
+  if (sarifCategory !== "") {
+    if (sarif === "") throw new ActionInputError("the input `sarif-category` needs the input `sarif` (the path of the SARIF log)");
+    const problem = sarifCategoryProblem(sarifCategory);
+    if (problem) throw new ActionInputError(`the input \`sarif-category\`: ${problem}`);
+  }
   return {
     policy,
     configGlobs,
@@ -44362,7 +45204,9 @@ function readInputs(reader, event) {
     changedOnly,
     changedOnlyGiven,
     unprovenFails,
-    ...sarif ? { sarif } : {}
+    ...sarif ? { sarif } : {},
+    ...sarifCategory ? { sarifCategory } : {},
+    ...junit ? { junit } : {}
   };
 }
 function globProblem(glob) {
@@ -44370,6 +45214,11 @@ function globProblem(glob) {
   if (body === "") return `the pattern '${glob}' is empty`;
   if (/^[/\\]/.test(body) || /^[A-Za-z]:/.test(body)) return `the pattern '${glob}' is absolute; patterns are relative to the repository root, e.g. 'models/*.yaml'`;
   if (body.split(/[/\\]/).includes("..")) return `the pattern '${glob}' has a '..' segment; patterns may not leave the repository root`;
+  return void 0;
+}
+function reportPathProblem(path6) {
+  if (/^[/\\]/.test(path6) || /^[A-Za-z]:/.test(path6)) return `'${path6}' is absolute; give a path relative to the workspace, e.g. 'reports/rankfloor.sarif'`;
+  if (path6.split(/[/\\]/).includes("..")) return `'${path6}' has a '..' segment; report files are written inside the workspace`;
   return void 0;
 }
 function boolean(reader, name) {
@@ -44404,52 +45253,50 @@ function tallyRequirements(outcome) {
   return { failing, unproven, passing };
 }
 
-// src/action/select-configs.ts
-var import_picomatch2 = __toESM(require_picomatch2(), 1);
-function selectConfigs(root, globs) {
-  const options = { dot: true, windows: false };
-  const clean = (g) => g.replace(/^(\.\/)+/, "");
-  const positive = globs.filter((g) => !g.startsWith("!")).map(clean);
-  const negative = globs.filter((g) => g.startsWith("!")).map((g) => clean(g.slice(1)));
-  if (positive.length === 0) return [];
-  const include = (0, import_picomatch2.default)(positive, options);
-  const exclude = negative.length > 0 ? (0, import_picomatch2.default)(negative, options) : () => false;
-  return listYamlFiles(root).filter((path6) => include(path6) && !exclude(path6));
-}
-
 // src/action/job-summary.ts
+var SUMMARY_LIMIT_BYTES = 1024 * 1024;
 var NONE = "—";
-var TABLE_HEAD = ["partition", "required (bits)", "base (bits)", "head (bits)", "change (bits)", "verdict"].map((data) => ({
-  data,
-  header: true
-}));
+var TABLE_HEAD = ["partition", "required (bits)", "base (bits)", "head (bits)", "change (bits)", "verdict"];
 var KIND_WORDS = {
   error: ["error", "errors"],
   warning: ["warning", "warnings"],
   notice: ["notice", "notices"]
 };
-function writeJobSummary(sink, outcome, verdict, overflow) {
-  sink.addHeading(`rankfloor: ${verdict}`, 2);
-  sink.addRaw(`<p>${escapeHtml(headline(outcome))}</p>`, true);
-  for (const c of outcome.checked) writeConfig(sink, c);
-  if (outcome.notices.length > 0) {
-    sink.addHeading("Policy notices", 3);
-    sink.addRaw(list2(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)), true);
-  }
+function renderJobSummary(outcome, verdict, overflow, options = {}) {
+  const head = [heading(2, `rankfloor: ${verdict}`), `<p>${escapeHtml(headline(outcome))}</p>
+`].join("");
+  const sections = outcome.checked.map(configSection);
+  if (outcome.notices.length > 0) sections.push(heading(3, "Policy notices") + list2(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)));
+  if (outcome.skipped.length > 0) sections.push(heading(3, "Selected but not checked") + list2(outcome.skipped.map((x) => `${x.path}: ${x.reason}`)));
   const errors = outcome.errors.filter((e) => e.severity === "error");
-  if (errors.length > 0) {
-    sink.addHeading("Input errors", 3);
-    sink.addRaw(list2(errors.map(formatDiagnosticLine)), true);
-  }
+  if (errors.length > 0) sections.push(heading(3, "Input errors") + list2(errors.map(formatDiagnosticLine)));
   if (overflow.length > 0) {
-    sink.addHeading("Not shown as annotations", 3);
+    let s = heading(3, "Not shown as annotations");
     for (const kind of ["error", "warning", "notice"]) {
       const rest = overflow.filter((o) => o.kind === kind);
       if (rest.length === 0) continue;
-      sink.addRaw(`<p>${rest.length} more ${KIND_WORDS[kind][rest.length === 1 ? 0 : 1]}:</p>`, true);
-      sink.addRaw(list2(rest.map(({ finding: f2 }) => `${f2.file}:${f2.line}:${f2.column}: ${f2.title}`)), true);
+      s += `<p>${rest.length} more ${KIND_WORDS[kind][rest.length === 1 ? 0 : 1]}:</p>
+`;
+      s += list2(rest.map(({ finding: f2 }) => `${f2.file}${f2.line !== void 0 ? `:${f2.line}:${f2.column ?? 1}` : ""}: ${f2.title}`));
     }
+    sections.push(s);
   }
+  return fit(head, sections, options);
+}
+function fit(head, sections, options) {
+  const limit = options.limitBytes ?? SUMMARY_LIMIT_BYTES;
+  const size = (s) => Buffer.byteLength(s, "utf8");
+  const whole = head + sections.join("");
+  if (size(whole) <= limit) return whole;
+  const note = (left) => `<p><strong>${escapeHtml(
+    `This summary stops here to stay under GitHub's 1 MiB limit for a step summary; ${left} more section${left === 1 ? "" : "s"} (configs, notices, errors) are in the JSON report${options.reportPath ? ` at ${options.reportPath}` : ""} (the action's \`report\` output).`
+  )}</strong></p>
+`;
+  let out = head;
+  let kept = 0;
+  const reserve = size(note(sections.length));
+  while (kept < sections.length && size(out) + size(sections[kept]) + reserve <= limit) out += sections[kept++];
+  return out + note(sections.length - kept);
 }
 function headline(outcome) {
   if (outcome.checked.length === 0) {
@@ -44460,28 +45307,32 @@ function headline(outcome) {
   const plural = (n, one, many) => `${n} ${n === 1 ? one : many}`;
   return `${plural(outcome.checked.length, "config × policy check", "config × policy checks")}${against}: ${plural(t.failing, "failing requirement", "failing requirements")}, ${t.unproven} unproven, ${t.passing} passing.`;
 }
-function writeConfig(sink, c) {
-  sink.addHeading(escapeHtml(`${c.file} — policy ${c.policy.id}`), 3);
+function configSection(c) {
+  let s = heading(3, `${c.file} — policy ${c.policy.id}`);
   const r = c.result;
-  if (!r) {
-    sink.addRaw("<p>Deleted by this change: nothing to check.</p>", true);
-    return;
-  }
-  if (c.comparison === "new") sink.addRaw("<p>New config: no base version to compare with.</p>", true);
+  if (!r) return s + `<p>${escapeHtml(`${c.failing ? "Failing" : "Warning"}: ${removalMessage(c)}.`)}</p>
+`;
+  if (c.comparison === "new") s += "<p>New config: no base version to compare with.</p>\n";
+  if (c.renamedFrom !== void 0) s += `<p>${escapeHtml(`Renamed from ${c.renamedFrom}; compared with its base version there.`)}</p>
+`;
   const rows = r.requirements.map((q, i) => row2(q, c.deltas?.[i]));
-  sink.addTable([TABLE_HEAD, ...rows]);
+  s += `<table><tr>${TABLE_HEAD.map((h) => `<th>${escapeHtml(h)}</th>`).join("")}</tr>${rows.map((cells) => `<tr>${cells.map((x) => `<td>${escapeHtml(x)}</td>`).join("")}</tr>`).join("")}</table>
+`;
   r.requirements.forEach((q, i) => {
     const d = c.deltas?.[i];
     const label2 = requirementLabel(q, d);
     if (!label2.startsWith("fail")) return;
-    sink.addDetails(escapeHtml(`${q.requirement.partition}: ${label2} — why, and what restores it`), `<pre>${escapeHtml(explainRequirement(q, d).join("\n"))}</pre>`);
+    const summary2 = escapeHtml(`${q.requirement.partition}: ${label2} — why, and what restores it`);
+    s += `<details><summary>${summary2}</summary><pre>${escapeHtml(explainRequirement(q, d).join("\n"))}</pre></details>
+`;
   });
+  return s;
 }
 function row2(q, d) {
   const head = capacity(q.bounds.upper, q.bounds.lower);
   const base = d?.base ? capacity(d.base.upper, d.base.lower) : NONE;
   const change2 = d?.changeBits === null || d?.changeBits === void 0 ? NONE : signed(d.changeBits);
-  return [q.requirement.partition, bits(log2Big(q.requirement.minRank)), base, head, change2, requirementLabel(q, d)].map(escapeHtml);
+  return [q.requirement.partition, bits(log2Big(q.requirement.minRank)), base, head, change2, requirementLabel(q, d)];
 }
 function capacity(upper, lower) {
   if (lower === null) return `≤ ${bits(upper.log2)}`;
@@ -44492,11 +45343,16 @@ function signed(x) {
   const s = bits(x);
   return x > 0 ? `+${s}` : s === "-0.00" ? "0.00" : s;
 }
+function heading(level, text2) {
+  return `<h${level}>${escapeHtml(text2)}</h${level}>
+`;
+}
 function list2(items) {
-  return `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`;
+  return `<ul>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>
+`;
 }
 function escapeHtml(s) {
-  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;");
+  return s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/\r/g, "&#13;").replace(/\n/g, "&#10;");
 }
 
 // src/action/main.ts
@@ -44506,7 +45362,7 @@ async function run() {
   try {
     await check();
   } catch (e) {
-    if (e instanceof ActionInputError || e instanceof CheckRequestError || e instanceof GitError) {
+    if (e instanceof ActionInputError || e instanceof CheckRequestError || e instanceof GitError || e instanceof ReportWriteError) {
       failWithInputError(e.message);
       return;
     }
@@ -44536,15 +45392,17 @@ async function check() {
   logPlainText([checkText(outcome, { color: false, quiet: false }), ...outcome.errors.map(formatDiagnosticLine)].join("\n"));
   endGroup();
   for (const a of plan.shown) core_exports[a.kind](a.message, a.properties);
-  const reportPath = resolve8(process.env["RUNNER_TEMP"] || tmpdir(), REPORT_NAME);
-  writeWhole(reportPath, checkJson(outcome));
-  if (inputs.sarif) writeWhole(resolve8(cwd, inputs.sarif), sarifText(findings, { version: TOOL_VERSION }));
+  const reportPath = resolve9(process.env["RUNNER_TEMP"] || tmpdir(), REPORT_NAME);
+  writeReport(reportPath, checkJson(outcome));
+  const sarifOptions = { version: TOOL_VERSION, ...inputs.sarifCategory ? { category: inputs.sarifCategory } : {} };
+  if (inputs.sarif) writeReport(resolve9(cwd, inputs.sarif), sarifText(findings, sarifOptions), { inside: cwd });
+  if (inputs.junit) writeReport(resolve9(cwd, inputs.junit), junitReport(outcome), { inside: cwd });
   const tally = tallyRequirements(outcome);
   setOutput("verdict", verdict);
   setOutput("failed", tally.failing);
   setOutput("report", reportPath);
   if (process.env["GITHUB_STEP_SUMMARY"]) {
-    writeJobSummary(summary, outcome, verdict, plan.overflow);
+    summary.addRaw(renderJobSummary(outcome, verdict, plan.overflow, { reportPath }));
     try {
       await summary.write();
     } catch (e) {
@@ -44557,30 +45415,24 @@ async function check() {
     const more = inputErrors.length > 1 ? ` (and ${inputErrors.length - 1} more)` : "";
     setFailed(`rankfloor: cannot check every config: ${first}${more}`);
     process.exitCode = EXIT_INPUT;
-  } else if (tally.failing > 0) {
-    const configs = outcome.checked.filter((c) => c.failing).length;
-    setFailed(
-      `rankfloor: ${tally.failing} failing requirement${tally.failing === 1 ? "" : "s"} in ${configs} config${configs === 1 ? "" : "s"}; see the annotations and the job summary`
-    );
+  } else if (outcome.checked.some((c) => c.failing)) {
+    const plural = (n, one) => `${n} ${one}${n === 1 ? "" : "s"}`;
+    const configs = outcome.checked.filter((c) => c.failing && c.result).length;
+    const removed = outcome.checked.filter((c) => c.failing && !c.result).length;
+    const parts = [
+      ...tally.failing > 0 ? [`${plural(tally.failing, "failing requirement")} in ${plural(configs, "config")}`] : [],
+      ...removed > 0 ? [`${plural(removed, "governed config")} removed from ${removed === 1 ? "its policy" : "their policies"}`] : []
+    ];
+    setFailed(`rankfloor: ${parts.join("; ")}; see the annotations and the job summary`);
   }
 }
 function checkConfigs(cwd, inputs) {
-  let configs = [];
-  if (inputs.configGlobs.length > 0) {
-    const root = openRepo(cwd)?.root ?? findRepoRoot(cwd);
-    configs = selectConfigs(root, inputs.configGlobs).map((p) => join7(root, p));
-    if (configs.length === 0) {
-      if (inputs.base === void 0 && !existsSync4(resolve8(cwd, inputs.policy))) {
-        throw new ActionInputError(`the input \`policy\`: ${inputs.policy}: no such file or directory`);
-      }
-      info("the `configs` globs match no YAML file in the workspace: nothing to check");
-      return { root, checked: [], notices: [], errors: [] };
-    }
-  }
   return runCheck({
     cwd,
     policy: inputs.policy,
-    configs,
+    configs: [],
+    // Globs that match nothing check nothing, not every governed config.
+    ...inputs.configGlobs.length > 0 ? { configGlobs: inputs.configGlobs } : {},
     ...inputs.base !== void 0 ? { base: inputs.base } : {},
     changed: inputs.changedOnly && inputs.base !== void 0,
     unprovenFails: inputs.unprovenFails
@@ -44592,10 +45444,10 @@ function failWithInputError(message) {
   setFailed(`rankfloor: ${message}`);
   process.exitCode = EXIT_INPUT;
 }
-function logPlainText(text) {
+function logPlainText(text2) {
   const token = `rankfloor-${randomUUID2()}`;
   process.stdout.write(`::stop-commands::${token}${EOL6}`);
-  info(text);
+  info(text2);
   process.stdout.write(`::${token}::${EOL6}`);
 }
 

@@ -3,7 +3,7 @@
  * JSON document, the policy written (and loaded back by `check`), exit codes, and bad input
  * reported at its place with nothing written.
  */
-import { existsSync, mkdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { tempDir } from '../data/helpers.js';
@@ -136,7 +136,11 @@ describe('rankfloor measure', () => {
 
 describe('rankfloor ratchet', () => {
   test("a blessed config's proven lower bounds less a margin; the config passes the policy it wrote", () => {
-    const config = join(REPO, 'examples', 'renal-pair-net.yaml');
+    // Configs are read only inside the repository root: the blessed config and its trimmed copy live there.
+    const config = join(dir.path, 'renal-pair-net.yaml');
+    const trimmedConfig = join(dir.path, 'renal-pair-net-trimmed.yaml');
+    copyFileSync(join(REPO, 'examples', 'renal-pair-net.yaml'), config);
+    copyFileSync(join(REPO, 'examples', 'renal-pair-net-trimmed.yaml'), trimmedConfig);
     const policy = join(dir.path, 'ratchet', 'renal.yaml');
     const r = runCli(['ratchet', config, '--margin', '1', '--policy', policy, '--write', '--format', 'json', '--root', dir.path], dir.path);
     expect(r.stderr).toBe('');
@@ -155,7 +159,7 @@ describe('rankfloor ratchet', () => {
     const check = runCli(['check', '--policy', policy, config, '--root', dir.path], dir.path);
     expect(check.code).toBe(0);
     expect(check.stdout).toContain('0 failing, 0 unproven');
-    const trimmed = runCli(['check', '--policy', policy, join(REPO, 'examples', 'renal-pair-net-trimmed.yaml'), '--root', dir.path], dir.path);
+    const trimmed = runCli(['check', '--policy', policy, trimmedConfig, '--root', dir.path], dir.path);
     expect(trimmed.code).toBe(1);
   });
 
