@@ -4,7 +4,7 @@
  */
 import { readFileSync } from 'node:fs';
 import type { Diagnostic } from '../diagnostic.js';
-import { renderDiagnostic } from '../report/diagnostics.js';
+import { renderDiagnostic, splitLines } from '../report/diagnostics.js';
 
 export interface Io {
   readonly stdout: (text: string) => void;
@@ -28,16 +28,16 @@ export function oneOf(value: string, allowed: readonly string[], option: string)
 
 /** Prints diagnostics (with the offending source line where it can be read) on stderr. */
 export function printDiagnostics(diagnostics: readonly Diagnostic[], io: Io): void {
-  const sources = new Map<string, string | undefined>();
+  const sources = new Map<string, string[] | undefined>();
   for (const d of diagnostics) {
     if (!sources.has(d.file)) {
-      let text: string | undefined;
+      let lines: string[] | undefined;
       try {
-        text = readFileSync(d.file, 'utf8');
+        lines = splitLines(readFileSync(d.file, 'utf8'));
       } catch {
-        text = undefined;
+        lines = undefined;
       }
-      sources.set(d.file, text);
+      sources.set(d.file, lines);
     }
     io.stderr(renderDiagnostic(d, sources.get(d.file)) + '\n');
   }

@@ -1,9 +1,10 @@
 /**
  * The config loader: YAML text → normalised `Model`, or the full list of problems as diagnostics.
  * Stages, each of which can stop the load with diagnostics: size cap, YAML syntax, the model path,
- * reading the model subtree (alias and depth caps), alias-field normalisation, the structural
- * schema, and the semantic checks and repeat expansion of the builders. Problems in the user's
- * file never throw; a missing schema file (a broken installation) does.
+ * reading the model subtree (alias and depth caps), alias-field normalisation, the size
+ * arithmetic (before anything is allocated), the structural schema, and the semantic checks and
+ * repeat expansion of the builders. Problems in the user's file never throw; a missing schema
+ * file (a broken installation) does.
  */
 import { readFileSync, statSync } from 'node:fs';
 import { LineCounter, parseDocument } from 'yaml';
@@ -19,6 +20,7 @@ import { convertNode, entryOf, toPlain } from './located-value.js';
 import { compiledModelSchema, validateAgainstSchema } from './model-schema.js';
 import { resolveModelNode } from './model-pointer.js';
 import { checkLayerEntryCount } from './repeat-expansion.js';
+import { checkModelSizes } from './size-limits.js';
 import { reportSchemaErrors } from './schema-errors.js';
 import { reportYamlErrors } from './yaml-errors.js';
 
@@ -74,6 +76,7 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
 
   normaliseFieldAliases(root, sink);
   if (!checkLayerEntryCount(root, sink)) return fail();
+  checkModelSizes(root, sink);
   const schema = compiledModelSchema();
   reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
 
