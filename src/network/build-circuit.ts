@@ -221,11 +221,12 @@ function convOverlap(b: CircuitBuilder, grid: Grid, layer: ConvLayer, tag: numbe
   const p = plans as AxisPlan[];
   const nodes: number[] = [];
   const taps = (axis: number, j: number): number[] => {
+    // Only the taps that land inside the grid: a kernel may be far wider than the grid.
     const res: number[] = [];
-    for (let t = 0; t < layer.kernel[axis]!; t++) {
-      const at = j * layer.stride[axis]! + t - p[axis]!.left;
-      if (at >= 0 && at < grid.shape[axis]!) res.push(at);
-    }
+    const from = j * layer.stride[axis]! - p[axis]!.left;
+    const first = Math.max(0, from);
+    const end = Math.min(grid.shape[axis]!, from + layer.kernel[axis]!);
+    for (let at = first; at < end; at++) res.push(at);
     return res;
   };
   if (grid.shape.length === 1) {
