@@ -5,7 +5,8 @@
 import { describe, expect, test } from 'vitest';
 import { loadConfigText } from '../../src/config/load-config.js';
 import { MAX_INPUT_POSITIONS, MAX_MODEL_INTEGER } from '../../src/config/limits.js';
-import { NODE_LIMIT } from '../../src/network/build-circuit.js';
+import { buildCircuit, NODE_LIMIT } from '../../src/network/build-circuit.js';
+import { OP_SUM } from '../../src/network/circuit.js';
 import { computeBounds } from '../../src/cut/bounds.js';
 import { resolvePartition } from '../../src/partition/partition.js';
 import { codesAt, loadLayered } from '../config/helpers.js';
@@ -85,5 +86,18 @@ describe('policy globs', () => {
   test('a pattern of 1,024 characters is still accepted', () => {
     const text = `${HEAD}applies_to: ["${'a'.repeat(1019)}.yaml"]\nrequire:\n  - {partition: start-end, min_rank: 2}\n`;
     expect(() => codesOf(text)).toThrow(/expected diagnostics/);
+  });
+});
+
+describe('kernels far wider than the grid', () => {
+  test('an overlap conv with kernel 2^31 − 1 reads the 8 positions once per window, at once', () => {
+    const m = loadLayered(`model:\n  input: {shape: [8], features: 2}\n  layers:\n    - conv: {channels: 3, kernel: ${MAX_MODEL_INTEGER}}\n`);
+    const built = buildCircuit(m, { surrogate: 'overlap' });
+    if (!built.ok) throw new Error(JSON.stringify(built.diagnostics));
+    const c = built.circuit;
+    // DEVELOPERS.md, overlap surrogate: 'same' keeps 8 outputs, and every window covers the grid.
+    const windows = [...Array(c.size).keys()].filter((v) => c.op[v] === OP_SUM);
+    expect(windows).toHaveLength(8);
+    for (const v of windows) expect(c.childStart[v + 1]! - c.childStart[v]!).toBe(8);
   });
 });
