@@ -36,6 +36,8 @@ export interface CheckRequest {
   readonly policyFrom?: 'base' | 'head';
   /** Count every unproven requirement as failing, whatever the policies say. */
   readonly unprovenFails?: boolean;
+  /** JSON Pointer of the architecture in every config, instead of the policies' model_path. */
+  readonly modelPath?: string;
 }
 
 export interface RequirementDelta {
@@ -108,9 +110,10 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   const notices: PolicyNotice[] = [];
   const policyRel = toRootRelative(root, resolve(req.cwd, req.policy));
   const loadedPolicies = loadPolicies(req, root, policyRel, sources, display, errors, notices);
-  const policies = req.unprovenFails
+  const strict = req.unprovenFails
     ? loadedPolicies.map((p) => ({ ...p, unproven: 'fail' as const, requirements: p.requirements.map((r) => ({ ...r, unproven: 'fail' as const })) }))
     : loadedPolicies;
+  const policies = req.modelPath === undefined ? strict : strict.map((p) => ({ ...p, modelPath: req.modelPath }));
 
   // Which (config, policy) pairs to check.
   const singleFile = !isDirectoryAnywhere(root, policyRel, sources);
