@@ -55,11 +55,12 @@ function sign(s: string): number {
 
 /**
  * The message for a plain scalar that the two versions read differently, or undefined when they
- * agree (quoted scalars and those tagged `!!str` are strings in both).
+ * agree. Quoted scalars are strings in both; a scalar with an explicit tag is read by its tag, not
+ * by the implicit rules compared here, and is left to the schema.
  */
 export function yamlVersionProblem(node: Scalar, read12: Reading): string | undefined {
   if (node.type !== 'PLAIN' || typeof node.source !== 'string') return undefined;
-  if (node.tag === 'tag:yaml.org,2002:str') return undefined;
+  if (node.tag !== undefined) return undefined;
   const read11 = yaml11Reading(node.source);
   if (same(read11, read12)) return undefined;
   const written = node.source.length > 40 ? `${node.source.slice(0, 40)}…` : node.source;

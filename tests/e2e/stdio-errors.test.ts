@@ -4,11 +4,8 @@
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { closeSync, existsSync, openSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { describe, expect, test } from 'vitest';
-import { REPO } from './run-cli.js';
-
-const CLI = fileURLToPath(new URL('../../build/cli/main.js', import.meta.url));
+import { CLI, REPO } from './run-cli.js';
 const ARGS = ['check', '--policy', 'policies/', 'examples/'];
 
 describe('write errors on the standard streams', () => {
