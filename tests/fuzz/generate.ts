@@ -105,7 +105,7 @@ export class Gen {
   config(): Node {
     if (this.chance(0.1)) return this.explicitConfig();
     const dims = this.chance(0.5) ? 1 : 2;
-    const initial = dims === 1 ? this.pick([4, 8, 16]) : this.pick([2, 4, 8]);
+    const initial = dims === 1 ? this.pick([4, 8, 16, 64]) : this.pick([2, 4, 8]);
     let side = initial;
     const layers: Node[] = [];
     const conv = (): Node => {
