@@ -27,9 +27,9 @@ describe('diagnostic flood', () => {
     expect(last.message).toContain('and 19,950 more problems');
   });
 
-  test('on one 400 KB line, every printed excerpt stays within 130 characters', () => {
-    const text = badLayers(10_000, true);
-    expect(text.length).toBeGreaterThan(300_000);
+  test('on one 70 KB line, every printed excerpt stays within 130 characters', () => {
+    const text = badLayers(2_000, true);
+    expect(text.length).toBeGreaterThan(70_000);
     const r = loadConfigText(text, 'flood.yaml');
     if (r.ok) throw new Error('expected diagnostics');
     const printed = r.diagnostics.map((d) => renderDiagnostic(d, text));
