@@ -69,9 +69,9 @@ const EXIT_CODES = 'exit codes: 0 nothing fails, 1 a requirement fails, 2 usage 
 
 export function overview(version: string): string {
   const lines = [`rankfloor ${version}: sound bounds on the separation rank of architecture configs, and policies over them`, '', 'usage:'];
-  for (const c of COMMANDS) lines.push(`  ${c.synopsis.padEnd(56)} ${c.summary}`);
-  lines.push(`  ${'rankfloor help COMMAND'.padEnd(56)} every option of a command (or: rankfloor COMMAND --help)`);
-  lines.push(`  ${'rankfloor --version'.padEnd(56)} the version`);
+  for (const c of COMMANDS) lines.push(`  ${c.synopsis}`, `      ${c.summary}`);
+  lines.push('  rankfloor help COMMAND', '      Every option of a command, one line each (or: rankfloor COMMAND --help).');
+  lines.push('  rankfloor --version', '      The version.');
   lines.push('', EXIT_CODES, '');
   return lines.join('\n');
 }
