@@ -172,6 +172,6 @@ function unprovenAdvice(q: RequirementResult): string[] {
   const proven = q.bounds.lower ? `the rules prove ${shortRank(q.bounds.lower.rank, q.bounds.lower.log2)} (${q.bounds.lower.method})` : 'no rule proves a lower bound here';
   return [
     `not disproven: the config may well reach ${shortRank(min, log2Big(min))}; ${proven}, and no single width or depth change on or next to the cut raises the proven bound to the minimum`,
-    `to prove it: a proven lower bound of at least ${shortRank(min, log2Big(min))} — for example with unshared weights (weight_sharing: false) or partitions that do not split pooling windows, where the lower-bound rules are stronger; or set unproven: warn for this requirement`,
+    `to prove it: a proven lower bound of at least ${shortRank(min, log2Big(min))} (which rule proves what, and where, is listed under "The rules" in DEVELOPERS.md), a smaller minimum, or unproven: warn for this requirement`,
   ];
 }
