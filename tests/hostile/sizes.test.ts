@@ -101,3 +101,11 @@ describe('kernels far wider than the grid', () => {
     for (const v of windows) expect(c.childStart[v + 1]! - c.childStart[v]!).toBe(8);
   });
 });
+
+describe('partition masks', () => {
+  test('resolving a partition of a billion positions answers without allocating a mask', () => {
+    const r = resolvePartition('start-end', [1_000_000_000]);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toBe('the shape [1000000000] has more than 4000000 positions');
+  });
+});
