@@ -208,4 +208,39 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
+// Start-up of the CLI against bare node, measured in this run: the medians of interleaved runs
+// of `node -e 0`, `rankfloor --version` and `rankfloor bounds` on a tiny config (whose analysis
+// takes well under a millisecond, so the time is start-up: loading modules and validators).
+{
+  const { spawnSync } = await import('node:child_process');
+  const { fileURLToPath } = await import('node:url');
+  const { mkdtempSync, writeFileSync, rmSync } = await import('node:fs');
+  const { join } = await import('node:path');
+  const cli = fileURLToPath(new URL('../build/bin/rankfloor.js', import.meta.url));
+  const dir = mkdtempSync(join(os.tmpdir(), 'rankfloor-bench-'));
+  const config = join(dir, 'tiny.yaml');
+  writeFileSync(config, 'model:\n  input: {shape: [8], features: 2}\n  layers:\n    - conv: {channels: 4}\n    - pool: {window: 2}\n');
+  const commands = {
+    node: ['-e', '0'],
+    version: [cli, '--version'],
+    bounds: [cli, 'bounds', config],
+  };
+  const samples = { node: [], version: [], bounds: [] };
+  for (let i = 0; i < 21; i++) {
+    for (const [name, args] of Object.entries(commands)) {
+      const t0 = performance.now();
+      const r = spawnSync(process.execPath, args, { stdio: ['ignore', 'ignore', 'pipe'] });
+      samples[name].push(performance.now() - t0);
+      if (r.status !== 0) throw new Error(`${name}: exit ${r.status}: ${r.stderr}`);
+    }
+  }
+  const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+  const base = median(samples.node);
+  console.log(`${'start-up: bare node (node -e 0)'.padEnd(64)} ${base.toFixed(1).padStart(9)} ms (median of 21)`);
+  for (const name of ['version', 'bounds']) {
+    const m = median(samples[name]);
+    const label = name === 'version' ? 'start-up: rankfloor --version' : 'start-up: rankfloor bounds on a tiny config';
+    console.log(`${label.padEnd(64)} ${m.toFixed(1).padStart(9)} ms, ${(m / base).toFixed(2)}× bare node`);
+  }
+  rmSync(dir, { recursive: true, force: true });
 }

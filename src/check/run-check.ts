@@ -50,6 +50,8 @@ export interface CheckRequest {
   readonly policyFrom?: 'base' | 'head';
   /** Count every unproven requirement as failing, whatever the policies say. */
   readonly unprovenFails?: boolean;
+  /** JSON Pointer of the architecture in every config, instead of the policies' model_path. */
+  readonly modelPath?: string;
 }
 
 export interface RequirementDelta {
@@ -156,9 +158,10 @@ export function runCheck(req: CheckRequest): CheckOutcome {
     message: c.deleted ? DELETED_POLICY : CHANGED_POLICY,
   }));
   for (const { path, refusal } of judging.headRefusals()) errors.push({ code: `policy/${refusal.code === 'symlink' ? 'symlink' : 'unreadable'}`, message: refusal.message, file: display(path), severity: 'error' });
-  const policies = req.unprovenFails
+  const strict = req.unprovenFails
     ? loaded.policies.map((p) => ({ ...p, unproven: 'fail' as const, requirements: p.requirements.map((r) => ({ ...r, unproven: 'fail' as const })) }))
     : loaded.policies;
+  const policies = req.modelPath === undefined ? strict : strict.map((p) => ({ ...p, modelPath: req.modelPath }));
 
   // Which files are candidates, on each side.
   const explicit = req.configs.length > 0 || req.configGlobs !== undefined;

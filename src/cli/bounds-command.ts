@@ -7,19 +7,13 @@ import type { Surrogate } from '../cut/types.js';
 import { boundsJson } from '../report/bounds-json.js';
 import { boundsText } from '../report/bounds-text.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
+import { BOUNDS_HELP, parseOptions } from './help.js';
 
 export function boundsCommand(args: readonly string[], io: Io): number {
-  const { values, positionals } = parseArgs({
-    args: [...args],
-    allowPositionals: true,
-    strict: true,
-    options: {
-      partition: { type: 'string', short: 'p', multiple: true },
-      'model-path': { type: 'string' },
-      surrogate: { type: 'string' },
-      format: { type: 'string' },
-    },
-  });
+  const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(BOUNDS_HELP) }) as {
+    values: { partition?: string[]; 'model-path'?: string; surrogate?: string; format?: string };
+    positionals: string[];
+  };
   if (positionals.length !== 1) throw new UsageError('bounds takes exactly one CONFIG file');
   const surrogate = oneOf(values.surrogate ?? 'tree', ['tree', 'overlap'], '--surrogate') as Surrogate;
   const format = oneOf(values.format ?? 'text', ['text', 'json'], '--format');

@@ -13,26 +13,28 @@ import { sarifCategoryProblem, sarifText } from '../report/sarif.js';
 import { junitReport } from '../report/junit.js';
 import { TOOL_VERSION } from '../version.js';
 import { EXIT_FAIL, EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
+import { CHECK_HELP, parseOptions } from './help.js';
+
+interface CheckValues {
+  policy?: string;
+  'model-path'?: string;
+  format?: string;
+  quiet?: boolean;
+  root?: string;
+  base?: string;
+  changed?: boolean;
+  staged?: boolean;
+  'policy-from'?: string;
+  sarif?: string;
+  'sarif-category'?: string;
+  junit?: string;
+}
 
 export function checkCommand(args: readonly string[], io: Io): number {
-  const { values, positionals } = parseArgs({
-    args: [...args],
-    allowPositionals: true,
-    strict: true,
-    options: {
-      policy: { type: 'string' },
-      format: { type: 'string' },
-      quiet: { type: 'boolean' },
-      root: { type: 'string' },
-      base: { type: 'string' },
-      changed: { type: 'boolean' },
-      staged: { type: 'boolean' },
-      'policy-from': { type: 'string' },
-      sarif: { type: 'string' },
-      'sarif-category': { type: 'string' },
-      junit: { type: 'string' },
-    },
-  });
+  const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(CHECK_HELP) }) as {
+    values: CheckValues;
+    positionals: string[];
+  };
   if (!values.policy) throw new UsageError('check needs --policy FILE|DIR');
   const format = oneOf(values.format ?? 'text', ['text', 'json'], '--format');
   const policyFrom = oneOf(values['policy-from'] ?? 'base', ['base', 'head'], '--policy-from') as 'base' | 'head';
@@ -53,6 +55,7 @@ export function checkCommand(args: readonly string[], io: Io): number {
       changed: values.changed ?? false,
       staged: values.staged ?? false,
       policyFrom,
+      ...(values['model-path'] !== undefined ? { modelPath: values['model-path'] } : {}),
     });
   } catch (e) {
     if (e instanceof CheckRequestError) throw new UsageError(e.message);

@@ -4,7 +4,7 @@
  */
 import { readFileSync } from 'node:fs';
 import type { Diagnostic } from '../diagnostic.js';
-import { renderDiagnostic } from '../report/diagnostics.js';
+import { renderDiagnostic, splitLines } from '../report/diagnostics.js';
 
 export interface Io {
   readonly stdout: (text: string) => void;
@@ -28,19 +28,21 @@ export function oneOf(value: string, allowed: readonly string[], option: string)
 
 /**
  * Prints diagnostics (with the offending source line where it can be read) on stderr. `given`
- * holds the texts a command already read; a file named there is never read again from disk.
+ * holds the texts a command already read; when it is passed, nothing is read again from disk
+ * (a file may have changed, or be a link, since the command read it).
  */
 export function printDiagnostics(diagnostics: readonly Diagnostic[], io: Io, given?: ReadonlyMap<string, string>): void {
-  const sources = new Map<string, string | undefined>(given);
+  const sources = new Map<string, string[] | undefined>();
+  for (const [file, text] of given ?? []) sources.set(file, splitLines(text));
   for (const d of diagnostics) {
     if (!sources.has(d.file) && !given) {
-      let text: string | undefined;
+      let lines: string[] | undefined;
       try {
-        text = readFileSync(d.file, 'utf8');
+        lines = splitLines(readFileSync(d.file, 'utf8'));
       } catch {
-        text = undefined;
+        lines = undefined;
       }
-      sources.set(d.file, text);
+      sources.set(d.file, lines);
     }
     io.stderr(renderDiagnostic(d, sources.get(d.file)) + '\n');
   }

@@ -3,30 +3,31 @@ import { parseArgs } from 'node:util';
 import { renderDiagnostic } from '../report/diagnostics.js';
 import { runMeasure } from '../data/measure-job.js';
 import { measureJson, measureText } from '../data/measure-report.js';
+import { parseOptions, MEASURE_HELP } from './help.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
 
+interface MeasureValues {
+  shape?: string;
+  range?: string;
+  labels?: string;
+  'label-column'?: string;
+  unlabelled?: boolean;
+  length?: string;
+  partition?: string[];
+  policy?: string;
+  write?: boolean;
+  root?: string;
+  batch?: string;
+  samples?: string;
+  epsilon?: string;
+  format?: string;
+}
+
 export function measureCommand(args: readonly string[], io: Io): number {
-  const { values, positionals } = parseArgs({
-    args: [...args],
-    allowPositionals: true,
-    strict: true,
-    options: {
-      shape: { type: 'string' },
-      range: { type: 'string' },
-      labels: { type: 'string' },
-      'label-column': { type: 'string' },
-      unlabelled: { type: 'boolean' },
-      length: { type: 'string' },
-      partition: { type: 'string', short: 'p', multiple: true },
-      policy: { type: 'string' },
-      write: { type: 'boolean' },
-      root: { type: 'string' },
-      batch: { type: 'string' },
-      samples: { type: 'string' },
-      epsilon: { type: 'string' },
-      format: { type: 'string' },
-    },
-  });
+  const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(MEASURE_HELP) }) as {
+    values: MeasureValues;
+    positionals: string[];
+  };
   if (positionals.length !== 1) throw new UsageError('measure takes exactly one DATA file or image folder');
   const format = oneOf(values.format ?? 'text', ['text', 'json'], '--format');
   const epsilon = values.epsilon === undefined ? undefined : Number(values.epsilon);

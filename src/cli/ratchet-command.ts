@@ -3,25 +3,26 @@ import { parseArgs } from 'node:util';
 import type { Surrogate } from '../cut/types.js';
 import { runRatchet } from '../data/ratchet-job.js';
 import { ratchetJson, ratchetText } from '../data/ratchet-report.js';
+import { parseOptions, RATCHET_HELP } from './help.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
 import { positiveInteger } from './measure-command.js';
 
+interface RatchetValues {
+  margin?: string;
+  partition?: string[];
+  policy?: string;
+  write?: boolean;
+  root?: string;
+  'model-path'?: string;
+  surrogate?: string;
+  format?: string;
+}
+
 export function ratchetCommand(args: readonly string[], io: Io): number {
-  const { values, positionals } = parseArgs({
-    args: [...args],
-    allowPositionals: true,
-    strict: true,
-    options: {
-      margin: { type: 'string' },
-      partition: { type: 'string', short: 'p', multiple: true },
-      policy: { type: 'string' },
-      write: { type: 'boolean' },
-      root: { type: 'string' },
-      'model-path': { type: 'string' },
-      surrogate: { type: 'string' },
-      format: { type: 'string' },
-    },
-  });
+  const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(RATCHET_HELP) }) as {
+    values: RatchetValues;
+    positionals: string[];
+  };
   if (positionals.length !== 1) throw new UsageError('ratchet takes exactly one CONFIG file');
   const format = oneOf(values.format ?? 'text', ['text', 'json'], '--format');
   const result = runRatchet({

@@ -1,56 +1,71 @@
 /**
  * The command line: dispatch to a command. `run` never exits the process and never prints a
  * stack trace for bad input; it returns the exit code (0 pass, 1 policy violated, 2 usage or
- * input error) so that tests can call it directly.
+ * input error) so that tests can call it directly. A command's modules are loaded only when that
+ * command runs, so `--help`, `--version` and a usage error start in a few milliseconds.
  */
-import { boundsCommand } from './bounds-command.js';
-import { checkCommand } from './check-command.js';
-import { measureCommand } from './measure-command.js';
-import { ratchetCommand } from './ratchet-command.js';
+import { TOOL_VERSION } from '../version.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, type Io } from './cli-support.js';
+import { COMMANDS, commandHelp, overview } from './help.js';
 
 export type { Io } from './cli-support.js';
 export { EXIT_FAIL, EXIT_INPUT, EXIT_OK } from './cli-support.js';
 
-const USAGE = `usage:
-  rankfloor bounds CONFIG [--partition P]... [--model-path PTR] [--surrogate tree|overlap] [--format text|json]
-  rankfloor check --policy FILE|DIR [CONFIG...] [--format text|json] [--quiet] [--root DIR]
-  rankfloor measure DATA [--shape H,W] [--labels FILE | --label-column C] [--partition P]... [--policy FILE [--write]] [--batch N] [--format text|json]
-  rankfloor ratchet CONFIG [--policy FILE [--write]] [--margin BITS] [--partition P]... [--surrogate tree|overlap] [--format text|json]
-
-partitions: start-end, interleaved (1D); left-right, top-bottom, checkerboard (2D);
-            positions:0,2,5; block:r0-r1,c0-c1 (2D) or block:a-b (1D), half-open ranges
-exit codes: 0 nothing fails, 1 a requirement fails, 2 usage or input error
-`;
-
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   const [command, ...rest] = argv;
+  const usage = COMMANDS.find((c) => c.name === command);
   try {
     switch (command) {
       case 'bounds':
-        return boundsCommand(rest, io);
       case 'check':
-        return checkCommand(rest, io);
       case 'measure':
-        return measureCommand(rest, io);
       case 'ratchet':
-        return ratchetCommand(rest, io);
+        if (rest.includes('--help') || rest.includes('-h')) {
+          io.stdout(commandHelp(usage!));
+          return EXIT_OK;
+        }
+        return await runCommand(command, rest, io);
+      case '--version':
+      case '-V':
+      case 'version':
+        io.stdout(`rankfloor ${TOOL_VERSION}\n`);
+        return EXIT_OK;
+      case 'help': {
+        const topic = COMMANDS.find((c) => c.name === rest[0]);
+        if (rest.length > 0 && !topic) throw new UsageError(`no help for '${rest[0]}'; commands: ${COMMANDS.map((c) => c.name).join(', ')}`);
+        io.stdout(topic ? commandHelp(topic) : overview(TOOL_VERSION));
+        return EXIT_OK;
+      }
       case undefined:
-      case 'help':
       case '--help':
       case '-h':
-        io.stdout(USAGE);
+        io.stdout(overview(TOOL_VERSION));
         return command === undefined ? EXIT_INPUT : EXIT_OK;
       default:
         throw new UsageError(`unknown command '${command}'`);
     }
   } catch (e) {
     if (e instanceof UsageError || isParseArgsError(e)) {
-      io.stderr(`rankfloor: ${(e as Error).message}\n${USAGE}`);
+      const help = usage ? `run 'rankfloor ${usage.name} --help' for its options` : "run 'rankfloor --help' for the commands";
+      io.stderr(`rankfloor: ${(e as Error).message}\n${help}\n`);
       return EXIT_INPUT;
     }
     io.stderr(`rankfloor: internal error (please report it with the config that caused it): ${(e as Error).message}\n`);
     return EXIT_INPUT;
+  }
+}
+
+/** Loads the command's modules only when it runs. */
+async function runCommand(command: 'bounds' | 'check' | 'measure' | 'ratchet', rest: readonly string[], io: Io): Promise<number> {
+  switch (command) {
+    case 'bounds':
+      return (await import('./bounds-command.js')).boundsCommand(rest, io);
+    case 'check':
+      return (await import('./check-command.js')).checkCommand(rest, io);
+    case 'measure':
+      return (await import('./measure-command.js')).measureCommand(rest, io);
+    case 'ratchet':
+      return (await import('./ratchet-command.js')).ratchetCommand(rest, io);
   }
 }
 

@@ -43,23 +43,30 @@ export function windowAxis(n: number, k: number, s: number, d: number, padding: 
   }
 }
 
+/**
+ * The taps t = 0..k−1 of output j that land inside the grid (j·s − left + t·d in [0, n)), found by
+ * arithmetic: a kernel may be far wider than the grid, and only the taps inside are visited.
+ */
+function tapRange(j: number, n: number, k: number, s: number, d: number, left: number): [number, number] {
+  const base = j * s - left;
+  const first = Math.max(0, Math.ceil(-base / d));
+  const last = Math.min(k - 1, Math.floor((n - 1 - base) / d));
+  return [first, last];
+}
+
 /** Input positions read by output j through taps t = 0..k−1 (padding positions left out). */
 export function windowTaps(j: number, n: number, k: number, s: number, d: number, left: number): number[] {
+  const [first, last] = tapRange(j, n, k, s, d, left);
   const at: number[] = [];
-  for (let t = 0; t < k; t++) {
-    const p = j * s - left + t * d;
-    if (p >= 0 && p < n) at.push(p);
-  }
+  for (let t = first; t <= last; t++) at.push(j * s - left + t * d);
   return at;
 }
 
 /** Tap index of each position returned by `windowTaps`, in the same order. */
 export function windowTapIndices(j: number, n: number, k: number, s: number, d: number, left: number): number[] {
+  const [first, last] = tapRange(j, n, k, s, d, left);
   const taps: number[] = [];
-  for (let t = 0; t < k; t++) {
-    const p = j * s - left + t * d;
-    if (p >= 0 && p < n) taps.push(t);
-  }
+  for (let t = first; t <= last; t++) taps.push(t);
   return taps;
 }
 
@@ -73,7 +80,7 @@ export function treeConvPositions(j: number, n: number, k: number, s: number, d:
   const e = extent(k, d);
   const start = j * s - plan.left + (causal ? e - m : Math.floor((e - m) / 2));
   const at: number[] = [];
-  for (let p = start; p < start + m; p++) if (p >= 0 && p < n) at.push(p);
+  for (let p = Math.max(start, 0); p < Math.min(start + m, n); p++) at.push(p);
   return at;
 }
 
@@ -88,11 +95,13 @@ export function transposeLength(n: number, k: number, s: number, d: number, padd
  */
 export function transposeSources(j: number, n: number, k: number, s: number, d: number, padding: number): [number, number][] {
   const out: [number, number][] = [];
-  for (let t = 0; t < k; t++) {
+  // i = (j + p − t·d)/s must lie in [0, n): t·d in (j + p − n·s, j + p], visited only there.
+  const first = Math.max(0, Math.ceil((j + padding - (n - 1) * s) / d));
+  const last = Math.min(k - 1, Math.floor((j + padding) / d));
+  for (let t = first; t <= last; t++) {
     const num = j + padding - t * d;
-    if (num < 0 || num % s !== 0) continue;
-    const i = num / s;
-    if (i < n) out.push([i, t]);
+    if (num % s !== 0) continue;
+    out.push([num / s, t]);
   }
   return out;
 }

@@ -1,9 +1,10 @@
 /**
  * The config loader: YAML text → normalised `Model`, or the full list of problems as diagnostics.
  * Stages, each of which can stop the load with diagnostics: size cap, YAML syntax, the model path,
- * reading the model subtree (alias and depth caps), input-alias normalisation, the structural
- * schema of the model around its layers, the layer reader and expansion of the builders, and
- * shape inference of a layered model. Problems in the user's file never throw; a missing schema
+ * reading the model subtree (alias and depth caps), input-alias normalisation, the size
+ * arithmetic (before anything is allocated), the structural schema of the model around its
+ * layers, the layer reader and expansion of the builders, and shape inference of a layered model.
+ * Problems in the user's file never throw; a missing schema
  * file (a broken installation) does.
  */
 import { readFileSync, statSync } from 'node:fs';
@@ -21,6 +22,7 @@ import { compiledModelSchema, validateAgainstSchema } from './model-schema.js';
 import { resolveModelNode } from './model-pointer.js';
 import { checkLayerEntryCount } from './layer-entry-count.js';
 import { inferShapes } from './model-shapes.js';
+import { checkModelSizes } from './size-limits.js';
 import { reportSchemaErrors } from './schema-errors.js';
 import { reportYamlErrors } from './yaml-errors.js';
 
@@ -76,6 +78,7 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
 
   normaliseFieldAliases(root, sink);
   if (!checkLayerEntryCount(root, sink)) return fail();
+  checkModelSizes(root, sink);
   const schema = compiledModelSchema();
   reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
 

@@ -3,6 +3,7 @@
  * span and how it was reached. The schema validator sees the plain value (`toPlain`), and every
  * error it reports is mapped back through this tree to the YAML node. YAML aliases are expanded
  * here under a budget, so a "billion laughs" document is refused instead of exhausting memory.
+ * A plain scalar that YAML 1.1 loaders read differently is reported here (`yaml-versions.ts`).
  */
 import { isAlias, isMap, isScalar, isSeq, type Document, type LineCounter, type Node } from 'yaml';
 import type { Span } from '../diagnostic.js';
@@ -12,6 +13,7 @@ import { formatFieldPath, type PathSegment } from './field-path.js';
 import { formatPointer } from './json-pointer.js';
 import { MAX_ALIAS_EXPANSIONS, MAX_NESTING_DEPTH } from './limits.js';
 import { spanFromOffsets, spanOfRange } from './source-span.js';
+import { yamlVersionProblem } from './yaml-versions.js';
 
 interface LocatedCommon {
   readonly span: Span;
@@ -253,6 +255,8 @@ function convert(
     const own = spanOfRange(st.lines, node.range);
     const v = node.value;
     if (v === null || typeof v === 'string' || typeof v === 'number' || typeof v === 'boolean') {
+      const versions = yamlVersionProblem(node, v);
+      if (versions) st.sink.error('config/yaml-version', versions, aliasSpan ?? own ?? fallback);
       return { kind: 'scalar', value: v, ...common(own) };
     }
     st.sink.error('config/type', `this value (${typeof v}) is not a plain string, number, boolean or null`, aliasSpan ?? own ?? fallback);

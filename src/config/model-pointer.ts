@@ -9,7 +9,8 @@ import type { Span } from '../diagnostic.js';
 import { closest } from '../text/suggest.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { formatFieldPath, type PathSegment } from './field-path.js';
-import { isArrayIndex } from './json-pointer.js';
+import { formatPointer, isArrayIndex } from './json-pointer.js';
+import { modelCandidates } from './model-candidates.js';
 import { spanFromOffsets, spanOfRange } from './source-span.js';
 
 export interface ResolvedModelNode {
@@ -36,11 +37,7 @@ export function resolveModelNode(
   const fail = (detail: string, hintKeys: readonly string[]) => {
     const where = walked.length === 0 ? 'the document' : formatFieldPath(walked);
     const keys = hintKeys.length > 0 ? ` (it has ${hintKeys.slice(0, 8).map((k) => `'${k}'`).join(', ')}${hintKeys.length > 8 ? ', …' : ''})` : '';
-    sink.error(
-      'config/model-missing',
-      `the model path '${pointer}' does not resolve: ${where} ${detail}${keys}; pass --model-path with the JSON pointer of the architecture, e.g. --model-path /training/model`,
-      curSpan,
-    );
+    sink.error('config/model-missing', `the model path '${pointer}' does not resolve: ${where} ${detail}${keys}; ${pathHint(doc, walked, hintKeys)}`, curSpan);
     return undefined;
   };
   for (let i = 0; i < segments.length; i++) {
@@ -90,4 +87,20 @@ function rangeOf(node: unknown): [number, number, number] | undefined {
     if (Array.isArray(r) && r.length === 3) return r as [number, number, number];
   }
   return undefined;
+}
+
+/**
+ * What to pass instead: the mappings of this file that look like an architecture, else a pointer
+ * through the keys the deepest resolved mapping has.
+ */
+function pathHint(doc: Document, walked: readonly PathSegment[], keys: readonly string[]): string {
+  const candidates = modelCandidates(doc);
+  if (candidates.length > 0) {
+    const list = candidates.map((c) => `--model-path ${c === '' ? "''" : c}`).join(' or ');
+    return `this file holds an architecture elsewhere: pass ${list} (or set model_path in the policy)`;
+  }
+  if (keys.length > 0) {
+    return `pass --model-path with the JSON pointer of the architecture, which starts with one of the keys listed, e.g. --model-path ${formatPointer([...walked, keys[0]!])}`;
+  }
+  return 'pass --model-path with the JSON pointer of the architecture (or set model_path in the policy)';
 }

@@ -42,8 +42,8 @@ export interface ModelShapes {
 
 export type ShapesResult = { ok: true; shapes: ModelShapes } | { ok: false; diagnostics: Diagnostic[] };
 
-/** Widths above this are refused: no real layer comes close, and exact ranks stay in range. */
-export const MAX_WIDTH = 1 << 24;
+/** Widths above this are refused (flatten and concatenation multiply and add widths): dimensions are 32-bit. */
+export const MAX_WIDTH = 2 ** 31 - 1;
 
 export function inferShapes(model: LayeredModel): ShapesResult {
   const diagnostics: Diagnostic[] = [];

@@ -169,6 +169,9 @@ function productOf(counts: CutCounts, augment: number): bigint {
   const byDim = new Map<number, bigint>();
   for (const m of counts.values()) {
     for (const [dim, k] of m) {
+      // A bond of dimension 1 is a factor 1 however often the duplicated tree cuts it (deep
+      // recurrence with width 1 cuts exponentially many copies at no cost).
+      if (dim + augment === 1) continue;
       if (!Number.isSafeInteger(k)) throw new Error('cut multiplicity beyond exact integers');
       byDim.set(dim + augment, (byDim.get(dim + augment) ?? 0n) + BigInt(k));
     }
@@ -186,7 +189,12 @@ export function cutEntries(c: Circuit, counts: CutCounts, augment: number): CutE
   const entries: CutEntry[] = [];
   for (const [tag, byDim] of counts) {
     const t = c.tags[tag]!;
-    for (const [dim, count] of byDim) entries.push({ layer: t.label, line: t.line, dim: dim + augment, count });
+    for (const [dim, count] of byDim) {
+      // Width-1 bonds cost nothing, so the cut may take exponentially many copies of them; such
+      // a count is no exact integer and says nothing, and the rank does not depend on it.
+      if (dim + augment === 1 && !Number.isSafeInteger(count)) continue;
+      entries.push({ layer: t.label, line: t.line, dim: dim + augment, count });
+    }
   }
   return entries.sort((a, b) => a.line - b.line || a.dim - b.dim || String(a.layer).localeCompare(String(b.layer)));
 }

@@ -6,6 +6,7 @@
  */
 import type { Shape } from '../config/model.js';
 import { positionCount } from '../config/model.js';
+import { MAX_INPUT_POSITIONS } from '../config/limits.js';
 import { closest } from '../text/suggest.js';
 
 export type PartitionKind =
@@ -55,6 +56,8 @@ export function resolvePartition(spec: string, shape: Shape): PartitionResult {
   const name = colon < 0 ? text : text.slice(0, colon);
   const arg = colon < 0 ? undefined : text.slice(colon + 1);
   const n = positionCount(shape);
+  // The loader refuses such inputs; a library caller gets the same answer before any allocation.
+  if (!(n <= MAX_INPUT_POSITIONS)) return { ok: false, message: `the shape [${shape.join(', ')}] has more than ${MAX_INPUT_POSITIONS} positions` };
   const side = new Uint8Array(n);
   const is2d = shape.length === 2;
   const width = is2d ? (shape[1] as number) : n;

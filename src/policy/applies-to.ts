@@ -8,19 +8,30 @@
 import { posix } from 'node:path';
 import picomatch from 'picomatch';
 import type { Policy } from './policy.js';
+import { MAX_PATTERN_LENGTH } from './policy-limits.js';
 
 /** Why a pattern cannot be a repository-relative glob, or undefined when it can. */
 export function appliesToProblem(pattern: string): string | undefined {
   const body = pattern.startsWith('!') ? pattern.slice(1) : pattern;
   if (body === '') return `the pattern '${pattern}' is empty`;
+  if (pattern.length > MAX_PATTERN_LENGTH) {
+    return `the pattern is ${pattern.length} characters long; applies_to patterns may have at most ${MAX_PATTERN_LENGTH}`;
+  }
   if (/^[/\\]/.test(body) || /^[A-Za-z]:/.test(body)) {
     return `the pattern '${pattern}' is absolute; applies_to patterns are relative to the repository root, e.g. 'examples/*.yaml'`;
   }
   if (body.split(/[/\\]/).includes('..')) {
     return `the pattern '${pattern}' has a '..' segment; applies_to patterns may not leave the repository root`;
   }
+  try {
+    picomatch.makeRe(body, MATCH_OPTIONS);
+  } catch (e) {
+    return `the pattern '${pattern}' is not a glob the matcher accepts: ${(e as Error).message}`;
+  }
   return undefined;
 }
+
+const MATCH_OPTIONS = { dot: true, windows: false } as const;
 
 interface Matcher {
   readonly include: (path: string) => boolean;
@@ -34,7 +45,7 @@ function matcherFor(patterns: readonly string[]): Matcher {
   if (hit) return hit;
   // `windows: false` explicitly: the library otherwise follows the host platform, and a policy
   // must select the same configs on a developer's laptop as in CI.
-  const options = { dot: true, windows: false };
+  const options = MATCH_OPTIONS;
   const positive = patterns.filter((p) => !p.startsWith('!'));
   const negative = patterns.filter((p) => p.startsWith('!')).map((p) => p.slice(1));
   const compile = (list: string[]) => (list.length === 0 ? () => false : picomatch(list, options));

@@ -26,3 +26,6 @@ export const MAX_FRACTIONAL_MIN_BITS = 65_536;
 
 /** Longest `extends` chain; no organisation layers policies that deep, and a cap bounds the work. */
 export const MAX_EXTENDS_DEPTH = 32;
+
+/** Longest `applies_to` pattern; real globs are short, and the glob compiler refuses 64 KiB. */
+export const MAX_PATTERN_LENGTH = 1024;

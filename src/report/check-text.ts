@@ -58,7 +58,7 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
     if (!options.quiet) for (const n of r.notes) out.push(`  note: ${n}`);
     out.push('');
   }
-  out.push(`${outcome.checked.length} config × policy checks: ${fails} failing, ${unproven} unproven (warnings), ${passes} passing`);
+  out.push(closingLine(outcome, { fails, unproven, passes }));
   return out.join('\n') + '\n';
 }
 
@@ -69,6 +69,33 @@ export function removalMessage(c: CheckedConfig): string {
     return `${c.path} was governed by policy ${c.policy.id} at the base and is renamed to ${c.movedTo.path}, which it does not check: ${c.movedTo.why}; ${counts}`;
   }
   return `${c.path} was governed by policy ${c.policy.id} at the base and this change deletes it; ${counts}`;
+}
+
+function plural(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? '' : 's'}`;
+}
+
+/**
+ * The last line: configs (each config × policy pair is one check) and requirements counted
+ * apart, each group adding up to its total.
+ */
+export function closingLine(outcome: CheckOutcome, requirements: { fails: number; unproven: number; passes: number }): string {
+  const configs = new Set(outcome.checked.map((c) => c.path)).size;
+  const policies = new Set(outcome.checked.map((c) => c.policy.id)).size;
+  const checks = { failing: 0, unproven: 0, passing: 0, deleted: 0 };
+  for (const c of outcome.checked) {
+    if (!c.result) checks.deleted++;
+    else if (c.failing) checks.failing++;
+    else if (c.result.requirements.some((q) => q.verdict === 'unproven')) checks.unproven++;
+    else checks.passing++;
+  }
+  const deleted = checks.deleted > 0 ? `, ${checks.deleted} deleted` : '';
+  const total = requirements.fails + requirements.unproven + requirements.passes;
+  return (
+    `${plural(configs, 'config')} against ${plural(policies, 'policy').replace('policys', 'policies')}: ` +
+    `${plural(outcome.checked.length, 'check')} (${checks.failing} failing, ${checks.unproven} unproven, ${checks.passing} passing${deleted}); ` +
+    `${plural(total, 'requirement')} (${requirements.fails} failing, ${requirements.unproven} unproven, ${requirements.passes} passing)`
+  );
 }
 
 function label(q: RequirementResult, d: RequirementDelta | undefined, paint: (c: string, s: string) => string): string {
@@ -134,7 +161,9 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta): 
   }
   const fixes = q.failing ? q.fixes : (d?.dropFails ? d.fixes : undefined);
   if (fixes) {
-    if (fixes.length === 0) {
+    if (fixes.length === 0 && q.verdict === 'unproven') {
+      lines.push(...unprovenAdvice(q));
+    } else if (fixes.length === 0) {
       lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
     } else {
       lines.push('fix (smallest change of one field, cheapest first):');
@@ -146,4 +175,17 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta): 
     }
   }
   return lines;
+}
+
+/**
+ * An unproven requirement is not disproven: the upper bound allows the minimum, only no rule
+ * proves a lower bound that reaches it. Say what would prove it, never that it is short.
+ */
+function unprovenAdvice(q: RequirementResult): string[] {
+  const min = q.requirement.minRank;
+  const proven = q.bounds.lower ? `the rules prove ${shortRank(q.bounds.lower.rank, q.bounds.lower.log2)} (${q.bounds.lower.method})` : 'no rule proves a lower bound here';
+  return [
+    `not disproven: the config may well reach ${shortRank(min, log2Big(min))}; ${proven}, and no single width or depth change on or next to the cut raises the proven bound to the minimum`,
+    `to prove it: a proven lower bound of at least ${shortRank(min, log2Big(min))} (which rule proves what, and where, is listed under "The rules" in DEVELOPERS.md), a smaller minimum, or unproven: warn for this requirement`,
+  ];
 }

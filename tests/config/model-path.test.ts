@@ -41,6 +41,15 @@ describe('the model path', () => {
     expect(d[0]!.message).toContain("the model path '/model' does not resolve");
     expect(d[0]!.message).toContain('--model-path');
     expect(d[0]!.message).toContain("'optimizer', 'data', 'training'");
+    // the hint names where this file holds an architecture, not a made-up example
+    expect(d[0]!.message).toContain('pass --model-path /training/network');
+    expect(d[0]!.message).not.toContain('/training/model');
+  });
+
+  test('without a mapping of layers, the hint builds the pointer from the keys the file has', () => {
+    const d = diagnostics('optimizer: {lr: 0.1}\nexperiment: {epochs: 3}\n');
+    expect(d[0]!.message).toContain('e.g. --model-path /optimizer');
+    expect(d[0]!.message).not.toContain('/training/model');
   });
 
   test('a missing key deeper down points at its parent and suggests a close key', () => {

@@ -1,13 +1,13 @@
 /**
- * Runs the built CLI (`build/cli/main.js`, made by `npm run build`, which `npm test` runs first)
- * as a child process, the way a CI job or a user's shell does.
+ * Runs the built CLI (the package's bin, `build/bin/rankfloor.js`, made by `npm run build`, which
+ * `npm test` runs first) as a child process, the way a CI job or a user's shell does.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
 export const REPO = fileURLToPath(new URL('../..', import.meta.url));
-const CLI = fileURLToPath(new URL('../../build/cli/main.js', import.meta.url));
+export const CLI = fileURLToPath(new URL('../../build/bin/rankfloor.js', import.meta.url));
 
 export interface CliRun {
   code: number;

@@ -145,8 +145,9 @@ describe('structural errors, with exact positions', () => {
     expect(codesOf(`${HEAD}require:\n  - {partition: left-right, min_rank: "2 ^ -1"}\n`)).toEqual(['policy/invalid-min-rank@4:39']);
     expect(codesOf(`${HEAD}require:\n  - {partition: left-right, min_rank: 0}\n`)).toEqual(['policy/invalid-number@4:39']);
     expect(codesOf(`${HEAD}require:\n  - {partition: left-right, min_rank: 64.5}\n`)).toEqual(['policy/invalid-number@4:39']);
-    // 1e30 is an integer to YAML, but not one a double holds exactly.
-    expect(codesOf(`${HEAD}require:\n  - {partition: left-right, min_rank: 1e30}\n`)).toEqual(['policy/invalid-min-rank@4:39']);
+    // 1.0e+30 is an integer to YAML, but not one a double holds exactly (written with a dot and
+    // a signed exponent, which YAML 1.1 reads as the same number).
+    expect(codesOf(`${HEAD}require:\n  - {partition: left-right, min_rank: 1.0e+30}\n`)).toEqual(['policy/invalid-min-rank@4:39']);
   });
 
   test('both or neither of min_rank and min_bits', () => {
