@@ -14,9 +14,10 @@ import { readLayerList } from './read-layers.js';
 import { checkNames } from './layer-names.js';
 import { expandTemplates } from './expand-layers.js';
 
-export function buildLayeredModel(root: LocatedMap, file: string, sink: DiagnosticSink): LayeredModel | undefined {
+/** `paramsOf`: in an architecture definition, the parameters a value was computed from. */
+export function buildLayeredModel(root: LocatedMap, file: string, sink: DiagnosticSink, paramsOf?: ReadContext['paramsOf']): LayeredModel | undefined {
   const inputNode = asMap(fieldOf(root, 'input'));
-  const input = readInput(inputNode, sink);
+  const input = readInput(inputNode, sink, paramsOf);
   const output = readOutput(asMap(fieldOf(root, 'output')));
   const ws = fieldOf(root, 'weight_sharing');
   const weightSharing = ws === undefined ? true : booleanOf(ws);
@@ -26,6 +27,7 @@ export function buildLayeredModel(root: LocatedMap, file: string, sink: Diagnost
     dims: input?.shape.length,
     shapeText: input ? `[${input.shape.join(', ')}]` : '',
     shapePath: shapeNode ? displayPath(shapeNode) : 'the input shape',
+    ...(paramsOf ? { paramsOf } : {}),
   };
   const layersNode = fieldOf(root, 'layers');
   const templates = layersNode ? readLayerList(layersNode, ctx) : undefined;

@@ -7,7 +7,7 @@
  * costs nothing and is refused at the `times` that caused it.
  */
 import type { Span } from '../diagnostic.js';
-import { INPUT, type Layer } from './model.js';
+import { INPUT, type FieldParameters, type Layer, type ParameterUse } from './model.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { MAX_EXPANDED_LAYERS } from './limits.js';
 import { countOne, expandedCount, type MadeLayer, type NameRef, type Template } from './layer-templates.js';
@@ -62,6 +62,8 @@ class Expansion {
   private readonly labels = new Map<string, number>();
   /** Iterations (1-based) of the enclosing repeats, outermost first. */
   private readonly iterations: number[] = [];
+  /** The parameters of the enclosing repeats' counts (in a definition), outermost first. */
+  private readonly counts: (readonly ParameterUse[])[] = [];
 
   constructor(private readonly refs: ReadonlyMap<NameRef, RefResolution>) {}
 
@@ -83,6 +85,7 @@ class Expansion {
   private make(m: MadeLayer, inputs: readonly number[], name: string | undefined): number {
     const index = this.out.length;
     const depth = this.iterations.length;
+    const fieldParams = withCounts(m.site.fieldParams, this.counts);
     const layer = {
       ...m.body,
       index,
@@ -92,6 +95,7 @@ class Expansion {
       fieldSpans: m.site.fieldSpans,
       ...(name !== undefined && m.labelled ? { name } : {}),
       ...(depth > 0 ? { repeatIteration: this.iterations[depth - 1]! - 1 } : {}),
+      ...(fieldParams ? { fieldParams } : {}),
     } as Layer;
     this.out.push(layer);
     return index;
@@ -122,11 +126,13 @@ class Expansion {
       }
       case 'repeat': {
         let cur = input;
+        this.counts.push(t.timesParams ?? []);
         for (let i = 1; i <= t.times; i++) {
           this.iterations.push(i);
           cur = this.list(t.body, cur);
           this.iterations.pop();
         }
+        this.counts.pop();
         this.register(t.name?.text, cur, true);
         return cur;
       }
@@ -155,4 +161,12 @@ class Expansion {
     if (at === undefined) throw new Error(`layer expansion: '${label}' has no layer (a loader bug)`);
     return at;
   }
+}
+
+/** A layer's field parameters, with the parameters of the repeat counts around it under `layer`. */
+function withCounts(own: FieldParameters | undefined, counts: readonly (readonly ParameterUse[])[]): FieldParameters | undefined {
+  const around: ParameterUse[] = [];
+  for (const list of counts) for (const p of list) if (!around.some((q) => q.name === p.name)) around.push(p);
+  if (around.length === 0) return own;
+  return { ...own, layer: around };
 }

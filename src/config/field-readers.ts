@@ -9,6 +9,7 @@ import type { DiagnosticSink } from './diagnostic-sink.js';
 import { describeValue, displayPath, type Located } from './located-value.js';
 import { closest } from '../text/suggest.js';
 import { normaliseWord } from './pointwise-ops.js';
+import type { ParameterUse } from './model.js';
 
 export interface ReadContext {
   readonly sink: DiagnosticSink;
@@ -18,6 +19,8 @@ export interface ReadContext {
   readonly shapeText: string;
   /** `model.input.shape`, likewise. */
   readonly shapePath: string;
+  /** In an architecture definition: the parameters a value (and everything inside it) was computed from. */
+  readonly paramsOf?: (node: Located) => readonly ParameterUse[];
 }
 
 function isInteger(node: Located): node is Located & { kind: 'scalar'; value: number } {

@@ -95,6 +95,16 @@ export class LayerFields {
     return this.values.get(name)?.keySpan;
   }
 
+  /** Per read field, what `of` says of its value; fields it says nothing of are left out. */
+  provenance<T>(of: (node: Located) => readonly T[]): Record<string, readonly T[]> {
+    const out: Record<string, readonly T[]> = {};
+    for (const [name, entry] of this.values) {
+      const found = of(entry.value);
+      if (found.length > 0) out[name] = found;
+    }
+    return out;
+  }
+
   /** Value spans of the given canonical fields that are present (all read fields when omitted). */
   spans(names?: readonly string[]): Record<string, Span> {
     const out: Record<string, Span> = {};

@@ -4,9 +4,9 @@
  * layers of the model, numbering them, wiring their `inputs` and labelling the copies.
  */
 import type { Span } from '../diagnostic.js';
-import type { Layer } from './model.js';
+import type { FieldParameters, Layer, ParameterUse } from './model.js';
 
-type BaseKey = 'index' | 'inputs' | 'name' | 'path' | 'span' | 'fieldSpans' | 'repeatIteration';
+type BaseKey = 'index' | 'inputs' | 'name' | 'path' | 'span' | 'fieldSpans' | 'repeatIteration' | 'fieldParams';
 
 /** The kind-specific part of a layer. */
 export type LayerBody = Layer extends infer L ? (L extends Layer ? Omit<L, BaseKey> : never) : never;
@@ -16,6 +16,8 @@ export interface Site {
   readonly path: string;
   readonly span: Span;
   readonly fieldSpans: Readonly<Record<string, Span>>;
+  /** In a definition: the parameters each field was computed from. */
+  readonly fieldParams?: FieldParameters;
 }
 
 /** One layer to be made, and whether it carries its entry's name as its label. */
@@ -49,6 +51,8 @@ export type Template =
       readonly times: number;
       readonly timesSpan: Span;
       readonly timesPath: string;
+      /** In a definition: the parameters the count was computed from. */
+      readonly timesParams?: readonly ParameterUse[];
       readonly body: readonly Template[];
       readonly name?: NameDef;
     }

@@ -17,7 +17,11 @@ import { DiagnosticSink } from './diagnostic-sink.js';
 import { normaliseFieldAliases } from './field-aliases.js';
 import { parsePointer } from './json-pointer.js';
 import { MAX_DOCUMENT_BYTES } from './limits.js';
-import { convertNode, entryOf, toPlain } from './located-value.js';
+import { convertNode, entryOf, toPlain, type Located } from './located-value.js';
+import type { ParameterUse } from './model.js';
+import { repositoryOf, workTreeDefinitions, type DefinitionSource } from './definition-source.js';
+import { loadArchitecture, type ModelFromTree } from './load-architecture.js';
+import { parameterSpace, type ParameterSpace } from './parameter-space.js';
 import { compiledModelSchema, validateAgainstSchema } from './model-schema.js';
 import { resolveModelNode } from './model-pointer.js';
 import { checkLayerEntryCount } from './layer-entry-count.js';
@@ -31,9 +35,17 @@ export { MAX_EXPANDED_LAYERS } from './limits.js';
 export interface LoadOptions {
   /** JSON Pointer (RFC 6901) of the architecture inside the file; default `/model`. */
   modelPath?: string;
+  /**
+   * Where a config that names an architecture definition reads it; default: the working tree of
+   * the repository around the config file (the nearest directory above it with `.git`), links refused.
+   */
+  definitions?: DefinitionSource;
+  /** The config's path relative to the repository root (definition paths are relative to it); default: from `file`. */
+  configPath?: string;
 }
 
-export type LoadResult = { ok: true; model: Model } | { ok: false; diagnostics: Diagnostic[] };
+/** `parameters` is set for a config that names an architecture definition: fixes search over them. */
+export type LoadResult = { ok: true; model: Model; parameters?: ParameterSpace } | { ok: false; diagnostics: Diagnostic[] };
 
 export const DEFAULT_MODEL_PATH = '/model';
 
@@ -76,8 +88,33 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
   const root = convertNode(doc, lines, sink, found.node, found.segments, found.fallback);
   if (!root) return fail();
 
+  if (root.kind === 'map' && entryOf(root, 'architecture') !== undefined) {
+    const source = options.definitions ?? workTreeDefinitions(repositoryOf(file).root);
+    const configRel = options.configPath ?? insideRoot(repositoryOf(file).configRel);
+    const read: ModelFromTree = (tree, into, paramsOf) => {
+      const m = modelFromTree(tree, file, into, paramsOf);
+      return m?.kind === 'explicit' ? 'explicit' : m;
+    };
+    const loaded = loadArchitecture({ root, file, configRel, source, read }, sink);
+    if (!loaded.ok) return { ok: false, diagnostics: loaded.diagnostics };
+    return { ok: true, model: loaded.model, parameters: parameterSpace(loaded.instance, read) };
+  }
+  const model = modelFromTree(root, file, sink);
+  if (sink.count > 0 || !model) {
+    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
+    return fail();
+  }
+  return { ok: true, model };
+}
+
+/**
+ * The stages after the tree is read: input aliases, the size arithmetic, the schema around the
+ * layers, the layer reader and expansion, and shapes. Undefined, or diagnostics in `sink`, when
+ * the tree is not a model. `paramsOf` is given for an instantiated definition.
+ */
+function modelFromTree(root: Located, file: string, sink: DiagnosticSink, paramsOf?: (node: Located) => readonly ParameterUse[]): Model | undefined {
   normaliseFieldAliases(root, sink);
-  if (!checkLayerEntryCount(root, sink)) return fail();
+  if (!checkLayerEntryCount(root, sink)) return undefined;
   checkModelSizes(root, sink);
   const schema = compiledModelSchema();
   reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
@@ -87,17 +124,17 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
     const explicit = entryOf(root, 'network') !== undefined;
     const layered = ['input', 'output', 'layers', 'weight_sharing'].some((k) => entryOf(root, k) !== undefined);
     if (explicit && !layered) model = buildExplicitModel(root, file, sink);
-    else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
+    else if (layered && !explicit) model = buildLayeredModel(root, file, sink, paramsOf);
   }
   if (model?.kind === 'layered' && sink.count === 0) {
     const shapes = inferShapes(model);
     if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
   }
-  if (sink.count > 0 || !model) {
-    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
-    return fail();
-  }
-  return { ok: true, model };
+  return sink.count > 0 ? undefined : model;
+}
+
+function insideRoot(rel: string): string | undefined {
+  return rel === '' || rel === '..' || rel.startsWith('../') || /^[A-Za-z]:/.test(rel) || rel.startsWith('/') ? undefined : rel;
 }
 
 function tooLarge(sink: DiagnosticSink, bytes: number): LoadResult {

@@ -33,7 +33,19 @@ export interface InputSpec {
   readonly span: Span;
   /** Spans of the individual fields (`shape`, `representation`, `channels`) for reports. */
   readonly fieldSpans: Readonly<Record<string, Span>>;
+  /** Built from an architecture definition: the parameters each field was computed from (see `LayerBase`). */
+  readonly fieldParams?: FieldParameters;
 }
+
+/** A parameter of an architecture definition that a value was computed from. */
+export interface ParameterUse {
+  readonly name: string;
+  /** Where the config sets it; absent when the definition's default was used. */
+  readonly span?: Span;
+}
+
+/** Per canonical field, the parameters its value was computed from (fields written as plain values are absent). */
+export type FieldParameters = Readonly<Record<string, readonly ParameterUse[]>>;
 
 /** Which output a dense-prediction model is analysed at. */
 export interface OutputSpec {
@@ -60,6 +72,13 @@ interface LayerBase {
   readonly fieldSpans: Readonly<Record<string, Span>>;
   /** For layers produced by `repeat`: the 0-based iteration of the innermost repeat, else undefined. */
   readonly repeatIteration?: number;
+  /**
+   * Only in a model built from an architecture definition (`LayeredModel.architecture`), whose
+   * `span` and `fieldSpans` point into the definition file: per field, the parameters (with their
+   * lines in the config) its value was computed from; under `layer`, those that decide how often
+   * the layer is made (the `repeat` counts around it).
+   */
+  readonly fieldParams?: FieldParameters;
 }
 
 /**
@@ -215,6 +234,36 @@ export interface LayeredModel {
   readonly output: OutputSpec;
   /** Span of the `model` mapping (or of the node the model path points at). */
   readonly span: Span;
+  /**
+   * Set when the config names an architecture definition and sets its parameters instead of
+   * listing layers. The spans of the layers, the input and the output then point into the
+   * definition file; `span` stays the config's.
+   */
+  readonly architecture?: ArchitectureUse;
+}
+
+/** Which architecture definition a config uses, and with which parameter values. */
+export interface ArchitectureUse {
+  /** The definition as diagnostics name it. */
+  readonly file: string;
+  /** Root-relative, forward slashes. */
+  readonly path: string;
+  /** The definition's `name`. */
+  readonly name: string;
+  /** The config's `architecture` value. */
+  readonly span: Span;
+  /** Every declared parameter with the value used, in the definition's order. */
+  readonly parameters: readonly ParameterSetting[];
+}
+
+export interface ParameterSetting {
+  readonly name: string;
+  /** Exact decimal text: `0.5`, `[2, 2, 2, 2]`. */
+  readonly value: string;
+  /** Where the config sets it; absent when the definition's default is used. */
+  readonly span?: Span;
+  /** The parameter's name in the definition. */
+  readonly declared: Span;
 }
 
 /** An open leg of an explicit tensor: it belongs to one input position. */

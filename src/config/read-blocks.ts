@@ -18,7 +18,16 @@ export function readRepeat(r: EntryRead, ctx: ReaderContext): Template | undefin
   const layersNode = r.fields.get('layers');
   const body = layersNode && ctx.readList(layersNode, false);
   if (!hasTimes || !hasLayers || !timesNode || times === undefined || !body) return undefined;
-  return { t: 'repeat', times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body, ...(r.name ? { name: r.name } : {}) };
+  const timesParams = ctx.paramsOf?.(timesNode) ?? [];
+  return {
+    t: 'repeat',
+    times,
+    timesSpan: timesNode.span,
+    timesPath: displayPath(timesNode),
+    ...(timesParams.length > 0 ? { timesParams } : {}),
+    body,
+    ...(r.name ? { name: r.name } : {}),
+  };
 }
 
 export function readSequence(r: EntryRead, ctx: ReaderContext): Template | undefined {

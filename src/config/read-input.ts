@@ -6,13 +6,13 @@
  * picks the analysed position of a dense-prediction model.
  */
 import type { DiagnosticSink } from './diagnostic-sink.js';
-import { displayPath, entryOf, fieldOf, type LocatedMap } from './located-value.js';
+import { displayPath, entryOf, fieldOf, type Located, type LocatedMap } from './located-value.js';
 import { fieldSpansOf, positiveIntegerListOf, positiveIntegerOf, nonNegativeIntegerOf } from './located-read.js';
-import type { InputSpec, OutputSpec } from './model.js';
+import type { InputSpec, OutputSpec, ParameterUse } from './model.js';
 import { normaliseWord } from './pointwise-ops.js';
 
 /** Reads `input` (already schema-checked; undefined when it is not valid). */
-export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink): InputSpec | undefined {
+export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink, paramsOf?: (node: Located) => readonly ParameterUse[]): InputSpec | undefined {
   if (!node) return undefined;
   const shapeNode = fieldOf(node, 'shape');
   const given = positiveIntegerListOf(shapeNode);
@@ -51,6 +51,11 @@ export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink): I
     }
     shape = kept;
   }
+  const fieldParams: Record<string, readonly ParameterUse[]> = {};
+  for (const [field, value] of [['shape', shapeNode], ['channels', channelsNode], ['representation', reprNode]] as const) {
+    const used = value && paramsOf ? paramsOf(value) : [];
+    if (used.length > 0) fieldParams[field] = used;
+  }
   const written = entryOf(node, 'channels')?.writtenKey;
   const featuresAsChannels = written !== undefined && normaliseWord(written) === 'features';
   return {
@@ -60,6 +65,7 @@ export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink): I
     ...(featuresAsChannels ? { featuresAsChannels: true } : {}),
     span: node.span,
     fieldSpans: fieldSpansOf(node, ['shape', 'representation', 'channels']),
+    ...(Object.keys(fieldParams).length > 0 ? { fieldParams } : {}),
   };
 }
 

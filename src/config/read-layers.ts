@@ -87,7 +87,8 @@ function readLayer(item: Located, ctx: ReaderContext): Template | undefined {
   const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
   const nameNode = fields.get('name');
   const text = nameNode ? readName(nameNode, ctx) : undefined;
-  const site: Site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans() };
+  const fieldParams = ctx.paramsOf ? fields.provenance(ctx.paramsOf) : {};
+  const site: Site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans(), ...(Object.keys(fieldParams).length > 0 ? { fieldParams } : {}) };
   const read: EntryRead = { entry, fields, site, ...(text !== undefined && nameNode ? { name: { text, span: nameNode.span } } : {}) };
   const t = READERS[entry.match.reader](read, ctx);
   return t && fields.ok && (nameNode === undefined || text !== undefined) ? t : undefined;
