@@ -18,6 +18,7 @@ const KIND_OF: Readonly<Record<Exclude<FindingRule, 'config-removed'>, Annotatio
   'input-error': 'error',
   'requirement-unproven': 'warning',
   'policy-changed': 'notice',
+  'definition-changed': 'notice',
 };
 
 export interface Annotation {

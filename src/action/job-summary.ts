@@ -99,6 +99,7 @@ function configSection(c: CheckedConfig): string {
   if (!r) return s + `<p>${escapeHtml(`${c.failing ? 'Failing' : 'Warning'}: ${removalMessage(c)}.`)}</p>\n`;
   if (c.comparison === 'new') s += '<p>New config: no base version to compare with.</p>\n';
   if (c.renamedFrom !== undefined) s += `<p>${escapeHtml(`Renamed from ${c.renamedFrom}; compared with its base version there.`)}</p>\n`;
+  if (c.architecture) s += `<p>${escapeHtml(`Built from the architecture definition ${c.architecture.path} (${c.architecture.name}).`)}</p>\n`;
   const rows = r.requirements.map((q, i) => row(q, c.deltas?.[i]));
   s += `<table><tr>${TABLE_HEAD.map((h) => `<th>${escapeHtml(h)}</th>`).join('')}</tr>${rows.map((cells) => `<tr>${cells.map((x) => `<td>${escapeHtml(x)}</td>`).join('')}</tr>`).join('')}</table>\n`;
   r.requirements.forEach((q, i) => {
@@ -106,7 +107,7 @@ function configSection(c: CheckedConfig): string {
     const label = requirementLabel(q, d);
     if (!label.startsWith('fail')) return;
     const summary = escapeHtml(`${q.requirement.partition}: ${label} — why, and what restores it`);
-    s += `<details><summary>${summary}</summary><pre>${escapeHtml(explainRequirement(q, d).join('\n'))}</pre></details>\n`;
+    s += `<details><summary>${summary}</summary><pre>${escapeHtml(explainRequirement(q, d, c.architecture).join('\n'))}</pre></details>\n`;
   });
   return s;
 }

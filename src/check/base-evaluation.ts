@@ -16,11 +16,16 @@ import type { Model } from '../config/model.js';
 import { evaluatePolicy, type PolicyResult } from '../policy/evaluate.js';
 import type { Policy } from '../policy/policy.js';
 import { loadConfig } from './compare-config.js';
+import type { DefinitionSource } from '../config/definition-source.js';
 
 export interface BaseTask {
   readonly text: string;
   readonly file: string;
   readonly policy: Policy;
+  /** The base version's root-relative path: architecture definitions are named relative to it. */
+  readonly path?: string;
+  /** The base revision's architecture definition the config names, by root-relative path (read on the main thread). */
+  readonly definitions?: Readonly<Record<string, string>>;
 }
 
 /** Undefined for a base version that does not load (or evaluate) under today's rules. */
@@ -53,8 +58,9 @@ export function evaluateBaseTexts(tasks: readonly BaseTask[], progress?: () => v
   const policyIds = new Map<Policy, number>();
   return tasks.map((t) => {
     progress?.();
-    const model = loadConfig(t.text, t.file, t.policy, []);
-    if (!model) return undefined;
+    const loaded = loadConfig(t.text, t.file, t.policy, [], t.path === undefined ? undefined : { definitions: recordedDefinitions(t.definitions ?? {}), configPath: t.path });
+    if (!loaded) return undefined;
+    const model = loaded.model;
     let id = policyIds.get(t.policy);
     if (id === undefined) policyIds.set(t.policy, (id = policyIds.size));
     const key = `${id}\u0000${modelKey(model)}`;
@@ -65,6 +71,14 @@ export function evaluateBaseTexts(tasks: readonly BaseTask[], progress?: () => v
     memo.set(key, answer);
     return answer;
   });
+}
+
+/** Definitions handed over as texts (a worker thread cannot read the base revision itself). */
+function recordedDefinitions(texts: Readonly<Record<string, string>>): DefinitionSource {
+  return {
+    read: (rel) => (Object.hasOwn(texts, rel) ? { kind: 'file', text: texts[rel]! } : { kind: 'absent' }),
+    display: (rel) => rel,
+  };
 }
 
 // Where a model sits (its file, its spans) does not change its bounds.

@@ -8,6 +8,8 @@
 import type { Diagnostic } from '../diagnostic.js';
 import { loadConfigText } from '../config/load-config.js';
 import type { Model } from '../config/model.js';
+import type { DefinitionSource } from '../config/definition-source.js';
+import type { ParameterSpace } from '../config/parameter-space.js';
 import { diffModels, type FieldChange } from '../config/model-diff.js';
 import type { FileRead } from '../files/file-read.js';
 import type { Policy, Requirement } from '../policy/policy.js';
@@ -24,10 +26,12 @@ export interface EvaluatedHead {
   readonly text: string;
   readonly model: Model;
   readonly result: PolicyResult;
+  /** For a config built from an architecture definition: its parameters, for the fixes of a failing drop. */
+  readonly parameters?: ParameterSpace;
 }
 
-/** The head half; problems go to `errors` and give undefined. */
-export function evaluateHead(path: string, file: string, policy: Policy, head: FileRead, errors: Diagnostic[]): EvaluatedHead | undefined {
+/** The head half; problems go to `errors` and give undefined. `definitions`: where the head reads architecture definitions. */
+export function evaluateHead(path: string, file: string, policy: Policy, head: FileRead, errors: Diagnostic[], definitions?: DefinitionSource): EvaluatedHead | undefined {
   if (head.kind === 'refused') {
     errors.push(refusalDiagnostic(head, file, 'config'));
     return undefined;
@@ -36,14 +40,15 @@ export function evaluateHead(path: string, file: string, policy: Policy, head: F
     errors.push({ code: 'config/unreadable', message: 'cannot read the config file: it does not exist', file, severity: 'error' });
     return undefined;
   }
-  const model = loadConfig(head.text, file, policy, errors);
-  if (!model) return undefined;
-  const evaluated = evaluatePolicy(model, policy);
+  const loaded = loadConfig(head.text, file, policy, errors, definitions ? { definitions, configPath: path } : undefined);
+  if (!loaded) return undefined;
+  const { model, parameters } = loaded;
+  const evaluated = evaluatePolicy(model, policy, parameters ? { parameters } : {});
   if (!evaluated.ok) {
     errors.push(...evaluated.diagnostics);
     return undefined;
   }
-  return { path, file, policy, text: head.text, model, result: evaluated.result };
+  return { path, file, policy, text: head.text, model, result: evaluated.result, ...(parameters ? { parameters } : {}) };
 }
 
 /**
@@ -57,7 +62,8 @@ export function compareWithBase(
   errors: Diagnostic[],
 ): CheckedConfig | undefined {
   const { path, file, policy, model, result } = head;
-  const plain = { file, path, policy, result, changes: [], failing: result.verdict === 'fail' };
+  const architecture = model.kind === 'layered' && model.architecture ? { architecture: model.architecture } : {};
+  const plain = { file, path, policy, result, ...architecture, changes: [], failing: result.verdict === 'fail' };
   if (!base) return { ...plain, comparison: 'none' };
   if (base.basePath === undefined || base.read === undefined || base.read.kind === 'absent') return { ...plain, comparison: 'new' };
   if (base.read.kind === 'refused') {
@@ -68,27 +74,46 @@ export function compareWithBase(
   const renamed = base.basePath !== path ? { renamedFrom: base.basePath } : {};
   if (!base.answer) return { ...plain, ...renamed, comparison: 'new' };
   const changes = diffModels(base.answer.model, model);
-  const deltas = result.requirements.map((q) => delta(q, base.answer!.result, policy, changes, model));
+  const deltas = result.requirements.map((q) => delta(q, base.answer!.result, policy, changes, model, head.parameters));
   const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
-  return { file, path, policy, result, ...renamed, comparison: 'compared', deltas, changes, failing };
+  return { file, path, policy, result, ...architecture, ...renamed, comparison: 'compared', deltas, changes, failing };
 }
 
-export function loadConfig(text: string, file: string, policy: Policy, errors: Diagnostic[]): Model | undefined {
-  const loaded = loadConfigText(text, file, policy.modelPath === undefined ? {} : { modelPath: policy.modelPath });
+/** `where`: the definitions and the config's root-relative path, for a config that names an architecture. */
+export function loadConfig(
+  text: string,
+  file: string,
+  policy: Policy,
+  errors: Diagnostic[],
+  where?: { readonly definitions: DefinitionSource; readonly configPath: string },
+): { readonly model: Model; readonly parameters?: ParameterSpace } | undefined {
+  const loaded = loadConfigText(text, file, { ...(policy.modelPath === undefined ? {} : { modelPath: policy.modelPath }), ...where });
   if (!loaded.ok) {
     errors.push(...loaded.diagnostics);
     return undefined;
   }
-  return loaded.model;
+  return loaded.parameters ? { model: loaded.model, parameters: loaded.parameters } : { model: loaded.model };
 }
 
-function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model): RequirementDelta {
+/**
+ * The changes on the head's minimal cut: a layer field there, or a parameter that changed a layer
+ * there. When none is on the cut but the requirement lost capacity and every change is a
+ * parameter's (the definition and the rest of the config are the same on both sides), those
+ * parameters made the whole difference, and they are the change to look at.
+ */
+function onTheCut(changes: readonly FieldChange[], cutLayers: ReadonlySet<number | string>, lost: boolean): FieldChange[] {
+  const on = changes.filter((c) => cutLayers.has(c.layer) || c.effects?.some((e) => cutLayers.has(e.layer)) === true);
+  if (on.length > 0 || !lost || changes.length === 0 || changes.some((c) => c.layer !== 'parameter')) return on;
+  return changes.filter((c) => (c.effects?.length ?? 0) > 0);
+}
+
+function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model, parameters: ParameterSpace | undefined): RequirementDelta {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
   const maxDropBits = maxDrop(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
-  const attributed = changes.filter((c) => cutLayers.has(c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed, fixes: [] };
+  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed: onTheCut(changes, cutLayers, false), fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
+  const attributed = onTheCut(changes, cutLayers, q.bounds.upper.rank < b.bounds.upper.rank);
   // Exact: a drop of more than k bits means base > head · 2^k; fractional limits compare in log2.
   const limit = maxDropBits;
   const dropFails =
@@ -97,7 +122,7 @@ function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes
   // A drop within k bits needs head ≥ ⌈base / 2^k⌉; the fix search finds the widths that reach it.
   const fixes =
     dropFails && !q.failing && head.kind === 'layered' && limit !== undefined && Number.isInteger(limit)
-      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), 'warn', policy.surrogate, cutLayers)
+      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), 'warn', policy.surrogate, cutLayers, parameters)
       : [];
   return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed, fixes };
 }

@@ -15,15 +15,16 @@ import { toRootRelative } from './repo-files.js';
 export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
   const out: Finding[] = [];
   for (const n of outcome.notices) {
+    const rule = n.definition ? 'definition-changed' : 'policy-changed';
     out.push({
-      rule: 'policy-changed',
+      rule,
       level: 'notice',
-      title: 'policy changed by this pull request',
+      title: n.definition ? 'architecture definition changed by this pull request' : 'policy changed by this pull request',
       message: n.message,
       file: n.path,
       line: n.line,
       column: 1,
-      fingerprint: `policy-changed|${n.path}`,
+      fingerprint: `${rule}|${n.path}`,
     });
   }
   for (const c of outcome.checked) {
@@ -38,19 +39,23 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
       if (!failing && q.verdict !== 'unproven') return;
       const attributed = d?.attributed[0];
       const cut = q.bounds.upper.cut.find((e) => e.layer !== 'input') ?? q.bounds.upper.cut[0];
-      const line = attributed?.span.line ?? cut?.line ?? 1;
-      const column = attributed?.span.column ?? 1;
+      // A config built from a definition: the changed parameter's line, or the changed line of the
+      // definition; with no change to point at, the config's `architecture` line (the cut's lines
+      // are the definition's, named in the message).
+      const place = attributed
+        ? { file: attributed.file ?? c.path, line: attributed.span.line, column: attributed.span.column }
+        : c.architecture
+          ? { file: c.path, line: c.architecture.span.line, column: c.architecture.span.column }
+          : { file: c.path, line: cut?.line ?? 1, column: 1 };
       const rule = q.failing ? 'requirement-failed' : failing ? 'capacity-drop' : 'requirement-unproven';
       const what = rule === 'capacity-drop' ? 'capacity dropped more than allowed' : rule === 'requirement-failed' ? 'capacity below the policy minimum' : 'capacity not proven';
-      const [, ...body] = explainRequirement(q, d);
+      const [, ...body] = explainRequirement(q, d, c.architecture);
       out.push({
         rule,
         level: failing ? 'error' : 'warning',
         title: `${q.requirement.partition}: ${what} (policy ${c.policy.id})`,
         message: body.join('\n'),
-        file: c.path,
-        line,
-        column,
+        ...place,
         fingerprint: `${rule}|${c.path}|${c.policy.id}|${q.requirement.partition}`,
       });
     });

@@ -13,6 +13,7 @@ import { relative, resolve, sep } from 'node:path';
 import picomatch from 'picomatch';
 import { dedupeDiagnostics, type Diagnostic } from '../diagnostic.js';
 import type { FieldChange } from '../config/model-diff.js';
+import type { ArchitectureUse } from '../config/model.js';
 import { couldMatchBelow, policyApplies } from '../policy/applies-to.js';
 import type { Policy } from '../policy/policy.js';
 import type { PolicyResult } from '../policy/evaluate.js';
@@ -26,6 +27,7 @@ import type { FileRead } from '../files/file-read.js';
 import { discoverConfigs, YAML_FILE, type Selector, type SkippedPath } from './discover-configs.js';
 import { indexFiles, workTreeFiles, type HeadFiles } from './head-files.js';
 import { JudgingFiles } from './judging-files.js';
+import { CheckDefinitions, definitionOf } from './definition-files.js';
 import { loadJudgingPolicies, MissingPolicyError } from './load-judging-policies.js';
 import { findRepoRoot, toRootRelative } from './repo-files.js';
 
@@ -81,6 +83,8 @@ export interface CheckedConfig {
   readonly comparison: 'none' | 'new' | 'deleted' | 'moved-out' | 'compared';
   /** The base path of a renamed config, which was compared with its old self. */
   readonly renamedFrom?: string;
+  /** The architecture definition the head config names, and the parameter values it uses. */
+  readonly architecture?: ArchitectureUse;
   /** Where a moved-out config went, and why the policy does not check it there. */
   readonly movedTo?: { readonly path: string; readonly why: string };
   /** Parallel to result.requirements when compared. */
@@ -94,6 +98,8 @@ export interface PolicyNotice {
   readonly path: string;
   readonly line: number;
   readonly message: string;
+  /** The file is an architecture definition, not a policy. */
+  readonly definition?: true;
 }
 
 export interface CheckOutcome {
@@ -120,6 +126,10 @@ const CHANGED_POLICY =
   "the pull request changes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
 const DELETED_POLICY =
   "the pull request deletes this policy; it is judged with the base revision's version (a change cannot loosen its own gate)";
+
+const CHANGED_DEFINITION =
+  "the pull request changes this architecture definition; the configs that name it are built with this version on the head side (it is the architecture they have once merged) and with the base revision's on the base side, and their parameter values are judged with the base revision's declarations";
+const DELETED_DEFINITION = 'the pull request deletes this architecture definition; configs that still name it cannot be built';
 
 export function runCheck(req: CheckRequest): CheckOutcome {
   const repo = openRepo(req.cwd);
@@ -190,6 +200,7 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   }
   if (baseFiles && req.configs.length === 0) for (const p of baseFiles.paths()) if (YAML_FILE.test(p) && selector.matches(p)) basePaths.add(p);
 
+  const governs = (p: Policy, path: string): boolean => (explicit && singleFile) || policyApplies(p, path);
   // What changed, and which deletions and additions git paired as renames.
   const changes: Changes | undefined = base ? (index ? stagedChanges(repo!) : changesSince(repo!, base, { against: 'worktree' })) : undefined;
   const renamedFrom = new Map<string, string>();
@@ -198,10 +209,19 @@ export function runCheck(req: CheckRequest): CheckOutcome {
   if ((req.changed || req.staged) && changes) {
     const changed = new Set(changes.files.map((c) => c.path));
     const policyChanged = (p: Policy): boolean => p.chain.some((f) => changed.has(toRootRelative(root, resolve(req.cwd, f))));
-    selected = selected.filter((f) => changed.has(f) || policies.some((p) => policyChanged(p) && policyApplies(p, f)));
+    // A changed file that is no candidate config may be a definition that unchanged configs name.
+    const candidates = new Set(selected);
+    const others = changes.files.some((c) => !candidates.has(c.path));
+    const namesChanged = (f: string): boolean => {
+      if (!others) return false;
+      const r = head.has(f) ? head.read(f) : baseFiles?.read(f);
+      if (r?.kind !== 'file') return false;
+      return policies.some((p) => governs(p, f) && changed.has(definitionOf(r.text, f, p) ?? ''));
+    };
+    index?.prefetch(selected);
+    selected = selected.filter((f) => changed.has(f) || policies.some((p) => policyChanged(p) && policyApplies(p, f)) || namesChanged(f));
   }
 
-  const governs = (p: Policy, path: string): boolean => (explicit && singleFile) || policyApplies(p, path);
   const checkable = (p: Policy, path: string): string | undefined => {
     if (!YAML_FILE.test(path)) return 'not a YAML file (.yaml or .yml)';
     if (!governs(p, path)) return `outside the applies_to of policy ${p.id}`;
@@ -259,19 +279,39 @@ export function runCheck(req: CheckRequest): CheckOutcome {
     }
   }
 
-  // The base versions that differ from their heads are evaluated as one batch, beside the heads.
+  // The architecture definitions the configs name: the base side's from the base revision, read
+  // in one batch; the head side's from the head, with the base revision's declarations.
+  const definitions = new CheckDefinitions(head, baseFiles, judging, display, sources);
+  const refs = slots.map((slot) => {
+    if (!('head' in slot)) return {};
+    const headRef = slot.head.kind === 'file' ? definitionOf(slot.head.text, slot.path, slot.policy) : undefined;
+    const baseRef = slot.base?.kind === 'file' ? definitionOf(slot.base.text, slot.basePath!, slot.policy) : undefined;
+    return { headRef, baseRef };
+  });
+  definitions.prefetch(refs.flatMap((r) => [r.headRef, r.baseRef].filter((x): x is string => x !== undefined)));
+
+  // The base versions that differ from their heads (or whose definition does) are evaluated as one
+  // batch, beside the heads.
   const tasks: BaseTask[] = [];
-  for (const slot of slots) {
-    if (!('head' in slot) || slot.base?.kind !== 'file') continue;
-    if (slot.head.kind === 'file' && slot.head.text === slot.base.text) continue;
-    slot.task = tasks.push({ text: slot.base.text, file: display(slot.path), policy: slot.policy }) - 1;
-  }
+  slots.forEach((slot, i) => {
+    if (!('head' in slot) || slot.base?.kind !== 'file') return;
+    const { baseRef } = refs[i]!;
+    if (slot.head.kind === 'file' && slot.head.text === slot.base.text && (baseRef === undefined || !definitions.differs(baseRef))) return;
+    const texts = definitions.baseTexts(baseRef);
+    slot.task = tasks.push({ text: slot.base.text, file: display(slot.path), policy: slot.policy, path: slot.basePath!, ...(texts ? { definitions: texts } : {}) }) - 1;
+  });
   const collect = startBaseEvaluation(tasks);
   const heads = slots.map((slot) => {
     if (!('head' in slot)) return undefined;
     if (slot.head.kind === 'file') sources.set(display(slot.path), slot.head.text);
-    return evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors);
+    return evaluateHead(slot.path, display(slot.path), slot.policy, slot.head, errors, definitions.head);
   });
+  // A definition the head changes is reported like a changed policy (it was read through JudgingFiles).
+  const reported = new Set(notices.map((n) => n.path));
+  for (const c of judging.headChanges()) {
+    if (reported.has(c.path) || !definitions.read.has(c.path)) continue;
+    notices.push({ file: display(c.path), path: c.path, line: c.line, message: c.deleted ? DELETED_DEFINITION : CHANGED_DEFINITION, definition: true });
+  }
   const answers: readonly BaseAnswer[] = tasks.length > 0 ? collect() : [];
   const checked: CheckedConfig[] = [];
   slots.forEach((slot, i) => {

@@ -37,6 +37,7 @@ export function boundsCommand(args: readonly string[], io: Io): number {
     printDiagnostics(outcome.diagnostics, io);
     return EXIT_INPUT;
   }
-  io.stdout(format === 'json' ? boundsJson(outcome.result) : boundsText(outcome.result));
+  const architecture = model.kind === 'layered' ? model.architecture : undefined;
+  io.stdout(format === 'json' ? boundsJson(outcome.result, architecture) : boundsText(outcome.result, architecture));
   return EXIT_OK;
 }

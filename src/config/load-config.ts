@@ -90,7 +90,7 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
 
   if (root.kind === 'map' && entryOf(root, 'architecture') !== undefined) {
     const source = options.definitions ?? workTreeDefinitions(repositoryOf(file).root);
-    const configRel = options.configPath ?? insideRoot(repositoryOf(file).configRel);
+    const configRel = insideRoot(options.configPath ?? repositoryOf(file).configRel);
     const read: ModelFromTree = (tree, into, paramsOf) => {
       const m = modelFromTree(tree, file, into, paramsOf);
       return m?.kind === 'explicit' ? 'explicit' : m;

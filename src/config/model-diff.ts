@@ -9,6 +9,7 @@
 import type { Span } from '../diagnostic.js';
 import type { Layer, LayeredModel, Model, Padding } from './model.js';
 import { INPUT, layerLabel } from './model.js';
+import { attributeToParameters } from './parameter-changes.js';
 
 export interface FieldChange {
   /** Layer label in the head (`input`/`output` for their fields, `model` for model-wide ones). */
@@ -19,6 +20,23 @@ export interface FieldChange {
   readonly to: string;
   /** Where the change is in the head file (for a removed layer: the next layer, or the model). */
   readonly span: Span;
+  /** The file `span` is in when it is not the config: the architecture definition (root-relative). */
+  readonly file?: string;
+  /**
+   * For a parameter of an architecture definition whose value the head sets differently (`layer`
+   * is `parameter`, `field` its name, `span` its line in the config, or the config's
+   * `architecture` line when the head uses the default): what it changed in the layers.
+   */
+  readonly effects?: readonly LayerEffect[];
+}
+
+/** A change of one layer field that a parameter made. */
+export interface LayerEffect {
+  /** Head label; the base label of a removed layer. */
+  readonly layer: number | string;
+  readonly field: string;
+  readonly from: string;
+  readonly to: string;
 }
 
 /** Compared fields per kind: the model's property, and the YAML field reports name (and spans key). */
@@ -69,7 +87,7 @@ export function diffModels(base: Model, head: Model): FieldChange[] {
       changes.push({ layer: layerLabel(b), field: 'layer', from: b.kind, to: '(removed)', span: next?.span ?? head.span });
     }
   }
-  return changes;
+  return base.architecture || head.architecture ? attributeToParameters(base, head, changes) : changes;
 }
 
 function show(v: unknown): string {

@@ -6,7 +6,8 @@
  */
 import { statSync } from 'node:fs';
 import { resolve } from 'node:path';
-import { findRepoRoot } from '../check/repo-files.js';
+import { findRepoRoot, toRootRelative } from '../check/repo-files.js';
+import { workTreeDefinitions } from '../config/definition-source.js';
 import { loadConfigFile } from '../config/load-config.js';
 import { computeBounds } from '../cut/bounds.js';
 import type { Bound, Surrogate } from '../cut/types.js';
@@ -59,7 +60,9 @@ export function runRatchet(req: RatchetRequest): RatchetJobResult {
   }
   const surrogate = req.surrogate ?? policy?.surrogate ?? 'tree';
   const modelPath = req.modelPath ?? policy?.modelPath;
-  const loaded = loadConfigFile(req.config, modelPath === undefined ? {} : { modelPath });
+  // A definition the config names is read from the same repository, links refused.
+  const where = { definitions: workTreeDefinitions(root), configPath: toRootRelative(root, req.config) };
+  const loaded = loadConfigFile(req.config, { ...(modelPath === undefined ? {} : { modelPath }), ...where });
   if (!loaded.ok) return loaded;
   const model = loaded.model;
   const shape = model.kind === 'explicit' ? model.shape : model.input.shape;

@@ -6,6 +6,7 @@
  */
 import type { Diagnostic } from '../diagnostic.js';
 import type { Model } from '../config/model.js';
+import type { ParameterSpace } from '../config/parameter-space.js';
 import { resolvePartition, type Partition } from '../partition/partition.js';
 import { computeBounds } from '../cut/bounds.js';
 import type { PartitionBounds, Surrogate } from '../cut/types.js';
@@ -38,6 +39,8 @@ export type EvaluateOutcome = { ok: true; result: PolicyResult } | { ok: false; 
 export interface EvaluateOptions {
   /** Search for fixes of failing requirements (default true). */
   readonly fixes?: boolean;
+  /** A config built from an architecture definition: fixes search its parameters first. */
+  readonly parameters?: ParameterSpace;
 }
 
 export function verdictOf(b: PartitionBounds, minRank: bigint): RequirementVerdict {
@@ -77,7 +80,7 @@ export function evaluatePolicy(model: Model, policy: Policy, options: EvaluateOp
     const failing = verdict === 'fail' || (verdict === 'unproven' && req.unproven === 'fail');
     const fixes =
       failing && wantFixes && model.kind === 'layered'
-        ? searchFixes(model, partitions[i]!, req.minRank, req.unproven, surrogate, new Set(bounds.upper.cut.map((c) => c.layer)))
+        ? searchFixes(model, partitions[i]!, req.minRank, req.unproven, surrogate, new Set(bounds.upper.cut.map((c) => c.layer)), options.parameters)
         : [];
     return { requirement: req, partition: partitions[i]!, bounds, verdict, failing, fixes };
   });

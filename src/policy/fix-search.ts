@@ -10,16 +10,22 @@ import type { Span } from '../diagnostic.js';
 import type { Partition } from '../partition/partition.js';
 import { analyseLayered } from '../cut/bounds.js';
 import type { PartitionBounds, Surrogate } from '../cut/types.js';
+import type { ParameterSpace } from '../config/parameter-space.js';
+import { searchParameterFixes } from './parameter-fixes.js';
 import { parameterCount } from './parameters.js';
 import type { UnprovenMode } from './policy.js';
 
 export interface Fix {
-  /** Layer label (name or index). */
+  /** Layer label (name or index); `parameter` for a parameter of an architecture definition. */
   readonly layer: number | string;
-  /** Canonical field name: `channels`, `units`, `hidden`, `depth`. */
+  /** Canonical field name: `channels`, `units`, `hidden`, `depth`; a parameter's name (`width`, `stages[1]`). */
   readonly field: string;
   readonly line: number;
   readonly column: number;
+  /** The file the line is in when it is not the config: the architecture definition (root-relative). */
+  readonly file?: string;
+  /** A parameter the config does not set yet (it uses the default): the fix adds it; the line is the config's `architecture`. */
+  readonly added?: true;
   readonly from: number;
   readonly to: number;
   readonly addedParameters: bigint;
@@ -45,6 +51,11 @@ interface Candidate {
 const MAX_WIDTH = 1 << 16;
 const MAX_DEPTH = 64;
 
+/**
+ * For a model built from an architecture definition, the parameters are searched first (each
+ * within its declared range, `parameter-fixes.ts`), then the layer fields of the definition; each
+ * group cheapest first.
+ */
 export function searchFixes(
   model: LayeredModel,
   partition: Partition,
@@ -52,6 +63,7 @@ export function searchFixes(
   unproven: UnprovenMode,
   surrogate: Surrogate,
   cutLayers: ReadonlySet<number | string>,
+  parameters?: ParameterSpace,
 ): Fix[] {
   const judge = (m: LayeredModel): PartitionBounds | undefined => {
     const a = analyseLayered(m, { surrogate });
@@ -59,9 +71,16 @@ export function searchFixes(
     const b = a.bounds(partition);
     return 'diagnostic' in b ? undefined : b;
   };
+  const near = nearLayers(model, cutLayers);
+  const restoring = (m: LayeredModel): PartitionBounds | undefined => {
+    const b = judge(m);
+    return b && restores(b, minRank, unproven) ? b : undefined;
+  };
+  const byParameter = parameters ? searchParameterFixes(model, parameters, near, cutLayers.has('input'), restoring, minRank) : [];
   const baseParams = parameterCount(model);
   const fixes: Fix[] = [];
-  for (const cand of candidates(model, cutLayers)) {
+  const file = model.architecture ? { file: model.architecture.path } : {};
+  for (const cand of candidates(model, near)) {
     const at = (v: number): PartitionBounds | undefined => judge(cand.apply(model, v));
     let lo = cand.from;
     let hi = Math.min(cand.max, Math.max(cand.from + 1, cand.from * 2));
@@ -91,22 +110,22 @@ export function searchFixes(
       field: cand.field,
       line: cand.span.line,
       column: cand.span.column,
+      ...file,
       from: cand.from,
       to: hi,
       addedParameters: parameterCount(fixed) - baseParams,
       verdict: found.lower !== null && found.lower.rank >= minRank ? 'pass' : 'unproven',
     });
   }
-  return fixes.sort((a, b) => (a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line));
+  return [...cheapestFirst(byParameter), ...cheapestFirst(fixes)];
 }
 
-/**
- * Width fields of the layers the cut crosses and of their neighbours in the layer graph (the
- * layers they read and the layers that read them). When the input legs are cut and M follows the
- * first layer's width, that layer's width is a candidate; the data's raw channels and an M set by
- * the config are never proposed (they are not the architecture's to change).
- */
-function candidates(model: LayeredModel, cutLayers: ReadonlySet<number | string>): Candidate[] {
+export function cheapestFirst(fixes: readonly Fix[]): Fix[] {
+  return [...fixes].sort((a, b) => (a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line));
+}
+
+/** The layers the cut crosses and their neighbours in the layer graph (the layers they read and those that read them). */
+export function nearLayers(model: LayeredModel, cutLayers: ReadonlySet<number | string>): Set<number> {
   const near = new Set<number>();
   const consumers: number[][] = model.layers.map(() => []);
   for (const l of model.layers) for (const i of l.inputs) if (i !== INPUT) consumers[i]!.push(l.index);
@@ -117,6 +136,16 @@ function candidates(model: LayeredModel, cutLayers: ReadonlySet<number | string>
     for (const c of consumers[l.index]!) near.add(c);
   }
   if (cutLayers.has('input') && model.input.representation === undefined) for (const l of firstMaps(model)) near.add(l.index);
+  return near;
+}
+
+/**
+ * Width fields of the layers the cut crosses and of their neighbours (`nearLayers`). When the
+ * input legs are cut and M follows the first layer's width, that layer's width is a candidate;
+ * the data's raw channels and an M set by the config are never proposed (they are not the
+ * architecture's to change).
+ */
+function candidates(model: LayeredModel, near: ReadonlySet<number>): Candidate[] {
   const seen = new Set<string>();
   const out: Candidate[] = [];
   for (const i of [...near].sort((a, b) => a - b)) {

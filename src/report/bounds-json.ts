@@ -2,6 +2,7 @@
  * The JSON form of `rankfloor bounds`: one document, ranks as decimal strings (they exceed 2^53),
  * log2 rounded to 6 decimals, keys in a fixed order so that the same input gives the same bytes.
  */
+import type { ArchitectureUse } from '../config/model.js';
 import type { Bound, BoundsResult, CutEntry } from '../cut/types.js';
 
 export interface BoundJson {
@@ -22,10 +23,14 @@ export function roundLog(x: number): number {
   return Math.round(x * 1e6) / 1e6;
 }
 
-export function boundsJson(result: BoundsResult): string {
+/** `architecture`: the definition a config names; the cut's lines are that file's. */
+export function boundsJson(result: BoundsResult, architecture?: ArchitectureUse): string {
   const doc = {
     file: result.file,
     surrogate: result.surrogate,
+    ...(architecture
+      ? { architecture: { file: architecture.file, name: architecture.name, parameters: architecture.parameters.map((p) => ({ name: p.name, value: p.value, line: p.span?.line ?? null })) } }
+      : {}),
     partitions: result.partitions.map((p) => ({
       partition: p.partition,
       upper: boundJson(p.upper),

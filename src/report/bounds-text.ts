@@ -2,6 +2,7 @@
  * The terminal form of `rankfloor bounds`: a table with bits and ranks per partition, the
  * bottleneck layers of the minimal cut, and the notes on how the config was read.
  */
+import type { ArchitectureUse } from '../config/model.js';
 import { MAX_RANK_BITS, type Bound, type BoundsResult, type CutEntry, type PartitionBounds } from '../cut/types.js';
 
 const SURROGATE_WORDS = {
@@ -9,12 +10,18 @@ const SURROGATE_WORDS = {
   overlap: 'overlap (arithmetic surrogate: linear maps over kernel windows, product pooling)',
 } as const;
 
-export function boundsText(result: BoundsResult): string {
+/** `architecture`: the definition a config names; the layer lines are that file's. */
+export function boundsText(result: BoundsResult, architecture?: ArchitectureUse): string {
   const rows = result.partitions.map(row);
   const head = ['partition', 'upper bits', 'upper rank', 'lower bits', 'status', 'bottleneck (min-cut)'];
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i]!.length)));
   const fmt = (cells: string[]): string => cells.map((c, i) => (i === cells.length - 1 ? c : c.padEnd(widths[i]!))).join('  ').trimEnd();
-  const out = [`${result.file}`, `surrogate: ${SURROGATE_WORDS[result.surrogate]}`, '', fmt(head), fmt(widths.map((w) => '-'.repeat(w)))];
+  const out = [`${result.file}`, `surrogate: ${SURROGATE_WORDS[result.surrogate]}`];
+  if (architecture) {
+    const values = architecture.parameters.map((p) => `${p.name} = ${p.value}`).join(', ');
+    out.push(`built from: ${architecture.file} (${architecture.name}) with ${values}; the lines below are that file's`);
+  }
+  out.push('', fmt(head), fmt(widths.map((w) => '-'.repeat(w))));
   for (const r of rows) out.push(fmt(r));
   if (result.notes.length > 0) {
     out.push('', 'notes:');

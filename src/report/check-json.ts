@@ -31,6 +31,16 @@ export function checkJson(outcome: CheckOutcome): string {
         ...(c.comparison === 'none' ? {} : { comparison: c.comparison }),
         ...(c.renamedFrom !== undefined ? { renamed_from: c.renamedFrom } : {}),
         ...(c.movedTo ? { moved_to: c.movedTo.path, moved_why: c.movedTo.why } : {}),
+        ...(c.architecture
+          ? {
+              architecture: {
+                path: c.architecture.path,
+                name: c.architecture.name,
+                line: c.architecture.span.line,
+                parameters: c.architecture.parameters.map((p) => ({ name: p.name, value: p.value, line: p.span?.line ?? null })),
+              },
+            }
+          : {}),
         requirements: (r?.requirements ?? []).map((q, i) => {
           const d = c.deltas?.[i];
           return {
@@ -40,12 +50,14 @@ export function checkJson(outcome: CheckOutcome): string {
             lower: q.bounds.lower ? boundJson(q.bounds.lower) : null,
             status: q.bounds.status,
             verdict: q.verdict,
-            cut: cutJson(q.bounds.upper.cut),
+            cut: cutJson(q.bounds.upper.cut).map((e) => (c.architecture ? { ...e, file: c.architecture.path } : e)),
             fix: (q.failing ? q.fixes : d?.dropFails ? d.fixes : []).map((f) => ({
               layer: f.layer,
               field: f.field,
+              ...(f.file !== undefined ? { file: f.file } : {}),
               line: f.line,
               column: f.column,
+              ...(f.added ? { added: true } : {}),
               from: f.from,
               to: f.to,
               added_parameters: f.addedParameters.toString(),
@@ -57,7 +69,16 @@ export function checkJson(outcome: CheckOutcome): string {
                   change_bits: d.changeBits === null ? null : roundLog(d.changeBits),
                   max_drop_bits: d.maxDropBits ?? null,
                   drop_fails: d.dropFails,
-                  attributed: d.attributed.map((a) => ({ layer: a.layer, field: a.field, from: a.from, to: a.to, line: a.span.line, column: a.span.column })),
+                  attributed: d.attributed.map((a) => ({
+                    layer: a.layer,
+                    field: a.field,
+                    from: a.from,
+                    to: a.to,
+                    ...(a.file !== undefined ? { file: a.file } : {}),
+                    line: a.span.line,
+                    column: a.span.column,
+                    ...(a.effects ? { effects: a.effects.map((e) => ({ layer: e.layer, field: e.field, from: e.from, to: e.to })) } : {}),
+                  })),
                 }
               : {}),
           };

@@ -8,6 +8,8 @@
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { log2Big } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
+import type { ArchitectureUse } from '../config/model.js';
+import type { FieldChange, LayerEffect } from '../config/model-diff.js';
 import { bits, boundRank, cutLabel, shortRank } from './bounds-text.js';
 
 export interface TextOptions {
@@ -48,10 +50,11 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
     }
     if (shown.length === 0) continue;
     const against = c.comparison === 'new' ? ', new config (no base to compare)' : c.renamedFrom !== undefined ? `, renamed from ${c.renamedFrom}` : '';
-    out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${against}`);
+    const built = c.architecture ? `, built from ${c.architecture.path} (${c.architecture.name})` : '';
+    out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${built}${against}`);
     for (const { q, d } of shown) {
       if (q.failing || d?.dropFails) {
-        const [first, ...rest] = explainRequirement(q, d);
+        const [first, ...rest] = explainRequirement(q, d, c.architecture);
         out.push(`  ${label(q, d, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
       } else out.push(`  ${label(q, d, paint)}  ${requirementSummary(q)}${d ? `; ${change(d)}` : ''}`);
     }
@@ -133,10 +136,13 @@ function change(d: RequirementDelta): string {
  * The explanation of a failing requirement, plain text, first line a title. Shared by the text
  * report, annotations, SARIF and JUnit so that they all say the same.
  */
-export function explainRequirement(q: RequirementResult, d?: RequirementDelta): string[] {
+export function explainRequirement(q: RequirementResult, d?: RequirementDelta, architecture?: ArchitectureUse): string[] {
   const req = q.requirement;
   const b = q.bounds;
   const lines = [`${req.partition} — ${q.partition.description}`];
+  // Layer lines of a model built from a definition are that file's.
+  const at = (line: number, file?: string): string => (file ? `${file}:${line}` : `line ${line}`);
+  const layerFile = architecture?.path;
   lines.push(`needs   ${needs(q)}  [${req.written}, ${req.file}:${req.span.line}]`);
   if (q.verdict === 'fail') {
     lines.push(`allows  ${range(q)} — provably short by ${bits(log2Big(req.minRank) - b.upper.log2)} bits`);
@@ -148,13 +154,11 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta): 
   if (d) {
     lines.push(`change  ${change(d)}`);
     if (d.dropFails) lines.push(`        a drop of more than max_drop_bits = ${d.maxDropBits} fails even though the minimum may still hold`);
-    for (const a of d.attributed) {
-      const who = typeof a.layer === 'number' ? `layer ${a.layer}` : a.layer === 'input' ? 'input' : `layer ${a.layer}`;
-      lines.push(`        this change on the cut: line ${a.span.line}:${a.span.column} ${who} ${a.field}: ${a.from} → ${a.to}`);
-    }
+    for (const a of d.attributed) lines.push(`        ${attributionText(a)}`);
   }
+  if (architecture) lines.push(`model   built from ${architecture.path} (${architecture.name}) with ${architecture.parameters.map((p) => `${p.name} = ${p.value}`).join(', ')}`);
   if (b.upper.cut.length > 0) {
-    const crossing = b.upper.cut.map((c) => `${c.count} bond${c.count === 1 ? '' : 's'} of dimension ${c.dim} from ${cutLabel(c.layer)} (line ${c.line})`);
+    const crossing = b.upper.cut.map((c) => `${c.count} bond${c.count === 1 ? '' : 's'} of dimension ${c.dim} from ${cutLabel(c.layer)} (${at(c.line, layerFile)})`);
     lines.push(`bottleneck (${b.upper.method}): ${crossing.join('; ')}`);
   } else {
     lines.push(`bottleneck: ${b.upper.method}`);
@@ -166,15 +170,43 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta): 
     } else if (fixes.length === 0) {
       lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
     } else {
-      lines.push('fix (smallest change of one field, cheapest first):');
+      lines.push(architecture ? 'fix (smallest change of one parameter, then of one field of the definition; cheapest first):' : 'fix (smallest change of one field, cheapest first):');
       for (const f of fixes) {
-        const who = f.layer === 'input' ? 'input' : `layer ${f.layer}`;
+        const who = f.layer === 'parameter' ? 'parameter' : f.layer === 'input' ? 'input' : `layer ${f.layer}`;
         const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
-        lines.push(`  line ${f.line}:${f.column}  ${who} ${f.field}: ${f.from} → ${f.to}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);
+        const add = f.added ? ` (the default; add ${f.field}: ${f.to} to the config)` : '';
+        lines.push(`  ${f.file ? `${f.file}:${f.line}:${f.column}` : `line ${f.line}:${f.column}`}  ${who} ${f.field}: ${f.from} → ${f.to}${add}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);
       }
     }
   }
   return lines;
+}
+
+/** Most layer changes a parameter's line lists before it counts the rest. */
+const EFFECTS_SHOWN = 4;
+
+/** One attributed change: where it is, and for a parameter, what it did to the layers. */
+function attributionText(a: FieldChange): string {
+  const where = a.file ? `${a.file}:${a.span.line}:${a.span.column}` : `line ${a.span.line}:${a.span.column}`;
+  if (a.layer === 'parameter' || (a.layer === 'model' && a.effects)) {
+    const what = a.layer === 'parameter' ? `parameter ${a.field}` : a.field;
+    const effects = a.effects ?? [];
+    const shrank = effects.filter(shrinks);
+    const listed = (shrank.length > 0 ? shrank : effects).slice(0, EFFECTS_SHOWN).map((e) => `${e.field === 'layer' ? `layer ${e.layer}` : `${e.layer} ${e.field}`} ${e.from} → ${e.to}`);
+    const rest = (shrank.length > 0 ? shrank : effects).length - listed.length;
+    const verb = shrank.length > 0 ? 'it shrinks' : effects.length > 0 ? 'it changes' : 'it changes no layer';
+    return `this change: ${where} ${what}: ${a.from} → ${a.to}; ${verb}${listed.length > 0 ? ` ${listed.join(', ')}` : ''}${rest > 0 ? ` and ${rest} more` : ''}`;
+  }
+  const who = typeof a.layer === 'number' ? `layer ${a.layer}` : a.layer === 'input' ? 'input' : `layer ${a.layer}`;
+  return `this change on the cut: ${where} ${who} ${a.field}: ${a.from} → ${a.to}`;
+}
+
+/** A layer change that takes capacity away: a smaller number, or a layer removed. */
+function shrinks(e: LayerEffect): boolean {
+  if (e.to === '(removed)') return true;
+  const from = Number(e.from.replace(/^\[|\]$/g, '').split(',')[0]);
+  const to = Number(e.to.replace(/^\[|\]$/g, '').split(',')[0]);
+  return Number.isFinite(from) && Number.isFinite(to) && to < from;
 }
 
 /**

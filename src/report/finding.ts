@@ -16,7 +16,9 @@ export type FindingRule =
   /** A config or policy that could not be read. */
   | 'input-error'
   /** A config governed at the base that the change deleted or moved out of the policy's reach. */
-  | 'config-removed';
+  | 'config-removed'
+  /** The head revision changed an architecture definition that checked configs name. */
+  | 'definition-changed';
 
 export interface Finding {
   readonly rule: FindingRule;

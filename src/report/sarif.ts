@@ -94,6 +94,17 @@ const RULES: readonly RuleText[] = [
     help: 'If the config is meant to stay governed, keep it where the policy looks; otherwise have the removal reviewed on its own.',
     level: 'warning',
   },
+  {
+    rule: 'definition-changed',
+    name: 'DefinitionChanged',
+    short: 'This change edits an architecture definition that checked configs name.',
+    full:
+      'The head revision edits an architecture definition. The configs that name it were built with the edited ' +
+      "version on the head side and with the base revision's on the base side, so what the edit does to their " +
+      "capacity is in their results; the ranges of its parameters were judged with the base revision's version.",
+    help: 'No action is needed for this notice; a requirement the edit breaks is reported at the changed line of the definition.',
+    level: 'note',
+  },
 ];
 
 const RULE_INDEX: ReadonlyMap<FindingRule, number> = new Map(RULES.map((r, i) => [r.rule, i]));

@@ -25,6 +25,7 @@ test('each rule has one kind', () => {
   expect(kindOf(finding('input-error', 1))).toBe('error');
   expect(kindOf(finding('requirement-unproven', 1))).toBe('warning');
   expect(kindOf(finding('policy-changed', 1))).toBe('notice');
+  expect(kindOf(finding('definition-changed', 1))).toBe('notice');
 });
 
 test('an annotation carries title, file, line and column under the toolkit names', () => {
