@@ -18,6 +18,8 @@ export interface ParameterBinding {
   readonly value: ParameterValue;
   /** The config's value; absent when the definition's default is used. */
   readonly span?: Span;
+  /** For a list the config sets: each entry's span. */
+  readonly itemSpans?: readonly Span[];
   /** For messages: `configs/small.yaml:4:10`, or `the default`. */
   readonly where: string;
 }

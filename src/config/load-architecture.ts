@@ -106,7 +106,8 @@ export function loadArchitecture(req: ArchitectureRequest, sink: DiagnosticSink)
     const value = readParameterValue(entry.value, decl, sink, 'config', displayPath(entry.value), judging);
     if (value === undefined) continue;
     const span = entry.value.span;
-    bindings.set(entry.key, { value, span, where: `${sink.file}:${span.line}:${span.column}` });
+    const itemSpans = entry.value.kind === 'seq' ? { itemSpans: entry.value.items.map((item) => item.span) } : {};
+    bindings.set(entry.key, { value, span, ...itemSpans, where: `${sink.file}:${span.line}:${span.column}` });
   }
   if (sink.count > 0) return fail();
   for (const [name, decl] of definition.parameters) if (!bindings.has(name)) bindings.set(name, { value: decl.default, where: `the default in ${display}` });

@@ -42,7 +42,7 @@ export function parameterSpace(instance: ArchitectureInstance, read: ModelFromTr
     const common = { name: decl.name, min: judged.min, max: judged.max, step: decl.step };
     if (Array.isArray(b.value)) {
       (b.value as readonly Exact[]).forEach((value, index) => {
-        choices.push({ ...common, label: `${decl.name}[${index}]`, index, value, span: b.span ?? instance.span, set: b.span !== undefined });
+        choices.push({ ...common, label: `${decl.name}[${index}]`, index, value, span: b.itemSpans?.[index] ?? b.span ?? instance.span, set: b.span !== undefined });
       });
     } else choices.push({ ...common, label: decl.name, value: b.value as Exact, span: b.span ?? instance.span, set: b.span !== undefined });
   }

@@ -9,51 +9,8 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import type { Diagnostic } from '../../src/diagnostic.js';
 import { loadConfigFile, loadConfigText, type LoadResult } from '../../src/config/load-config.js';
-import type { DefinitionSource } from '../../src/config/definition-source.js';
 import type { LayeredModel } from '../../src/config/model.js';
-
-export const NET = `name: tiny-net
-description: A small residual-free image net for tests.
-parameters:
-  width:
-    type: number
-    default: 1
-    min: 0.25
-    max: 4
-    step: 0.25
-    description: channel multiplier
-  blocks:
-    type: list
-    default: [1, 2]
-    min: 1
-    max: 4
-    description: convolutions per stage
-  size: {type: int, default: 16, min: 8, max: 64, description: image side}
-model:
-  input: {shape: ["=size", "=size"], channels: 3}
-  layers:
-    - conv: {channels: "=ceil(8 * width)", kernel: 3, name: stem}
-    - repeat:
-        times: "=blocks[0]"
-        layers:
-          - conv: {channels: "=ceil(8 * width)", kernel: 3, name: a}
-    - pool: {window: 2}
-    - repeat:
-        times: "=blocks[1]"
-        layers:
-          - conv: {channels: "=ceil(16 * width)", kernel: 3, name: b}
-    - pool: {global: true}
-    - dense: {units: 4}
-`;
-
-/** An in-memory repository: root-relative path → text. */
-export function memorySource(files: Record<string, string>, judging?: Record<string, string>): DefinitionSource {
-  return {
-    read: (rel) => (rel in files ? { kind: 'file', text: files[rel]! } : { kind: 'absent' }),
-    ...(judging ? { judging: (rel: string) => (rel in judging ? { kind: 'file' as const, text: judging[rel]! } : { kind: 'absent' as const }) } : {}),
-    display: (rel) => rel,
-  };
-}
+import { memorySource, NET } from '../helpers/definitions.js';
 
 function loadWith(config: string, files: Record<string, string> = { 'arch/net.yaml': NET }, judging?: Record<string, string>): LoadResult {
   return loadConfigText(config, 'configs/run.yaml', { definitions: memorySource(files, judging), configPath: 'configs/run.yaml' });
