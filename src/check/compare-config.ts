@@ -10,6 +10,7 @@ import { loadConfigText } from '../config/load-config.js';
 import type { Model } from '../config/model.js';
 import type { DefinitionSource } from '../config/definition-source.js';
 import type { ParameterSpace } from '../config/parameter-space.js';
+import { widthSources } from '../config/width-sources.js';
 import { diffModels, type FieldChange } from '../config/model-diff.js';
 import type { FileRead } from '../files/file-read.js';
 import type { Policy, Requirement } from '../policy/policy.js';
@@ -96,24 +97,27 @@ export function loadConfig(
 }
 
 /**
- * The changes on the head's minimal cut: a layer field there, or a parameter that changed a layer
- * there. When none is on the cut but the requirement lost capacity and every change is a
- * parameter's (the definition and the rest of the config are the same on both sides), those
- * parameters made the whole difference, and they are the change to look at.
+ * The changes on the head's minimal cut: a field of a layer whose width a cut bond carries
+ * (`widthSources`), or a parameter that changed one, its effects there listed first. When none is
+ * on the cut but the requirement lost capacity and every change is a parameter's (the definition
+ * and the rest of the config are the same on both sides), those parameters made the whole
+ * difference, and they are the change to look at.
  */
-function onTheCut(changes: readonly FieldChange[], cutLayers: ReadonlySet<number | string>, lost: boolean): FieldChange[] {
-  const on = changes.filter((c) => cutLayers.has(c.layer) || c.effects?.some((e) => cutLayers.has(e.layer)) === true);
-  if (on.length > 0 || !lost || changes.length === 0 || changes.some((c) => c.layer !== 'parameter')) return on;
-  return changes.filter((c) => (c.effects?.length ?? 0) > 0);
+function onTheCut(changes: readonly FieldChange[], head: Model, cutLayers: ReadonlySet<number | string>, lost: boolean): FieldChange[] {
+  const on = head.kind === 'layered' ? widthSources(head, cutLayers) : cutLayers;
+  const first = (c: FieldChange): FieldChange => (c.effects ? { ...c, effects: [...c.effects].sort((a, b) => Number(on.has(b.layer)) - Number(on.has(a.layer))) } : c);
+  const hit = changes.filter((c) => on.has(c.layer) || c.effects?.some((e) => on.has(e.layer)) === true).map(first);
+  if (hit.length > 0 || !lost || changes.length === 0 || changes.some((c) => c.layer !== 'parameter')) return hit;
+  return changes.filter((c) => (c.effects?.length ?? 0) > 0).map(first);
 }
 
 function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model, parameters: ParameterSpace | undefined): RequirementDelta {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
   const maxDropBits = maxDrop(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed: onTheCut(changes, cutLayers, false), fixes: [] };
+  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed: onTheCut(changes, head, cutLayers, false), fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
-  const attributed = onTheCut(changes, cutLayers, q.bounds.upper.rank < b.bounds.upper.rank);
+  const attributed = onTheCut(changes, head, cutLayers, q.bounds.upper.rank < b.bounds.upper.rank);
   // Exact: a drop of more than k bits means base > head · 2^k; fractional limits compare in log2.
   const limit = maxDropBits;
   const dropFails =

@@ -185,14 +185,15 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta, a
 /** Most layer changes a parameter's line lists before it counts the rest. */
 const EFFECTS_SHOWN = 4;
 
-/** One attributed change: where it is, and for a parameter, what it did to the layers. */
+/** One attributed change: where it is, and for a parameter, what it did to the layers (those on the cut first). */
 function attributionText(a: FieldChange): string {
   const where = a.file ? `${a.file}:${a.span.line}:${a.span.column}` : `line ${a.span.line}:${a.span.column}`;
   if (a.layer === 'parameter' || (a.layer === 'model' && a.effects)) {
     const what = a.layer === 'parameter' ? `parameter ${a.field}` : a.field;
     const effects = a.effects ?? [];
     const shrank = effects.filter(shrinks);
-    const listed = (shrank.length > 0 ? shrank : effects).slice(0, EFFECTS_SHOWN).map((e) => `${e.field === 'layer' ? `layer ${e.layer}` : `${e.layer} ${e.field}`} ${e.from} → ${e.to}`);
+    const name = (e: LayerEffect): string => (typeof e.layer === 'number' ? `layer ${e.layer}` : e.layer);
+    const listed = (shrank.length > 0 ? shrank : effects).slice(0, EFFECTS_SHOWN).map((e) => `${e.field === 'layer' ? `layer ${e.layer}` : `${name(e)} ${e.field}`} ${e.from} → ${e.to}`);
     const rest = (shrank.length > 0 ? shrank : effects).length - listed.length;
     const verb = shrank.length > 0 ? 'it shrinks' : effects.length > 0 ? 'it changes' : 'it changes no layer';
     return `this change: ${where} ${what}: ${a.from} → ${a.to}; ${verb}${listed.length > 0 ? ` ${listed.join(', ')}` : ''}${rest > 0 ? ` and ${rest} more` : ''}`;
