@@ -25,6 +25,10 @@ describe('rankfloor check over examples/ and policies/', () => {
       'examples/gait-sequence.yaml long-sensor-sequences': 'pass',
       'examples/renal-pair-net-trimmed.yaml paired-organ-scans': 'fail',
       'examples/renal-pair-net.yaml paired-organ-scans': 'pass',
+      'examples/train/gait-stride-clip.yaml wearable-gait-scores': 'pass',
+      'examples/train/gait-stride-watch.yaml wearable-gait-scores': 'pass',
+      'examples/train/seedling-tray-compact.yaml seedling-trays': 'pass',
+      'examples/train/seedling-tray-full.yaml seedling-trays': 'pass',
       'examples/weave-defects-training.yaml textile-inspection': 'pass',
     });
     const trimmed = doc.results.find((x: { file: string }) => x.file === 'examples/renal-pair-net-trimmed.yaml');

@@ -34,8 +34,8 @@ test('--sarif and --junit from a run over examples/ and policies/', () => {
   expect(results.filter((x) => x.ruleId === 'rankfloor/requirement-unproven')).toHaveLength(1);
 
   const xml = readFileSync(junitPath, 'utf8');
-  // 4 configs × 2 requirements each
-  expect(xml.match(/<testcase /g)).toHaveLength(8);
+  // 8 configs × 2 requirements each
+  expect(xml.match(/<testcase /g)).toHaveLength(16);
   expect(xml.match(/<failure /g)).toHaveLength(1);
-  expect(xml).toMatch(/<testsuites [^>]*tests="8"[^>]*failures="1"/);
+  expect(xml).toMatch(/<testsuites [^>]*tests="16"[^>]*failures="1"/);
 });
