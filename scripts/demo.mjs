@@ -1,5 +1,5 @@
 // The README's demo: `rankfloor check` over the bundled examples with the bundled policies, then
-// `rankfloor bounds` on two of them. The trimmed kidney-pair config fails its policy on purpose;
+// `rankfloor bounds` on three of them (one a training config that names an architecture definition). The trimmed kidney-pair config fails its policy on purpose;
 // the demo exits 0 when exactly that happens and passes any other outcome on as an error.
 import { run } from '../build/cli/run.js';
 
@@ -21,6 +21,7 @@ if (checked === 1) {
 for (const args of [
   ['bounds', 'examples/renal-pair-net.yaml'],
   ['bounds', 'examples/probe-ring.yaml', '--partition', 'start-end', '--partition', 'interleaved'],
+  ['bounds', 'examples/train/seedling-tray-compact.yaml', '--partition', 'left-right', '--partition', 'top-bottom'],
 ]) {
   process.stdout.write(`\n$ rankfloor ${args.join(' ')}\n`);
   if ((await run(args, io)) !== 0) failed = true;

@@ -1,6 +1,6 @@
 /**
  * Where the architecture probably sits in a file whose model path did not resolve: the mappings
- * that hold `input` and `layers`, or a `network` with `tensors`, as JSON pointers, so that the hint can name the exact
+ * that hold `input` and `layers` (or name an `architecture` definition), or a `network` with `tensors`, as JSON pointers, so that the hint can name the exact
  * `--model-path` to pass instead of a made-up example. The search is breadth-first over the
  * parsed document (aliases are not followed) and bounded, so a huge document costs little.
  */
@@ -19,7 +19,7 @@ export function modelCandidates(doc: Document): string[] {
     if (isMap(node)) {
       const keys = node.items.map((p) => (isScalar(p.key) ? String(p.key.value) : undefined));
       const network = node.items[keys.indexOf('network')]?.value;
-      const layered = keys.includes('input') && keys.includes('layers');
+      const layered = (keys.includes('input') && keys.includes('layers')) || keys.includes('architecture');
       if (layered || (isMap(network) && network.items.some((p) => isScalar(p.key) && p.key.value === 'tensors'))) {
         found.push(formatPointer(path));
         continue;

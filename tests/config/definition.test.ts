@@ -179,6 +179,32 @@ describe('problems in the definition are reported in the definition', () => {
   });
 });
 
+describe('the model path and sizes', () => {
+  const nested = `experiment:\n  seed: 1\n  network:\n    architecture: ../arch/net.yaml\n    width: 0.5\n`;
+
+  test('a definition named under another model path (--model-path, a policy model_path)', () => {
+    const r = loadConfigText(nested, 'configs/run.yaml', { modelPath: '/experiment/network', definitions: memorySource({ 'arch/net.yaml': NET }), configPath: 'configs/run.yaml' });
+    expect(r.ok && (r.model as LayeredModel).architecture?.parameters[0]).toMatchObject({ name: 'width', value: '0.5', span: { line: 5, column: 12 } });
+  });
+
+  test('the hint of a model path that does not resolve names where the architecture is named', () => {
+    const d = problems(nested);
+    expect(d.map(at)).toEqual(['configs/run.yaml:1:1 config/model-missing']);
+    expect(d[0]!.message).toContain('pass --model-path /experiment/network');
+  });
+
+  test('computed sizes meet the same limits as written ones, at the expression', () => {
+    const many = NET.replace('max: 4\n    description: convolutions per stage', 'max: 9000\n    description: convolutions per stage');
+    const d = problems(SMALL.replace('[2, 1]', '[6000, 6000]'), { 'arch/net.yaml': many });
+    expect(d.map(at)).toEqual(['configs/run.yaml:3:17 config/architecture-failed', 'arch/net.yaml:23:16 definition/too-many-layers']);
+    expect(d[1]!.message).toContain("is 6000, which makes the model expand to 12004 layers");
+    const wide = NET.replace('"=ceil(8 * width)", kernel: 3, name: stem', '"=ceil(8 * width * 2^30)", kernel: 3, name: stem');
+    const w = problems(SMALL, { 'arch/net.yaml': wide });
+    expect(w.map(at)).toEqual(['configs/run.yaml:3:17 config/architecture-failed', 'arch/net.yaml:21:24 definition/number-too-large']);
+    expect(w[1]!.message).toContain("(computed as 4294967296 by '=ceil(8 * width * 2^30)' with width = 0.5 from configs/run.yaml:4:10)");
+  });
+});
+
 describe('definitions on disk', () => {
   const dir = mkdtempSync(join(tmpdir(), 'rankfloor-def-'));
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
