@@ -11,7 +11,7 @@ import { INPUT_ALIASES } from '../../src/config/field-aliases.js';
 import { loadConfigText } from '../../src/config/load-config.js';
 
 const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
-const section = readme.slice(readme.indexOf('## Config format'), readme.indexOf('## Partitions'));
+const section = readme.slice(readme.indexOf('## Config format'), readme.indexOf('## Architecture definitions'));
 const quoted = new Set([...section.matchAll(/`([^`\n]+)`/g)].map((m) => m[1]!));
 
 describe('README, Config format', () => {
