@@ -12,6 +12,7 @@
 import type { CheckOutcome } from '../check/run-check.js';
 import { formatDiagnosticLine, type Diagnostic } from '../diagnostic.js';
 import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
+import type { ArchitectureUse } from '../config/model.js';
 import { explainRequirement, removalMessage, requirementSummary } from './check-text.js';
 
 /** A config the change deleted or moved out of a policy's reach (see check/findings.ts). */
@@ -28,11 +29,18 @@ export function junitReport(outcome: CheckOutcome): string {
   const removed = outcome.checked.flatMap((c) =>
     c.comparison === 'deleted' || c.comparison === 'moved-out' ? [{ file: c.file, policy: c.policy.id, message: removalMessage(c), failing: c.failing }] : [],
   );
-  return junitXml(results, outcome.errors, removed);
+  // A config built from a definition: its layer lines are the definition's, and the failure says so.
+  const built = new Map(outcome.checked.flatMap((c) => (c.result && c.architecture ? [[c.result, c.architecture] as const] : [])));
+  return junitXml(results, outcome.errors, removed, (r) => built.get(r));
 }
 
-export function junitXml(results: readonly PolicyResult[], errors: readonly Diagnostic[], removed: readonly RemovedConfig[] = []): string {
-  const suites = groupSuites(results, removed).map(policySuite);
+export function junitXml(
+  results: readonly PolicyResult[],
+  errors: readonly Diagnostic[],
+  removed: readonly RemovedConfig[] = [],
+  architectureOf: (r: PolicyResult) => ArchitectureUse | undefined = () => undefined,
+): string {
+  const suites = groupSuites(results, removed, architectureOf).map(policySuite);
   const inputErrors = errors.filter((e) => e.severity === 'error');
   if (inputErrors.length > 0) suites.push(errorSuite(inputErrors));
   const tests = sum(suites, (s) => s.tests);
@@ -61,13 +69,14 @@ interface Group {
   readonly policy: string;
   readonly requirements: RequirementResult[];
   readonly removed: RemovedConfig[];
+  architecture?: ArchitectureUse;
 }
 
 /**
  * One suite per (config file, policy id), in code-unit order of both, so the report does not
  * depend on the order in which configs were discovered on disk.
  */
-function groupSuites(results: readonly PolicyResult[], removed: readonly RemovedConfig[]): Group[] {
+function groupSuites(results: readonly PolicyResult[], removed: readonly RemovedConfig[], architectureOf: (r: PolicyResult) => ArchitectureUse | undefined): Group[] {
   const groups = new Map<string, Group>();
   const groupOf = (file: string, policy: string): Group => {
     const key = JSON.stringify([file, policy]);
@@ -78,7 +87,11 @@ function groupSuites(results: readonly PolicyResult[], removed: readonly Removed
     }
     return g;
   };
-  for (const r of results) groupOf(r.file, r.policy.id).requirements.push(...r.requirements);
+  for (const r of results) {
+    const g = groupOf(r.file, r.policy.id);
+    g.requirements.push(...r.requirements);
+    g.architecture ??= architectureOf(r);
+  }
   for (const r of removed) groupOf(r.file, r.policy).removed.push(r);
   return [...groups.values()].sort((a, b) => cmp(a.file, b.file) || cmp(a.policy, b.policy));
 }
@@ -95,7 +108,7 @@ function policySuite(g: Group): Suite {
     if (q.failing) {
       failures++;
       cases.push(`${head}>`);
-      cases.push(`      <failure${attrs({ message: requirementSummary(q), type: 'requirement-failed' })}>${text(explainRequirement(q).join('\n'))}</failure>`);
+      cases.push(`      <failure${attrs({ message: requirementSummary(q), type: 'requirement-failed' })}>${text(explainRequirement(q, undefined, g.architecture).join('\n'))}</failure>`);
       cases.push('    </testcase>');
     } else if (q.verdict === 'unproven') {
       // Counted as a warning by the policy: neither shown nor refuted, so the test is skipped.

@@ -79,8 +79,8 @@ describe('a pull request that halves the width multiplier', () => {
     expect(r.summary).toContain('Built from the architecture definition arch/residual-image-net.yaml (residual-image-net).');
   });
 
-  test('JSON and SARIF say the same: the parameter, its line, its effects and the fix', () => {
-    const json = runCli(['check', '--policy', 'policies', '--base', base, '--changed', '--format', 'json', '--sarif', 'out.sarif'], repo.dir);
+  test('JSON, SARIF and JUnit say the same: the parameter, its line, its effects and the fix', () => {
+    const json = runCli(['check', '--policy', 'policies', '--base', base, '--changed', '--format', 'json', '--sarif', 'out.sarif', '--junit', 'out.xml'], repo.dir);
     expect(json.code).toBe(1);
     const doc = JSON.parse(json.stdout);
     expect(doc.results.map((x: { file: string }) => x.file)).toEqual(['configs/tray.yaml']);
@@ -98,6 +98,9 @@ describe('a pull request that halves the width multiplier', () => {
     const sarif = JSON.parse(readFileSync(join(repo.dir, 'out.sarif'), 'utf8'));
     const result = sarif.runs[0].results.find((x: { ruleId: string }) => x.ruleId === 'rankfloor/requirement-failed');
     expect(result.locations[0].physicalLocation).toMatchObject({ artifactLocation: { uri: 'configs/tray.yaml' }, region: { startLine: 5, startColumn: 10 } });
+    const junit = readFileSync(join(repo.dir, 'out.xml'), 'utf8');
+    expect(junit).toContain(`from layer stage3[1] (arch/residual-image-net.yaml:${LAST_BLOCK_LINE})`);
+    expect(junit).toContain('line 5:10  parameter width: 0.5 → 1');
   });
 });
 
