@@ -130,3 +130,23 @@ describe('a pull request that edits the definition', () => {
     ]);
   });
 });
+
+describe('a pull request that widens a range and uses it', () => {
+  const { repo, base } = repository();
+  repo.write(DEFINITION_PATH, DEFINITION.replace('    min: 0.25\n    max: 4\n', '    min: 0.125\n    max: 4\n'));
+  repo.write('configs/tray.yaml', TRAY.replace('width: 1.0', 'width: 0.125'));
+  repo.commit('allow thinner nets, and use one');
+
+  test('is judged with the base revision’s range, at the config value', () => {
+    const r = runCli(['check', '--policy', 'policies', '--base', base, '--changed'], repo.dir);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain(
+      'configs/tray.yaml:5:10: error: model.width is 0.125, below the minimum 0.25: parameter width allows 0.25 to 4 (its range as the base revision declares it in arch/residual-image-net.yaml',
+    );
+  });
+
+  test('with --policy-from head the head judges itself, and the value is in range', () => {
+    const r = runCli(['check', '--policy', 'policies', '--base', base, '--changed', '--policy-from', 'head', '--format', 'json'], repo.dir);
+    expect(JSON.parse(r.stdout).errors).toEqual([]);
+  });
+});

@@ -13,6 +13,7 @@ import { policyOf } from '../policy/helpers.js';
 import { REPO, runCli } from '../e2e/run-cli.js';
 import { makeRepo, removeTempDirs } from '../git/git-fixture.js';
 import { pyramid } from './pyramid.js';
+import { NET, runConfig } from '../helpers/definitions.js';
 
 afterAll(removeTempDirs);
 
@@ -67,4 +68,17 @@ test('the worker thread of the compiled package gives the in-thread answers', as
   const onThread = built.startBaseEvaluation(tasks, 'always')();
   expect(ranks(onThread)).toEqual(ranks(evaluateBaseTexts(tasks)));
   expect(onThread[11]!.model.kind).toBe('layered');
+});
+
+test('a base version that names a definition is built from the text handed over with it, never read from elsewhere', () => {
+  const policy = policyOf(POLICY);
+  const config = runConfig('width: 0.5');
+  const [withText, without] = evaluateBaseTexts([
+    { text: config, file: 'configs/run.yaml', policy, path: 'configs/run.yaml', definitions: { 'arch/net.yaml': NET } },
+    { text: config, file: 'configs/run.yaml', policy, path: 'configs/run.yaml' },
+  ]);
+  // ceil(16 · 0.5) channels on the last conv: tests/helpers/definitions.ts (derived here)
+  expect(withText!.result.requirements[0]!.bounds.upper.rank).toBe(8n);
+  expect(withText!.model.kind === 'layered' && withText!.model.architecture?.path).toBe('arch/net.yaml');
+  expect(without).toBeUndefined();
 });
