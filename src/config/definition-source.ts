@@ -7,7 +7,7 @@
  * revision and the head side's from the head, and hands the judging side's version along for the
  * parameter declarations (see DEVELOPERS.md, "Architecture definitions").
  */
-import { posix, relative, resolve, sep } from 'node:path';
+import { dirname, posix, relative, resolve, sep } from 'node:path';
 import type { FileRead } from '../files/file-read.js';
 import { findRepoRoot, toRootRelative } from '../files/repo-root.js';
 import { readWorkTree } from '../files/work-tree.js';
@@ -56,6 +56,6 @@ export function workTreeDefinitions(root: string, cwd: string = process.cwd()): 
 
 /** The repository around a config file on disk and the config's root-relative path in it. */
 export function repositoryOf(file: string): { readonly root: string; readonly configRel: string } {
-  const root = findRepoRoot(posix.dirname(resolve(file).split(sep).join('/')));
+  const root = findRepoRoot(dirname(resolve(file)));
   return { root, configRel: toRootRelative(root, file) };
 }

@@ -89,8 +89,9 @@ export function loadConfigText(text: string, file: string, options: LoadOptions 
   if (!root) return fail();
 
   if (root.kind === 'map' && entryOf(root, 'architecture') !== undefined) {
-    const source = options.definitions ?? workTreeDefinitions(repositoryOf(file).root);
-    const configRel = insideRoot(options.configPath ?? repositoryOf(file).configRel);
+    const around = options.definitions && options.configPath !== undefined ? undefined : repositoryOf(file);
+    const source = options.definitions ?? workTreeDefinitions(around!.root);
+    const configRel = insideRoot(options.configPath ?? around!.configRel);
     const read: ModelFromTree = (tree, into, paramsOf) => {
       const m = modelFromTree(tree, file, into, paramsOf);
       return m?.kind === 'explicit' ? 'explicit' : m;
