@@ -9,7 +9,7 @@
 import { LineCounter, parseDocument } from 'yaml';
 import type { Span } from '../diagnostic.js';
 import { DiagnosticSink } from './diagnostic-sink.js';
-import { compare, formatExact, fromNumber, isInteger, type Exact } from './exact-number.js';
+import { compare, formatExact, fromNumber, isInteger, OverflowError, type Exact } from './exact-number.js';
 import { isExpressionText, parseExpression, type Expr, type ParameterValue } from './expression.js';
 import { MAX_DOCUMENT_BYTES } from './limits.js';
 import { convertNode, describeValue, displayPath, fieldOf, type Located, type LocatedMap, type LocatedScalar } from './located-value.js';
@@ -146,7 +146,8 @@ function readParameter(name: string, keySpan: Span, body: LocatedMap, sink: Diag
   const bound = (key: 'min' | 'max' | 'step'): Exact | undefined => {
     const node = fieldOf(body, key);
     if (!node) return undefined;
-    const v = node.kind === 'scalar' && typeof node.value === 'number' ? fromNumber(node.value) : undefined;
+    const v = exactNumber(node, sink, 'definition');
+    if (v === null) return undefined;
     if (!v || (type !== 'number' && !isInteger(v))) {
       sink.error('definition/invalid-number', `${displayPath(node)} must be ${type === 'number' ? 'a number' : 'a whole number'} for a parameter of type ${type}, got ${describeValue(node)}`, node.span);
       return undefined;
@@ -184,7 +185,8 @@ function readParameter(name: string, keySpan: Span, body: LocatedMap, sink: Diag
 export function readParameterValue(node: Located, decl: Omit<ParameterDecl, 'default'>, sink: DiagnosticSink, owner: 'definition' | 'config', what: string, declaredIn = ''): ParameterValue | undefined {
   const range = `${formatExact(decl.min)} to ${formatExact(decl.max)}`;
   const one = (item: Located, label: string): Exact | undefined => {
-    const v = item.kind === 'scalar' && typeof item.value === 'number' ? fromNumber(item.value) : undefined;
+    const v = exactNumber(item, sink, owner);
+    if (v === null) return undefined;
     const whole = decl.type !== 'number';
     if (!v || (whole && !isInteger(v))) {
       sink.error(`${owner}/parameter-type`, `${label} must be ${whole ? 'a whole number' : 'a number'} (parameter ${decl.name} is of type ${decl.type}${declaredIn}), got ${describeValue(item)}`, item.span);
@@ -224,6 +226,21 @@ export function readParameterValue(node: Located, decl: Omit<ParameterDecl, 'def
     else ok = false;
   });
   return ok ? out : undefined;
+}
+
+/**
+ * The exact value of a YAML number; undefined when the node is not a finite number; null (after
+ * reporting it) when it is one too large to hold exactly (2^63 and beyond).
+ */
+function exactNumber(node: Located, sink: DiagnosticSink, owner: 'definition' | 'config'): Exact | undefined | null {
+  if (node.kind !== 'scalar' || typeof node.value !== 'number') return undefined;
+  try {
+    return fromNumber(node.value);
+  } catch (e) {
+    if (!(e instanceof OverflowError)) throw e;
+    sink.error(`${owner}/number-too-large`, `${displayPath(node)} is ${String(node.value)}; parameter values stay below 2^63`, node.span);
+    return null;
+  }
 }
 
 /** Parses every `=…` string of the model, reporting syntax at the characters at fault. */

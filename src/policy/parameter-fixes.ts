@@ -9,7 +9,7 @@
  * that restores it, checked on the engine. The caller ranks them by the parameters each adds to
  * the real network.
  */
-import { mul, toNumber, type Exact } from '../config/exact-number.js';
+import { div, floor, mul, toNumber, type Exact } from '../config/exact-number.js';
 import type { LayeredModel } from '../config/model.js';
 import type { ParameterChoice, ParameterSpace } from '../config/parameter-space.js';
 import type { PartitionBounds } from '../cut/types.js';
@@ -18,6 +18,12 @@ import { parameterCount } from './parameters.js';
 
 /** More grid points than this between the value and the maximum are not searched. */
 const MAX_GRID = 1 << 20;
+/**
+ * At most this many parameters (list entries counted one by one) are searched, in the
+ * definition's order: each costs up to ~40 evaluations (a doubling probe and a bisection over at
+ * most 2^20 grid points), and a definition may come from a pull request.
+ */
+export const MAX_SEARCHED_PARAMETERS = 32;
 
 /**
  * `restoring` gives the bounds of a model that restores the requirement (else undefined);
@@ -36,8 +42,7 @@ export function searchParameterFixes(
   if (inputCut) for (const uses of Object.values(model.input.fieldParams ?? {})) for (const u of uses) fed.add(u.name);
   const baseParams = parameterCount(model);
   const fixes: Fix[] = [];
-  for (const choice of space.choices) {
-    if (!fed.has(choice.name)) continue;
+  for (const choice of space.choices.filter((c) => fed.has(c.name)).slice(0, MAX_SEARCHED_PARAMETERS)) {
     const found = smallestRestoring(choice, space, restoring);
     if (!found) continue;
     fixes.push({
@@ -64,8 +69,8 @@ interface Found {
 function smallestRestoring(choice: ParameterChoice, space: ParameterSpace, restoring: (m: LayeredModel) => PartitionBounds | undefined): Found | undefined {
   // Grid points k·step with value < k·step ≤ max.
   const step = choice.step;
-  const first = (choice.value.n * step.d) / (choice.value.d * step.n) + 1n;
-  const last = (choice.max.n * step.d) / (choice.max.d * step.n);
+  const first = floor(div(choice.value, step)).n + 1n;
+  const last = floor(div(choice.max, step)).n;
   if (first > last || last - first > BigInt(MAX_GRID)) return undefined;
   const at = (k: bigint): Found | undefined => {
     const value = mul({ n: k, d: 1n }, step);
@@ -73,7 +78,7 @@ function smallestRestoring(choice: ParameterChoice, space: ParameterSpace, resto
     const b = m && restoring(m);
     return m && b ? { value, model: m, bounds: b } : undefined;
   };
-  let lo = first - 1n; // fails (the current value)
+  let lo = first - 1n; // at or below the current value, which fails
   let hi = first;
   let found: Found | undefined;
   for (let gap = 1n; ; gap *= 2n) {

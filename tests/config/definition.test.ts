@@ -231,3 +231,23 @@ describe('definitions on disk', () => {
     }
   });
 });
+
+describe('numbers too large to hold exactly', () => {
+  test('in a declaration or a config value: an error at the value, never a crash', () => {
+    expect(problems(SMALL, { 'arch/net.yaml': NET.replace('max: 4\n    step: 0.25', 'max: 99999999999999999999.0\n    step: 0.25') }).map(at)).toEqual([
+      'configs/run.yaml:3:17 config/architecture-failed',
+      'arch/net.yaml:8:10 definition/number-too-large',
+    ]);
+    expect(problems(SMALL.replace('width: 0.5', 'width: 99999999999999999999.0')).map(at)).toEqual(['configs/run.yaml:4:10 config/number-too-large']);
+  });
+});
+
+test('a definition holds at most 32 parameters and a list at most 16 entries (each is searched by a fix)', () => {
+  const long = NET.replace('default: [1, 2]', `default: [${new Array(17).fill(1).join(', ')}]`);
+  expect(problems(SMALL, { 'arch/net.yaml': long }).map(at)).toEqual(['configs/run.yaml:3:17 config/architecture-failed', 'arch/net.yaml:13:14 definition/invalid-length']);
+  const many = Array.from({ length: 33 }, (_, i) => `  p${i}: {type: int, default: 1, min: 1, max: 2, description: unused}`).join('\n');
+  const crowded = NET.replace('parameters:\n', `parameters:\n${many}\n`);
+  const codes = problems(SMALL, { 'arch/net.yaml': crowded }).map((d) => d.code);
+  expect(codes[0]).toBe('config/architecture-failed');
+  expect(codes.length).toBe(2);
+});
