@@ -12,7 +12,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { runCli } from '../e2e/run-cli.js';
-import { commandLines, initRepo, pullRequestEvent, removeTempDirs, REPO, runAction } from './action-fixture.js';
+import { commandLines, git, initRepo, pullRequestEvent, removeTempDirs, REPO, runAction } from './action-fixture.js';
 
 afterAll(removeTempDirs);
 
@@ -148,5 +148,18 @@ describe('a pull request that widens a range and uses it', () => {
   test('with --policy-from head the head judges itself, and the value is in range', () => {
     const r = runCli(['check', '--policy', 'policies', '--base', base, '--changed', '--policy-from', 'head', '--format', 'json'], repo.dir);
     expect(JSON.parse(r.stdout).errors).toEqual([]);
+  });
+});
+
+describe('before a commit', () => {
+  test('--staged checks the configs that name a staged definition, against HEAD', () => {
+    const { repo } = repository();
+    repo.write(DEFINITION_PATH, DEFINITION.replaceAll('"=ceil(64 * width)"', '"=ceil(32 * width)"'));
+    const unstaged = runCli(['check', '--policy', 'policies', '--staged'], repo.dir);
+    expect(unstaged.code).toBe(0);
+    git(repo.dir, 'add', DEFINITION_PATH);
+    const r = runCli(['check', '--policy', 'policies', '--staged', '--format', 'json'], repo.dir);
+    expect(r.code).toBe(1);
+    expect(JSON.parse(r.stdout).results.map((x: { file: string; verdict: string }) => `${x.file} ${x.verdict}`)).toEqual(['configs/bench.yaml pass', 'configs/tray.yaml fail']);
   });
 });
