@@ -57,7 +57,7 @@ export function compareWithBase(
   errors: Diagnostic[],
 ): CheckedConfig | undefined {
   const { path, file, policy, model, result } = head;
-  const plain = { file, path, policy, result, changes: [], failing: result.verdict === 'fail' };
+  const plain = { file, path, policy, result, model, changes: [], failing: result.verdict === 'fail' };
   if (!base) return { ...plain, comparison: 'none' };
   if (base.basePath === undefined || base.read === undefined || base.read.kind === 'absent') return { ...plain, comparison: 'new' };
   if (base.read.kind === 'refused') {
@@ -70,7 +70,7 @@ export function compareWithBase(
   const changes = diffModels(base.answer.model, model);
   const deltas = result.requirements.map((q) => delta(q, base.answer!.result, policy, changes, model));
   const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
-  return { file, path, policy, result, ...renamed, comparison: 'compared', deltas, changes, failing };
+  return { file, path, policy, result, model, ...renamed, comparison: 'compared', deltas, changes, failing };
 }
 
 export function loadConfig(text: string, file: string, policy: Policy, errors: Diagnostic[]): Model | undefined {

@@ -23,7 +23,14 @@ export function roundLog(x: number): number {
 }
 
 export function boundsJson(result: BoundsResult): string {
-  const doc = {
+  return JSON.stringify(boundsDocument(result), null, 2) + '\n';
+}
+
+/** The document `boundsJson` prints, as values: the picture report draws these same numbers. */
+export type BoundsDocument = ReturnType<typeof boundsDocument>;
+
+export function boundsDocument(result: BoundsResult) {
+  return {
     file: result.file,
     surrogate: result.surrogate,
     partitions: result.partitions.map((p) => ({
@@ -34,5 +41,4 @@ export function boundsJson(result: BoundsResult): string {
       cut: cutJson(p.upper.cut),
     })),
   };
-  return JSON.stringify(doc, null, 2) + '\n';
 }
