@@ -118,8 +118,11 @@ export function boundsPanels(result: BoundsResult, model: Model, partitions: rea
   }));
 }
 
+/** What a requirement marks on its model's drawing, in the JSON report's form. */
+export type MarkSource = Pick<Panel, 'cut' | 'fixes' | 'changes'>;
+
 /** The marks a panel puts on its model's drawing; a mark whose layer is not drawn has no place. */
-export function panelMarks(panel: Panel, drawing: NetworkDrawing): { placed: DrawingMark[]; unplaced: Omit<DrawingMark, 'place'>[] } {
+export function panelMarks(panel: MarkSource, drawing: NetworkDrawing): { placed: DrawingMark[]; unplaced: Omit<DrawingMark, 'place'>[] } {
   const placed: DrawingMark[] = [];
   const unplaced: Omit<DrawingMark, 'place'>[] = [];
   const add = (label: number | string, line: number | undefined, mark: Omit<DrawingMark, 'place'>): void => {
