@@ -28,7 +28,8 @@ const LABEL_W = 84;
 const BAR_W = 240;
 /** Values are written in a column of their own, right of the bars and the break marks. */
 const VALUE_X = LABEL_W + BAR_W + 34;
-const VALUE_W = 260;
+/** Character width of the monospace labels (11 px). */
+const CHAR_W = 6.6;
 const ROW_H = 24;
 const BAR_H = 14;
 const TOP = 30;
@@ -54,7 +55,8 @@ export function capacityBarsSvg(rows: readonly BarRow[], title: string, id: stri
   const required = rows.find((r) => r.series === 'required')?.value ?? null;
   const scale = axisFor(rows);
   const height = TOP + rows.length * ROW_H + AXIS_H;
-  const width = VALUE_X + VALUE_W;
+  const texts = [...rows.map((r) => (r.value ? boundText(r.value) + ', beyond the axis' : (r.missing ?? 'none'))), 'bits (log2 of the rank)'];
+  const width = Math.ceil(VALUE_X + Math.max(...texts.map((t) => [...t].length)) * CHAR_W + 8);
   const x = (v: number): number => LABEL_W + (Math.min(v, scale.max) / scale.max) * BAR_W;
   const out: string[] = [
     `<svg class="capacity-bars" id="${id}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" role="img" aria-labelledby="${id}-title">`,

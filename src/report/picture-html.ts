@@ -213,7 +213,7 @@ const CSS = [
   '.panel-body{display:grid;grid-template-columns:auto minmax(0,1fr);grid-template-areas:"net side";gap:12px 36px;align-items:start}',
   '.side{grid-area:side;display:flex;flex-direction:column;gap:6px}.fig-network{grid-area:net}.side svg{max-width:100%;height:auto}',
   '@media (max-width:900px){.panel-body{grid-template-columns:minmax(0,1fr);grid-template-areas:"side" "net"}}',
-  'figure{margin:6px 0}figcaption{font-size:12px;color:#444;max-width:460px}',
+  'figure{margin:6px 0}figcaption{font-size:12px;color:#444;max-width:460px}.fig-network figcaption{max-width:340px}',
   '.fig-network{overflow-x:auto}',
   '.bar{stroke:#1a1a1a;stroke-width:0.8}.bar-break{stroke:#1a1a1a;stroke-width:1.5;fill:none}',
   '.required-line{stroke:#b3261e;stroke-width:1.5;stroke-dasharray:5 3}.required-label{fill:#b3261e}',
