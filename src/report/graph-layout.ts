@@ -1,6 +1,6 @@
 /**
- * Places a network drawing with a layout algorithm made for layered graphs (Sugiyama's method as
- * dagre implements it: ranks, crossing reduction, coordinates), from the input at the top to the
+ * Places a network drawing with a layout library made for layered graphs (Sugiyama's method:
+ * ranks, crossing reduction, coordinates; the only importer of that library), from the input at the top to the
  * head at the bottom, so that residual, branch and skip edges run beside the main path instead of
  * through it. Node sizes follow their text in a monospace font of a fixed size, so the layout is a
  * pure function of the drawing: the same model gives the same coordinates.
