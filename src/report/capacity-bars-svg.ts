@@ -107,8 +107,9 @@ export function capacityBarsSvg(rows: readonly BarRow[], title: string, id: stri
 }
 
 /**
- * The scale: the values that decide a verdict (the requirement, the proven lower bounds, the
- * smallest upper bound) stay readable, and only a bar more than CLIP_FACTOR times longer is broken.
+ * The scale: the values that decide a verdict (the requirement and the proven lower bounds; with
+ * neither, the smallest upper bound) stay readable, and a bar more than CLIP_FACTOR times longer
+ * is broken.
  */
 export function axisFor(rows: readonly BarRow[]): { max: number; step: number } {
   const finite = rows.filter((r) => r.value !== null && r.value.rank !== null);
@@ -116,7 +117,9 @@ export function axisFor(rows: readonly BarRow[]): { max: number; step: number } 
   // The requirement and the proven lower bounds.
   const lowers = finite.filter((r) => !r.series.endsWith('upper')).map((r) => r.value!.log2);
   const uppers = rows.filter((r) => r.series.endsWith('upper') && r.value).map((r) => (r.value!.rank === null ? Infinity : r.value!.log2));
-  let anchor = Math.max(0, ...lowers, uppers.length > 0 ? Math.min(...uppers) : 0);
+  let anchor = Math.max(0, ...lowers);
+  // Upper bounds alone (no requirement, no proven lower bound): the smallest one.
+  if (anchor <= 0 && uppers.length > 0) anchor = Math.min(...uppers);
   if (!Number.isFinite(anchor) || anchor <= 0) anchor = Math.max(0, ...values);
   if (anchor <= 0) anchor = 1;
   const top = Math.max(anchor, ...values.filter((v) => v <= anchor * CLIP_FACTOR));
