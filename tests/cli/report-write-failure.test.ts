@@ -1,7 +1,8 @@
 /**
- * `check --sarif` / `--junit` / `--picture` (and `bounds --picture`) when the report cannot be written: exit code 2 and one line on
- * standard error, no stack trace and no partial file. The full disk is simulated by replacing
- * the file system's `writeSync` for this test file (in-process run of the command line).
+ * `check --sarif` / `--junit` / `--picture` and `bounds --picture` when the report cannot be
+ * written: exit code 2 and one line on standard error, no stack trace and no partial file. The
+ * full disk is simulated by replacing the file system's `writeSync` for this test file (in-process
+ * run of the command line).
  */
 import { mkdtempSync, readdirSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
