@@ -229,12 +229,15 @@ describe('check --picture over the bundled examples', () => {
 /** A layer name from a pull request, with everything that could end a label, an attribute or a code block. */
 const HOSTILE = 'conv") --> x |y| \n```\n<script>alert(1)</script> #35; ;&amp;';
 
-/** A pull request that shrinks the last convolution and gives it the hostile name. */
+let hostile: { dir: string; base: string } | undefined;
+
+/** A pull request that shrinks the last convolution and gives it the hostile name (made once). */
 function hostilePullRequest(): { dir: string; base: string } {
+  if (hostile) return hostile;
   const { repo, base } = baseRepo();
   repo.write(CONFIG_PATH, SHRUNK_CONFIG_TEXT.replace('- conv: {channels: 16, kernel: 3}\n', `- conv: {channels: 16, kernel: 3, name: ${JSON.stringify(HOSTILE)}}\n`));
   repo.commit('shrink and name the last convolution');
-  return { dir: repo.dir, base };
+  return (hostile = { dir: repo.dir, base });
 }
 
 describe('check --base --picture: base and head side by side, the change marked on the cut', () => {
