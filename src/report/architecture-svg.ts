@@ -29,25 +29,59 @@ const PAD_Y = 6;
 
 const EDGE_WORDS: Partial<Record<DrawnEdge['kind'], string>> = { shortcut: 'shortcut', skip: 'skip' };
 
-export function architectureSvg(drawing: NetworkDrawing, marks: readonly DrawingMark[], title: string, id: string): string {
-  if (drawing.nodes.length > MAX_DRAWN_NODES) {
-    return `<p class="too-large">The network has ${drawing.nodes.length} nodes after folding pointwise layers, more than the ${MAX_DRAWN_NODES} this picture draws.</p>`;
+/** A network drawing too large to lay out, said in a sentence. */
+export function tooLargeText(drawing: NetworkDrawing): string | undefined {
+  return drawing.nodes.length > MAX_DRAWN_NODES
+    ? `The network has ${drawing.nodes.length} nodes after folding pointwise layers, more than the ${MAX_DRAWN_NODES} this picture draws.`
+    : undefined;
+}
+
+/**
+ * One layout for every panel of a model, so that the network stands still from one partition to
+ * the next: each node and edge label gets room for the most marks any of the panels puts on it.
+ */
+export function layoutForPanels(drawing: NetworkDrawing, panels: readonly (readonly DrawingMark[])[]): Placed {
+  const room = (key: (m: DrawingMark) => string | undefined): Map<string, string[]> => {
+    const out = new Map<string, string[]>();
+    for (const marks of panels) {
+      const here = new Map<string, string[]>();
+      for (const m of marks) {
+        const k = key(m);
+        if (k !== undefined) here.set(k, [...(here.get(k) ?? []), m.text]);
+      }
+      for (const [k, texts] of here) {
+        const had = out.get(k) ?? [];
+        // Line i holds the longest i-th text of any panel.
+        out.set(k, Array.from({ length: Math.max(had.length, texts.length) }, (_, i) => longest(had[i], texts[i])));
+      }
+    }
+    return out;
+  };
+  const nodeRoom = room((m) => ('node' in m.place ? m.place.node : undefined));
+  const edgeRoom = room((m) => ('edge' in m.place ? m.place.edge : undefined));
+  const edges = new Map<string, string[]>();
+  for (const e of drawing.edges) {
+    const lines = [...edgeWords(e), ...(edgeRoom.get(e.id) ?? [])];
+    if (lines.length > 0) edges.set(e.id, lines);
   }
+  return placeDrawing(drawing, { nodes: nodeRoom, edges });
+}
+
+function longest(a: string | undefined, b: string | undefined): string {
+  return (a ?? '').length >= (b ?? '').length ? (a ?? '') : (b ?? '');
+}
+
+function edgeWords(e: DrawnEdge): string[] {
+  return e.label ? [e.label] : EDGE_WORDS[e.kind] ? [EDGE_WORDS[e.kind]!] : [];
+}
+
+export function architectureSvg(drawing: NetworkDrawing, placed: Placed, marks: readonly DrawingMark[], title: string, id: string): string {
   const nodeMarks = new Map<string, DrawingMark[]>();
   const edgeMarks = new Map<string, DrawingMark[]>();
   for (const m of marks) {
     if ('node' in m.place) nodeMarks.set(m.place.node, [...(nodeMarks.get(m.place.node) ?? []), m]);
     else edgeMarks.set(m.place.edge, [...(edgeMarks.get(m.place.edge) ?? []), m]);
   }
-  const edgeLines = new Map<string, string[]>();
-  for (const e of drawing.edges) {
-    const lines = [...(e.label ? [e.label] : EDGE_WORDS[e.kind] ? [EDGE_WORDS[e.kind]!] : []), ...(edgeMarks.get(e.id) ?? []).map((m) => m.text)];
-    if (lines.length > 0) edgeLines.set(e.id, lines);
-  }
-  const placed = placeDrawing(drawing, {
-    nodes: new Map([...nodeMarks].map(([k, ms]) => [k, ms.map((m) => m.text)])),
-    edges: edgeLines,
-  });
   const cutNodes = new Set([...nodeMarks].filter(([, ms]) => ms.some((m) => m.kind === 'cut')).map(([k]) => k));
   const out: string[] = [
     `<svg class="architecture" id="${id}" xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${placed.width} ${placed.height}" width="${placed.width}" height="${placed.height}" role="img" aria-labelledby="${id}-title">`,
@@ -62,8 +96,8 @@ export function architectureSvg(drawing: NetworkDrawing, marks: readonly Drawing
     const left = box.x - box.width / 2;
     let y = box.y - box.height / 2 + PAD_Y;
     out.push(`<g class="edge-label">`);
-    if (e.label || EDGE_WORDS[e.kind]) {
-      out.push(`<text x="${box.x}" y="${y + FONT_PX}" text-anchor="middle">${xmlText(e.label ?? EDGE_WORDS[e.kind]!)}</text>`);
+    for (const w of edgeWords(e)) {
+      out.push(`<text x="${box.x}" y="${y + FONT_PX}" text-anchor="middle">${xmlText(w)}</text>`);
       y += LINE_PX;
     }
     for (const m of edgeMarks.get(e.id) ?? []) {

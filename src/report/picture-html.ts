@@ -12,7 +12,8 @@ import type { BoundsResult } from '../cut/types.js';
 import type { Model } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { TOOL_VERSION } from '../version.js';
-import { architectureSvg } from './architecture-svg.js';
+import { architectureSvg, layoutForPanels, tooLargeText } from './architecture-svg.js';
+import type { Placed } from './graph-layout.js';
 import { boundText, capacityBarsSvg } from './capacity-bars-svg.js';
 import { checkDocument } from './check-json.js';
 import { xmlText } from './junit.js';
@@ -22,6 +23,9 @@ import { boundsPanels, checkPanels, panelMarks, rowValue, type Panel, type Panel
 
 /** Panels drawn in full; the others are rows of the overview table only. */
 export const MAX_DRAWN_PANELS = 40;
+
+/** Nodes laid out over all the networks of one picture. */
+export const MAX_LAID_OUT_NODES = 2000;
 
 const STATE_WORDS: Readonly<Record<PanelState, readonly [badge: string, words: string]>> = {
   fail: ['✗ FAIL', "provably short: the head's upper bound is below the requirement"],
@@ -66,12 +70,6 @@ export function boundsPicture(result: BoundsResult, model: Model, partitions: re
 }
 
 function page(heading: string, intro: string, panels: readonly Panel[], other: string): string {
-  const drawings = new Map<Model, NetworkDrawing>();
-  const drawingOf = (m: Model): NetworkDrawing => {
-    let d = drawings.get(m);
-    if (!d) drawings.set(m, (d = drawNetwork(m)));
-    return d;
-  };
   const drawn = panels.slice(0, MAX_DRAWN_PANELS);
   const parts = [
     '<!DOCTYPE html>',
@@ -89,7 +87,8 @@ function page(heading: string, intro: string, panels: readonly Panel[], other: s
   if (panels.length > drawn.length) {
     parts.push(`<p class="note">The first ${drawn.length} of ${panels.length} requirements are drawn below; the others are in the table above and in the JSON report.</p>`);
   }
-  drawn.forEach((p, i) => parts.push(panelHtml(p, i + 1, drawingOf(p.model))));
+  const figures = networkFigures(drawn);
+  drawn.forEach((p, i) => parts.push(panelHtml(p, i + 1, figures[i]!)));
   parts.push(other, `<footer>rankfloor ${xmlText(TOOL_VERSION)} · numbers as in the JSON report (bits are log2 of the rank)</footer></body></html>`, '');
   return parts.join('\n');
 }
@@ -106,10 +105,46 @@ function overview(panels: readonly Panel[]): string {
   return `<table class="overview"><thead><tr>${head.map((h) => `<th scope="col">${h}</th>`).join('')}</tr></thead><tbody>${rows.join('')}</tbody></table>`;
 }
 
-function panelHtml(p: Panel, n: number, drawing: NetworkDrawing): string {
+/** A panel's network: its drawing, its marks, and the shared layout or why there is none. */
+interface NetworkFigure {
+  readonly drawing: NetworkDrawing;
+  readonly marks: ReturnType<typeof panelMarks>;
+  readonly layout: Placed | { readonly reason: string };
+}
+
+/**
+ * One drawing and one layout per model, shared by its panels, while the nodes laid out stay within
+ * MAX_LAID_OUT_NODES (a layout's time grows with its nodes); networks past that are described in
+ * words, with their marks listed.
+ */
+function networkFigures(panels: readonly Panel[]): NetworkFigure[] {
+  const drawings = new Map<Model, NetworkDrawing>();
+  for (const p of panels) if (!drawings.has(p.model)) drawings.set(p.model, drawNetwork(p.model));
+  const marks = panels.map((p) => panelMarks(p, drawings.get(p.model)!));
+  const layouts = new Map<Model, NetworkFigure['layout']>();
+  let laidOut = 0;
+  for (const [model, drawing] of drawings) {
+    const tooLarge = tooLargeText(drawing);
+    if (tooLarge !== undefined) layouts.set(model, { reason: tooLarge });
+    else if (laidOut + drawing.nodes.length > MAX_LAID_OUT_NODES) {
+      layouts.set(model, { reason: `This network is not drawn: the networks drawn above reach the ${MAX_LAID_OUT_NODES.toLocaleString('en-US')} nodes this picture lays out.` });
+    } else {
+      laidOut += drawing.nodes.length;
+      layouts.set(model, layoutForPanels(drawing, panels.flatMap((p, i) => (p.model === model ? [marks[i]!.placed] : []))));
+    }
+  }
+  return panels.map((p, i) => {
+    const layout = layouts.get(p.model)!;
+    // Without a drawing, every mark is listed in words.
+    const m = 'reason' in layout ? { placed: [], unplaced: [...marks[i]!.unplaced, ...marks[i]!.placed.map(({ place: _, ...rest }) => rest)] } : marks[i]!;
+    return { drawing: drawings.get(p.model)!, marks: m, layout };
+  });
+}
+
+function panelHtml(p: Panel, n: number, figure: NetworkFigure): string {
   const id = `p${n}`;
   const [badge, words] = STATE_WORDS[p.state];
-  const marks = panelMarks(p, drawing);
+  const { drawing, marks, layout } = figure;
   const what = `${p.file}${p.policy !== undefined ? `, policy ${p.policy}` : ''}, partition ${p.partition}`;
   const out = [
     `<section class="panel state-${p.state}" id="${id}" data-file="${xmlText(p.file)}" data-partition="${xmlText(p.partition)}"${p.policy !== undefined ? ` data-policy="${xmlText(p.policy)}"` : ''} data-state="${p.state}">`,
@@ -120,7 +155,7 @@ function panelHtml(p: Panel, n: number, drawing: NetworkDrawing): string {
     `<figure class="fig-bars">${capacityBarsSvg(p.rows, `Capacity across ${p.partition} in bits: ${p.rows.map((r) => `${r.label} ${r.value ? boundText(r.value) : (r.missing ?? 'none')}`).join('; ')}`, `${id}-bars`)}<figcaption>Capacity in bits. Solid: proven lower bound; hatched: upper bound; cross-hatched: the policy's minimum (dashed line).</figcaption></figure>`,
     `<figure class="fig-partition">${partitionSvg(p.partitionShape, p.side, `Partition ${p.partition} on the input grid: side A is ${p.description}`, `${id}-grid`)}<figcaption>The partition on the input grid (side A hatched).</figcaption></figure>`,
     '</div>',
-    `<figure class="fig-network">${architectureSvg(drawing, marks.placed, `The network of ${what}, from input to head; the minimal cut (${p.method}) marked on ${p.cut.length} layer entr${p.cut.length === 1 ? 'y' : 'ies'}`, `${id}-net`)}<figcaption>${xmlText(networkCaption(p, drawing))}</figcaption></figure>`,
+    `<figure class="fig-network">${'reason' in layout ? `<p class="too-large">${xmlText(layout.reason)}</p>` : architectureSvg(drawing, layout, marks.placed, `The network of ${what}, from input to head; the minimal cut (${p.method}) marked on ${p.cut.length} layer entr${p.cut.length === 1 ? 'y' : 'ies'}`, `${id}-net`)}<figcaption>${xmlText(networkCaption(p, drawing))}</figcaption></figure>`,
     '</div>',
   ];
   if (marks.unplaced.length > 0) {
@@ -171,7 +206,7 @@ const DEFS = [
   SOLID('rf-pat-base-lower', '#7d7d7d'),
   STRIPES('rf-pat-base-upper', '#ffffff', '#6b6b6b', 6, 2.5, -45),
   CROSS('rf-pat-required', '#ffffff', '#1a1a1a', 6),
-  STRIPES('rf-pat-side-a', '#cfe0f5', '#2b5f9e', 5, 2, 45),
+  STRIPES('rf-pat-side-a', '#a9c6ec', '#2b5f9e', 5, 2, 45),
   SOLID('rf-pat-side-b', '#f7f7f7'),
   CROSS('rf-pat-mixed', '#eeeeee', '#777777', 5),
   STRIPES('rf-pat-cut', '#fdeceb', '#f3b4ae', 8, 2, 45),
