@@ -10,7 +10,7 @@ import { INPUT, type LayeredModel } from '../../src/config/model.js';
 import { NO_SPAN } from '../../src/diagnostic.js';
 import { computeBounds } from '../../src/cut/bounds.js';
 import { resolvePartition } from '../../src/partition/partition.js';
-import { architectureSvg, MAX_DRAWN_NODES } from '../../src/report/architecture-svg.js';
+import { MAX_DRAWN_NODES, tooLargeText } from '../../src/report/architecture-svg.js';
 import { axisFor, boundText, capacityBarsSvg, type BarRow } from '../../src/report/capacity-bars-svg.js';
 import { mermaidText, MAX_FLOWCHART_NODES, requirementFlowchart } from '../../src/report/mermaid-flowchart.js';
 import { drawNetwork, placeOf } from '../../src/report/network-drawing.js';
@@ -150,11 +150,17 @@ describe('partition cells', () => {
     expect(new Set(checker.cells)).toEqual(new Set([2]));
   });
 
-  test('a sequence: one row, blocks beyond 128 steps', () => {
-    const c = partitionCells([256], side('start-end', [256]));
-    expect([c.rows, c.cols, c.block]).toEqual([1, 128, 2]);
-    expect(c.cells.filter((x) => x === 0)).toHaveLength(64);
-    expect(c.cells.filter((x) => x === 1)).toHaveLength(64);
+  test('a sequence: one row up to 128 steps, then rows of 64, then blocks beyond 4,096 steps', () => {
+    const short = partitionCells([100], side('start-end', [100]));
+    expect([short.rows, short.cols, short.block, short.wrapped]).toEqual([1, 100, 1, false]);
+    const c = partitionCells([256], side('interleaved', [256]));
+    expect([c.rows, c.cols, c.block, c.wrapped]).toEqual([4, 64, 1, true]);
+    expect([...c.cells.slice(0, 4)]).toEqual([0, 1, 0, 1]);
+    const long = partitionCells([10_000], side('start-end', [10_000]));
+    // 3 steps a cell: 3,334 cells in rows of 64; the cell of steps 4,998-5,000 holds both sides.
+    expect([long.rows, long.cols, long.block]).toEqual([53, 64, 3]);
+    expect([long.cells[1665], long.cells[1666], long.cells[1667]]).toEqual([0, 2, 1]);
+    expect(long.cells[53 * 64 - 1]).toBe(3);
   });
 });
 
@@ -208,11 +214,18 @@ describe('the flowchart', () => {
 });
 
 describe('the page', () => {
-  test('too many nodes to lay out: a sentence instead of a drawing', () => {
+  test('too many nodes to lay out: a sentence instead of a drawing, the cut listed in words', () => {
     const model = layered([8], 2, [...Array.from({ length: MAX_DRAWN_NODES }, () => ({ kind: 'conv' as const, channels: 2 })), { kind: 'dense', units: 1 }]);
-    expect(architectureSvg(drawNetwork(model), [], 't', 'x')).toBe(
-      `<p class="too-large">The network has ${MAX_DRAWN_NODES + 3} nodes after folding pointwise layers, more than the ${MAX_DRAWN_NODES} this picture draws.</p>`,
-    );
+    expect(tooLargeText(drawNetwork(model))).toBe(`The network has ${MAX_DRAWN_NODES + 3} nodes after folding pointwise layers, more than the ${MAX_DRAWN_NODES} this picture draws.`);
+    const p = resolvePartition('start-end', [8]);
+    if (!p.ok) throw new Error(p.message);
+    const bounds = computeBounds(model, [p.partition], { surrogate: 'tree' });
+    if (!bounds.ok) throw new Error('no bounds');
+    const html = boundsPicture(bounds.result, model, [p.partition]);
+    expect(html).not.toContain('<svg class="architecture"');
+    expect(html).toContain(`<p class="too-large">The network has ${MAX_DRAWN_NODES + 3} nodes`);
+    const cut = bounds.result.partitions[0]!.upper.cut;
+    expect(html.match(/<li class="cut-mark"/g)).toHaveLength(cut.length);
   });
 
   test('at most MAX_DRAWN_PANELS panels drawn, every requirement in the table; the same bytes twice; nothing to fetch', () => {
