@@ -39,4 +39,5 @@ export { checkJson } from './report/check-json.js';
 export { checkText, explainRequirement } from './report/check-text.js';
 export { sarifText, sarifLog } from './report/sarif.js';
 export { junitReport, junitXml } from './report/junit.js';
+export { boundsPicture, checkPicture } from './report/picture-html.js';
 export { TOOL_VERSION } from './version.js';

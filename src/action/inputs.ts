@@ -23,6 +23,8 @@ export interface ActionInputs {
   readonly sarifCategory?: string;
   /** Where to write the JUnit report, relative to the workspace. */
   readonly junit?: string;
+  /** Where to write the picture report (one HTML file), relative to the workspace. */
+  readonly picture?: string;
 }
 
 export interface InputReader {
@@ -87,7 +89,8 @@ export function readInputs(reader: InputReader, event: WorkflowEvent): ActionInp
   const unprovenFails = reader.get('fail-on-unproven') !== '' && boolean(reader, 'fail-on-unproven');
   const sarif = reader.get('sarif');
   const junit = reader.get('junit');
-  for (const [name, value] of [['sarif', sarif], ['junit', junit]] as const) {
+  const picture = reader.get('picture');
+  for (const [name, value] of [['sarif', sarif], ['junit', junit], ['picture', picture]] as const) {
     const problem = value === '' ? undefined : reportPathProblem(value);
     if (problem) throw new ActionInputError(`the input \`${name}\`: ${problem}`);
   }
@@ -107,6 +110,7 @@ export function readInputs(reader: InputReader, event: WorkflowEvent): ActionInp
     ...(sarif ? { sarif } : {}),
     ...(sarifCategory ? { sarifCategory } : {}),
     ...(junit ? { junit } : {}),
+    ...(picture ? { picture } : {}),
   };
 }
 

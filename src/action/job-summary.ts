@@ -5,11 +5,16 @@
  * the configs the change took out of a policy's reach, the policy notices, the skipped files, the
  * input errors and whatever did not fit into annotations.
  *
- * The summary is rendered as one HTML block. File names, messages and layer names come from the
+ * Each failing requirement also gets a compact flowchart of its network with the minimal cut
+ * marked, folded away too: a Mermaid code block, which GitHub draws.
+ *
+ * The summary is rendered as HTML blocks. File names, messages and layer names come from the
  * pull request, so every piece of text is escaped, line breaks included: a blank line would end
- * the HTML block, and whatever followed it (`## rankfloor: pass`) would render as Markdown.
- * GitHub refuses a step summary over 1 MiB, so whole sections are kept while they fit and a note
- * then points to the JSON report, which has everything.
+ * an HTML block, and whatever followed it (`## rankfloor: pass`) would render as Markdown. The
+ * only blank lines are the ones written around each flowchart's code block, whose labels hold no
+ * quote, backtick or line break (mermaid-flowchart.ts). GitHub refuses a step summary over 1 MiB,
+ * so whole sections are kept while they fit and a note then points to the JSON report, which has
+ * everything.
  */
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
@@ -17,7 +22,11 @@ import { log2Big, type Bound } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
 import { bits } from '../report/bounds-text.js';
 import { explainRequirement, removalMessage } from '../report/check-text.js';
-import type { OverallVerdict } from '../report/check-json.js';
+import { checkDocument, type CheckDocument, type OverallVerdict } from '../report/check-json.js';
+import { requirementFlowchart } from '../report/mermaid-flowchart.js';
+import { drawNetwork, type NetworkDrawing } from '../report/network-drawing.js';
+import type { Model } from '../config/model.js';
+import { panelMarks } from '../report/picture-panels.js';
 import type { AnnotationKind, AnnotationPlan } from './annotations.js';
 import { requirementLabel, tallyRequirements } from './requirement-tally.js';
 
@@ -40,10 +49,13 @@ const KIND_WORDS: Readonly<Record<AnnotationKind, readonly [string, string]>> = 
   notice: ['notice', 'notices'],
 };
 
-/** The whole summary, each line ending in '\n'; no line is blank. */
+/** The whole summary, each line ending in '\n'; only the lines around a flowchart's code block are blank. */
 export function renderJobSummary(outcome: CheckOutcome, verdict: OverallVerdict, overflow: AnnotationPlan['overflow'], options: SummaryOptions = {}): string {
   const head = [heading(2, `rankfloor: ${verdict}`), `<p>${escapeHtml(headline(outcome))}</p>\n`].join('');
-  const sections: string[] = outcome.checked.map(configSection);
+  const doc = checkDocument(outcome);
+  const drawings = new Map<Model, NetworkDrawing>();
+  const drawingOf = (m: Model): NetworkDrawing => drawings.get(m) ?? drawings.set(m, drawNetwork(m)).get(m)!;
+  const sections: string[] = outcome.checked.map((c, i) => configSection(c, doc.results[i]!, drawingOf));
   if (outcome.notices.length > 0) sections.push(heading(3, 'Policy notices') + list(outcome.notices.map((n) => `${n.file}:${n.line}: ${n.message}`)));
   if (outcome.skipped.length > 0) sections.push(heading(3, 'Selected but not checked') + list(outcome.skipped.map((x) => `${x.path}: ${x.reason}`)));
   const errors = outcome.errors.filter((e) => e.severity === 'error');
@@ -76,7 +88,12 @@ function fit(head: string, sections: readonly string[], options: SummaryOptions)
   let kept = 0;
   // The note is measured with the largest count it can show, so that adding it never overflows.
   const reserve = size(note(sections.length));
-  while (kept < sections.length && size(out) + size(sections[kept]!) + reserve <= limit) out += sections[kept++];
+  // The size so far is carried along: measuring the growing text again for every section is quadratic.
+  let used = size(out);
+  while (kept < sections.length && used + size(sections[kept]!) + reserve <= limit) {
+    used += size(sections[kept]!);
+    out += sections[kept++];
+  }
   return out + note(sections.length - kept);
 }
 
@@ -93,7 +110,7 @@ function headline(outcome: CheckOutcome): string {
   );
 }
 
-function configSection(c: CheckedConfig): string {
+function configSection(c: CheckedConfig, doc: CheckDocument['results'][number], drawingOf: (m: Model) => NetworkDrawing): string {
   let s = heading(3, `${c.file} — policy ${c.policy.id}`);
   const r = c.result;
   if (!r) return s + `<p>${escapeHtml(`${c.failing ? 'Failing' : 'Warning'}: ${removalMessage(c)}.`)}</p>\n`;
@@ -108,8 +125,17 @@ function configSection(c: CheckedConfig): string {
     if (!label.startsWith('fail')) return;
     const summary = escapeHtml(`${q.requirement.partition}: ${label} — why, and what restores it`);
     s += `<details><summary>${summary}</summary><pre>${escapeHtml(explainRequirement(q, d, c.architecture).join('\n'))}</pre></details>\n`;
+    if (c.model) s += flowchartSection(drawingOf(c.model), q.requirement.partition, doc.requirements[i]!);
   });
   return s;
+}
+
+/** The requirement's flowchart, folded: Markdown needs the blank lines around its code block. */
+function flowchartSection(drawing: NetworkDrawing, partition: string, r: CheckDocument['results'][number]['requirements'][number]): string {
+  const chart = requirementFlowchart(drawing, panelMarks({ cut: r.cut, fixes: r.fix, changes: r.attributed ?? [] }, drawing).placed);
+  if (chart === undefined) return '';
+  const summary = escapeHtml(`${partition}: the network and its minimal cut (diagram)`);
+  return `<details><summary>${summary}</summary>\n\n\`\`\`mermaid\n${chart}\`\`\`\n\n</details>\n`;
 }
 
 function row(q: RequirementResult, d: RequirementDelta | undefined): string[] {

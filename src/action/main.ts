@@ -19,6 +19,7 @@ import { GitError } from '../git/git.js';
 import { checkJson, overallVerdict } from '../report/check-json.js';
 import { checkText } from '../report/check-text.js';
 import { junitReport } from '../report/junit.js';
+import { checkPicture } from '../report/picture-html.js';
 import { sarifText } from '../report/sarif.js';
 import { TOOL_VERSION } from '../version.js';
 import { planAnnotations } from './annotations.js';
@@ -73,10 +74,13 @@ async function check(): Promise<void> {
   const sarifOptions = { version: TOOL_VERSION, ...(inputs.sarifCategory ? { category: inputs.sarifCategory } : {}) };
   if (inputs.sarif) writeReport(resolve(cwd, inputs.sarif), sarifText(findings, sarifOptions), { inside: cwd });
   if (inputs.junit) writeReport(resolve(cwd, inputs.junit), junitReport(outcome), { inside: cwd });
+  const picturePath = inputs.picture ? resolve(cwd, inputs.picture) : undefined;
+  if (picturePath) writeReport(picturePath, checkPicture(outcome), { inside: cwd });
   const tally = tallyRequirements(outcome);
   core.setOutput('verdict', verdict);
   core.setOutput('failed', tally.failing);
   core.setOutput('report', reportPath);
+  if (picturePath) core.setOutput('picture', picturePath);
 
   if (process.env['GITHUB_STEP_SUMMARY']) {
     core.summary.addRaw(renderJobSummary(outcome, verdict, plan.overflow, { reportPath }));

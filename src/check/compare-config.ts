@@ -64,7 +64,7 @@ export function compareWithBase(
 ): CheckedConfig | undefined {
   const { path, file, policy, model, result } = head;
   const architecture = model.kind === 'layered' && model.architecture ? { architecture: model.architecture } : {};
-  const plain = { file, path, policy, result, ...architecture, changes: [], failing: result.verdict === 'fail' };
+  const plain = { file, path, policy, result, model, ...architecture, changes: [], failing: result.verdict === 'fail' };
   if (!base) return { ...plain, comparison: 'none' };
   if (base.basePath === undefined || base.read === undefined || base.read.kind === 'absent') return { ...plain, comparison: 'new' };
   if (base.read.kind === 'refused') {
@@ -77,7 +77,7 @@ export function compareWithBase(
   const changes = diffModels(base.answer.model, model);
   const deltas = result.requirements.map((q) => delta(q, base.answer!.result, policy, changes, model, head.parameters));
   const failing = result.verdict === 'fail' || deltas.some((d) => d.dropFails);
-  return { file, path, policy, result, ...architecture, ...renamed, comparison: 'compared', deltas, changes, failing };
+  return { file, path, policy, result, model, ...architecture, ...renamed, comparison: 'compared', deltas, changes, failing };
 }
 
 /** `where`: the definitions and the config's root-relative path, for a config that names an architecture. */

@@ -13,7 +13,7 @@ import { relative, resolve, sep } from 'node:path';
 import picomatch from 'picomatch';
 import { dedupeDiagnostics, type Diagnostic } from '../diagnostic.js';
 import type { FieldChange } from '../config/model-diff.js';
-import type { ArchitectureUse } from '../config/model.js';
+import type { ArchitectureUse, Model } from '../config/model.js';
 import { couldMatchBelow, policyApplies } from '../policy/applies-to.js';
 import type { Policy } from '../policy/policy.js';
 import type { PolicyResult } from '../policy/evaluate.js';
@@ -76,6 +76,8 @@ export interface CheckedConfig {
   readonly policy: Policy;
   /** Absent when the change removed the config from the policy's reach. */
   readonly result?: PolicyResult;
+  /** The head's model that `result` judges (for reports that draw it); absent with `result`. */
+  readonly model?: Model;
   /**
    * `deleted`: governed at the base, gone from the head. `moved-out`: renamed to a path the policy
    * does not check (outside applies_to, another extension, a link); see `movedTo`.

@@ -1,4 +1,4 @@
-/** `rankfloor bounds`: bounds per partition for one config. Orchestration only. */
+/** `rankfloor bounds`: bounds per partition for one config, and the picture report on request. Orchestration only. */
 import { parseArgs } from 'node:util';
 import { loadConfigFile } from '../config/load-config.js';
 import { defaultPartitions, resolvePartition, type Partition } from '../partition/partition.js';
@@ -6,12 +6,13 @@ import { computeBounds } from '../cut/bounds.js';
 import type { Surrogate } from '../cut/types.js';
 import { boundsJson } from '../report/bounds-json.js';
 import { boundsText } from '../report/bounds-text.js';
+import { ReportWriteError, writeReport } from '../check/write-report.js';
 import { EXIT_INPUT, EXIT_OK, UsageError, oneOf, printDiagnostics, type Io } from './cli-support.js';
 import { BOUNDS_HELP, parseOptions } from './help.js';
 
-export function boundsCommand(args: readonly string[], io: Io): number {
+export async function boundsCommand(args: readonly string[], io: Io): Promise<number> {
   const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(BOUNDS_HELP) }) as {
-    values: { partition?: string[]; 'model-path'?: string; surrogate?: string; format?: string };
+    values: { partition?: string[]; 'model-path'?: string; surrogate?: string; format?: string; picture?: string };
     positionals: string[];
   };
   if (positionals.length !== 1) throw new UsageError('bounds takes exactly one CONFIG file');
@@ -39,5 +40,14 @@ export function boundsCommand(args: readonly string[], io: Io): number {
   }
   const architecture = model.kind === 'layered' ? model.architecture : undefined;
   io.stdout(format === 'json' ? boundsJson(outcome.result, architecture) : boundsText(outcome.result, architecture));
+  if (values.picture) {
+    try {
+      writeReport(values.picture, (await import('../report/picture-html.js')).boundsPicture(outcome.result, model, partitions));
+    } catch (e) {
+      if (!(e instanceof ReportWriteError)) throw e;
+      io.stderr(`rankfloor: ${e.message}\n`);
+      return EXIT_INPUT;
+    }
+  }
   return EXIT_OK;
 }

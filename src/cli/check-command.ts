@@ -1,7 +1,7 @@
 /**
  * `rankfloor check`: argument parsing and rendering around `runCheck`. The exit code is 2 if any
  * input error occurred (the other files are still reported), else 1 if a requirement failed,
- * else 0. `--sarif` and `--junit` files are written whole, after the check, never partially.
+ * else 0. `--sarif`, `--junit` and `--picture` files are written whole, after the check, never partially.
  */
 import { parseArgs } from 'node:util';
 import { CheckRequestError, runCheck } from '../check/run-check.js';
@@ -28,9 +28,10 @@ interface CheckValues {
   sarif?: string;
   'sarif-category'?: string;
   junit?: string;
+  picture?: string;
 }
 
-export function checkCommand(args: readonly string[], io: Io): number {
+export async function checkCommand(args: readonly string[], io: Io): Promise<number> {
   const { values, positionals } = parseArgs({ args: [...args], allowPositionals: true, strict: true, options: parseOptions(CHECK_HELP) }) as {
     values: CheckValues;
     positionals: string[];
@@ -71,6 +72,8 @@ export function checkCommand(args: readonly string[], io: Io): number {
     const category = values['sarif-category'];
     if (values.sarif) writeReport(values.sarif, sarifText(findings, { version: TOOL_VERSION, ...(category ? { category } : {}) }));
     if (values.junit) writeReport(values.junit, junitReport(outcome));
+    // Loaded only when asked for: the layout library is not part of every check's start-up.
+    if (values.picture) writeReport(values.picture, (await import('../report/picture-html.js')).checkPicture(outcome));
   } catch (e) {
     if (!(e instanceof ReportWriteError)) throw e;
     if (outcome.errors.length > 0) printDiagnostics(outcome.errors, io, outcome.sources);

@@ -34,6 +34,7 @@ export const BOUNDS_HELP: CommandHelp = {
     { name: 'model-path', type: 'string', value: 'PTR', help: 'JSON Pointer of the architecture inside the file (default /model)' },
     { name: 'surrogate', type: 'string', value: 'tree|overlap', help: 'the arithmetic surrogate to analyse (default tree)' },
     { name: 'format', type: 'string', value: 'text|json', help: 'output format (default text)' },
+    { name: 'picture', type: 'string', value: 'FILE', help: 'also write the picture report: one self-contained HTML file (network, cut, partition, bars)' },
     HELP_OPTION,
   ],
   notes: [
@@ -59,6 +60,7 @@ export const CHECK_HELP: CommandHelp = {
     { name: 'sarif', type: 'string', value: 'FILE', help: 'also write a SARIF 2.1.0 log' },
     { name: 'sarif-category', type: 'string', value: 'NAME', help: 'with --sarif: the run category (matrix jobs uploading several logs)' },
     { name: 'junit', type: 'string', value: 'FILE', help: 'also write a JUnit XML report' },
+    { name: 'picture', type: 'string', value: 'FILE', help: 'also write the picture report: one self-contained HTML file (network, cut, partition, bars)' },
     HELP_OPTION,
   ],
   notes: [],

@@ -25,7 +25,14 @@ export function roundLog(x: number): number {
 
 /** `architecture`: the definition a config names; the cut's lines are that file's. */
 export function boundsJson(result: BoundsResult, architecture?: ArchitectureUse): string {
-  const doc = {
+  return JSON.stringify(boundsDocument(result, architecture), null, 2) + '\n';
+}
+
+/** The document `boundsJson` prints, as values: the picture report draws these same numbers. */
+export type BoundsDocument = ReturnType<typeof boundsDocument>;
+
+export function boundsDocument(result: BoundsResult, architecture?: ArchitectureUse) {
+  return {
     file: result.file,
     surrogate: result.surrogate,
     ...(architecture
@@ -39,5 +46,4 @@ export function boundsJson(result: BoundsResult, architecture?: ArchitectureUse)
       cut: cutJson(p.upper.cut),
     })),
   };
-  return JSON.stringify(doc, null, 2) + '\n';
 }

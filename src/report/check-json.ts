@@ -17,7 +17,16 @@ export function overallVerdict(outcome: CheckOutcome): OverallVerdict {
 }
 
 export function checkJson(outcome: CheckOutcome): string {
-  const doc = {
+  return JSON.stringify(checkDocument(outcome), null, 2) + '\n';
+}
+
+/** The document `checkJson` prints, as values: the picture report draws these same numbers. */
+export type CheckDocument = ReturnType<typeof checkDocument>;
+export type RequirementDocument = CheckDocument['results'][number]['requirements'][number];
+
+/** Results are in the order of `outcome.checked`, requirements in the order of each result's. */
+export function checkDocument(outcome: CheckOutcome) {
+  return {
     version: 1,
     verdict: overallVerdict(outcome),
     results: outcome.checked.map((c) => {
@@ -91,5 +100,4 @@ export function checkJson(outcome: CheckOutcome): string {
       .filter((e) => e.severity === 'error')
       .map((e) => ({ file: e.file, line: e.span?.line ?? null, column: e.span?.column ?? null, message: e.message })),
   };
-  return JSON.stringify(doc, null, 2) + '\n';
 }

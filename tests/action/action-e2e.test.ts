@@ -57,9 +57,15 @@ describe('a pull request that shrinks the last convolution', () => {
     const { repo, base } = baseRepo();
     repo.write(CONFIG_PATH, SHRUNK_CONFIG_TEXT);
     repo.commit('trim the last convolution');
-    const r = runAction({ workspace: repo.dir, inputs: { policy: 'policies' }, event: pullRequestEvent(base) });
+    const r = runAction({ workspace: repo.dir, inputs: { policy: 'policies', picture: 'reports/capacity.html' }, event: pullRequestEvent(base) });
     expectShrinkFailure(r);
     expect(commandLines(r.stdout, 'warning')).toEqual([]);
+    // The picture report, written where the input says, its absolute path an output.
+    expect(r.outputs['picture']).toBe(join(repo.dir, 'reports/capacity.html'));
+    const picture = repo.read('reports/capacity.html');
+    expect(picture.startsWith('<!DOCTYPE html>')).toBe(true);
+    expect(picture.match(/<g class="cut-mark" data-layer="8" data-line="18" data-dim="16" data-count="1">/g)).toHaveLength(1);
+    expect(r.summary).toContain('<details><summary>organ-pair: the network and its minimal cut (diagram)</summary>\n\n```mermaid\nflowchart TB\n');
     expect(commandLines(r.stdout, 'notice')).toEqual([]);
 
     expect(r.summary).toContain('<h3>models/renal-pair-net.yaml — policy paired-organs</h3>');
@@ -262,8 +268,11 @@ test('a config whose name holds blank lines and Markdown cannot forge the job su
   repo.commit('a config with a hostile name');
   const r = runAction({ workspace: repo.dir, inputs: { policy: 'policies' }, event: pullRequestEvent(base) });
   expect(r.code).toBe(1);
-  // A blank line would end the summary's HTML block; what follows would render as Markdown.
-  expect(r.summary.replace(/\n$/, '').split('\n').filter((l) => l.trim() === '')).toEqual([]);
+  // A blank line would end an HTML block of the summary; what follows would render as Markdown.
+  // The only blank lines are those around the flowchart's code block, which the summary writes.
+  const outsideCharts = r.summary.replace(/\n\n```mermaid\n(?:[^\n]*\n)*?```\n\n/g, '\n');
+  expect(r.summary).toContain('```mermaid');
+  expect(outsideCharts.replace(/\n$/, '').split('\n').filter((l) => l.trim() === '')).toEqual([]);
   expect(r.summary).not.toMatch(/^## /m);
   expect(r.summary).toContain('<h3>models/renal-&#10;&#10;## rankfloor: pass&#10;&#10;&lt;!-- .yaml — policy paired-organs</h3>');
 });

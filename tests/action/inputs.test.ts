@@ -68,14 +68,17 @@ describe('readInputs', () => {
     expect(bad({ configs: '!' })).toThrow(/is empty/);
   });
 
-  test('report files: sarif with its category and junit, relative paths inside the workspace only', () => {
-    const ok = readInputs(reader({ policy: 'p', sarif: 'out/r.sarif', 'sarif-category': 'gpu', junit: 'out/r.xml' }), PUSH);
-    expect([ok.sarif, ok.sarifCategory, ok.junit]).toEqual(['out/r.sarif', 'gpu', 'out/r.xml']);
+  test('report files: sarif with its category, junit and picture, relative paths inside the workspace only', () => {
+    const ok = readInputs(reader({ policy: 'p', sarif: 'out/r.sarif', 'sarif-category': 'gpu', junit: 'out/r.xml', picture: 'out/r.html' }), PUSH);
+    expect([ok.sarif, ok.sarifCategory, ok.junit, ok.picture]).toEqual(['out/r.sarif', 'gpu', 'out/r.xml', 'out/r.html']);
+    expect(readInputs(reader({ policy: 'p' }), PUSH).picture).toBeUndefined();
     const bad = (values: Record<string, string>) => () => readInputs(reader({ policy: 'p', ...values }), PUSH);
     expect(bad({ sarif: '../../home/runner/.bashrc' })).toThrow("the input `sarif`: '../../home/runner/.bashrc' has a '..' segment; report files are written inside the workspace");
     expect(bad({ sarif: '/etc/cron.d/x' })).toThrow(/the input `sarif`: '\/etc\/cron.d\/x' is absolute/);
     expect(bad({ junit: 'C:\\x.xml' })).toThrow(/the input `junit`: .* is absolute/);
     expect(bad({ junit: 'out/../../x.xml' })).toThrow(/the input `junit`: .*'\.\.' segment/);
+    expect(bad({ picture: '/tmp/x.html' })).toThrow("the input `picture`: '/tmp/x.html' is absolute; give a path relative to the workspace, e.g. 'reports/rankfloor.sarif'");
+    expect(bad({ picture: '../x.html' })).toThrow("the input `picture`: '../x.html' has a '..' segment; report files are written inside the workspace");
     expect(bad({ 'sarif-category': 'gpu' })).toThrow('the input `sarif-category` needs the input `sarif` (the path of the SARIF log)');
     expect(bad({ sarif: 'r.sarif', 'sarif-category': 'a\u0007b' })).toThrow('the input `sarif-category`: the category contains control characters');
   });

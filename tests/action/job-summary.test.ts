@@ -11,6 +11,7 @@ import { planAnnotations } from '../../src/action/annotations.js';
 import { escapeHtml, renderJobSummary, SUMMARY_LIMIT_BYTES } from '../../src/action/job-summary.js';
 import { runCheck, type CheckOutcome } from '../../src/check/run-check.js';
 import type { Finding } from '../../src/report/finding.js';
+import type { Model } from '../../src/config/model.js';
 import { baseRepo, CONFIG_PATH, isolateThisProcess, removeTempDirs, SHRUNK_CONFIG_TEXT } from './action-fixture.js';
 
 let outcome: CheckOutcome;
@@ -46,8 +47,37 @@ test('one table per checked config with base, head and change in bits', () => {
   expect(lines[4]).toMatch(/^<details><summary>organ-pair: fail — why, and what restores it<\/summary><pre>organ-pair — columns 0-31 against columns 32-63&#10;/);
   expect(lines[4]).toContain('change  base 8.00 bits → head 4.00 bits (-4.00)');
   expect(lines[4]).toContain('line 18:24  layer 8 channels: 16 → 64');
-  expect(lines.slice(5)).toEqual(['']);
+  // The flowchart, folded: the cut layer with its cut, fix and change written in, the runs of other
+  // layers collapsed, and the blank lines Markdown needs around a code block.
+  expect(lines.slice(5)).toEqual([
+    '<details><summary>organ-pair: the network and its minimal cut (diagram)</summary>',
+    '',
+    '```mermaid',
+    'flowchart TB',
+    '  n0(["input 64×64<br>4,096 positions, M = 32 · line 6"])',
+    '  n1["layer 8: conv 3×3<br>width 16, grid 4×4 · line 18<br>✂ CUT 1 bond × dim 16<br>FIX channels 16 → 64 (+110784 parameters)<br>CHANGED channels 256 → 16"]',
+    '  n2(["head: the analysed score"])',
+    '  n3["⋯ 8 layers, lines 10–17"]',
+    '  n4["⋯ 2 layers, lines 19–20"]',
+    '  n0 --> n3',
+    '  n3 --> n1',
+    '  n1 --> n4',
+    '  n4 --> n2',
+    '  classDef cut stroke:#b3261e,stroke-width:4px,stroke-dasharray:6 3',
+    '  classDef fix stroke:#2f7d32,stroke-width:3px',
+    '  classDef change stroke:#8a5a00,stroke-width:3px',
+    '  classDef run stroke-dasharray:3 3',
+    '  class n1 cut',
+    '  class n3,n4 run',
+    '```',
+    '',
+    '</details>',
+    '',
+  ]);
 });
+
+/** The flowchart code blocks with the blank lines around them, which end (and start) HTML blocks on purpose. */
+const FLOWCHART = /\n\n```mermaid\n((?:[^\n]*\n)*?)```\n\n/g;
 
 test('nothing checked says so', () => {
   expect(renderJobSummary(EMPTY(outcome.root), 'pass', [])).toBe('<h2>rankfloor: pass</h2>\n<p>Nothing to check: no config matched (or none changed).</p>\n');
@@ -75,8 +105,22 @@ test('annotations beyond the limit are listed, counted per kind', () => {
 });
 
 test('names and messages with blank lines and markup cannot end the HTML block', () => {
-  const forged = '\n\n## rankfloor: pass\n\n**all good**\r\n\r\n<script>x</script>\n';
-  const checked = outcome.checked.map((c) => ({ ...c, file: `models/evil${forged}.yaml` }));
+  const forged = '\n\n## rankfloor: pass\n\n**all good**\r\n\r\n<script>x</script>\n```\n"]) --> x';
+  // A layer name from the pull request reaches the flowchart's labels too: the cut layer, as if
+  // the config had named it (reports then call it by its name).
+  const name = `conv${forged}`;
+  const label = <T extends { layer: number | string }>(x: T): T => (x.layer === 8 ? { ...x, layer: name } : x);
+  const rename = (m: Model): Model => (m.kind === 'layered' ? { ...m, layers: m.layers.map((l) => (l.index === 8 ? { ...l, name } : l)) } : m);
+  const checked = outcome.checked.map((c) => ({
+    ...c,
+    file: `models/evil${forged}.yaml`,
+    model: rename(c.model!),
+    result: {
+      ...c.result!,
+      requirements: c.result!.requirements.map((q) => ({ ...q, bounds: { ...q.bounds, upper: { ...q.bounds.upper, cut: q.bounds.upper.cut.map(label) } }, fixes: q.fixes.map(label) })),
+    },
+    deltas: c.deltas!.map((d) => ({ ...d, attributed: d.attributed.map(label) })),
+  }));
   const hostile: CheckOutcome = {
     ...outcome,
     checked,
@@ -85,10 +129,21 @@ test('names and messages with blank lines and markup cannot end the HTML block',
     errors: [{ code: 'config/unknown-field', message: `bad field${forged}`, file: `models/y${forged}.yaml`, severity: 'error' }],
   };
   const text = renderJobSummary(hostile, 'error', []);
-  expect(blankLines(text)).toBe(0);
+  const charts = [...text.matchAll(FLOWCHART)].map((m) => m[1]!);
+  expect(charts).toHaveLength(1);
+  // Every line of the chart is a node, an edge or a style statement; labels hold no quote, backtick or line break.
+  const quoted = '"(?:[^"`\\n<>]|<br>)*"';
+  const statement = new RegExp(`^  (n\\d+(\\[${quoted}\\]|\\(\\[${quoted}\\]\\)|\\{\\{${quoted}\\}\\})|n\\d+ (-->|-\\.->)(\\|${quoted}\\|)? n\\d+|classDef \\w+ [\\w:#,. -]+|class [n\\d,]+ \\w+)$`);
+  const chartLines = charts[0]!.trimEnd().split('\n');
+  expect(chartLines[0]).toBe('flowchart TB');
+  for (const l of chartLines.slice(1)) expect(l).toMatch(statement);
+  expect(charts[0]).toContain('["conv#10;#10;#35;#35; rankfloor: pass#10;#10;#42;#42;all good#42;#42;#13;#10;#13;#10;#60;script#62;x#60;/script#62;#10;#96;#96;#96;#10;#34;]) --#62; x: conv 3×3<br>');
+  expect(charts[0]).toContain('<br>✂ CUT 1 bond × dim 16<br>');
+  // Outside the charts' code blocks, no line is blank: nothing from the pull request ends an HTML block.
+  expect(blankLines(text.replace(FLOWCHART, '\n'))).toBe(0);
   expect(text).not.toMatch(/^##/m);
   expect(text).not.toContain('<script>');
-  expect(text).toContain('<h3>models/evil&#10;&#10;## rankfloor: pass&#10;&#10;**all good**&#13;&#10;&#13;&#10;&lt;script&gt;x&lt;/script&gt;&#10;.yaml — policy paired-organs</h3>');
+  expect(text).toContain('<h3>models/evil&#10;&#10;## rankfloor: pass&#10;&#10;**all good**&#13;&#10;&#13;&#10;&lt;script&gt;x&lt;/script&gt;&#10;```&#10;&quot;]) --&gt; x.yaml — policy paired-organs</h3>');
 });
 
 test('a summary over 1 MiB keeps whole sections and ends with a note that points to the JSON report', () => {
@@ -102,8 +157,10 @@ test('a summary over 1 MiB keeps whole sections and ends with a note that points
   const kept = lines.filter((l) => l.startsWith('<h3>models/net-')).length;
   expect(kept).toBeGreaterThan(100);
   expect(kept).toBeLessThan(4000);
-  // Whole sections only: the last kept config still has its table and its details.
-  expect(lines.at(-2)).toMatch(/^<details>.*<\/details>$/);
+  // Whole sections only: the last kept config still has its table, its details and its flowchart.
+  expect(lines.filter((l) => l === '```mermaid')).toHaveLength(kept);
+  expect(lines.at(-2)).toBe('</details>');
+  expect(lines.at(-4)).toBe('```');
   expect(lines.at(-1)).toBe(
     `<p><strong>This summary stops here to stay under GitHub's 1 MiB limit for a step summary; ${4000 - kept} more sections (configs, notices, errors) ` +
       "are in the JSON report at /runner/temp/rankfloor-report.json (the action's `report` output).</strong></p>",

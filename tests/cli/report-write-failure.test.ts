@@ -1,7 +1,8 @@
 /**
- * `check --sarif` / `--junit` when the report cannot be written: exit code 2 and one line on
- * standard error, no stack trace and no partial file. The full disk is simulated by replacing
- * the file system's `writeSync` for this test file (in-process run of the command line).
+ * `check --sarif` / `--junit` / `--picture` and `bounds --picture` when the report cannot be
+ * written: exit code 2 and one line on standard error, no stack trace and no partial file. The
+ * full disk is simulated by replacing the file system's `writeSync` for this test file (in-process
+ * run of the command line).
  */
 import { mkdtempSync, readdirSync, realpathSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -37,5 +38,22 @@ test('a full disk while writing the SARIF log: exit 2, one line, nothing left be
   }
   expect(code).toBe(2);
   expect(err).toEqual([`rankfloor: cannot write ${join(dir, 'out.sarif')}: ENOSPC: no space left on device\n`]);
+  expect(readdirSync(dir)).toEqual([]);
+});
+
+test.each([
+  ['check', ['check', '--policy', 'policies/', '--picture']],
+  ['bounds', ['bounds', 'examples/renal-pair-net-trimmed.yaml', '--picture']],
+])('a full disk while %s writes the picture report: exit 2, one line, nothing left behind', async (_, args) => {
+  const err: string[] = [];
+  state.diskFull = true;
+  let code: number;
+  try {
+    code = await run([...args, join(dir, 'out.html')], { stdout: () => {}, stderr: (t) => err.push(t) });
+  } finally {
+    state.diskFull = false;
+  }
+  expect(code).toBe(2);
+  expect(err).toEqual([`rankfloor: cannot write ${join(dir, 'out.html')}: ENOSPC: no space left on device\n`]);
   expect(readdirSync(dir)).toEqual([]);
 });
