@@ -16,6 +16,7 @@ import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
 import { rankPropagation } from './rank-propagation.js';
 import { specialCases } from './special-cases.js';
+import { certifiedProbe } from './probe/certified-probe.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
@@ -24,6 +25,8 @@ import { HUGE_RANK, MAX_RANK_BITS, log2Big } from './types.js';
 export interface BoundsOptions {
   readonly surrogate: Surrogate;
   readonly nodeLimit?: number;
+  /** Multiply-adds the certified probe may spend per partition (probe/certified-probe.ts); 0: no probe. */
+  readonly probeBudget?: number;
 }
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };
@@ -67,6 +70,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   // Sibling subtrees compute the same function only with shared weights in a uniform tree.
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
+  const probe = certifiedProbe(model, built.shapes, built.pointwise, options.surrogate, options.probeBudget);
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
@@ -78,7 +82,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
       const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
-      return finish(p.label, { upper, lower: bestLower(p) });
+      return finish(p.label, { upper, lower: bestLower(p, upper) });
     }
     // Choose by log2 first: the losers may have millions of digits and are never written out.
     // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
@@ -101,9 +105,9 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const b = c.make();
       if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
-    return finish(p.label, { upper: upper!, lower: bestLower(p) });
+    return finish(p.label, { upper: upper!, lower: bestLower(p, upper!) });
   };
-  const bestLower = (p: Partition): Bound | null => {
+  const bestLower = (p: Partition, upper: Bound): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
@@ -112,6 +116,8 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
+    // The probe runs last, from just above what the rules proved, and only while it can improve.
+    if (probe && (!lower || lower.rank < upper.rank)) return probe(p.side, lower?.rank ?? 0n, upper.rank) ?? lower;
     return lower;
   };
   return { ok: true, notes, bounds };
