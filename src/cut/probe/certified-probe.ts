@@ -93,7 +93,8 @@ const SIDE_A = 1;
 const SIDE_B = 2;
 const MIXED = 3;
 
-function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, limit: number, budget: number): Reading | undefined {
+function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, most: number, budget: number): Reading | undefined {
+  let limit = most;
   const { steps, positions, m } = program;
   const cls = new Uint8Array(steps.length);
   for (let s = 0; s < steps.length; s++) {
@@ -168,12 +169,25 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, l
   let spent = 0;
   let best: Reading | undefined;
   // Start just above the best lower bound so far: a smaller probe could not improve on it.
-  let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(Number(lower < 1n << 30n ? lower : 1n << 30n) + 1)));
+  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
+  let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
+  const stepCost = (from: number, to: number): number => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + (to * to * to) / 3;
   for (;;) {
     const before = rows.length;
-    const stepCost = (k - before) * (rowCost + colCost) + (k * k - before * before) * entryCost + (k * k * k) / 3;
-    if (spent + stepCost > budget) break;
-    spent += stepCost;
+    if (spent + stepCost(before, k) > budget) {
+      // The last step takes the largest size the rest of the budget pays for.
+      let lo = before;
+      let hi = k;
+      while (hi - lo > 1) {
+        const mid = Math.floor((lo + hi) / 2);
+        if (spent + stepCost(before, mid) <= budget) lo = mid;
+        else hi = mid;
+      }
+      if (lo <= Math.max(before, known, best?.minor.rows.length ?? 0)) break;
+      k = lo;
+      limit = k;
+    }
+    spent += stepCost(before, k);
     while (cols.length < k) cols.push(sideValues(SIDE_B, cols.length));
     while (rows.length < k) {
       rows.push(sideValues(SIDE_A, rows.length));
