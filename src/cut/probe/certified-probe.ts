@@ -34,8 +34,8 @@ export const PROBE_SEED = 1;
 /** Version of the naming and drawing scheme (draw.ts, surrogate-program.ts) a certificate follows. */
 export const PROBE_SCHEME = 1;
 
-/** Largest probe matrix side. */
-const MAX_PROBES = 1024;
+/** Largest probe matrix side: the probe never proves more than this. */
+export const MAX_PROBES = 1024;
 
 /** Smallest probe matrix side worth running. */
 const FIRST_PROBES = 8;
