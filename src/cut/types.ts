@@ -77,6 +77,14 @@ export interface BoundsResult {
   readonly partitions: readonly PartitionBounds[];
 }
 
+/**
+ * Whether a lower and an upper bound are the same integer. Two bounds beyond the bit limit are
+ * never known to meet: only their log2 is known.
+ */
+export function boundsMeet(lower: Bound, upper: Bound): boolean {
+  return !lower.huge && !upper.huge && lower.rank === upper.rank;
+}
+
 /** log2 of a positive bigint, accurate for any size. */
 export function log2Big(x: bigint): number {
   if (x <= 0n) throw new RangeError('log2Big needs a positive integer');

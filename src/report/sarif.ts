@@ -61,8 +61,8 @@ const RULES: readonly RuleText[] = [
     name: 'CapacityDrop',
     short: 'Capacity dropped against the base revision by more than the policy allows.',
     full:
-      'Compared with the base revision, the bound on the separation rank for this partition fell by more bits than ' +
-      "the policy's max_drop_bits permits.",
+      "Compared with the base revision, the head's upper bound on the separation rank for this partition is below the " +
+      "base's proven lower bound by more bits than the policy's max_drop_bits permits: the capacity certainly fell.",
     help: 'Restore the width that was removed on the bottleneck cut, or raise max_drop_bits in the policy if the drop is intended.',
     level: 'error',
   },
@@ -92,6 +92,20 @@ const RULES: readonly RuleText[] = [
       'The change deletes the config, or renames it to a path the policy does not check (outside its applies_to, another ' +
       "extension, a symbolic link). The policy's removal setting makes this a warning (default) or a failure.",
     help: 'If the config is meant to stay governed, keep it where the policy looks; otherwise have the removal reviewed on its own.',
+    level: 'warning',
+  },
+  // Added last, so that the rules before it keep their index.
+  {
+    rule: 'capacity-may-have-dropped',
+    name: 'CapacityMayHaveDropped',
+    short: 'Only the upper bound dropped against the base revision by more than the policy allows.',
+    full:
+      'Compared with the base revision, the upper bound on the separation rank for this partition fell by more bits than ' +
+      "the policy's max_drop_bits permits, but no lower bound of the base proves that the capacity itself fell: it may " +
+      "have dropped, or only a loose ceiling moved. The requirement's unproven setting makes this a warning or an error.",
+    help:
+      'Check the change on the bottleneck cut named in the message; a fix is listed only when it proves that the capacity ' +
+      'held. Raise max_drop_bits, or count unproven drops as warnings, if the ceiling alone is not a concern.',
     level: 'warning',
   },
 ];

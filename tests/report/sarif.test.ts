@@ -56,6 +56,7 @@ const EVERY_RULE: Finding[] = [
   finding({ rule: 'policy-changed', level: 'notice', file: 'policies/team.yaml', line: 1, column: 1 }),
   finding({ rule: 'input-error', file: 'configs/broken.yaml', line: 4, column: 7, message: 'unknown field `chanels`; did you mean `channels`?' }),
   finding({ rule: 'config-removed', level: 'warning', file: 'configs/gone.yaml', line: undefined, column: undefined }),
+  finding({ rule: 'capacity-may-have-dropped', level: 'warning', file: 'configs/model.yaml', line: 14, column: 3 }),
 ];
 
 interface Result {
@@ -81,7 +82,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog(EVERY_RULE, TOOL);
     expectValid(log);
     expect(run(log).results.map((r) => r.ruleId).sort()).toEqual(
-      ['capacity-drop', 'config-removed', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
+      ['capacity-drop', 'capacity-may-have-dropped', 'config-removed', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
     );
   });
 
@@ -89,7 +90,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog([], TOOL);
     expectValid(log);
     expect(run(log).results).toEqual([]);
-    expect(run(log).tool.driver.rules).toHaveLength(6);
+    expect(run(log).tool.driver.rules).toHaveLength(7);
   });
 
   it('accepts the text form, which parses back to the same log', () => {
@@ -151,7 +152,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
 });
 
 describe('sarifLog content', () => {
-  it('lists all six rules in a fixed order, and each result points at its own rule', () => {
+  it('lists all seven rules in a fixed order, and each result points at its own rule', () => {
     const rules = run(sarifLog(EVERY_RULE, TOOL)).tool.driver.rules;
     expect(rules.map((r) => r.id)).toEqual([
       'rankfloor/requirement-failed',
@@ -160,8 +161,9 @@ describe('sarifLog content', () => {
       'rankfloor/policy-changed',
       'rankfloor/input-error',
       'rankfloor/config-removed',
+      'rankfloor/capacity-may-have-dropped',
     ]);
-    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError', 'ConfigRemoved']);
+    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError', 'ConfigRemoved', 'CapacityMayHaveDropped']);
     for (const r of run(sarifLog(EVERY_RULE, TOOL)).results) expect(rules[r.ruleIndex]!.id).toBe(r.ruleId);
     // The same indices whichever findings occur.
     const only = run(sarifLog([finding({ rule: 'input-error' })], TOOL)).results[0]!;
