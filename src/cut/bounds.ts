@@ -20,7 +20,7 @@ import { certifiedProbe } from './probe/certified-probe.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
-import { HUGE_RANK, MAX_RANK_BITS, log2Big } from './types.js';
+import { HUGE_RANK, MAX_RANK_BITS, boundsMeet, log2Big } from './types.js';
 
 export interface BoundsOptions {
   readonly surrogate: Surrogate;
@@ -164,11 +164,14 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
 }
 
 function finish(label: string, b: { upper: Bound; lower: Bound | null }): PartitionBounds {
-  if (b.lower && b.lower.rank > b.upper.rank) {
-    throw new Error(`unsound bounds for '${label}': lower ${b.lower.rank} (${b.lower.method}) > upper ${b.upper.rank} (${b.upper.method})`);
-  }
-  const status = !b.lower ? 'upper-only' : b.lower.rank === b.upper.rank ? 'exact' : 'bounded';
-  return { partition: label, upper: b.upper, lower: b.lower, status };
+  const upper = b.upper;
+  // A lower bound beyond the bit limit is reported like a huge upper bound: by its log2.
+  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
+  const shown = (x: Bound): string => (x.huge ? `2^${x.log2}` : String(x.rank));
+  if (above) throw new Error(`unsound bounds for '${label}': lower ${shown(lower)} (${lower.method}) > upper ${shown(upper)} (${upper.method})`);
+  const status = !lower ? 'upper-only' : boundsMeet(lower, upper) ? 'exact' : 'bounded';
+  return { partition: label, upper, lower, status };
 }
 
 function productOf(counts: CutCounts, augment: number): bigint {
@@ -213,8 +216,15 @@ function roundingPlan(c: Circuit): RoundingPlan {
   const qs = powerCandidates(c.dim);
   return {
     candidates: qs.map((q) => {
+      // A network has few distinct dimensions: each exponent is worked out once.
+      const exponent = new Map<number, number>();
       const w = new Float64Array(c.size);
-      for (let v = 0; v < c.size; v++) w[v] = floorLog(c.dim[v]!, q);
+      for (let v = 0; v < c.size; v++) {
+        const d = c.dim[v]!;
+        let e = exponent.get(d);
+        if (e === undefined) exponent.set(d, (e = floorLog(d, q)));
+        w[v] = e;
+      }
       return { q, weights: w };
     }),
   };
@@ -225,6 +235,13 @@ function roundingLower(c: Circuit, side: Uint8Array, plan: RoundingPlan): Bound 
   let best: Bound | undefined;
   for (const { q, weights } of plan.candidates) {
     const cut = treeMinCut(c, side, weights);
+    // Beyond the bit limit the bound is a result known by its log2: the power is not formed.
+    const log2 = cut.value * Math.log2(q);
+    if (log2 > MAX_RANK_BITS) {
+      if (!best || log2 > best.log2) best = { rank: HUGE_RANK, log2, huge: true, method: `power-rounding q=${q}`, cut: [] };
+      continue;
+    }
+    if (best?.huge) continue;
     const rank = BigInt(q) ** BigInt(cut.value);
     if (!best || rank > best.rank) {
       const counts: CutCounts = new Map();
