@@ -3,7 +3,8 @@
  * annotations of each kind from one step and drops the rest without a word, so the plan keeps the
  * first ten of each kind and hands the others to the job summary, where a reviewer still sees
  * them. The kind follows the rule, not the finding's own level, so that the mapping is stated once;
- * the one exception is a removed config, which the policy makes a warning or an error.
+ * the exceptions are a removed config and a possible drop, which the policy makes a warning or an
+ * error.
  */
 import type { Finding, FindingRule } from '../report/finding.js';
 
@@ -12,7 +13,7 @@ export type AnnotationKind = 'error' | 'warning' | 'notice';
 /** Per kind and step, the number GitHub displays. */
 export const ANNOTATIONS_PER_KIND = 10;
 
-const KIND_OF: Readonly<Record<Exclude<FindingRule, 'config-removed'>, AnnotationKind>> = {
+const KIND_OF: Readonly<Record<Exclude<FindingRule, 'config-removed' | 'capacity-may-have-dropped'>, AnnotationKind>> = {
   'requirement-failed': 'error',
   'capacity-drop': 'error',
   'input-error': 'error',
@@ -41,7 +42,7 @@ export interface AnnotationPlan {
 }
 
 export function kindOf(finding: Finding): AnnotationKind {
-  if (finding.rule === 'config-removed') return finding.level === 'error' ? 'error' : 'warning';
+  if (finding.rule === 'config-removed' || finding.rule === 'capacity-may-have-dropped') return finding.level === 'error' ? 'error' : 'warning';
   return KIND_OF[finding.rule];
 }
 

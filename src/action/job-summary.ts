@@ -18,9 +18,9 @@
  */
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { formatDiagnosticLine } from '../diagnostic.js';
-import { log2Big, type Bound } from '../cut/types.js';
+import { log2Big } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
-import { bits } from '../report/bounds-text.js';
+import { bits, capacityBits } from '../report/bounds-text.js';
 import { explainRequirement, removalMessage } from '../report/check-text.js';
 import { checkDocument, type CheckDocument, type OverallVerdict } from '../report/check-json.js';
 import { requirementFlowchart } from '../report/mermaid-flowchart.js';
@@ -139,18 +139,12 @@ function flowchartSection(drawing: NetworkDrawing, partition: string, r: CheckDo
 }
 
 function row(q: RequirementResult, d: RequirementDelta | undefined): string[] {
-  const head = capacity(q.bounds.upper, q.bounds.lower);
-  const base = d?.base ? capacity(d.base.upper, d.base.lower) : NONE;
+  const head = capacityBits(q.bounds.upper, q.bounds.lower);
+  const base = d?.base ? capacityBits(d.base.upper, d.base.lower) : NONE;
   const change = d?.changeBits === null || d?.changeBits === undefined ? NONE : signed(d.changeBits);
   return [q.requirement.partition, bits(log2Big(q.requirement.minRank)), base, head, change, requirementLabel(q, d)];
 }
 
-/** Exact when the bounds meet, a range when both are known, else only the ceiling. */
-function capacity(upper: Bound, lower: Bound | null): string {
-  if (lower === null) return `≤ ${bits(upper.log2)}`;
-  if (lower.rank === upper.rank) return bits(upper.log2);
-  return `${bits(lower.log2)}–${bits(upper.log2)}`;
-}
 
 function signed(x: number): string {
   const s = bits(x);

@@ -14,11 +14,12 @@ import { widthSources } from '../config/width-sources.js';
 import { diffModels, type FieldChange } from '../config/model-diff.js';
 import type { FileRead } from '../files/file-read.js';
 import type { Policy, Requirement } from '../policy/policy.js';
+import type { Bound } from '../cut/types.js';
 import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
 import { searchFixes } from '../policy/fix-search.js';
 import type { BaseAnswer } from './base-evaluation.js';
 import { refusalDiagnostic } from './input-errors.js';
-import type { CheckedConfig, RequirementDelta } from './run-check.js';
+import type { CheckedConfig, DropKind, RequirementDelta } from './run-check.js';
 
 export interface EvaluatedHead {
   readonly path: string;
@@ -115,20 +116,37 @@ function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
   const maxDropBits = maxDrop(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
-  if (!b) return { base: null, changeBits: null, maxDropBits, dropFails: false, attributed: onTheCut(changes, head, cutLayers, false), fixes: [] };
+  if (!b) return { base: null, changeBits: null, maxDropBits, drop: 'none', dropFails: false, attributed: onTheCut(changes, head, cutLayers, false), fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
-  const attributed = onTheCut(changes, head, cutLayers, q.bounds.upper.rank < b.bounds.upper.rank);
-  // Exact: a drop of more than k bits means base > head · 2^k; fractional limits compare in log2.
+  const attributed = onTheCut(changes, head, cutLayers, q.bounds.upper.log2 < b.bounds.upper.log2);
   const limit = maxDropBits;
-  const dropFails =
-    limit !== undefined &&
-    (Number.isInteger(limit) ? b.bounds.upper.rank > q.bounds.upper.rank << BigInt(limit) : -changeBits > limit + 1e-9);
-  // A drop within k bits needs head ≥ ⌈base / 2^k⌉; the fix search finds the widths that reach it.
+  const drop: DropKind =
+    limit === undefined
+      ? 'none'
+      : b.bounds.lower !== null && exceedsBy(b.bounds.lower, q.bounds.upper, limit)
+        ? 'proven'
+        : exceedsBy(b.bounds.upper, q.bounds.upper, limit)
+          ? 'possible'
+          : 'none';
+  const dropFails = drop === 'proven' || (drop === 'possible' && q.requirement.unproven === 'fail');
+  // No drop of more than k bits needs head ≥ ⌈base / 2^k⌉: for a proven drop, the upper bound's
+  // (the check then no longer flags it); for a possible one, the lower bound's (it is then proven
+  // that nothing dropped). A bound beyond the bit limit gives no exact target.
   const fixes =
-    dropFails && !q.failing && head.kind === 'layered' && limit !== undefined && Number.isInteger(limit)
-      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), 'warn', policy.surrogate, cutLayers, parameters)
+    dropFails && !q.failing && head.kind === 'layered' && limit !== undefined && Number.isInteger(limit) && !b.bounds.upper.huge
+      ? searchFixes(head, q.partition, (b.bounds.upper.rank + (1n << BigInt(limit)) - 1n) >> BigInt(limit), drop === 'proven' ? 'warn' : 'fail', policy.surrogate, cutLayers, parameters)
       : [];
-  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, dropFails, attributed, fixes };
+  return { base: { upper: b.bounds.upper, lower: b.bounds.lower }, changeBits, maxDropBits, drop, dropFails, attributed, fixes };
+}
+
+/**
+ * a > c · 2^k: exact on integers for an integer k; by log2 for a fractional k or a bound beyond
+ * the bit limit (known by its log2 only), where only a difference larger than the rounding of
+ * the log2 values (10^-9 of their size) counts.
+ */
+export function exceedsBy(a: Bound, c: Bound, k: number): boolean {
+  if (!a.huge && !c.huge && Number.isInteger(k)) return a.rank > c.rank << BigInt(k);
+  return a.log2 - c.log2 > k + 1e-9 * Math.max(1, a.log2, c.log2);
 }
 
 function maxDrop(r: Requirement, p: Policy): number | undefined {

@@ -7,7 +7,8 @@
  */
 import { resolve } from 'node:path';
 import type { Diagnostic } from '../diagnostic.js';
-import type { Finding } from '../report/finding.js';
+import type { Finding, FindingRule } from '../report/finding.js';
+import { labelCount, requirementLabel, type RequirementLabel } from '../report/requirement-label.js';
 import { explainRequirement, removalMessage } from '../report/check-text.js';
 import type { CheckedConfig, CheckOutcome } from './run-check.js';
 import { toRootRelative } from './repo-files.js';
@@ -35,8 +36,9 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
     if (!c.result) continue;
     c.result.requirements.forEach((q, i) => {
       const d = c.deltas?.[i];
-      const failing = q.failing || d?.dropFails === true;
-      if (!failing && q.verdict !== 'unproven') return;
+      const label = requirementLabel(q, d);
+      if (label === 'pass') return;
+      const failing = labelCount(label) === 'failing';
       const attributed = d?.attributed[0];
       const cut = q.bounds.upper.cut.find((e) => e.layer !== 'input') ?? q.bounds.upper.cut[0];
       // A config built from a definition: the changed parameter's line, or the changed line of the
@@ -47,8 +49,7 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
         : c.architecture
           ? { file: c.path, line: c.architecture.span.line, column: c.architecture.span.column }
           : { file: c.path, line: cut?.line ?? 1, column: 1 };
-      const rule = q.failing ? 'requirement-failed' : failing ? 'capacity-drop' : 'requirement-unproven';
-      const what = rule === 'capacity-drop' ? 'capacity dropped more than allowed' : rule === 'requirement-failed' ? 'capacity below the policy minimum' : 'capacity not proven';
+      const { rule, what } = FINDING_OF[label];
       const [, ...body] = explainRequirement(q, d, c.architecture);
       out.push({
         rule,
@@ -63,6 +64,16 @@ export function findingsOf(outcome: CheckOutcome, cwd: string): Finding[] {
   for (const e of outcome.errors) out.push(errorFinding(e, outcome.root, cwd));
   return out;
 }
+
+/** The finding of each requirement label other than `pass`: its rule and what its title says. */
+const FINDING_OF: Readonly<Record<Exclude<RequirementLabel, 'pass'>, { rule: FindingRule; what: string }>> = {
+  fail: { rule: 'requirement-failed', what: 'capacity below the policy minimum' },
+  'fail (unproven)': { rule: 'requirement-failed', what: 'capacity not proven to reach the minimum, counted as failing' },
+  'fail (drop)': { rule: 'capacity-drop', what: 'capacity dropped more than allowed' },
+  'fail (may have dropped)': { rule: 'capacity-may-have-dropped', what: 'capacity may have dropped more than allowed, counted as failing' },
+  'may have dropped': { rule: 'capacity-may-have-dropped', what: 'capacity may have dropped more than allowed' },
+  unproven: { rule: 'requirement-unproven', what: 'capacity not proven' },
+};
 
 function errorFinding(e: Diagnostic, root: string, cwd: string): Finding {
   const relative = toRootRelative(root, resolve(cwd, e.file));

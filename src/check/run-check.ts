@@ -56,16 +56,28 @@ export interface CheckRequest {
   readonly modelPath?: string;
 }
 
+/**
+ * `proven`: the head's upper bound is below the base's lower bound by more than max_drop_bits, so
+ * the capacity certainly fell by more; `possible`: only the upper bounds fell that much (the
+ * capacity may have dropped, or only a loose ceiling moved); `none`.
+ */
+export type DropKind = 'proven' | 'possible' | 'none';
+
 export interface RequirementDelta {
   readonly base: { readonly upper: Bound; readonly lower: Bound | null } | null;
   /** head upper log2 − base upper log2; null without a base. */
   readonly changeBits: number | null;
   readonly maxDropBits: number | undefined;
-  /** The drop is larger than max_drop_bits. */
+  readonly drop: DropKind;
+  /** The drop makes the check fail: a proven one, or a possible one the requirement's `unproven` counts as failing. */
   readonly dropFails: boolean;
   /** Changed fields of the pull request that lie on the head's minimal cut. */
   readonly attributed: readonly FieldChange[];
-  /** For a drop that fails on its own: the single-field changes that bring it within the limit. */
+  /**
+   * For a drop that fails on its own: single-field changes after which the upper bound no longer
+   * drops by more than the limit (a proven drop), or after which the lower bound proves it did
+   * not (a possible drop: only fixes that prove it).
+   */
   readonly fixes: readonly Fix[];
 }
 

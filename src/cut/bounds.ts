@@ -16,14 +16,17 @@ import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
 import { rankPropagation } from './rank-propagation.js';
 import { specialCases } from './special-cases.js';
+import { certifiedProbe } from './probe/certified-probe.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
 import type { Bound, BoundsResult, CutEntry, PartitionBounds, Surrogate } from './types.js';
-import { HUGE_RANK, MAX_RANK_BITS, log2Big } from './types.js';
+import { HUGE_RANK, MAX_RANK_BITS, boundsMeet, log2Big } from './types.js';
 
 export interface BoundsOptions {
   readonly surrogate: Surrogate;
   readonly nodeLimit?: number;
+  /** Multiply-adds the certified probe may spend per partition (probe/certified-probe.ts); 0: no probe. */
+  readonly probeBudget?: number;
 }
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };
@@ -67,6 +70,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   // Sibling subtrees compute the same function only with shared weights in a uniform tree.
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
+  const probe = certifiedProbe(model, built.shapes, built.pointwise, options.surrogate, options.probeBudget);
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
@@ -78,7 +82,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
       const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
-      return finish(p.label, { upper, lower: bestLower(p) });
+      return finish(p.label, { upper, lower: bestLower(p, upper) });
     }
     // Choose by log2 first: the losers may have millions of digits and are never written out.
     // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
@@ -101,9 +105,9 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const b = c.make();
       if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
-    return finish(p.label, { upper: upper!, lower: bestLower(p) });
+    return finish(p.label, { upper: upper!, lower: bestLower(p, upper!) });
   };
-  const bestLower = (p: Partition): Bound | null => {
+  const bestLower = (p: Partition, upper: Bound): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const published = publishedRecurrentLower(model, p);
@@ -112,6 +116,8 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
+    // The probe runs last, from just above what the rules proved, and only while it can improve.
+    if (probe && (!lower || lower.rank < upper.rank)) return probe(p.side, lower?.rank ?? 0n, upper.rank) ?? lower;
     return lower;
   };
   return { ok: true, notes, bounds };
@@ -158,11 +164,14 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
 }
 
 function finish(label: string, b: { upper: Bound; lower: Bound | null }): PartitionBounds {
-  if (b.lower && b.lower.rank > b.upper.rank) {
-    throw new Error(`unsound bounds for '${label}': lower ${b.lower.rank} (${b.lower.method}) > upper ${b.upper.rank} (${b.upper.method})`);
-  }
-  const status = !b.lower ? 'upper-only' : b.lower.rank === b.upper.rank ? 'exact' : 'bounded';
-  return { partition: label, upper: b.upper, lower: b.lower, status };
+  const upper = b.upper;
+  // A lower bound beyond the bit limit is reported like a huge upper bound: by its log2.
+  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
+  const shown = (x: Bound): string => (x.huge ? `2^${x.log2}` : String(x.rank));
+  if (above) throw new Error(`unsound bounds for '${label}': lower ${shown(lower)} (${lower.method}) > upper ${shown(upper)} (${upper.method})`);
+  const status = !lower ? 'upper-only' : boundsMeet(lower, upper) ? 'exact' : 'bounded';
+  return { partition: label, upper, lower, status };
 }
 
 function productOf(counts: CutCounts, augment: number): bigint {
@@ -207,8 +216,15 @@ function roundingPlan(c: Circuit): RoundingPlan {
   const qs = powerCandidates(c.dim);
   return {
     candidates: qs.map((q) => {
+      // A network has few distinct dimensions: each exponent is worked out once.
+      const exponent = new Map<number, number>();
       const w = new Float64Array(c.size);
-      for (let v = 0; v < c.size; v++) w[v] = floorLog(c.dim[v]!, q);
+      for (let v = 0; v < c.size; v++) {
+        const d = c.dim[v]!;
+        let e = exponent.get(d);
+        if (e === undefined) exponent.set(d, (e = floorLog(d, q)));
+        w[v] = e;
+      }
       return { q, weights: w };
     }),
   };
@@ -219,6 +235,13 @@ function roundingLower(c: Circuit, side: Uint8Array, plan: RoundingPlan): Bound 
   let best: Bound | undefined;
   for (const { q, weights } of plan.candidates) {
     const cut = treeMinCut(c, side, weights);
+    // Beyond the bit limit the bound is a result known by its log2: the power is not formed.
+    const log2 = cut.value * Math.log2(q);
+    if (log2 > MAX_RANK_BITS) {
+      if (!best || log2 > best.log2) best = { rank: HUGE_RANK, log2, huge: true, method: `power-rounding q=${q}`, cut: [] };
+      continue;
+    }
+    if (best?.huge) continue;
     const rank = BigInt(q) ** BigInt(cut.value);
     if (!best || rank > best.rank) {
       const counts: CutCounts = new Map();

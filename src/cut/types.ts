@@ -35,6 +35,28 @@ export interface Bound {
   /** Which rule gave it, e.g. `min-cut`, `degree`, `power-rounding q=2`, `diagonal`. */
   readonly method: string;
   readonly cut: readonly CutEntry[];
+  /** For a lower bound of the certified probe: what re-checks it (DEVELOPERS.md, "Certified probe"). */
+  readonly certificate?: ProbeCertificate;
+}
+
+/**
+ * A non-singular minor of a probe matrix modulo a prime. With the weights and probe inputs named
+ * by `seed` (DEVELOPERS.md gives the names and the function that draws them), the matrix is
+ * F[i][j] = h(side-A inputs i, side-B inputs j) for i, j < `probes`; the minor on `rows` × `cols`
+ * has the determinant `determinant` ≠ 0 mod `prime`, so some real weights reach rank rows.length.
+ */
+export interface ProbeCertificate {
+  /** Version of the naming and drawing scheme. */
+  readonly scheme: number;
+  readonly prime: number;
+  readonly seed: number;
+  /** Probe inputs per side: the probe matrix is probes × probes. */
+  readonly probes: number;
+  /** Side-A probe inputs (matrix rows) of the minor, ascending. */
+  readonly rows: readonly number[];
+  /** Side-B probe inputs (matrix columns) of the minor, ascending. */
+  readonly cols: readonly number[];
+  readonly determinant: number;
 }
 
 export type BoundStatus = 'exact' | 'bounded' | 'upper-only';
@@ -53,6 +75,14 @@ export interface BoundsResult {
   /** Statements about how the config was read (kernel ignored, implicit global pool, ...). */
   readonly notes: readonly string[];
   readonly partitions: readonly PartitionBounds[];
+}
+
+/**
+ * Whether a lower and an upper bound are the same integer. Two bounds beyond the bit limit are
+ * never known to meet: only their log2 is known.
+ */
+export function boundsMeet(lower: Bound, upper: Bound): boolean {
+  return !lower.huge && !upper.huge && lower.rank === upper.rank;
 }
 
 /** log2 of a positive bigint, accurate for any size. */

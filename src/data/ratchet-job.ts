@@ -10,7 +10,8 @@ import { findRepoRoot, toRootRelative } from '../check/repo-files.js';
 import { workTreeDefinitions } from '../config/definition-source.js';
 import { loadConfigFile } from '../config/load-config.js';
 import { computeBounds } from '../cut/bounds.js';
-import type { Bound, Surrogate } from '../cut/types.js';
+import { MAX_RANK_BITS, type Bound, type Surrogate } from '../cut/types.js';
+import { MAX_MINIMUM_BITS } from '../policy/policy-limits.js';
 import type { Diagnostic } from '../diagnostic.js';
 import { partitionList } from './partition-list.js';
 import { idFromFile, openPolicyTarget, writePolicy, type PolicyWrite } from './policy-target.js';
@@ -73,7 +74,10 @@ export function runRatchet(req: RatchetRequest): RatchetJobResult {
   const shift = BigInt(req.margin);
   const partitions = bounds.result.partitions.map((b): RatchetedPartition => {
     if (!b.lower) return { partition: b.partition, lower: null, upper: b.upper, minRank: null, reason: 'unproven' };
-    const minRank = (b.lower.rank + (1n << shift) - 1n) >> shift;
+    // A policy states minimums up to 2^MAX_MINIMUM_BITS; a larger floor is capped there (still
+    // below the proven bound). A huge lower bound's rank is below the bound itself.
+    const floor = (b.lower.rank + (1n << shift) - 1n) >> shift;
+    const minRank = floor < LARGEST_MINIMUM ? floor : LARGEST_MINIMUM;
     return minRank <= 1n
       ? { partition: b.partition, lower: b.lower, upper: b.upper, minRank: null, reason: 'trivial' }
       : { partition: b.partition, lower: b.lower, upper: b.upper, minRank, reason: null };
@@ -89,8 +93,10 @@ export function runRatchet(req: RatchetRequest): RatchetJobResult {
               partition: p.partition,
               minRank: p.minRank,
               evidence: [
-                `Proven lower bound ${rankText(p.lower!.rank)} (${p.lower!.method}) of ${req.config} (dated ${modified}) under the ${surrogate} surrogate,`,
-                `less a margin of ${req.margin} bit${req.margin === 1 ? '' : 's'}: ⌈lower / 2^${req.margin}⌉.`,
+                `Proven lower bound ${boundText(p.lower!)} (${p.lower!.method}) of ${req.config} (dated ${modified}) under the ${surrogate} surrogate,`,
+                p.minRank === LARGEST_MINIMUM
+                  ? `less a margin of ${req.margin} bit${req.margin === 1 ? '' : 's'}, capped at 2^${MAX_MINIMUM_BITS}, the largest minimum a policy states.`
+                  : `less a margin of ${req.margin} bit${req.margin === 1 ? '' : 's'}: ⌈lower / 2^${req.margin}⌉.`,
                 `Written by 'rankfloor ratchet' so that no later change loses what that config has; review before committing.`,
               ],
             },
@@ -115,6 +121,13 @@ export function runRatchet(req: RatchetRequest): RatchetJobResult {
 }
 
 /** `2^12` for powers of two, the digits otherwise (shortened past 40 digits). */
+const LARGEST_MINIMUM = 1n << BigInt(MAX_MINIMUM_BITS);
+
+/** A bound as text; a bound beyond the bit limit by its log2. */
+export function boundText(b: Bound): string {
+  return b.huge ? `more than 2^${MAX_RANK_BITS} (≈2^${b.log2.toFixed(1)})` : rankText(b.rank);
+}
+
 export function rankText(rank: bigint): string {
   const bits = rank.toString(2);
   if (/^10*$/.test(bits)) return `2^${bits.length - 1}`;

@@ -1,10 +1,12 @@
 /** `rankfloor ratchet` for people and for programs (one JSON document, ranks as decimal strings). */
 import { roundLog } from '../report/bounds-json.js';
 import { policyJson, policyWriteLines } from './measure-report.js';
-import { rankText, type RatchetOutcome } from './ratchet-job.js';
+import type { Bound } from '../cut/types.js';
+import { boundText, rankText, type RatchetOutcome } from './ratchet-job.js';
 
 export function ratchetJson(o: RatchetOutcome): string {
-  const bound = (b: { rank: bigint; log2: number } | null) => (b ? { rank: b.rank.toString(), log2: roundLog(b.log2) } : null);
+  // A bound beyond the bit limit is known by its log2 only (as in every other report).
+  const bound = (b: Bound | null) => (b ? { rank: b.huge ? null : b.rank.toString(), log2: roundLog(b.log2) } : null);
   const doc = {
     version: 1,
     file: o.file,
@@ -26,7 +28,7 @@ export function ratchetText(o: RatchetOutcome): string {
   const lines = [`${o.file} (${o.surrogate} surrogate): proven capacities less a margin of ${o.margin} bit${o.margin === 1 ? '' : 's'}`, ''];
   const rows = o.partitions.map((p) => [
     p.partition,
-    p.lower ? `${rankText(p.lower.rank)} (${p.lower.log2.toFixed(1)} bits)` : 'none proven',
+    p.lower ? `${boundText(p.lower)} (${p.lower.log2.toFixed(1)} bits)` : 'none proven',
     p.minRank !== null ? `min_rank ${rankText(p.minRank)}` : p.reason === 'unproven' ? 'none: no proven lower bound' : 'none: rank 1 needs no floor',
   ]);
   const head = ['partition', 'proven lower bound', 'minimum'];

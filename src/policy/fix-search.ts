@@ -9,6 +9,7 @@ import { INPUT, firstMaps, layerLabel } from '../config/model.js';
 import type { Span } from '../diagnostic.js';
 import type { Partition } from '../partition/partition.js';
 import { analyseLayered } from '../cut/bounds.js';
+import { MAX_PROBES } from '../cut/probe/certified-probe.js';
 import type { PartitionBounds, Surrogate } from '../cut/types.js';
 import type { ParameterSpace } from '../config/parameter-space.js';
 import { searchParameterFixes } from './parameter-fixes.js';
@@ -31,6 +32,8 @@ export interface Fix {
   readonly addedParameters: bigint;
   /** The requirement's verdict with the fix applied. */
   readonly verdict: 'pass' | 'unproven';
+  /** With `pass`: the rule whose lower bound then proves it. */
+  readonly rule?: string;
 }
 
 /** Whether bounds meet a minimum under a policy's handling of unproven requirements. */
@@ -54,7 +57,12 @@ const MAX_DEPTH = 64;
 /**
  * For a model built from an architecture definition, the parameters are searched first (each
  * within its declared range, `parameter-fixes.ts`), then the layer fields of the definition; each
- * group cheapest first.
+ * group cheapest first. For each candidate, the smallest value with which the requirement no
+ * longer fails: the upper bound reaches `minRank`, and with `unproven: fail` a lower bound does
+ * too. Bounds never decrease when a width grows, so a doubling probe followed by bisection finds
+ * it. The search over layer fields first finds where the upper bound reaches the minimum with the
+ * certified probe off (its lower bound cannot matter there), and only then asks for lower bounds,
+ * from that value on.
  */
 export function searchFixes(
   model: LayeredModel,
@@ -65,15 +73,17 @@ export function searchFixes(
   cutLayers: ReadonlySet<number | string>,
   parameters?: ParameterSpace,
 ): Fix[] {
-  const judge = (m: LayeredModel): PartitionBounds | undefined => {
-    const a = analyseLayered(m, { surrogate });
+  // The certified probe never proves more than MAX_PROBES: above that it cannot help a fix.
+  const probing = minRank <= BigInt(MAX_PROBES);
+  const judge = (m: LayeredModel, probe: boolean): PartitionBounds | undefined => {
+    const a = analyseLayered(m, { surrogate, ...(probe && probing ? {} : { probeBudget: 0 }) });
     if (!a.ok) return undefined;
     const b = a.bounds(partition);
     return 'diagnostic' in b ? undefined : b;
   };
   const near = nearLayers(model, cutLayers);
   const restoring = (m: LayeredModel): PartitionBounds | undefined => {
-    const b = judge(m);
+    const b = judge(m, true);
     return b && restores(b, minRank, unproven) ? b : undefined;
   };
   const byParameter = parameters ? searchParameterFixes(model, parameters, near, cutLayers.has('input'), restoring, minRank) : [];
@@ -81,30 +91,27 @@ export function searchFixes(
   const fixes: Fix[] = [];
   const file = model.architecture ? { file: model.architecture.path } : {};
   for (const cand of candidates(model, near)) {
-    const at = (v: number): PartitionBounds | undefined => judge(cand.apply(model, v));
-    let lo = cand.from;
-    let hi = Math.min(cand.max, Math.max(cand.from + 1, cand.from * 2));
-    let found: PartitionBounds | undefined;
-    for (;;) {
-      const b = at(hi);
-      if (b && restores(b, minRank, unproven)) {
-        found = b;
-        break;
-      }
-      if (hi >= cand.max) break;
-      lo = hi;
-      hi = Math.min(cand.max, hi * 2);
+    const reaches = (v: number): boolean => {
+      const b = judge(cand.apply(model, v), false);
+      return b !== undefined && b.upper.rank >= minRank;
+    };
+    // An unproven requirement may have its ceiling already: then only the proof is missing.
+    const ceiling = reaches(cand.from) ? cand.from : smallest(cand.from, cand.max, reaches);
+    if (ceiling === undefined) continue;
+    let to = ceiling;
+    let found = judge(cand.apply(model, to), true);
+    if (unproven === 'fail' && !(found && restores(found, minRank, 'fail'))) {
+      const proven = smallest(ceiling, cand.max, (v) => {
+        const b = judge(cand.apply(model, v), true);
+        return b !== undefined && restores(b, minRank, 'fail');
+      });
+      if (proven === undefined) continue;
+      to = proven;
+      found = judge(cand.apply(model, to), true);
     }
-    if (!found) continue;
-    while (hi - lo > 1) {
-      const mid = Math.floor((lo + hi) / 2);
-      const b = at(mid);
-      if (b && restores(b, minRank, unproven)) {
-        hi = mid;
-        found = b;
-      } else lo = mid;
-    }
-    const fixed = cand.apply(model, hi);
+    if (!found || to === cand.from) continue;
+    const fixed = cand.apply(model, to);
+    const pass = found.lower !== null && found.lower.rank >= minRank;
     fixes.push({
       layer: cand.layer,
       field: cand.field,
@@ -112,9 +119,10 @@ export function searchFixes(
       column: cand.span.column,
       ...file,
       from: cand.from,
-      to: hi,
+      to,
       addedParameters: parameterCount(fixed) - baseParams,
-      verdict: found.lower !== null && found.lower.rank >= minRank ? 'pass' : 'unproven',
+      verdict: pass ? 'pass' : 'unproven',
+      ...(pass ? { rule: found.lower!.method } : {}),
     });
   }
   return [...cheapestFirst(byParameter), ...cheapestFirst(fixes)];
@@ -122,6 +130,27 @@ export function searchFixes(
 
 export function cheapestFirst(fixes: readonly Fix[]): Fix[] {
   return [...fixes].sort((a, b) => (a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line));
+}
+
+/**
+ * The smallest v in (from, max] with ok(v), for ok monotone in v (false at `from`): doubling, then
+ * bisection. Undefined when even `max` fails.
+ */
+function smallest(from: number, max: number, ok: (v: number) => boolean): number | undefined {
+  let lo = from;
+  let hi = Math.min(max, Math.max(from + 1, from * 2));
+  for (;;) {
+    if (ok(hi)) break;
+    if (hi >= max) return undefined;
+    lo = hi;
+    hi = Math.min(max, hi * 2);
+  }
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (ok(mid)) hi = mid;
+    else lo = mid;
+  }
+  return hi;
 }
 
 /** The layers the cut crosses and their neighbours in the layer graph (the layers they read and those that read them). */

@@ -3,16 +3,56 @@
  * log2 rounded to 6 decimals, keys in a fixed order so that the same input gives the same bytes.
  */
 import type { ArchitectureUse } from '../config/model.js';
-import type { Bound, BoundsResult, CutEntry } from '../cut/types.js';
+import type { Bound, BoundsResult, CutEntry, ProbeCertificate } from '../cut/types.js';
 
-export interface BoundJson {
-  /** Decimal digits; null for a huge bound (more than MAX_RANK_BITS bits), known by its log2 only. */
+/** A rank as the JSON writes it: decimal digits (null beyond the bit limit) and its log2. */
+export interface RankJson {
   rank: string | null;
   log2: number;
 }
 
+/** `rank`: null for a huge bound (more than MAX_RANK_BITS bits), known by its log2 only. */
+export interface BoundJson extends RankJson {
+  /** The rule that proved it. */
+  method: string;
+  /** A certified probe's minor, for anyone to re-check (DEVELOPERS.md, "Certified probe"). */
+  certificate?: CertificateJson;
+}
+
+/** A probe certificate with its rows and columns as ranges (`"0-80,82"`, inclusive). */
+export interface CertificateJson {
+  scheme: number;
+  prime: number;
+  seed: number;
+  probes: number;
+  rows: string;
+  cols: string;
+  determinant: number;
+}
+
 export function boundJson(b: Bound): BoundJson {
-  return { rank: b.huge ? null : b.rank.toString(), log2: roundLog(b.log2) };
+  return {
+    rank: b.huge ? null : b.rank.toString(),
+    log2: roundLog(b.log2),
+    method: b.method,
+    ...(b.certificate ? { certificate: certificateJson(b.certificate) } : {}),
+  };
+}
+
+function certificateJson(c: ProbeCertificate): CertificateJson {
+  return { scheme: c.scheme, prime: c.prime, seed: c.seed, probes: c.probes, rows: indexRanges(c.rows), cols: indexRanges(c.cols), determinant: c.determinant };
+}
+
+/** Ascending indices as comma-separated inclusive ranges: [0, 1, 2, 5] → "0-2,5". */
+export function indexRanges(list: readonly number[]): string {
+  const parts: string[] = [];
+  for (let i = 0; i < list.length; ) {
+    let j = i;
+    while (j + 1 < list.length && list[j + 1] === list[j]! + 1) j++;
+    parts.push(j === i ? `${list[i]}` : `${list[i]}-${list[j]}`);
+    i = j + 1;
+  }
+  return parts.join(',');
 }
 
 export function cutJson(cut: readonly CutEntry[]): { layer: number | string; line: number; dim: number; count: number }[] {

@@ -3,7 +3,7 @@
  * bottleneck layers of the minimal cut, and the notes on how the config was read.
  */
 import type { ArchitectureUse } from '../config/model.js';
-import { MAX_RANK_BITS, type Bound, type BoundsResult, type CutEntry, type PartitionBounds } from '../cut/types.js';
+import { MAX_RANK_BITS, boundsMeet, type Bound, type BoundsResult, type CutEntry, type PartitionBounds } from '../cut/types.js';
 
 const SURROGATE_WORDS = {
   tree: 'tree (arithmetic surrogate: per-position linear maps, product pooling)',
@@ -49,6 +49,17 @@ export function bits(x: number): string {
 /** A bound's rank as text: the integer, ≈2^x for long ones, or "more than N bits" for huge ones. */
 export function boundRank(b: Bound): string {
   return b.huge ? `more than 2^${MAX_RANK_BITS.toLocaleString('en-US')} (≈2^${b.log2.toFixed(1)})` : shortRank(b.rank, b.log2);
+}
+
+/**
+ * A capacity in bits from its bounds: one number when they meet, a range when both are known,
+ * else only the ceiling (`≤ 8.00`). Bounds beyond the bit limit never meet: their integers are
+ * not known.
+ */
+export function capacityBits(upper: Bound, lower: Bound | null): string {
+  if (lower === null) return `≤ ${bits(upper.log2)}`;
+  if (boundsMeet(lower, upper)) return bits(upper.log2);
+  return `${bits(lower.log2)}–${bits(upper.log2)}`;
 }
 
 export function shortRank(r: bigint, log2: number): string {

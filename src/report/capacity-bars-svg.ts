@@ -11,7 +11,7 @@
  * is drawn to the edge and broken, with its value written beside it.
  */
 import { MAX_RANK_BITS } from '../cut/types.js';
-import type { BoundJson } from './bounds-json.js';
+import type { RankJson } from './bounds-json.js';
 import { xmlText } from './junit.js';
 
 export type BarSeries = 'required' | 'base-lower' | 'base-upper' | 'head-lower' | 'head-upper';
@@ -20,7 +20,7 @@ export interface BarRow {
   readonly series: BarSeries;
   readonly label: string;
   /** The JSON value; null: nothing to draw (`missing` says why). */
-  readonly value: BoundJson | null;
+  readonly value: RankJson | null;
   readonly missing?: string;
 }
 
@@ -46,7 +46,7 @@ const FILL: Readonly<Record<BarSeries, string>> = {
 };
 
 /** The value written for a bound, from its JSON form only. */
-export function boundText(b: BoundJson): string {
+export function boundText(b: RankJson): string {
   if (b.rank === null) return `${b.log2} bits (more than 2^${MAX_RANK_BITS.toLocaleString('en-US')})`;
   return b.rank.length <= 15 ? `${b.log2} bits (rank ${b.rank})` : `${b.log2} bits (${b.rank.length} digits)`;
 }

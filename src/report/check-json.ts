@@ -71,12 +71,14 @@ export function checkDocument(outcome: CheckOutcome) {
               to: f.to,
               added_parameters: f.addedParameters.toString(),
               verdict: f.verdict,
+              ...(f.rule !== undefined ? { rule: f.rule } : {}),
             })),
             ...(d
               ? {
                   base: d.base ? { upper: boundJson(d.base.upper), lower: d.base.lower ? boundJson(d.base.lower) : null } : null,
                   change_bits: d.changeBits === null ? null : roundLog(d.changeBits),
                   max_drop_bits: d.maxDropBits ?? null,
+                  drop: d.drop,
                   drop_fails: d.dropFails,
                   attributed: d.attributed.map((a) => ({
                     layer: a.layer,

@@ -6,11 +6,13 @@
  * unproven requirements get one line each.
  */
 import type { CheckedConfig, CheckOutcome, RequirementDelta } from '../check/run-check.js';
-import { log2Big } from '../cut/types.js';
+import { boundsMeet, log2Big } from '../cut/types.js';
 import type { RequirementResult } from '../policy/evaluate.js';
 import type { ArchitectureUse } from '../config/model.js';
 import type { FieldChange, LayerEffect } from '../config/model-diff.js';
-import { bits, boundRank, cutLabel, shortRank } from './bounds-text.js';
+import type { Fix } from '../policy/fix-search.js';
+import { bits, boundRank, capacityBits, cutLabel, shortRank } from './bounds-text.js';
+import { labelCount, requirementLabel, type RequirementLabel } from './requirement-label.js';
 
 export interface TextOptions {
   readonly color: boolean;
@@ -42,21 +44,26 @@ export function checkText(outcome: CheckOutcome, options: TextOptions): string {
       continue;
     }
     const r = c.result;
-    const shown = r.requirements.map((q, i) => ({ q, d: c.deltas?.[i] })).filter(({ q, d }) => !options.quiet || q.failing || d?.dropFails);
-    for (const { q, d } of r.requirements.map((q, i) => ({ q, d: c.deltas?.[i] }))) {
-      if (q.failing || d?.dropFails) fails++;
-      else if (q.verdict === 'unproven') unproven++;
+    const all = r.requirements.map((q, i) => ({ q, d: c.deltas?.[i], label: requirementLabel(q, c.deltas?.[i]) }));
+    const shown = all.filter(({ label }) => !options.quiet || labelCount(label) === 'failing');
+    for (const { label } of all) {
+      const n = labelCount(label);
+      if (n === 'failing') fails++;
+      else if (n === 'unproven') unproven++;
       else passes++;
     }
     if (shown.length === 0) continue;
     const against = c.comparison === 'new' ? ', new config (no base to compare)' : c.renamedFrom !== undefined ? `, renamed from ${c.renamedFrom}` : '';
     const built = c.architecture ? `, built from ${c.architecture.path} (${c.architecture.name})` : '';
     out.push(`${c.file} — policy ${r.policy.id} (${r.policy.file}), ${SURROGATE_WORDS[r.surrogate]}${built}${against}`);
-    for (const { q, d } of shown) {
-      if (q.failing || d?.dropFails) {
+    for (const { q, d, label } of shown) {
+      if (labelCount(label) === 'failing') {
         const [first, ...rest] = explainRequirement(q, d, c.architecture);
-        out.push(`  ${label(q, d, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
-      } else out.push(`  ${label(q, d, paint)}  ${requirementSummary(q)}${d ? `; ${change(d)}` : ''}`);
+        out.push(`  ${labelText(label, paint)}  ${first}`, ...rest.map((l) => `            ${l}`));
+      } else {
+        const dropped = d?.drop === 'possible' ? `; ${possibleDrop(q, d)}` : '';
+        out.push(`  ${labelText(label, paint)}  ${requirementSummary(q)}${d ? `; ${change(q, d)}` : ''}${dropped}`);
+      }
     }
     if (!options.quiet) for (const n of r.notes) out.push(`  note: ${n}`);
     out.push('');
@@ -89,7 +96,7 @@ export function closingLine(outcome: CheckOutcome, requirements: { fails: number
   for (const c of outcome.checked) {
     if (!c.result) checks.deleted++;
     else if (c.failing) checks.failing++;
-    else if (c.result.requirements.some((q) => q.verdict === 'unproven')) checks.unproven++;
+    else if (c.result.requirements.some((q, i) => labelCount(requirementLabel(q, c.deltas?.[i])) === 'unproven')) checks.unproven++;
     else checks.passing++;
   }
   const deleted = checks.deleted > 0 ? `, ${checks.deleted} deleted` : '';
@@ -101,11 +108,19 @@ export function closingLine(outcome: CheckOutcome, requirements: { fails: number
   );
 }
 
-function label(q: RequirementResult, d: RequirementDelta | undefined, paint: (c: string, s: string) => string): string {
-  if (q.failing) return paint('1;31', q.verdict === 'fail' ? 'FAIL    ' : 'UNPROVEN');
-  if (d?.dropFails) return paint('1;31', 'DROP    ');
-  if (q.verdict === 'unproven') return paint('33', 'UNPROVEN');
-  return paint('32', 'PASS    ');
+const LABEL_TEXT: Readonly<Record<RequirementLabel, readonly [string, string]>> = {
+  fail: ['1;31', 'FAIL    '],
+  'fail (unproven)': ['1;31', 'UNPROVEN'],
+  'fail (drop)': ['1;31', 'DROP    '],
+  'fail (may have dropped)': ['1;31', 'DROP?   '],
+  'may have dropped': ['33', 'DROP?   '],
+  unproven: ['33', 'UNPROVEN'],
+  pass: ['32', 'PASS    '],
+};
+
+function labelText(label: RequirementLabel, paint: (c: string, s: string) => string): string {
+  const [colour, text] = LABEL_TEXT[label];
+  return paint(colour, text);
 }
 
 function needs(q: RequirementResult): string {
@@ -118,7 +133,7 @@ function range(q: RequirementResult): string {
   const upper = `${boundRank(b.upper)} (${bits(b.upper.log2)} bits)`;
   if (b.status === 'exact') return `exactly ${upper}`;
   if (!b.lower) return `at most ${upper}; no lower bound proven`;
-  return `between ${shortRank(b.lower.rank, b.lower.log2)} (${bits(b.lower.log2)} bits) and ${upper}`;
+  return `between ${boundRank(b.lower)} (${bits(b.lower.log2)} bits) and ${upper}`;
 }
 
 /** One line: what the requirement needs and what the config allows. */
@@ -126,10 +141,23 @@ export function requirementSummary(q: RequirementResult): string {
   return `${q.requirement.partition}: needs ${needs(q)}; the config allows ${range(q)}`;
 }
 
-function change(d: RequirementDelta): string {
+/** Base and head capacity in bits (a number when exact, a range, or a ceiling) and the upper bound's change. */
+function change(q: RequirementResult, d: RequirementDelta): string {
   if (!d.base || d.changeBits === null) return 'no base requirement to compare';
   const sign = d.changeBits > 0 ? '+' : '';
-  return `base ${bits(d.base.upper.log2)} bits → head ${bits(d.base.upper.log2 + d.changeBits)} bits (${sign}${bits(d.changeBits)})`;
+  const exact = q.bounds.status === 'exact' && d.base.lower !== null && boundsMeet(d.base.lower, d.base.upper);
+  return `base ${capacityBits(d.base.upper, d.base.lower)} bits → head ${capacityBits(q.bounds.upper, q.bounds.lower)} bits (${exact ? '' : 'upper bound '}${sign}${bits(d.changeBits)})`;
+}
+
+/** A drop that only the upper bounds show, and how the requirement counts it. */
+function possibleDrop(q: RequirementResult, d: RequirementDelta): string {
+  const base = d.base!;
+  const proven = base.lower ? `the base is proven to reach ${bits(base.lower.log2)} bits (${base.lower.method})` : 'no lower bound of the base is proven';
+  const counted = d.dropFails ? 'counted as failing (unproven: fail)' : 'counted as a warning (unproven: warn)';
+  return (
+    `may have dropped: the upper bound fell by ${bits(-d.changeBits!)} bits, more than max_drop_bits = ${d.maxDropBits}, ` +
+    `but ${proven} and the head allows ${bits(q.bounds.upper.log2)} bits, so no drop of more than ${d.maxDropBits} bits is proven; ${counted}`
+  );
 }
 
 /**
@@ -152,8 +180,14 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta, a
     lines.push(`allows  ${range(q)}`);
   }
   if (d) {
-    lines.push(`change  ${change(d)}`);
-    if (d.dropFails) lines.push(`        a drop of more than max_drop_bits = ${d.maxDropBits} fails even though the minimum may still hold`);
+    lines.push(`change  ${change(q, d)}`);
+    if (d.drop === 'proven') {
+      const base = d.base!.lower!;
+      lines.push(
+        `        a proven drop of more than max_drop_bits = ${d.maxDropBits}: the base was proven to reach ${bits(base.log2)} bits (${base.method}), ` +
+          `the head allows at most ${bits(q.bounds.upper.log2)} bits; it fails even though the minimum may still hold`,
+      );
+    } else if (d.drop === 'possible') lines.push(`        ${possibleDrop(q, d)}`);
     for (const a of d.attributed) lines.push(`        ${attributionText(a)}`);
   }
   if (architecture) lines.push(`model   built from ${architecture.path} (${architecture.name}) with ${architecture.parameters.map((p) => `${p.name} = ${p.value}`).join(', ')}`);
@@ -163,19 +197,21 @@ export function explainRequirement(q: RequirementResult, d?: RequirementDelta, a
   } else {
     lines.push(`bottleneck: ${b.upper.method}`);
   }
-  const fixes = q.failing ? q.fixes : (d?.dropFails ? d.fixes : undefined);
+  const dropOnly = !q.failing && d?.dropFails === true;
+  const fixes = q.failing ? q.fixes : dropOnly ? d.fixes : undefined;
   if (fixes) {
-    if (fixes.length === 0 && q.verdict === 'unproven') {
+    if (fixes.length === 0 && q.failing && q.verdict === 'unproven') {
       lines.push(...unprovenAdvice(q));
+    } else if (fixes.length === 0 && dropOnly && d.drop === 'possible') {
+      lines.push(...possibleDropAdvice(q, d));
     } else if (fixes.length === 0) {
       lines.push('fix: no single width or depth field on or next to the cut restores it; the architecture needs a larger change');
     } else {
       lines.push(architecture ? 'fix (smallest change of one parameter, then of one field of the definition; cheapest first):' : 'fix (smallest change of one field, cheapest first):');
       for (const f of fixes) {
         const who = f.layer === 'parameter' ? 'parameter' : f.layer === 'input' ? 'input' : `layer ${f.layer}`;
-        const proof = f.verdict === 'pass' ? 'then proven' : 'then no longer provably short';
         const add = f.added ? ` (the default; add ${f.field}: ${f.to} to the config)` : '';
-        lines.push(`  ${f.file ? `${f.file}:${f.line}:${f.column}` : `line ${f.line}:${f.column}`}  ${who} ${f.field}: ${f.from} → ${f.to}${add}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${proof})`);
+        lines.push(`  ${f.file ? `${f.file}:${f.line}:${f.column}` : `line ${f.line}:${f.column}`}  ${who} ${f.field}: ${f.from} → ${f.to}${add}  (+${f.addedParameters.toLocaleString('en-US')} parameters; ${fixOutcome(f, dropOnly)})`);
       }
     }
   }
@@ -210,13 +246,32 @@ function shrinks(e: LayerEffect): boolean {
   return Number.isFinite(from) && Number.isFinite(to) && to < from;
 }
 
+/** What a fix achieves: proven by a named rule, or only no longer refuted by the upper bound. */
+function fixOutcome(f: Fix, drop: boolean): string {
+  if (f.verdict === 'pass') return f.rule === undefined ? 'then proven' : `then proven by ${f.rule}`;
+  return drop ? 'then the upper bound no longer drops by more than the limit; not proven' : 'then no longer provably short';
+}
+
+/**
+ * A drop only the ceilings show, counted as failing, with no single change that proves the head
+ * keeps the base's capacity: say what would settle it, never that the capacity fell.
+ */
+function possibleDropAdvice(q: RequirementResult, d: RequirementDelta): string[] {
+  const k = d.maxDropBits!;
+  const need = d.base!.upper.log2 - k;
+  return [
+    `not disproven: the head may keep the base's capacity; no single width or depth change on or next to the cut makes a lower bound prove at least ${bits(need)} bits (the base's upper bound less ${k} bits)`,
+    `to settle it: a proven lower bound of the head of at least ${bits(need)} bits, a tighter upper bound of the base (which rule proves what, and where, is listed under "The rules" in DEVELOPERS.md), a larger max_drop_bits, or unproven: warn for this requirement`,
+  ];
+}
+
 /**
  * An unproven requirement is not disproven: the upper bound allows the minimum, only no rule
  * proves a lower bound that reaches it. Say what would prove it, never that it is short.
  */
 function unprovenAdvice(q: RequirementResult): string[] {
   const min = q.requirement.minRank;
-  const proven = q.bounds.lower ? `the rules prove ${shortRank(q.bounds.lower.rank, q.bounds.lower.log2)} (${q.bounds.lower.method})` : 'no rule proves a lower bound here';
+  const proven = q.bounds.lower ? `the rules prove ${boundRank(q.bounds.lower)} (${q.bounds.lower.method})` : 'no rule proves a lower bound here';
   return [
     `not disproven: the config may well reach ${shortRank(min, log2Big(min))}; ${proven}, and no single width or depth change on or next to the cut raises the proven bound to the minimum`,
     `to prove it: a proven lower bound of at least ${shortRank(min, log2Big(min))} (which rule proves what, and where, is listed under "The rules" in DEVELOPERS.md), a smaller minimum, or unproven: warn for this requirement`,

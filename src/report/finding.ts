@@ -9,8 +9,13 @@ export type FindingRule =
   | 'requirement-failed'
   /** A requirement neither proven nor refuted, counted as a warning. */
   | 'requirement-unproven'
-  /** A drop against the base revision larger than the policy's max_drop_bits. */
+  /** A proven drop against the base revision larger than the policy's max_drop_bits. */
   | 'capacity-drop'
+  /**
+   * Only the upper bounds dropped by more than max_drop_bits: the capacity may have dropped. An
+   * error or a warning, as the requirement's `unproven` says.
+   */
+  | 'capacity-may-have-dropped'
   /** The head revision changed a policy; the base policy was used. */
   | 'policy-changed'
   /** A config or policy that could not be read. */

@@ -1,19 +1,27 @@
 /**
  * The JUnit XML form of `rankfloor check`, for CI systems that know nothing about capacity but do
  * know test reports: each requirement is a test case, grouped into one suite per (config,
- * policy), so a failing requirement shows up in the same place as a failing unit test, with the
- * explanation as the failure text. A requirement that is neither proven nor refuted (and counted
- * as a warning) is a skipped test: nothing was shown either way. A config the change removed from
+ * policy), so a failing requirement (or a drop against the base that fails) shows up in the same
+ * place as a failing unit test, with the explanation as the failure text. A requirement that is
+ * neither proven nor refuted, or that may have dropped, counted as a warning, is a skipped test:
+ * nothing was shown either way. A config the change removed from
  * a policy's reach is a test case of its own, failed or skipped as the policy says. Input errors
  * are test errors in a suite of their own, so a broken config is not mistaken for a passing one.
  * Output is deterministic (no times, no host names) so that two runs on the same tree give the
  * same file.
  */
-import type { CheckOutcome } from '../check/run-check.js';
+import type { CheckOutcome, RequirementDelta } from '../check/run-check.js';
 import { formatDiagnosticLine, type Diagnostic } from '../diagnostic.js';
 import type { PolicyResult, RequirementResult } from '../policy/evaluate.js';
 import type { ArchitectureUse } from '../config/model.js';
 import { explainRequirement, removalMessage, requirementSummary } from './check-text.js';
+import { labelCount, requirementLabel } from './requirement-label.js';
+
+/** A policy result with the comparison of each requirement against the base, when there was one. */
+export interface ComparedResult {
+  readonly result: PolicyResult;
+  readonly deltas?: readonly (RequirementDelta | undefined)[];
+}
 
 /** A config the change deleted or moved out of a policy's reach (see check/findings.ts). */
 export interface RemovedConfig {
@@ -25,7 +33,7 @@ export interface RemovedConfig {
 
 /** The report of a whole check run. */
 export function junitReport(outcome: CheckOutcome): string {
-  const results = outcome.checked.flatMap((c) => (c.result ? [c.result] : []));
+  const results = outcome.checked.flatMap((c): ComparedResult[] => (c.result ? [{ result: c.result, ...(c.deltas ? { deltas: c.deltas } : {}) }] : []));
   const removed = outcome.checked.flatMap((c) =>
     c.comparison === 'deleted' || c.comparison === 'moved-out' ? [{ file: c.file, policy: c.policy.id, message: removalMessage(c), failing: c.failing }] : [],
   );
@@ -35,7 +43,7 @@ export function junitReport(outcome: CheckOutcome): string {
 }
 
 export function junitXml(
-  results: readonly PolicyResult[],
+  results: readonly (PolicyResult | ComparedResult)[],
   errors: readonly Diagnostic[],
   removed: readonly RemovedConfig[] = [],
   architectureOf: (r: PolicyResult) => ArchitectureUse | undefined = () => undefined,
@@ -67,7 +75,7 @@ interface Suite {
 interface Group {
   readonly file: string;
   readonly policy: string;
-  readonly requirements: RequirementResult[];
+  readonly requirements: { readonly q: RequirementResult; readonly d: RequirementDelta | undefined }[];
   readonly removed: RemovedConfig[];
   architecture?: ArchitectureUse;
 }
@@ -76,7 +84,11 @@ interface Group {
  * One suite per (config file, policy id), in code-unit order of both, so the report does not
  * depend on the order in which configs were discovered on disk.
  */
-function groupSuites(results: readonly PolicyResult[], removed: readonly RemovedConfig[], architectureOf: (r: PolicyResult) => ArchitectureUse | undefined): Group[] {
+function groupSuites(
+  results: readonly (PolicyResult | ComparedResult)[],
+  removed: readonly RemovedConfig[],
+  architectureOf: (r: PolicyResult) => ArchitectureUse | undefined,
+): Group[] {
   const groups = new Map<string, Group>();
   const groupOf = (file: string, policy: string): Group => {
     const key = JSON.stringify([file, policy]);
@@ -87,9 +99,10 @@ function groupSuites(results: readonly PolicyResult[], removed: readonly Removed
     }
     return g;
   };
-  for (const r of results) {
+  for (const x of results) {
+    const { result: r, deltas } = 'result' in x ? x : { result: x, deltas: undefined };
     const g = groupOf(r.file, r.policy.id);
-    g.requirements.push(...r.requirements);
+    g.requirements.push(...r.requirements.map((q, i) => ({ q, d: deltas?.[i] })));
     g.architecture ??= architectureOf(r);
   }
   for (const r of removed) groupOf(r.file, r.policy).removed.push(r);
@@ -102,19 +115,22 @@ function policySuite(g: Group): Suite {
   const cases: string[] = [];
   let failures = 0;
   let skipped = 0;
-  for (const q of g.requirements) {
+  for (const { q, d } of g.requirements) {
     const name = names.take(`${g.policy}: ${q.requirement.partition}`);
     const head = `    <testcase${attrs({ classname, name, file: g.file })}`;
-    if (q.failing) {
+    const label = requirementLabel(q, d);
+    if (labelCount(label) === 'failing') {
       failures++;
+      const type = q.failing ? 'requirement-failed' : label === 'fail (drop)' ? 'capacity-drop' : 'capacity-may-have-dropped';
       cases.push(`${head}>`);
-      cases.push(`      <failure${attrs({ message: requirementSummary(q), type: 'requirement-failed' })}>${text(explainRequirement(q, undefined, g.architecture).join('\n'))}</failure>`);
+      cases.push(`      <failure${attrs({ message: requirementSummary(q), type })}>${text(explainRequirement(q, d, g.architecture).join('\n'))}</failure>`);
       cases.push('    </testcase>');
-    } else if (q.verdict === 'unproven') {
+    } else if (label !== 'pass') {
       // Counted as a warning by the policy: neither shown nor refuted, so the test is skipped.
       skipped++;
+      const why = label === 'may have dropped' ? 'may have dropped more than max_drop_bits against the base' : 'not proven to reach the minimum';
       cases.push(`${head}>`);
-      cases.push(`      <skipped${attrs({ message: `${requirementSummary(q)}; not proven to reach the minimum (counted as a warning by the policy)` })}/>`);
+      cases.push(`      <skipped${attrs({ message: `${requirementSummary(q)}; ${why} (counted as a warning by the policy)` })}/>`);
       cases.push('    </testcase>');
     } else {
       cases.push(`${head}/>`);

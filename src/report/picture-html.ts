@@ -30,7 +30,9 @@ export const MAX_LAID_OUT_NODES = 2000;
 const STATE_WORDS: Readonly<Record<PanelState, readonly [badge: string, words: string]>> = {
   fail: ['✗ FAIL', "provably short: the head's upper bound is below the requirement"],
   'fail-unproven': ['✗ FAIL (unproven)', 'not proven to reach the requirement, and this policy counts unproven as failing'],
-  drop: ['✗ FAIL (drop)', 'the upper bound dropped more than max_drop_bits against the base'],
+  drop: ['✗ FAIL (drop)', "a proven drop: the head's upper bound is below the base's lower bound by more than max_drop_bits"],
+  'fail-may-drop': ['✗ FAIL (may have dropped)', 'only the upper bounds fell by more than max_drop_bits; this requirement counts unproven as failing'],
+  'may-drop': ['? MAY HAVE DROPPED', 'only the upper bounds fell by more than max_drop_bits: the capacity may have dropped, or only a loose ceiling moved'],
   unproven: ['? UNPROVEN', 'the upper bound allows the requirement, but no rule proves a lower bound that reaches it'],
   pass: ['✓ PASS', "proven: the head's lower bound reaches the requirement"],
   exact: ['= EXACT', 'the lower and the upper bound are equal'],

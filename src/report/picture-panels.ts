@@ -9,12 +9,12 @@ import type { CheckOutcome } from '../check/run-check.js';
 import type { Partition } from '../partition/partition.js';
 import type { BoundsResult } from '../cut/types.js';
 import type { DrawingMark } from './architecture-svg.js';
-import { boundsDocument, type BoundJson } from './bounds-json.js';
+import { boundsDocument, type RankJson } from './bounds-json.js';
 import type { BarRow } from './capacity-bars-svg.js';
 import { checkDocument, type RequirementDocument } from './check-json.js';
 import { placeOf, type NetworkDrawing } from './network-drawing.js';
 
-export type PanelState = 'fail' | 'fail-unproven' | 'drop' | 'unproven' | 'pass' | 'exact' | 'bounded' | 'upper-only';
+export type PanelState = 'fail' | 'fail-unproven' | 'drop' | 'fail-may-drop' | 'may-drop' | 'unproven' | 'pass' | 'exact' | 'bounded' | 'upper-only';
 
 export interface CutDocument {
   readonly layer: number | string;
@@ -44,7 +44,7 @@ export interface Panel {
   readonly side: Uint8Array;
 }
 
-const ORDER: Readonly<Record<PanelState, number>> = { fail: 0, 'fail-unproven': 0, drop: 1, unproven: 2, 'upper-only': 2, bounded: 3, exact: 3, pass: 3 };
+const ORDER: Readonly<Record<PanelState, number>> = { fail: 0, 'fail-unproven': 0, drop: 1, 'fail-may-drop': 1, 'may-drop': 2, unproven: 2, 'upper-only': 2, bounded: 3, exact: 3, pass: 3 };
 
 export function checkPanels(outcome: CheckOutcome): Panel[] {
   const doc = checkDocument(outcome);
@@ -57,7 +57,19 @@ export function checkPanels(outcome: CheckOutcome): Panel[] {
     res.requirements.forEach((r, j) => {
       const q = c.result!.requirements[j]!;
       const compared = 'base' in r;
-      const state: PanelState = q.failing ? (q.verdict === 'fail' ? 'fail' : 'fail-unproven') : compared && r.drop_fails ? 'drop' : q.verdict;
+      // The same word as every other output (requirement-label.ts), from the JSON's own fields.
+      const drop = compared ? r.drop : 'none';
+      const state: PanelState = q.failing
+        ? q.verdict === 'fail'
+          ? 'fail'
+          : 'fail-unproven'
+        : drop === 'proven'
+          ? 'drop'
+          : drop === 'possible'
+            ? r.drop_fails
+              ? 'fail-may-drop'
+              : 'may-drop'
+            : q.verdict;
       const base = compared ? r.base : undefined;
       const rows: BarRow[] = [{ series: 'required', label: 'required', value: r.required }];
       if (compared) {
@@ -151,7 +163,7 @@ export function cutText(c: CutDocument): string {
 }
 
 /** The bounds of a panel's bar rows by series, for the overview table. */
-export function rowValue(panel: Panel, series: BarRow['series']): BoundJson | null | undefined {
+export function rowValue(panel: Panel, series: BarRow['series']): RankJson | null | undefined {
   const row = panel.rows.find((r) => r.series === series);
   return row === undefined ? undefined : row.value;
 }

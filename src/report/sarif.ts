@@ -61,8 +61,8 @@ const RULES: readonly RuleText[] = [
     name: 'CapacityDrop',
     short: 'Capacity dropped against the base revision by more than the policy allows.',
     full:
-      'Compared with the base revision, the bound on the separation rank for this partition fell by more bits than ' +
-      "the policy's max_drop_bits permits.",
+      "Compared with the base revision, the head's upper bound on the separation rank for this partition is below the " +
+      "base's proven lower bound by more bits than the policy's max_drop_bits permits: the capacity certainly fell.",
     help: 'Restore the width that was removed on the bottleneck cut, or raise max_drop_bits in the policy if the drop is intended.',
     level: 'error',
   },
@@ -94,6 +94,7 @@ const RULES: readonly RuleText[] = [
     help: 'If the config is meant to stay governed, keep it where the policy looks; otherwise have the removal reviewed on its own.',
     level: 'warning',
   },
+  // Rules are only appended, so that the ones before keep their index.
   {
     rule: 'definition-changed',
     name: 'DefinitionChanged',
@@ -104,6 +105,19 @@ const RULES: readonly RuleText[] = [
       "capacity is in their results; the ranges of its parameters were judged with the base revision's version.",
     help: 'No action is needed for this notice; a requirement the edit breaks is reported at the changed line of the definition.',
     level: 'note',
+  },
+  {
+    rule: 'capacity-may-have-dropped',
+    name: 'CapacityMayHaveDropped',
+    short: 'Only the upper bound dropped against the base revision by more than the policy allows.',
+    full:
+      'Compared with the base revision, the upper bound on the separation rank for this partition fell by more bits than ' +
+      "the policy's max_drop_bits permits, but no lower bound of the base proves that the capacity itself fell: it may " +
+      "have dropped, or only a loose ceiling moved. The requirement's unproven setting makes this a warning or an error.",
+    help:
+      'Check the change on the bottleneck cut named in the message; a fix is listed only when it proves that the capacity ' +
+      'held. Raise max_drop_bits, or count unproven drops as warnings, if the ceiling alone is not a concern.',
+    level: 'warning',
   },
 ];
 

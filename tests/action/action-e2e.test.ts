@@ -38,7 +38,7 @@ const SHRINK_ERROR =
     '        this change on the cut: line 18:24 layer 8 channels: 256 → 16',
     'bottleneck (min-cut): 1 bond of dimension 16 from layer 8 (line 18)',
     'fix (smallest change of one field, cheapest first):',
-    '  line 18:24  layer 8 channels: 16 → 64  (+110,784 parameters; then proven)',
+    '  line 18:24  layer 8 channels: 16 → 64  (+110,784 parameters; then proven by top-window span)',
   ].join('%0A');
 
 const FAILED_STEP = '::error::rankfloor: 1 failing requirement in 1 config; see the annotations and the job summary';
@@ -197,7 +197,7 @@ describe('outside a pull request', () => {
           'allows  exactly 16 (4.00 bits) — provably short by 2.00 bits',
           'bottleneck (min-cut): 1 bond of dimension 16 from layer 8 (line 18)',
           'fix (smallest change of one field, cheapest first):',
-          '  line 18:24  layer 8 channels: 16 → 64  (+110,784 parameters; then proven)',
+          '  line 18:24  layer 8 channels: 16 → 64  (+110,784 parameters; then proven by top-window span)',
         ].join('%0A'),
       FAILED_STEP,
     ]);

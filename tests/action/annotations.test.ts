@@ -26,6 +26,9 @@ test('each rule has one kind', () => {
   expect(kindOf(finding('requirement-unproven', 1))).toBe('warning');
   expect(kindOf(finding('policy-changed', 1))).toBe('notice');
   expect(kindOf(finding('definition-changed', 1))).toBe('notice');
+  // A possible drop is a warning or an error as the requirement's `unproven` counts it.
+  expect(kindOf({ ...finding('capacity-may-have-dropped', 1), level: 'warning' })).toBe('warning');
+  expect(kindOf({ ...finding('capacity-may-have-dropped', 1), level: 'error' })).toBe('error');
 });
 
 test('an annotation carries title, file, line and column under the toolkit names', () => {

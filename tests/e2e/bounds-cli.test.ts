@@ -38,8 +38,8 @@ describe('rankfloor bounds', () => {
     expect(doc.partitions.map((p: { partition: string }) => p.partition)).toEqual(['checkerboard', 'left-right']);
     const [cb, lr] = doc.partitions;
     expect(Object.keys(cb)).toEqual(['partition', 'upper', 'lower', 'status', 'cut']);
-    expect(cb.upper).toEqual({ rank: '16', log2: 4 });
-    expect(cb.lower).toEqual({ rank: '16', log2: 4 });
+    expect(cb.upper).toEqual({ rank: '16', log2: 4, method: 'min-cut' });
+    expect(cb.lower).toMatchObject({ rank: '16', log2: 4 });
     expect(cb.status).toBe('exact');
     // the four level-1 copy tensors carry the 2 channels of the first conv (layer 0, line 5)
     expect(cb.cut).toEqual([{ layer: 0, line: 5, dim: 2, count: 4 }]);

@@ -42,7 +42,7 @@ describe('rankfloor check over examples/ and policies/', () => {
       cut: [{ layer: 8, line: 17, dim: 16, count: 1 }],
     });
     expect(organ.fix).toEqual([
-      { layer: 8, field: 'channels', line: 17, column: 24, from: 16, to: 64, added_parameters: '7104', verdict: 'pass' },
+      { layer: 8, field: 'channels', line: 17, column: 24, from: 16, to: 64, added_parameters: '7104', verdict: 'pass', rule: 'top-window span' },
     ]);
     const gait = doc.results.find((x: { file: string }) => x.file === 'examples/gait-sequence.yaml');
     expect(gait.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['unproven', 'pass']);

@@ -21,6 +21,8 @@ export interface FamilyStats {
   upperTight: number;
   lowerPresent: number;
   lowerTight: number;
+  /** Lower bounds equal to the oracle when the certified probe is off (the other rules alone). */
+  lowerTightRules: number;
   exact: number;
   /** Cases where a claimed lower bound exceeded the first reading and the oracle re-drew. */
   redraws: number;
@@ -53,6 +55,7 @@ export function newStats(family: string, knownBugs: readonly KnownBug[] = []): F
     upperTight: 0,
     lowerPresent: 0,
     lowerTight: 0,
+    lowerTightRules: 0,
     exact: 0,
     redraws: 0,
     buckets: [0, 0, 0, 0, 0],
@@ -80,17 +83,24 @@ function record(stats: Stats, c: LayeredCase | ExplicitCase, failure: string): v
 /** Oracle readings per case: the first draw, then up to this many fresh draws on disagreement. */
 const REDRAWS = 2;
 
+/**
+ * Judges one partition's bounds against the oracle. `rules`: the same partition's bounds with the
+ * certified probe turned off, judged as well and counted for the "rules only" column.
+ */
 function judge(
   stats: Stats,
   c: LayeredCase | ExplicitCase,
   where: string,
   pb: PartitionBounds,
   read: (attempt: number) => number,
+  rules: PartitionBounds = pb,
 ): void {
   const upper = pb.upper.rank;
   const lower = pb.lower ? pb.lower.rank : null;
+  const rulesLower = rules.lower ? rules.lower.rank : null;
+  const claimed = lower !== null && rulesLower !== null && rulesLower > lower ? rulesLower : (lower ?? rulesLower);
   let r = read(0);
-  for (let attempt = 1; attempt <= REDRAWS && lower !== null && lower > BigInt(r); attempt++) {
+  for (let attempt = 1; attempt <= REDRAWS && claimed !== null && claimed > BigInt(r); attempt++) {
     stats.redraws++;
     r = Math.max(r, read(attempt));
   }
@@ -103,6 +113,8 @@ function judge(
   };
   if (oracle > upper) fail('UPPER BOUND VIOLATED: the certified oracle rank exceeds it');
   if (lower !== null && lower > oracle) fail('LOWER BOUND ABOVE THE ORACLE');
+  if (rulesLower !== null && rulesLower > oracle) fail(`LOWER BOUND ABOVE THE ORACLE with the probe off (${rulesLower} [${rules.lower!.method}])`);
+  if (rules.upper.rank !== upper) fail(`the probe changed the upper bound (${rules.upper.rank} without it)`);
   if (pb.status === 'exact' && (lower !== upper || oracle !== upper)) fail('status exact but lower/upper/oracle differ');
   if (pb.status === 'bounded' && (lower === null || lower >= upper)) fail('status bounded inconsistent with the bounds');
   if (pb.status === 'upper-only' && lower !== null) fail('status upper-only with a lower bound');
@@ -119,6 +131,7 @@ function judge(
     stats.lowerPresent++;
     if (lower === oracle) stats.lowerTight++;
   }
+  if (rulesLower === oracle) stats.lowerTightRules++;
   if (pb.status === 'exact') stats.exact++;
 }
 
@@ -135,7 +148,9 @@ function guarded<T>(run: () => T): T | string {
 export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: number): void {
   const where = `${stats.family} seed=${seed} surrogate=${c.surrogate} ${describeModel(c.model)}`;
   stats.models++;
-  const out = guarded(() => computeBounds(c.model, c.partitions, { surrogate: c.surrogate }));
+  // The rules alone first (cheap), then the probe on the partitions the oracle reads: a probe of
+  // a partition whose upper bound is above the cap would never be judged.
+  const out = guarded(() => computeBounds(c.model, c.partitions, { surrogate: c.surrogate, probeBudget: 0 }));
   if (typeof out === 'string') {
     // Say what the oracle reads, so the report shows which side of the claim is wrong.
     const ev = compile(c.model, c.surrogate, new WeightStore(new Rng(seed ^ 0x2545f491)));
@@ -162,23 +177,40 @@ export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: nu
     record(stats, c, `${where}: computeBounds rejected a valid model: ${out.diagnostics.map(formatDiagnosticLine).join('; ')}`);
     return;
   }
+  const judged = c.partitions.filter((p, i) => {
+    const pb = out.result.partitions[i];
+    return pb !== undefined && pb.partition === p.label && pb.upper.rank <= BigInt(cap);
+  });
+  const probed = guarded(() => computeBounds(c.model, judged, { surrogate: c.surrogate }));
+  if (typeof probed === 'string' || !probed.ok) {
+    record(stats, c, `${where}: with the probe: ${typeof probed === 'string' ? probed : probed.diagnostics.map(formatDiagnosticLine).join('; ')}`);
+    return;
+  }
   const evals = [compile(c.model, c.surrogate, new WeightStore(new Rng(seed ^ 0x2545f491)))];
   const probeRng = new Rng(seed ^ 0x68e31da4);
   c.partitions.forEach((p, i) => {
-    const pb = out.result.partitions[i];
-    if (!pb || pb.partition !== p.label) {
-      record(stats, c, `${where}: result ${i} is for '${pb?.partition}', expected '${p.label}'`);
+    const rules = out.result.partitions[i];
+    if (!rules || rules.partition !== p.label) {
+      record(stats, c, `${where}: result ${i} is for '${rules?.partition}', expected '${p.label}'`);
       return;
     }
-    if (pb.upper.rank > BigInt(cap)) {
+    if (rules.upper.rank > BigInt(cap)) {
       stats.skipped++;
       return;
     }
+    const pb = probed.result.partitions[judged.indexOf(p)]!;
     const k = Number(pb.upper.rank) + 8;
-    judge(stats, c, where, pb, (attempt) => {
-      while (evals.length <= attempt) evals.push(compile(c.model, c.surrogate, new WeightStore(new Rng(seed + 7919 * evals.length))));
-      return probeRankWith(evals[attempt]!, p.side, k, probeRng);
-    });
+    judge(
+      stats,
+      c,
+      where,
+      pb,
+      (attempt) => {
+        while (evals.length <= attempt) evals.push(compile(c.model, c.surrogate, new WeightStore(new Rng(seed + 7919 * evals.length))));
+        return probeRankWith(evals[attempt]!, p.side, k, probeRng);
+      },
+      rules,
+    );
   });
 }
 
@@ -211,8 +243,8 @@ function pct(x: number, of: number): string {
 
 /** A fixed-width tightness table. */
 export function tightnessTable(all: readonly FamilyStats[]): string {
-  const head = ['family', 'models', 'cases', 'skipped', 'upper=oracle', 'lower given', 'lower=oracle', 'exact', 'redraws', 'failures', 'known bug', 'seconds', 'oracle rank 1|2-3|4-15|16-63|64+'];
-  const rows = all.map((s) => [
+  const head = ['family', 'models', 'cases', 'skipped', 'upper=oracle', 'lower given', 'lower=oracle', 'without probe', 'exact', 'redraws', 'failures', 'known bug', 'seconds', 'oracle rank 1|2-3|4-15|16-63|64+'];
+  const rows = [...all, ...totals(all)].map((s) => [
     s.family,
     String(s.models),
     String(s.cases),
@@ -220,6 +252,7 @@ export function tightnessTable(all: readonly FamilyStats[]): string {
     `${s.upperTight} ${pct(s.upperTight, s.cases)}`,
     `${s.lowerPresent} ${pct(s.lowerPresent, s.cases)}`,
     `${s.lowerTight} ${pct(s.lowerTight, s.cases)}`,
+    `${s.lowerTightRules} ${pct(s.lowerTightRules, s.cases)}`,
     `${s.exact} ${pct(s.exact, s.cases)}`,
     String(s.redraws),
     String(s.failures.length),
@@ -230,6 +263,21 @@ export function tightnessTable(all: readonly FamilyStats[]): string {
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => (r[i] as string).length)));
   const line = (r: string[]): string => r.map((c, i) => (i === 0 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join('  ');
   return [line(head), ...rows.map(line)].join('\n');
+}
+
+/** Summary rows: every family, the `overlap` ones, the recurrent ones. */
+function totals(all: readonly FamilyStats[]): FamilyStats[] {
+  const sum = (family: string, of: readonly FamilyStats[]): FamilyStats => {
+    const s = newStats(family);
+    for (const f of of) {
+      for (const key of ['models', 'cases', 'skipped', 'upperTight', 'lowerPresent', 'lowerTight', 'lowerTightRules', 'exact', 'redraws', 'ms'] as const) s[key] += f[key];
+      f.buckets.forEach((b, i) => (s.buckets[i]! += b));
+      s.failures.push(...f.failures);
+    }
+    return s;
+  };
+  if (all.length < 2) return [];
+  return [sum('(all)', all), sum('(overlap)', all.filter((f) => f.family.includes('overlap'))), sum('(recurrent)', all.filter((f) => f.family.startsWith('recurrent')))];
 }
 
 /** Runs `count` seeded cases of one family; `ORACLE_SEED` reruns a single printed seed. */

@@ -57,6 +57,7 @@ const EVERY_RULE: Finding[] = [
   finding({ rule: 'input-error', file: 'configs/broken.yaml', line: 4, column: 7, message: 'unknown field `chanels`; did you mean `channels`?' }),
   finding({ rule: 'config-removed', level: 'warning', file: 'configs/gone.yaml', line: undefined, column: undefined }),
   finding({ rule: 'definition-changed', level: 'notice', file: 'arch/residual.yaml', line: 30, column: 1 }),
+  finding({ rule: 'capacity-may-have-dropped', level: 'warning', file: 'configs/model.yaml', line: 14, column: 3 }),
 ];
 
 interface Result {
@@ -82,7 +83,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog(EVERY_RULE, TOOL);
     expectValid(log);
     expect(run(log).results.map((r) => r.ruleId).sort()).toEqual(
-      ['capacity-drop', 'config-removed', 'definition-changed', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
+      ['capacity-drop', 'capacity-may-have-dropped', 'config-removed', 'definition-changed', 'input-error', 'policy-changed', 'requirement-failed', 'requirement-unproven'].map((r) => `rankfloor/${r}`),
     );
   });
 
@@ -162,8 +163,9 @@ describe('sarifLog content', () => {
       'rankfloor/input-error',
       'rankfloor/config-removed',
       'rankfloor/definition-changed',
+      'rankfloor/capacity-may-have-dropped',
     ]);
-    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError', 'ConfigRemoved', 'DefinitionChanged']);
+    expect(rules.map((r) => r.name)).toEqual(['RequirementFailed', 'RequirementUnproven', 'CapacityDrop', 'PolicyChanged', 'InputError', 'ConfigRemoved', 'DefinitionChanged', 'CapacityMayHaveDropped']);
     for (const r of run(sarifLog(EVERY_RULE, TOOL)).results) expect(rules[r.ruleIndex]!.id).toBe(r.ruleId);
     // The same indices whichever findings occur.
     const only = run(sarifLog([finding({ rule: 'input-error' })], TOOL)).results[0]!;
