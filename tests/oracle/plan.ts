@@ -253,10 +253,38 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     }
   } else {
     defaulted = true;
-    // "the model has at least one conv and every conv is causal" (layers of kind `conv`).
-    const convs = layers.filter((l) => l.kind === 'conv');
-    const allCausal = convs.length > 0 && convs.every((l) => l.kind === 'conv' && l.padding.mode === 'causal');
-    position = last.dims.length === 1 && allCausal ? [(last.dims[0] as number) - 1] : last.dims.map((n) => Math.floor(n / 2));
+    // "a model is causal when its grid is 1D and every layer that can read another position than
+    // its own [...] is causal [...], and at least one such layer exists"; a class token: position 0.
+    let readers = 0;
+    let causal = true;
+    layers.forEach((l, li) => {
+      let reads = false;
+      let ok = false;
+      if (l.kind === 'conv') {
+        reads = l.kernel.some((k) => k !== 1) || l.stride.some((x) => x !== 1);
+        ok = l.padding.mode === 'causal';
+      } else if (l.kind === 'pool') {
+        reads = l.global || l.window.some((w) => w !== 1) || l.stride.some((x) => x !== 1);
+      } else if (l.kind === 'dense') {
+        reads = reading[li] === 'input';
+      } else if (l.kind === 'flatten') {
+        reads = count(gridOf(l.inputs[0] as number).dims) > 1;
+      } else if (l.kind === 'conv-transpose' || l.kind === 'upsample' || l.kind === 'class-token') {
+        reads = true;
+      } else if (l.kind === 'recurrent') {
+        reads = true;
+        ok = !l.bidirectional;
+      } else if (l.kind === 'attention') {
+        reads = true;
+        ok = l.causal;
+      }
+      if (!reads) return;
+      readers++;
+      if (!ok) causal = false;
+    });
+    const isCausal = last.dims.length === 1 && readers > 0 && causal;
+    const classToken = last.dims.length === 1 && layers.some((l) => l.kind === 'class-token');
+    position = isCausal ? [(last.dims[0] as number) - 1] : classToken ? [0] : last.dims.map((n) => Math.floor(n / 2));
   }
   let index = 0;
   for (let a = 0; a < last.dims.length; a++) index = index * (last.dims[a] as number) + (position[a] as number);
