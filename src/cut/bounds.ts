@@ -70,8 +70,9 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
-    const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
+    // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
+    const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
+    const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side) : null;
     const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
     if (best > MAX_RANK_BITS) {
       // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
