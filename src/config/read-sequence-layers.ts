@@ -7,7 +7,7 @@
  * whose value would change the function beyond what the surrogate models (`proj_size`,
  * `go_backwards`, `add_bias_kv`, rotary schemes) are read only at their neutral value.
  */
-import { describeValue, displayPath, type Located } from './located-value.js';
+import { displayPath, type Located } from './located-value.js';
 import type { AttentionLayer, PositionLayer, RecurrentLayer } from './model.js';
 import { lookupChoice, readBoolean, readChoice, readNonNegativeInteger, readOnly, readPositiveInteger, type ReadContext } from './field-readers.js';
 import type { DeclaredSize, MadeLayer, Stated, Template } from './layer-templates.js';
@@ -42,7 +42,7 @@ function readMerge(node: Located, ctx: ReadContext): 'concat' | 'sum' | undefine
     const none = word.toLowerCase() === 'none' || word === 'null';
     ctx.sink.error(
       'config/unsupported-value',
-      `${displayPath(node)} is ${describeValue(node)}, which is not read: ${none ? 'the two directions returned separately cannot be read by the next layer of a list' : 'a product or an average of the two directions is not modelled'}; write 'concat' (the width doubles) or 'sum'`,
+      `${displayPath(node)} is ${node.kind === 'scalar' && node.value === null ? 'empty' : `'${word}'`}, which is not read: ${none ? 'the two directions returned separately cannot be read by the next layer of a list' : 'a product or an average of the two directions is not modelled'}; write 'concat' (the width doubles) or 'sum'`,
       node.span,
     );
     return undefined;
