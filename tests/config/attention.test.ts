@@ -255,6 +255,12 @@ describe('transformer_block', () => {
       expect(m.layers[25]!.inputs).toEqual([24, 8]);
     }
     expect(codesAt(onTokens(['transformer_block: {heads: 2, depth: 0}']))).toEqual(['config/invalid-number@5:44']);
+    // the size is known before anything is expanded: a stack beyond the layer limit is refused at depth
+    const deep = onTokens(['transformer_block: {heads: 2, depth: 1000000}']);
+    expect(codesAt(deep)).toEqual(['config/too-many-layers@5:44']);
+    expect(diagnostics(deep)[0]!.message).toBe(
+      'model.layers[1].transformer_block.depth is 1000000, which makes the model expand to 8000001 layers; at most 10000 layers are allowed after expanding repeat blocks',
+    );
   });
 
   test('inside a repeat, as teams write a stack; the width is filled in per copy', () => {
