@@ -47,7 +47,21 @@ export type ShapesResult = { ok: true; shapes: ModelShapes } | { ok: false; diag
 /** Widths above this are refused (flatten and concatenation multiply and add widths): dimensions are 32-bit. */
 export const MAX_WIDTH = 2 ** 31 - 1;
 
-export function inferShapes(model: LayeredModel): ShapesResult {
+/** A problem `LayerAdjust` finds with a layer's stated sizes. */
+export interface AdjustProblem {
+  readonly code: string;
+  readonly message: string;
+  readonly span: Span;
+}
+
+/**
+ * Called with each layer and its (first) input's shape before the layer is inferred: the loader
+ * fills sizes that follow from the input (a transformer block's MLP width) and checks sizes the
+ * config states (`embed_dim`), returning the layer to infer, or a problem.
+ */
+export type LayerAdjust = (layer: Layer, input: LayerShape) => Layer | AdjustProblem;
+
+export function inferShapes(model: LayeredModel, adjust?: LayerAdjust): ShapesResult {
   const diagnostics: Diagnostic[] = [];
   const fail = (span: Span, code: string, message: string): ShapesResult => {
     diagnostics.push({ code, message, file: model.file, span, severity: 'error' });
@@ -69,10 +83,13 @@ export function inferShapes(model: LayeredModel): ShapesResult {
   const rawInput = new Set<number>([INPUT]);
   const inShape = (i: number): LayerShape => (i === INPUT ? { shape: model.input.shape, width: m } : out[i]!);
 
-  for (const layer of model.layers) {
-    const where = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
-    const ins = layer.inputs.map(inShape);
+  for (const written of model.layers) {
+    const ins = written.inputs.map(inShape);
     const first = ins[0]!;
+    const adjusted = adjust ? adjust(written, first) : written;
+    if ('code' in adjusted) return fail(adjusted.span, adjusted.code, adjusted.message);
+    const layer = adjusted;
+    const where = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
     const dims = first.shape.length;
     let result: LayerShape;
     groups.push(1);

@@ -172,6 +172,11 @@ export interface RecurrentLayer extends LayerBase {
   readonly merge: 'concat' | 'sum';
   /** true: one output per step (the grid keeps its length); false: the final state only. */
   readonly sequence: boolean;
+  /**
+   * The real layer's biases, when the config turns them off (`bias: false`); absent means it has
+   * them. The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 /** A per-position linear map to `dim` (on a token input: the token embedding). */
@@ -201,6 +206,11 @@ export interface AttentionLayer extends LayerBase {
   readonly causal: boolean;
   /** 1D: position i attends only to j with |i − j| ≤ window. */
   readonly window?: number;
+  /**
+   * The real layer's biases (of the query, key, value and output maps), when the config turns them
+   * off (`bias: false`); absent means it has them. Only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 /**

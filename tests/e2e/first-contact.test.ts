@@ -74,7 +74,7 @@ describe('check', () => {
     const r = runCli(['check', '--policy', 'policies/']);
     expect(r.code).toBe(1);
     const last = r.stdout.trimEnd().split('\n').at(-1)!;
-    expect(last).toBe('4 configs against 3 policies: 4 checks (1 failing, 1 unproven, 2 passing); 8 requirements (1 failing, 1 unproven, 6 passing)');
+    expect(last).toBe('6 configs against 4 policies: 6 checks (1 failing, 2 unproven, 3 passing); 12 requirements (1 failing, 3 unproven, 8 passing)');
   });
 
   test('an unproven requirement counted as failing says what would prove it, never that it is short', () => {
