@@ -118,7 +118,7 @@ export interface RankPropagation {
   readonly log2: number;
   /** The exact bound, or undefined when some node's value exceeds the bit limit (computed on demand). */
   readonly rank: () => bigint | undefined;
-  /** The widths that enter the bound: tag → dimension → count. */
+  /** The widths that enter the bound: tag → dimension → count (found on first use). */
   readonly counts: CutCounts;
 }
 
@@ -136,7 +136,14 @@ export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
     if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]!);
     return big(propagate(c, plan, side, EXACT).lam[c.top]!);
   };
-  return { log2: logs.lam[c.top]!, rank, counts: recordWidths(c, plan, logs) };
+  let counts: CutCounts | undefined;
+  return {
+    log2: logs.lam[c.top]!,
+    rank,
+    get counts(): CutCounts {
+      return (counts ??= recordWidths(c, plan, logs));
+    },
+  };
 }
 
 /**

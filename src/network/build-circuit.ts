@@ -491,7 +491,9 @@ class Notes {
       const reading = shapes.denseReading[l.index];
       const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]!]!.shape;
       if (reading === 'per-position') {
-        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution; put flatten before it to read them all at once`);
+        // On an image grid a per-position dense layer is often a forgotten flatten; on a sequence it is the usual per-step head.
+        const advice = before.length === 2 ? '; put flatten before it to read them all at once' : '';
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) acts on each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution${advice}`);
       } else if (reading === 'input') {
         this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads all ${positionCount(before)} input positions at once (a fully connected layer on the raw input)`);
       }
