@@ -283,9 +283,9 @@ interface Context {
 /**
  * How attention layers are evaluated: `literal` is the text's double sum, term by term;
  * `aggregate` (the default, a few times faster) regroups it as y_i = Σ_h O_h S_{h,i}ᵀ Q_h v_i with
- * S_{h,i} = Σ_{j∈N(i)} (K_h v_j)(V_h v_j)ᵀ, taken from prefix sums over j (every N(i) is an
- * interval of positions). Exact arithmetic gives the same numbers either way; the self-tests
- * compare the two on every attention family.
+ * S_{h,i} = Σ_{j∈N(i)} (K_h v_j)(V_h v_j)ᵀ (every N(i) is an interval of positions). Exact
+ * arithmetic gives the same numbers either way; the self-tests compare the two on every
+ * attention family.
  */
 export type AttentionForm = 'literal' | 'aggregate';
 
@@ -510,8 +510,11 @@ function attentionWeights(ctx: Context, layer: AttentionLayer, D: number, a: num
 }
 
 /**
- * The aggregate form: per position j a unit holding every head's k_j ⊗ val_j (a×a) and q_j; one
- * unit of prefix sums P_t = Σ_{j<t} k_j ⊗ val_j per head; output i reads q_i and P_{hi+1} − P_lo.
+ * The aggregate form: per position j a unit holding every head's q_j and k_j ⊗ val_j (a×a); per
+ * output i a unit of S_i = Σ_{j∈N(i)} k_j ⊗ val_j (every head), shared where the intervals agree:
+ * a field starting at 0 (full attention, a causal mask) is a prefix sum, built as a chain
+ * P_{t+1} = P_t + k_t ⊗ val_t; a window that starts later sums its own positions. Each unit reads
+ * exactly the positions of its field, so `dependsOn` stays the receptive field.
  */
 function attentionAggregate(ctx: Context, layer: AttentionLayer, src: Grid, a: number): Grid {
   const { c } = ctx;
@@ -535,39 +538,39 @@ function attentionAggregate(ctx: Context, layer: AttentionLayer, src: Grid, a: n
       }
     });
   });
-  // Prefix sums for t = 0..n, every head: (n + 1)·H·a² numbers.
   const projOffs = proj.map((u) => c.off(u));
   const block = H * aa;
-  const prefix = c.add((n + 1) * block, proj, (oo) => (buf) => {
-    buf.fill(0, oo, oo + block);
-    for (let t = 0; t < n; t++) {
-      const from = oo + t * block;
-      const to = from + block;
-      const po = projOffs[t] as number;
-      for (let h = 0; h < H; h++) {
-        for (let e = 0; e < aa; e++) buf[to + h * aa + e] = add(buf[from + h * aa + e] as number, buf[po + h * per + a + e] as number);
+  /** out = Σ over positions js of their k ⊗ val blocks (plus `base` when given). */
+  const sumUnit = (js: readonly number[], base: number | undefined): number => {
+    const bo = base === undefined ? -1 : c.off(base);
+    return c.add(block, [...(base === undefined ? [] : [base]), ...js.map((j) => proj[j] as number)], (oo) => (buf) => {
+      if (bo < 0) buf.fill(0, oo, oo + block);
+      else for (let e = 0; e < block; e++) buf[oo + e] = buf[bo + e] as number;
+      for (const j of js) {
+        const po = projOffs[j] as number;
+        for (let h = 0; h < H; h++) for (let e = 0; e < aa; e++) buf[oo + h * aa + e] = add(buf[oo + h * aa + e] as number, buf[po + h * per + a + e] as number);
       }
-    }
-  });
-  const po = c.off(prefix);
+    });
+  };
+  const prefix: number[] = []; // prefix[t] = P_{t+1}
+  const prefixTo = (hi: number): number => {
+    while (prefix.length <= hi) prefix.push(sumUnit([prefix.length], prefix.length === 0 ? undefined : prefix[prefix.length - 1]));
+    return prefix[hi] as number;
+  };
   const acc = new Float64Array(a);
   const units = src.units.map((_, i) => {
     const { lo, hi } = attentionField(layer, n, i);
+    const field = lo === 0 ? prefixTo(hi) : sumUnit(Array.from({ length: hi - lo + 1 }, (_, t) => lo + t), undefined);
     const qi = projOffs[i] as number;
-    const upper = po + (hi + 1) * block;
-    const lower = po + lo * block;
-    return c.add(D, [proj[i] as number, prefix], (oo) => (buf) => {
+    const so = c.off(field);
+    return c.add(D, [proj[i] as number, field], (oo) => (buf) => {
       buf.fill(0, oo, oo + D);
       for (let h = 0; h < H; h++) {
         const q = qi + h * per;
-        // acc_r = Σ_t q_t · S[t][r], S = P_{hi+1} − P_lo.
+        // acc_r = Σ_t q_t · S[t][r].
         for (let r = 0; r < a; r++) {
           let x = 0;
-          for (let t = 0; t < a; t++) {
-            const e = h * aa + t * a + r;
-            const sv = add(buf[upper + e] as number, (P - (buf[lower + e] as number)) % P);
-            x = mulAdd(buf[q + t] as number, sv, x);
-          }
+          for (let t = 0; t < a; t++) x = mulAdd(buf[q + t] as number, buf[so + h * aa + t * a + r] as number, x);
           acc[r] = x;
         }
         matVecAdd((heads[h] as { o: Float64Array }).o, D, a, acc, 0, buf, oo);
@@ -929,9 +932,23 @@ export function probeRankAdaptive(ev: Evaluator, side: Uint8Array, maxK: number,
   let k = Math.min(start, maxK);
   for (;;) {
     const r = probeRankWith(ev, side, k, rng);
-    if (r < k || k >= maxK) return r;
+    if (k >= maxK) return r;
+    const exact = tokenProbeExact(ev, side, k);
+    if (exact === true || (exact === undefined && r < k) || (exact === false && 2 * r < k)) return r;
     k = Math.min(maxK, 2 * k + 8);
   }
+}
+
+/**
+ * For a token input: whether a probe at K enumerates both sides (its matrix is then the whole
+ * function on the token sequences, and its rank exact); undefined for a continuous input.
+ */
+export function tokenProbeExact(ev: Evaluator, side: Uint8Array, k: number): boolean | undefined {
+  const v = ev.plan.vocabulary;
+  if (v === undefined) return undefined;
+  let a = 0;
+  for (let p = 0; p < ev.positions; p++) if ((side[p] ?? 0) === 1) a++;
+  return v ** a <= ENUMERATE_TOKENS * k && v ** (ev.positions - a) <= ENUMERATE_TOKENS * k;
 }
 
 /** Probe rank of a model under a surrogate with fresh weights drawn from `rng`. */
