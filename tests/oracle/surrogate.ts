@@ -17,7 +17,22 @@
  * - `groups` of a conv-transpose make its maps block diagonal, as for a conv;
  * - an unshared `overlap` conv-transpose has one set of tap maps per output position;
  * - the `tree` conv-transpose reads input min(⌊j/s⌋, n−1) whatever its padding p (literal text);
- * - upsampling and merges are the same under both surrogates (the text gives them once).
+ * - upsampling and merges are the same under both surrogates (the text gives them once);
+ * - sequences: every new kind (embedding, position, class token, recurrent, attention) is the same
+ *   under both surrogates;
+ * - an `embedding` is one matrix for every position even when `weight_sharing` is false (the text
+ *   says "shared across positions", without the "(always)" it gives attention and recurrences);
+ * - a token input ignores `input.representation` (M = V "whatever else the config says"), and its
+ *   probe draws tokens (indicator vectors): the rank measured is that of the function on the
+ *   discrete domain, which for a position entering with degree > 1 (attention, deep recurrences)
+ *   can be below the rank of the same polynomial on continuous inputs;
+ * - an attention layer whose head width is not given and does not divide the width, or a window
+ *   on a 2D grid, is refused (the text is silent); a window of 0 attends to the position itself;
+ *   a causal mask on a 2D grid compares row-major indices;
+ * - the forward chain of a bidirectional level reads z^{l−1} (the joined directions) like the
+ *   backward one ("as above" read with z for h);
+ * - the default output rule for a class token applies even when every attention layer is causal:
+ *   position 0 then reads only the class token, and h is constant (not zero, so not refused).
  */
 import type {
   AttentionLayer,
