@@ -595,26 +595,7 @@ export function positionsCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): L
   const last = d.grid().dims;
   const opts: LayeredOptions = count(last) > 1 && rng.chance(0.5) ? { output: last.map((n) => rng.int(0, n - 1)) } : {};
   const c = d.done(1, opts);
-  const field = compile(c.model, surrogate, new WeightStore(rng)).dependsOn();
-  const n = count(d.shape);
-  const outside: number[] = [];
-  const inside: number[] = [];
-  field.forEach((f, p) => (f === 0 ? outside : inside).push(p));
-  if (outside.length > 0 && inside.length > 0) {
-    const some = new Uint8Array(n);
-    for (const p of outside) if (rng.chance(0.6)) some[p] = 1;
-    some[rng.pick(outside)] = 1;
-    c.partitions.push(maskPartition(some));
-    const all = new Uint8Array(n);
-    for (const p of outside) all[p] = 1;
-    c.partitions.push(maskPartition(all));
-    if (inside.length > 1) {
-      const plusOne = all.slice();
-      plusOne[rng.pick(inside)] = 1;
-      c.partitions.push(maskPartition(plusOne));
-    }
-  }
-  return { ...c, partitions: distinct(c.partitions) };
+  return { ...c, partitions: distinct([...c.partitions, ...fieldPartitions(rng, c, surrogate)]) };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -622,8 +603,7 @@ export function positionsCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): L
 
 /**
  * Partitions that test receptive fields: side A made of positions the output cannot read (some
- * of them, all of them; rank 1 exactly), all of them plus one position it reads, and, for a 1D
- * input, the positions after the output's own input position (rank 1 when every layer is causal).
+ * of them, all of them; rank 1 exactly), and all of them plus one position it reads.
  */
 function fieldPartitions(rng: Rng, c: LayeredCase, surrogate: SurrogateKind): Partition[] {
   const field = compile(c.model, surrogate, new WeightStore(rng)).dependsOn();
@@ -699,6 +679,39 @@ export function sequenceRecurrentCase(rng: Rng, bidirectional: boolean): Layered
   if (rng.chance(0.2)) d.push(dense(rng.pick(SMALL)));
   const c = d.done(2, outputOption(d, 0.5));
   return { ...c, partitions: distinct([...c.partitions, ...fieldPartitions(rng, c, 'tree')]) };
+}
+
+/**
+ * Token inputs under the other kinds: a dense layer on the whole token sequence with the square
+ * rule, an embedding then flatten + dense, convs and pools (with or without an embedding first),
+ * under both surrogates. On the discrete domain a position supports V functions only, and a
+ * squared or reused position passes no more than that.
+ */
+export function tokenStackCase(rng: Rng): LayeredCase {
+  const n = rng.int(2, 6);
+  // Wide enough for a flatten of 6 positions of width 3.
+  const d = new Draw(rng, [n], undefined, rng.chance(0.5), rng.chance(0.5) ? 'overlap' : 'tree', { positions: 16, width: 18 });
+  d.vocabulary = rng.pick([2, 2, 3, 4]);
+  switch (rng.int(0, 3)) {
+    case 0:
+      d.push(dense(rng.int(1, 4)), act(), dense(rng.int(1, 3)));
+      break;
+    case 1:
+      d.push(embedding(rng.int(1, 3)), flatten(), dense(rng.int(1, 4)), act(), dense(1));
+      break;
+    case 2:
+      d.attempt(() => [randomConv(rng, 1, rng.int(1, 3), { strided: 0.2 })]);
+      if (d.positions() > 1) d.attempt(() => [randomPool(rng, d.grid(), 0.3)]);
+      d.attempt(() => [conv(rng.int(1, 3), { kernel: [rng.int(1, 3)] })]);
+      finish(d, 0.7);
+      break;
+    default:
+      d.push(embedding(rng.int(1, 3)));
+      d.attempt(() => [conv(rng.int(1, 3), { kernel: [rng.int(1, 3)] })]);
+      finish(d, 0.7);
+  }
+  if (d.items.length === 0) d.push(embedding(rng.int(1, 3)));
+  return d.done(1, outputOption(d, 0.3));
 }
 
 /**
@@ -856,6 +869,7 @@ export const LAYERED_GENERATORS: readonly { readonly name: string; readonly gen:
   { name: 'recurrent', gen: (rng) => recurrentCase(rng, rng.int(1, 3)) },
   { name: 'sequence-recurrent', gen: (rng) => sequenceRecurrentCase(rng, false) },
   { name: 'sequence-bidirectional', gen: (rng) => sequenceRecurrentCase(rng, true) },
+  { name: 'tokens', gen: tokenStackCase },
   { name: 'attention', gen: (rng) => attentionCase(rng, false) },
   { name: 'attention-masked', gen: (rng) => attentionCase(rng, true) },
   ...BLOCK_FAMILIES.flatMap((f) => (['tree', 'overlap'] as const).map((s) => ({ name: `${f.name}-${s}`, gen: (rng: Rng) => blockCase(rng, f, s) }))),
