@@ -29,11 +29,15 @@ export interface GridShape {
 export interface ModelPlan {
   /** M, the dimension of each input vector. */
   readonly m: number;
+  /** A token input's vocabulary V (then M = V and every input vector is an indicator). */
+  readonly vocabulary: number | undefined;
   readonly input: GridShape;
   /** Output grid of every layer, indexed like `model.layers`. */
   readonly grids: readonly GridShape[];
   /** Groups of a conv or conv-transpose (`depthwise` resolved); 1 elsewhere. */
   readonly groups: readonly number[];
+  /** Per attention layer: the head width a (given, or the input width divided by the heads). */
+  readonly headDim: readonly (number | undefined)[];
   /** Per dense layer; undefined for other kinds. */
   readonly reading: readonly (DenseReading | undefined)[];
   /** Dense layers that mix positions (the square rule's condition). */
@@ -46,7 +50,8 @@ export interface ModelPlan {
   readonly output: { readonly position: readonly number[]; readonly index: number; readonly defaulted: boolean };
 }
 
-const WEIGHTED = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent']);
+/** "Pointwise layers from which no weighted layer (conv, conv-transpose, dense, recurrent, embedding, attention) can be reached are ignored." */
+const WEIGHTED = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent', 'embedding', 'attention']);
 
 function singlePosition(g: GridShape): boolean {
   return count(g.dims) === 1;
@@ -75,13 +80,17 @@ function windowFields(layer: ConvLayer | ConvTransposeLayer, dims: readonly numb
 }
 
 export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overlap'): ModelPlan {
-  const m = representationOf(model);
+  const vocabulary = model.input.vocabulary;
+  // "A token input [...] carries at each position the indicator vector of its token: M = V
+  // exactly, whatever else the config says."
+  const m = vocabulary ?? representationOf(model);
   if (m === undefined || m < 1) throw new Error('model has no representation width M');
   const input: GridShape = { dims: [...model.input.shape], width: m };
   const layers = model.layers;
   const grids: GridShape[] = [];
   const groups: number[] = [];
   const reading: (DenseReading | undefined)[] = [];
+  const headDim: (number | undefined)[] = [];
   const gridOf = (i: number): GridShape => {
     if (i === INPUT) return input;
     const g = grids[i];
@@ -174,7 +183,38 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
       case 'recurrent': {
         const src = one(layer);
         if (src.dims.length !== 1) throw new Error(`recurrent ${li} needs a 1D grid, got [${src.dims.join(',')}]`);
-        out = { dims: [1], width: layer.hidden };
+        if (layer.hidden < 1 || layer.depth < 1) throw new Error(`recurrent ${li}: hidden ${layer.hidden}, depth ${layer.depth}`);
+        // D_l = 2R for a bidirectional concat, R otherwise; `sequence` keeps the T positions.
+        const width = layer.bidirectional && layer.merge === 'concat' ? 2 * layer.hidden : layer.hidden;
+        out = { dims: layer.sequence ? src.dims : [1], width };
+        break;
+      }
+      case 'embedding': {
+        const src = one(layer);
+        out = { dims: src.dims, width: layer.dim };
+        break;
+      }
+      case 'position':
+        out = one(layer);
+        break;
+      case 'class-token': {
+        // "the grid (any shape, N positions) becomes a 1D grid of N + 1 positions"
+        const src = one(layer);
+        out = { dims: [count(src.dims) + 1], width: src.width };
+        break;
+      }
+      case 'attention': {
+        const src = one(layer);
+        if (layer.heads < 1) throw new Error(`attention ${li}: ${layer.heads} heads`);
+        // "head width a [...] absent: the input width divided by heads" — refused when it does not divide.
+        const a = layer.headDim ?? src.width / layer.heads;
+        if (!Number.isInteger(a) || a < 1) throw new Error(`attention ${li}: head width ${a} (width ${src.width}, ${layer.heads} heads)`);
+        // "with a window w (1D grids)"
+        if (layer.window !== undefined && (src.dims.length !== 1 || !Number.isInteger(layer.window) || layer.window < 0)) {
+          throw new Error(`attention ${li}: window ${layer.window} on grid [${src.dims.join(',')}]`);
+        }
+        headDim[li] = a;
+        out = src;
         break;
       }
       case 'pointwise':
@@ -288,5 +328,5 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
   }
   let index = 0;
   for (let a = 0; a < last.dims.length; a++) index = index * (last.dims[a] as number) + (position[a] as number);
-  return { m, input, grids, groups, reading, mixes, square, ignored, output: { position, index, defaulted } };
+  return { m, vocabulary, input, grids, groups, headDim, reading, mixes, square, ignored, output: { position, index, defaulted } };
 }
