@@ -73,11 +73,12 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
     const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
     const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side) : null;
-    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    const tokens = model.input.vocabulary === undefined ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
-      const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
-      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
+      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : best === deg?.log2 ? 'degree' : 'token count';
+      const counts = method === 'min-cut' ? cut.counts : method === 'rank propagation' ? prop!.counts : method === 'degree' ? deg!.counts : new Map();
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
       return finish(p.label, { upper, lower: bestLower(p) });
     }
@@ -87,6 +88,16 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
     ];
     if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
+    // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
+    // columns, whatever the network does with them (reuse included).
+    const vocabulary = model.input.vocabulary;
+    if (vocabulary !== undefined) {
+      const k = Math.min(...sideSizes(p.side));
+      candidates.push({
+        log2: k * Math.log2(vocabulary),
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: 'token count', cut: [{ layer: 'input', line: model.input.span.line, dim: vocabulary, count: k }] }),
+      });
+    }
     if (prop) {
       candidates.push({
         log2: prop.log2,
@@ -341,6 +352,13 @@ function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOn
   const last = shapes.layers[shapes.layers.length - 1]!.shape;
   if (recurrent.sequence && shapes.output.position[0] !== last[0]! - 1) return undefined;
   return { layer: recurrent, m };
+}
+
+/** Positions on side A and on side B. */
+function sideSizes(side: Uint8Array): [number, number] {
+  let a = 0;
+  for (const x of side) a += x;
+  return [a, side.length - a];
 }
 
 function sameMask(a: Uint8Array, b: Uint8Array): boolean {

@@ -94,7 +94,10 @@ function bypass(model: LayeredModel, drop: (l: Layer) => boolean): Reduction {
     newIndex.set(l.index, kept.length);
     kept.push(l);
   }
-  const renumber = (i: number): number => (i === INPUT ? INPUT : newIndex.get(resolve(i))!);
+  const renumber = (i: number): number => {
+    const r = resolve(i);
+    return r === INPUT ? INPUT : newIndex.get(r)!;
+  };
   return {
     model: { ...model, layers: kept.map((l, k) => ({ ...l, index: k, inputs: l.inputs.map(renumber) })) },
     from: kept.map((l) => l.index),
@@ -161,7 +164,10 @@ function keepOneInput(model: LayeredModel, pick: 'first' | 'last'): Reduction | 
   const kept: Layer[] = order.map((l, k) => ({
     ...l,
     index: k,
-    inputs: l.inputs.map((j) => (j === INPUT ? INPUT : newIndex.get(resolve(j))!)),
+    inputs: l.inputs.map((j) => {
+      const r = resolve(j);
+      return r === INPUT ? INPUT : newIndex.get(r)!;
+    }),
   }));
   if (kept.length === 0) return undefined;
   return { model: { ...model, layers: kept }, from: order.map((l) => l.index) };

@@ -55,28 +55,9 @@ const hasKind = (c: LayeredCase | ExplicitCase, kind: string): boolean => c.mode
 
 /**
  * Reported product bugs awaiting a fix: their failures are counted and printed instead of failed
- * on, each with a regression test marked `it.fails` below.
+ * on, each with a regression test marked `it.fails` below (none open today).
  */
-const KNOWN: readonly KnownBug[] = [
-  {
-    // The lower-bound special cases remove layers (position layers; merges, by keeping one input)
-    // and point their readers at what they read; when that is the model input the readers get an
-    // undefined input and computeBounds throws a TypeError. Any residual block straight on the
-    // input (identity shortcut) followed by a layer, and any position layer on the input.
-    id: 'special cases: a removed layer that reads the model input leaves its readers without one',
-    matches: (_c, f) => f.includes('computeBounds threw: Cannot read properties of undefined'),
-  },
-  {
-    // The depth-1 and depth-2 recurrent lower-bound rules ignore the analysed output position of
-    // a recurrent layer with per-step outputs: they claim the final state's rank for an output
-    // that reads only the steps up to it (lower > upper: computeBounds throws).
-    id: 'recurrent lower-bound rules ignore the output step',
-    matches: (c, f) =>
-      c.model.kind === 'layered' &&
-      c.model.layers.some((l) => l.kind === 'recurrent' && l.sequence) &&
-      /unsound bounds for .*\((shallow recurrent span|published depth-2 recurrent)\)/.test(f),
-  },
-];
+const KNOWN: readonly KnownBug[] = [];
 
 function layeredFamily(family: string, masterSeed: number, models: number, gen: (rng: Rng) => LayeredCase, opts: { cap?: number; adaptive?: boolean; minCases?: number } = {}): void {
   it(family, () => {
@@ -149,8 +130,8 @@ describe('regressions found by the oracle', () => {
   });
 });
 
-describe('reported product bugs (expected to fail until fixed)', () => {
-  it.fails('a position layer on the input: bounds are computed (found by attention-masked seed=1827946081, sequence-recurrent seed=173227601)', () => {
+describe('regressions found by the oracle: sequences and blocks', () => {
+  it('a position layer on the input: bounds are computed (found by attention-masked seed=1827946081, sequence-recurrent seed=173227601)', () => {
     // v_t + p_t then one attention layer, D = 2, N = 2: the oracle reads rank 3 across start-end.
     const m = layered([2], 2, true, [positions(), attention(1)]);
     const p = partition('start-end', [2]);
@@ -159,7 +140,7 @@ describe('reported product bugs (expected to fail until fixed)', () => {
     expect(out.ok && out.result.partitions[0]!.upper.rank >= 3n).toBe(true);
   });
 
-  it.fails('a residual block on the input, then a layer: bounds are computed (found by attention seed=2423252975)', () => {
+  it('a residual block on the input, then a layer: bounds are computed (found by attention seed=2423252975)', () => {
     // Not specific to attention: a conv residual block with an identity shortcut on the model
     // input followed by any layer throws the same way.
     for (const m of [layered([3], 2, true, [residual([conv(2, { kernel: [3] })]), conv(2)]), layered([3], 2, true, [residual([attention(1)]), attention(1)])]) {
@@ -169,7 +150,7 @@ describe('reported product bugs (expected to fail until fixed)', () => {
     }
   });
 
-  it.fails('per-step recurrent output at step 0: no lower bound above rank 1 (found by sequence-recurrent seed=2289730521)', () => {
+  it('per-step recurrent output at step 0: no lower bound above rank 1 (found by sequence-recurrent seed=2289730521)', () => {
     // Output 0 of a depth-1 recurrent layer reads x_0 alone: rank 1 across every partition
     // (the oracle reads 1); the engine applies the final-state rule and claims 2 (it throws).
     const m = layered([2], 3, true, [recurrent(2, 1, { sequence: true })], { output: [0] });
@@ -179,7 +160,7 @@ describe('reported product bugs (expected to fail until fixed)', () => {
     expect(out.ok && (out.result.partitions[0]!.lower?.rank ?? 0n) <= 1n).toBe(true);
   });
 
-  it.fails('per-step depth-2 recurrent output: the published rule is not applied past the output (found by sequence-recurrent)', () => {
+  it('per-step depth-2 recurrent output: the published rule is not applied past the output (found by sequence-recurrent)', () => {
     // Output 1 of a depth-2 recurrent layer over 6 steps: positions 2..5 are never read, so every
     // partition whose side A lies among them has rank 1; the engine claims 4 for start-end.
     const m = layered([6], 2, true, [recurrent(2, 2, { sequence: true })], { output: [1] });
