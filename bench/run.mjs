@@ -79,6 +79,31 @@ const rac = `model:
 const r = time('depth-3 recurrent net, 4096 steps, start-end + interleaved', () => analyse(rac, 'tree'), 3);
 for (const p of r.partitions) console.log(`    ${p.partition.padEnd(14)} upper ${p.upper.log2.toFixed(1)} bits (${p.upper.method}), ${p.status}`);
 
+// Sequence models (issue 9's targets): a 12-block transformer over 1,024 tokens and a 2-layer
+// bidirectional LSTM over 4,096 steps, every default partition.
+const transformer = `model:
+  input: {shape: [1024], vocabulary: 32000}
+  layers:
+    - token_embedding: {dim: 768}
+    - position: {mode: learned}
+    - repeat:
+        times: 12
+        layers:
+          - transformer_block: {width: 768, n_head: 12, d_ff: 3072, norm: pre}
+    - layer_norm
+    - dense: {units: 32000}
+`;
+const t12 = time('12-block transformer, 1,024 tokens, all partitions (tree)', () => analyse(transformer, 'tree'), 3);
+for (const p of t12.partitions) console.log(`    ${p.partition.padEnd(14)} upper ${p.upper.log2.toFixed(1)} bits (${p.upper.method}), ${p.status}`);
+const bilstm = `model:
+  input: {shape: [4096], channels: 40, representation: 40}
+  layers:
+    - lstm: {hidden_size: 256, num_layers: 2, bidirectional: true, sequence: false}
+    - dense: {units: 10}
+`;
+const bl = time('2-layer bidirectional LSTM, 4,096 steps, all partitions (tree)', () => analyse(bilstm, 'tree'), 3);
+for (const p of bl.partitions) console.log(`    ${p.partition.padEnd(14)} upper ${p.upper.log2.toFixed(1)} bits (${p.upper.method}), ${p.status}`);
+
 // 1,000 small configs of mixed families, generated deterministically.
 let seed = 12345;
 const rand = (n) => {

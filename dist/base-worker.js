@@ -7385,11 +7385,14 @@ function layerWidth(layer) {
       return layer.units;
     case "recurrent":
       return layer.hidden;
+    case "embedding":
+      return layer.dim;
     default:
       return void 0;
   }
 }
-var PASS_THROUGH = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten"]);
+var WEIGHTED_KINDS = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent", "embedding", "attention"]);
+var PASS_THROUGH = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten", "position", "class-token"]);
 function firstMaps(model) {
   const reached = /* @__PURE__ */ new Set([INPUT]);
   const maps = [];
@@ -7401,6 +7404,7 @@ function firstMaps(model) {
   return maps;
 }
 function representationOf(model) {
+  if (model.input.vocabulary !== void 0) return model.input.vocabulary;
   if (model.input.representation !== void 0) return model.input.representation;
   let best;
   for (const layer of firstMaps(model)) {
@@ -7737,7 +7741,7 @@ function linearSources(j, n, f2) {
 
 // src/config/model-shapes.ts
 var MAX_WIDTH = 2 ** 31 - 1;
-function inferShapes(model) {
+function inferShapes(model, adjust2) {
   const diagnostics = [];
   const fail = (span, code, message) => {
     diagnostics.push({ code, message, file: model.file, span, severity: "error" });
@@ -7754,16 +7758,21 @@ function inferShapes(model) {
   const out = [];
   const groups = [];
   const denseReading = [];
+  const headDims = [];
   const rawInput = /* @__PURE__ */ new Set([INPUT]);
   const inShape = (i) => i === INPUT ? { shape: model.input.shape, width: m } : out[i];
-  for (const layer of model.layers) {
-    const where2 = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
-    const ins = layer.inputs.map(inShape);
+  for (const written of model.layers) {
+    const ins = written.inputs.map(inShape);
     const first = ins[0];
+    const adjusted = adjust2 ? adjust2(written, first) : written;
+    if ("code" in adjusted) return fail(adjusted.span, adjusted.code, adjusted.message);
+    const layer = adjusted;
+    const where2 = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
     const dims = first.shape.length;
     let result;
     groups.push(1);
     denseReading.push(void 0);
+    headDims.push(0);
     switch (layer.kind) {
       case "conv": {
         const axes = perAxis(layer, first.shape);
@@ -7818,12 +7827,35 @@ function inferShapes(model) {
       case "upsample":
         result = { shape: first.shape.map((n, a) => n * layer.factor[a]), width: first.width };
         break;
-      case "recurrent":
+      case "recurrent": {
         if (dims !== 1) {
           return fail(layer.span, "config/recurrent-needs-1d", `${where2}: a recurrent layer needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
         }
-        result = { shape: [1], width: layer.hidden };
+        const width = layer.bidirectional && layer.merge === "concat" ? 2 * layer.hidden : layer.hidden;
+        result = { shape: layer.sequence ? first.shape : [1], width };
         break;
+      }
+      case "embedding":
+        result = { shape: first.shape, width: layer.dim };
+        break;
+      case "position":
+        result = first;
+        break;
+      case "class-token":
+        result = { shape: [positionCount(first.shape) + 1], width: first.width };
+        break;
+      case "attention": {
+        const a = layer.headDim ?? first.width / layer.heads;
+        if (!Number.isInteger(a) || a < 1) {
+          return fail(layer.fieldSpans["heads"] ?? layer.span, "config/attention-heads", `${where2}: ${layer.heads} heads do not divide the width ${first.width}; give head_dim`);
+        }
+        if (layer.window !== void 0 && dims !== 1) {
+          return fail(layer.fieldSpans["window"] ?? layer.span, "config/attention-window", `${where2}: a local window needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
+        }
+        headDims[layer.index] = a;
+        result = first;
+        break;
+      }
       case "pointwise":
         result = first;
         if (layer.inputs.every((i) => rawInput.has(i))) rawInput.add(layer.index);
@@ -7850,9 +7882,9 @@ function inferShapes(model) {
     out.push(result);
   }
   const last = out[out.length - 1];
-  const output = outputPosition(model, last.shape);
+  const output = outputPosition(model, last.shape, out, denseReading);
   if (typeof output === "string") return fail(model.output.span ?? model.span, "config/output-position", output);
-  return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, output } };
+  return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, headDims, output } };
 }
 function perAxis(layer, shape) {
   const res = [];
@@ -7879,7 +7911,7 @@ function describeInputs(model, layer) {
   const names = layer.inputs.map((i) => i === INPUT ? "the input" : `layer ${layerLabel(model.layers[i])} (line ${model.layers[i].span.line})`);
   return ` (from ${names.join(" and ")})`;
 }
-function outputPosition(model, shape) {
+function outputPosition(model, shape, shapes, reading) {
   const given = model.output.position;
   if (given) {
     if (given.length !== shape.length) {
@@ -7889,21 +7921,61 @@ function outputPosition(model, shape) {
     if (outside >= 0) return `output.position [${given.join(", ")}] is outside the last layer's grid [${shape.join(", ")}]`;
     return { position: given, defaulted: false };
   }
-  const convs = model.layers.filter((l) => l.kind === "conv");
-  const causal = shape.length === 1 && convs.length > 0 && convs.every((l) => l.kind === "conv" && l.padding.mode === "causal");
-  const position = shape.map((n) => causal ? n - 1 : Math.floor(n / 2));
-  return { position, defaulted: positionCount(shape) > 1 };
+  const single = positionCount(shape) === 1;
+  if (single) return { position: shape.map(() => 0), defaulted: false };
+  if (shape.length === 1 && isCausal(model, shapes, reading)) return { position: [shape[0] - 1], defaulted: true };
+  if (shape.length === 1 && model.layers.some((l) => l.kind === "class-token")) return { position: [0], defaulted: true };
+  return { position: shape.map((n) => Math.floor(n / 2)), defaulted: true };
+}
+function isCausal(model, shapes, reading) {
+  let mixing = 0;
+  for (const l of model.layers) {
+    let causal;
+    switch (l.kind) {
+      case "conv":
+        if (l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1)) continue;
+        causal = l.padding.mode === "causal";
+        break;
+      case "pool":
+        if (!l.global && l.window.every((w) => w === 1) && l.stride.every((s) => s === 1)) continue;
+        causal = false;
+        break;
+      case "recurrent":
+        causal = !l.bidirectional;
+        break;
+      case "attention":
+        causal = l.causal;
+        break;
+      case "dense":
+        if (reading[l.index] !== "input") continue;
+        causal = false;
+        break;
+      case "conv-transpose":
+      case "upsample":
+      case "class-token":
+        causal = false;
+        break;
+      case "flatten":
+        if (positionCount(l.inputs[0] === INPUT ? model.input.shape : shapes[l.inputs[0]].shape) === 1) continue;
+        causal = false;
+        break;
+      default:
+        continue;
+    }
+    if (!causal) return false;
+    mixing++;
+  }
+  return mixing > 0;
 }
 
 // src/network/square-rule.ts
-var WEIGHTED = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent"]);
 function readPointwise(model, shapes) {
   const layers = model.layers;
   const reachesWeighted = new Uint8Array(layers.length);
   for (let i = layers.length - 1; i >= 0; i--) {
     for (const j of layers[i].inputs) {
       if (j === INPUT) continue;
-      if (WEIGHTED.has(layers[i].kind) || reachesWeighted[i]) reachesWeighted[j] = 1;
+      if (WEIGHTED_KINDS.has(layers[i].kind) || reachesWeighted[i]) reachesWeighted[j] = 1;
     }
   }
   const nearest = (i) => {
@@ -8051,7 +8123,21 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
       return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
     case "recurrent":
-      return recurrent(b, materialise(b, first, tag), layer.hidden, layer.depth, tag);
+      return recurrent(b, materialise(b, first, tag), layer, tag);
+    case "embedding": {
+      const g = materialise(b, first, tag);
+      return { shape: out.shape, nodes: g.nodes.map((v) => linearOf(b, layer.dim, tag, v)), dim: layer.dim, flat: false };
+    }
+    case "position": {
+      const g = materialise(b, first, tag);
+      return { ...g, nodes: g.nodes.map((v) => sumOf(b, g.dim, tag, [v, b.add(OP_CONST, g.dim, tag, [])])) };
+    }
+    case "class-token": {
+      const g = materialise(b, first, tag);
+      return { shape: out.shape, nodes: [b.add(OP_CONST, g.dim, tag, []), ...g.nodes], dim: g.dim, flat: false };
+    }
+    case "attention":
+      return attention(b, materialise(b, first, tag), layer, shapes.headDims[layer.index], tag);
     case "pool":
       return pool(b, materialise(b, first, tag), layer, out.shape, tag);
     case "upsample":
@@ -8062,18 +8148,63 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
       return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
 }
-function recurrent(b, g, hidden, depth, tag) {
-  let below = g.nodes;
-  for (let l = 0; l < depth; l++) {
-    let prev = b.add(OP_CONST, hidden, tag, []);
-    const states = [];
-    for (const x of below) {
-      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
-      states.push(prev);
+function recurrent(b, g, layer, tag) {
+  const R = layer.hidden;
+  const chain = (inputs, backward2) => {
+    const states = new Array(inputs.length);
+    let prev = b.add(OP_CONST, R, tag, []);
+    for (let k = 0; k < inputs.length; k++) {
+      const t = backward2 ? inputs.length - 1 - k : k;
+      prev = productOf(b, R, tag, [linearOf(b, R, tag, prev), linearOf(b, R, tag, inputs[t])]);
+      states[t] = prev;
     }
-    below = states;
+    return states;
+  };
+  const width = layer.bidirectional && layer.merge === "concat" ? 2 * R : R;
+  const join = (f2, bw) => sumOf(b, width, tag, [f2, bw]);
+  let below = g.nodes;
+  let forward = [];
+  let backward = [];
+  for (let l = 0; l < layer.depth; l++) {
+    forward = chain(below, false);
+    if (layer.bidirectional) {
+      backward = chain(below, true);
+      below = forward.map((f2, t) => join(f2, backward[t]));
+    } else below = forward;
   }
-  return { shape: [1], nodes: [below[below.length - 1]], dim: hidden, flat: false };
+  if (layer.sequence) return { shape: g.shape, nodes: below, dim: width, flat: false };
+  const last = layer.bidirectional ? join(forward[forward.length - 1], backward[0]) : forward[forward.length - 1];
+  return { shape: [1], nodes: [last], dim: width, flat: false };
+}
+function attention(b, g, layer, a, tag) {
+  const D = g.dim;
+  const n = g.nodes.length;
+  const window = layer.window;
+  const attends = (i, j) => (!layer.causal || j <= i) && (window === void 0 || Math.abs(i - j) <= window);
+  const heads = [];
+  for (let h = 0; h < layer.heads; h++) {
+    const kv = g.nodes.map(
+      (v) => productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), linearOf(b, a * a, tag, linearOf(b, a, tag, v))])
+    );
+    const sums = new Array(n);
+    if (window === void 0 && !layer.causal) {
+      const all = sumOf(b, a * a, tag, kv);
+      sums.fill(all);
+    } else if (window === void 0) {
+      let prefix = ZERO;
+      for (let i = 0; i < n; i++) sums[i] = prefix = sumOf(b, a * a, tag, [prefix, kv[i]]);
+    } else {
+      for (let i = 0; i < n; i++) {
+        const from = Math.max(0, i - window);
+        const to = layer.causal ? i : Math.min(n - 1, i + window);
+        const terms = [];
+        for (let j = from; j <= to; j++) if (attends(i, j)) terms.push(kv[j]);
+        sums[i] = sumOf(b, a * a, tag, terms);
+      }
+    }
+    heads.push(g.nodes.map((v, i) => linearOf(b, D, tag, productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), sums[i]]))));
+  }
+  return { shape: g.shape, nodes: g.nodes.map((_, i) => sumOf(b, D, tag, heads.map((hs) => hs[i]))), dim: D, flat: false };
 }
 function eachOutput(inShape, outShape, axisList, visit3) {
   const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
@@ -8194,12 +8325,25 @@ var Notes = class {
   constructor(model, shapes, pointwise, surrogate) {
     const where2 = (l) => `${l.kind === "pointwise" ? l.op : `layer ${layerLabel(l)}`} (line ${l.span.line})`;
     const input = model.input;
-    if (input.representation === void 0) {
+    if (input.representation === void 0 && input.vocabulary === void 0) {
       const from = firstMaps(model).find((l) => layerWidth(l) === shapes.representation);
       const which = from ? `layer ${layerLabel(from)} (line ${from.span.line})` : "the first layer";
       this.out.push(
         `M = ${shapes.representation} representation functions per input position: the width of ${which}, the first layer that maps the input; set input.representation to choose M`
       );
+    }
+    if (input.vocabulary !== void 0) {
+      this.out.push(`token input: each position holds one of ${input.vocabulary} tokens, read as its indicator vector, so M = ${input.vocabulary}`);
+    }
+    const gated = [...new Set(model.layers.flatMap((l) => l.kind === "recurrent" && l.cell !== "arithmetic" ? [l.cell] : []))].sort();
+    if (gated.length > 0) {
+      this.out.push(`${gated.join(" and ")} layers are read as recurrent arithmetic circuits of the same width and depth (multiplicative integration): their gates are not modelled`);
+    }
+    if (model.layers.some((l) => l.kind === "attention")) {
+      this.out.push("attention is read as linearised self-attention (softmax and normalisation removed): each layer is a polynomial of degree 3 in its input");
+    }
+    if (model.layers.some((l) => l.kind === "position" && l.mode === "fixed")) {
+      this.out.push("fixed position encodings are read as learned position vectors: no lower bound is claimed through them");
     }
     if (input.featuresAsChannels) {
       const line = input.fieldSpans["channels"]?.line ?? input.span.line;
@@ -8229,7 +8373,8 @@ var Notes = class {
       const reading = shapes.denseReading[l.index];
       const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]].shape;
       if (reading === "per-position") {
-        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution; put flatten before it to read them all at once`);
+        const advice2 = before.length === 2 ? "; put flatten before it to read them all at once" : "";
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) acts on each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution${advice2}`);
       } else if (reading === "input") {
         this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads all ${positionCount(before)} input positions at once (a fully connected layer on the raw input)`);
       }
@@ -9045,6 +9190,7 @@ function big(x) {
 }
 var EXACT = {
   one: 1,
+  zero: 0,
   ones: (n) => new Array(n).fill(1),
   of: (n) => n,
   mul: (a, b) => {
@@ -9072,10 +9218,11 @@ var EXACT = {
 };
 var LOG = {
   one: 0,
+  zero: -Infinity,
   ones: (n) => new Float64Array(n),
   of: (n) => Math.log2(n),
   mul: (a, b) => a + b,
-  add: (a, b) => Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
+  add: (a, b) => a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
   le: (a, b) => a <= b,
   symPow: (x, a) => {
     let r = 0;
@@ -9089,6 +9236,7 @@ var FROM_DIM_KAPPA = 2;
 var FROM_PURE = 3;
 var FROM_SIDE_A = 4;
 var FROM_SIDE_B = 5;
+var FROM_PURE_FACTOR = 6;
 var MAX_BITS = 4e6;
 function rankPropagation(c, side) {
   const plan = planOf(c);
@@ -9100,7 +9248,14 @@ function rankPropagation(c, side) {
     if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]);
     return big(propagate(c, plan, side, EXACT).lam[c.top]);
   };
-  return { log2: logs.lam[c.top], rank, counts: recordWidths(c, plan, logs) };
+  let counts;
+  return {
+    log2: logs.lam[c.top],
+    rank,
+    get counts() {
+      return counts ??= recordWidths(c, plan, logs);
+    }
+  };
 }
 function propagateFloat(c, plan, side, log) {
   const n = c.size;
@@ -9115,6 +9270,10 @@ function propagateFloat(c, plan, side, log) {
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const lamNoA = new Float64Array(n).fill(one);
+  const lamNoB = new Float64Array(n).fill(one);
+  const pureParts = new Uint8Array(n);
+  const zero = log ? -Infinity : 0;
   const of = (x) => log ? Math.log2(x) : x;
   const mul = (x, y) => log ? x + y : x * y;
   const add = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
@@ -9151,12 +9310,17 @@ function propagateFloat(c, plan, side, log) {
     let k;
     let l;
     let lWhy = FROM_CHILDREN;
+    let noA;
+    let noB;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]];
       a = ra[ch];
       b = rb[ch];
       l = lam[ch];
       k = l;
+      noA = lamNoA[ch];
+      noB = lamNoB[ch];
+      pureParts[v] = pureParts[ch];
     } else if (kind === OP_PRODUCT) {
       a = one;
       b = one;
@@ -9170,8 +9334,22 @@ function propagateFloat(c, plan, side, log) {
       }
       l = mul(D, k);
       lWhy = FROM_DIM_KAPPA;
+      const pf = pureFactor(start, childOf, times, dep, v);
+      if (pf) {
+        const onA = dep[pf.pure] === 1;
+        const span = onA ? rb[pf.pure] : ra[pf.pure];
+        const alt = add(pureParts[pf.other] & (onA ? 1 : 2) ? one : zero, mul(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
+        if (alt < l) {
+          l = alt;
+          lWhy = FROM_PURE_FACTOR;
+        }
+      }
+      noA = l;
+      noB = l;
     } else {
-      [a, b, l] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      let parts;
+      [a, b, l, noA, noB, parts] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      pureParts[v] = parts;
       k = l;
     }
     whyA[v] = FROM_CHILDREN;
@@ -9196,8 +9374,19 @@ function propagateFloat(c, plan, side, log) {
     rb[v] = b;
     lam[v] = l;
     kap[v] = Math.min(k, l);
+    lamNoA[v] = Math.min(noA, l);
+    lamNoB[v] = Math.min(noB, l);
   }
   return { dep, ra, rb, lam, whyA, whyB, whyL };
+}
+function pureFactor(start, childOf, times, dep, v) {
+  if (start[v + 1] - start[v] !== 2) return void 0;
+  const [x, y] = [childOf[start[v]], childOf[start[v] + 1]];
+  if (times[start[v]] !== 1 || times[start[v] + 1] !== 1) return void 0;
+  const [dx, dy] = [dep[x], dep[y]];
+  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
+  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
+  return void 0;
 }
 var PlainSum = class {
   value = 0;
@@ -9209,13 +9398,15 @@ var Log2Sum = class {
   m = -Infinity;
   s = 0;
   add(x) {
+    if (x === -Infinity) return;
     if (x > this.m) {
-      this.s = this.s * 2 ** (this.m - x) + 1;
+      this.s = this.m === -Infinity ? 1 : this.s * 2 ** (this.m - x) + 1;
       this.m = x;
     } else this.s += 2 ** (x - this.m);
   }
+  /** log2 of the sum; −∞ for an empty sum (zero). */
   get value() {
-    return this.m === -Infinity ? 0 : this.m + Math.log2(this.s);
+    return this.m === -Infinity ? -Infinity : this.m + Math.log2(this.s);
   }
 };
 function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
@@ -9244,7 +9435,15 @@ function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
       l.add(termL(t));
     }
   }
-  if (constant && !pureA && !pureB) {
+  const mixed = l.value;
+  const loneConstant = constant && !pureA && !pureB;
+  const noA = sum();
+  noA.add(mixed);
+  const noB = sum();
+  noB.add(mixed);
+  if (pureB || loneConstant) noA.add(one);
+  if (pureA || loneConstant) noB.add(one);
+  if (loneConstant) {
     a.add(one);
     b.add(one);
     l.add(one);
@@ -9259,7 +9458,7 @@ function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
     b.add(one);
     l.add(one);
   }
-  return [a.value, b.value, l.value];
+  return [a.value, b.value, l.value, noA.value, noB.value, (pureA ? 1 : 0) | (pureB ? 2 : 0)];
 }
 var plans2 = /* @__PURE__ */ new WeakMap();
 function planOf(c) {
@@ -9323,6 +9522,9 @@ function propagate(c, plan, side, ar) {
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const lamNoA = ar.ones(n);
+  const lamNoB = ar.ones(n);
+  const pureParts = new Uint8Array(n);
   const min = (a, b) => ar.le(a, b) ? a : b;
   for (let v = 0; v < n; v++) {
     const kind = op[v];
@@ -9349,12 +9551,17 @@ function propagate(c, plan, side, ar) {
     let k;
     let l;
     let lWhy = FROM_CHILDREN;
+    let noA;
+    let noB;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]];
       a = ra[ch];
       b = rb[ch];
       l = lam[ch];
       k = l;
+      noA = lamNoA[ch];
+      noB = lamNoB[ch];
+      pureParts[v] = pureParts[ch];
     } else if (kind === OP_PRODUCT) {
       a = ar.one;
       b = ar.one;
@@ -9368,8 +9575,22 @@ function propagate(c, plan, side, ar) {
       }
       l = ar.mul(D, k);
       lWhy = FROM_DIM_KAPPA;
+      const pf = pureFactor(start, childOf, times, dep, v);
+      if (pf) {
+        const onA = dep[pf.pure] === 1;
+        const span = onA ? rb[pf.pure] : ra[pf.pure];
+        const alt = ar.add(pureParts[pf.other] & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
+        if (!ar.le(l, alt)) {
+          l = alt;
+          lWhy = FROM_PURE_FACTOR;
+        }
+      }
+      noA = l;
+      noB = l;
     } else if (kind === OP_SUM) {
-      ({ a, b, l } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      let parts;
+      ({ a, b, l, noA, noB, parts } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      pureParts[v] = parts;
       k = l;
     } else {
       throw new Error(`rank propagation: unknown node kind ${kind}`);
@@ -9396,6 +9617,8 @@ function propagate(c, plan, side, ar) {
     rb[v] = b;
     lam[v] = l;
     kap[v] = min(k, l);
+    lamNoA[v] = min(noA, l);
+    lamNoB[v] = min(noB, l);
   }
   return { dep, ra, rb, lam, whyA, whyB, whyL };
 }
@@ -9409,46 +9632,48 @@ function termRank(plan, t, r, ar) {
 }
 function sumRule(plan, v, D, dep, ra, rb, lam, ar) {
   const min = (x, y) => ar.le(x, y) ? x : y;
-  let a;
-  let b;
-  let l;
-  const plus = (x, y) => x === void 0 ? y : ar.add(x, y);
+  let a = ar.zero;
+  let b = ar.zero;
+  let l = ar.zero;
   let pureA = false;
   let pureB = false;
   let constant = false;
-  let pureAonB;
-  let pureBonA;
+  let pureAonB = ar.zero;
+  let pureBonA = ar.zero;
   for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
     const d = dep[plan.childOf[t]];
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB = plus(pureAonB, termRank(plan, t, rb, ar));
+      pureAonB = ar.add(pureAonB, termRank(plan, t, rb, ar));
     } else if (d === 2) {
       pureB = true;
-      pureBonA = plus(pureBonA, termRank(plan, t, ra, ar));
+      pureBonA = ar.add(pureBonA, termRank(plan, t, ra, ar));
     } else {
-      a = plus(a, termRank(plan, t, ra, ar));
-      b = plus(b, termRank(plan, t, rb, ar));
-      l = plus(l, termRank(plan, t, lam, ar));
+      a = ar.add(a, termRank(plan, t, ra, ar));
+      b = ar.add(b, termRank(plan, t, rb, ar));
+      l = ar.add(l, termRank(plan, t, lam, ar));
     }
   }
-  if (constant && !pureA && !pureB) {
-    a = plus(a, ar.one);
-    b = plus(b, ar.one);
-    l = plus(l, ar.one);
+  const loneConstant = constant && !pureA && !pureB;
+  const noA = pureB || loneConstant ? ar.add(l, ar.one) : l;
+  const noB = pureA || loneConstant ? ar.add(l, ar.one) : l;
+  if (loneConstant) {
+    a = ar.add(a, ar.one);
+    b = ar.add(b, ar.one);
+    l = ar.add(l, ar.one);
   }
   if (pureA) {
-    a = plus(a, ar.one);
-    b = plus(b, min(D, pureAonB));
-    l = plus(l, ar.one);
+    a = ar.add(a, ar.one);
+    b = ar.add(b, min(D, pureAonB));
+    l = ar.add(l, ar.one);
   }
   if (pureB) {
-    a = plus(a, min(D, pureBonA));
-    b = plus(b, ar.one);
-    l = plus(l, ar.one);
+    a = ar.add(a, min(D, pureBonA));
+    b = ar.add(b, ar.one);
+    l = ar.add(l, ar.one);
   }
-  return { a: a ?? ar.one, b: b ?? ar.one, l: l ?? ar.one };
+  return { a, b, l, noA, noB, parts: (pureA ? 1 : 0) | (pureB ? 2 : 0) };
 }
 function recordWidths(c, plan, p) {
   const { dep, whyA, whyB, whyL } = p;
@@ -9482,6 +9707,12 @@ function recordWidths(c, plan, p) {
       stack.push([v, why === FROM_SIDE_A ? A2 : B2]);
       continue;
     }
+    if (why === FROM_PURE_FACTOR) {
+      const pf = pureFactor(plan.start, plan.childOf, plan.times, dep, v);
+      note(pf.pure);
+      stack.push([pf.other, L]);
+      continue;
+    }
     if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {
       note(v);
       stack.push([v, why === FROM_DIM_KAPPA ? K : which === A2 ? B2 : A2]);
@@ -9506,7 +9737,6 @@ function recordWidths(c, plan, p) {
 }
 
 // src/cut/special-cases.ts
-var WEIGHTED2 = /* @__PURE__ */ new Set(["conv", "conv-transpose", "dense", "recurrent"]);
 var ZERO_PRESERVING = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten"]);
 function specialCases(model, surrogate, shapes, reading) {
   let under = surrogate;
@@ -9516,18 +9746,58 @@ function specialCases(model, surrogate, shapes, reading) {
     under = "tree";
     steps.push("off-centre taps zeroed");
   }
+  if (model.layers.some((l) => l.kind === "position" && l.mode === "fixed")) return [];
   const pinned = {
     ...model,
     input: { ...model.input, representation: shapes.representation },
     output: { ...model.output, position: shapes.output.position }
   };
-  if (!model.layers.some((l) => l.kind === "merge")) return [{ model: pinned, surrogate: under, how: steps.join(", ") }];
+  const base = bypass(pinned, (l) => l.kind === "position");
+  const verified = (r) => r ? readSame(r, shapes, reading) : void 0;
+  if (!model.layers.some((l) => l.kind === "merge")) {
+    const only = verified(base);
+    return only ? [{ model: only, surrogate: under, how: steps.join(", ") }] : [];
+  }
   const cases = [];
   for (const pick of ["first", "last"]) {
-    const reduced = keepOneInput(pinned, pick, reading, shapes);
-    if (reduced) cases.push({ model: reduced, surrogate: under, how: [...steps, `merges keep their ${pick} input where the others can be zeroed`].join(", ") });
+    const reduced = keepOneInput(base.model, pick);
+    const found = verified(reduced && { model: reduced.model, from: reduced.from.map((k) => base.from[k]) });
+    if (found) cases.push({ model: found, surrogate: under, how: [...steps, `merges keep their ${pick} input where the others can be zeroed`].join(", ") });
   }
   return cases;
+}
+function readSame(r, shapes, reading) {
+  const shaped = inferShapes(r.model);
+  if (!shaped.ok) return void 0;
+  const again = readPointwise(r.model, shaped.shapes);
+  for (let k = 0; k < r.from.length; k++) {
+    const i = r.from[k];
+    if (reading.squared.has(i) !== again.squared.has(k) || reading.ignored.has(i) !== again.ignored.has(k)) return void 0;
+    if (shapes.denseReading[i] !== shaped.shapes.denseReading[k]) return void 0;
+  }
+  return r.model;
+}
+function bypass(model, drop) {
+  const through = /* @__PURE__ */ new Map();
+  const resolve = (i) => i === INPUT ? INPUT : through.get(i) ?? i;
+  const kept = [];
+  const newIndex = /* @__PURE__ */ new Map();
+  for (const l of model.layers) {
+    if (drop(l)) {
+      through.set(l.index, resolve(l.inputs[0]));
+      continue;
+    }
+    newIndex.set(l.index, kept.length);
+    kept.push(l);
+  }
+  const renumber = (i) => {
+    const r = resolve(i);
+    return r === INPUT ? INPUT : newIndex.get(r);
+  };
+  return {
+    model: { ...model, layers: kept.map((l, k) => ({ ...l, index: k, inputs: l.inputs.map(renumber) })) },
+    from: kept.map((l) => l.index)
+  };
 }
 function treeIsSpecialCase(model, shapes) {
   for (const l of model.layers) {
@@ -9553,7 +9823,7 @@ function treeIsSpecialCase(model, shapes) {
   }
   return true;
 }
-function keepOneInput(model, pick, reading, shapes) {
+function keepOneInput(model, pick) {
   const layers = model.layers;
   const consumers = layers.map(() => []);
   for (const l of layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
@@ -9582,18 +9852,13 @@ function keepOneInput(model, pick, reading, shapes) {
   const kept = order.map((l, k) => ({
     ...l,
     index: k,
-    inputs: l.inputs.map((j) => j === INPUT ? INPUT : newIndex.get(resolve(j)))
+    inputs: l.inputs.map((j) => {
+      const r = resolve(j);
+      return r === INPUT ? INPUT : newIndex.get(r);
+    })
   }));
-  const reduced = { ...model, layers: kept };
-  const shaped = inferShapes(reduced);
-  if (!shaped.ok) return void 0;
-  const again = readPointwise(reduced, shaped.shapes);
-  for (const l of order) {
-    const k = newIndex.get(l.index);
-    if (reading.squared.has(l.index) !== again.squared.has(k) || reading.ignored.has(l.index) !== again.ignored.has(k)) return void 0;
-    if (shapes.denseReading[l.index] !== shaped.shapes.denseReading[k]) return void 0;
-  }
-  return reduced;
+  if (kept.length === 0) return void 0;
+  return { model: { ...model, layers: kept }, from: order.map((l) => l.index) };
 }
 function zeroable(layers, consumers, input, merge) {
   let at = input;
@@ -9603,7 +9868,7 @@ function zeroable(layers, consumers, input, merge) {
     const uses = consumers[at];
     if (uses.length !== 1 || uses[0] !== reader) return false;
     const l = layers[at];
-    if (WEIGHTED2.has(l.kind)) return true;
+    if (WEIGHTED_KINDS.has(l.kind)) return true;
     if (!ZERO_PRESERVING.has(l.kind)) return false;
     reader = at;
     at = l.inputs[0];
@@ -9618,7 +9883,7 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
     seen.add(i);
     for (const c of consumers[i]) {
       const l = layers[c];
-      if (WEIGHTED2.has(l.kind)) continue;
+      if (WEIGHTED_KINDS.has(l.kind)) continue;
       if (!ZERO_PRESERVING.has(l.kind)) return false;
       stack.push(c);
     }
@@ -9659,12 +9924,13 @@ function analyseLayered(model, options) {
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
   const bounds = (p) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
-    const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
-    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
+    const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side) : null;
+    const tokens = model.input.vocabulary === void 0 ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
-      const counts = best === cut2.value ? cut2.counts : best === prop?.log2 ? prop.counts : deg.counts;
-      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : "degree";
+      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : "token count";
+      const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : /* @__PURE__ */ new Map();
       const upper2 = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === "min-cut" ? augment : 0) };
       return finish(p.label, { upper: upper2, lower: bestLower(p) });
     }
@@ -9672,6 +9938,14 @@ function analyseLayered(model, options) {
       { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
+    const vocabulary = model.input.vocabulary;
+    if (vocabulary !== void 0) {
+      const k = Math.min(...sideSizes(p.side));
+      candidates2.push({
+        log2: k * Math.log2(vocabulary),
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: "token count", cut: [{ layer: "input", line: model.input.span.line, dim: vocabulary, count: k }] })
+      });
+    }
     if (prop) {
       candidates2.push({
         log2: prop.log2,
@@ -9692,9 +9966,10 @@ function analyseLayered(model, options) {
   const bestLower = (p) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
-    const published = publishedRecurrentLower(model, p);
+    const recurrent2 = recurrentOnInput(model, built.shapes);
+    const published = recurrent2 && publishedRecurrentLower(model, recurrent2, p);
     if (published) lowers.push(published);
-    const shallow = shallowRecurrentLower(model, p);
+    const shallow = recurrent2 && shallowRecurrentLower(recurrent2, p);
     if (shallow) lowers.push(shallow);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
@@ -9804,27 +10079,27 @@ function diagonalLower(c, side) {
   const rank = sides === 3 ? BigInt(q) : 1n;
   return { rank, log2: log2Big(rank), method: "diagonal", cut: [] };
 }
-function publishedRecurrentLower(model, p) {
-  const first = recurrentOnInput(model);
-  if (!first || first.depth !== 2) return void 0;
+function publishedRecurrentLower(model, on, p) {
+  const first = on.layer;
+  if (first.depth !== 2) return void 0;
   if (model.input.shape.length !== 1) return void 0;
   const t = model.input.shape[0];
   if (t % 2 !== 0) return void 0;
   const startEnd = resolvePartition("start-end", model.input.shape);
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return void 0;
-  const m = Math.min(representationOf(model), first.hidden);
+  const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: "published depth-2 recurrent", cut: [] };
 }
-function shallowRecurrentLower(model, p) {
-  const first = recurrentOnInput(model);
-  if (!first || first.depth !== 1) return void 0;
+function shallowRecurrentLower(on, p) {
+  const first = on.layer;
+  if (first.depth !== 1) return void 0;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return void 0;
   const r = BigInt(first.hidden);
-  const m = representationOf(model);
+  const m = on.m;
   const span = (count) => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
@@ -9833,11 +10108,35 @@ function shallowRecurrentLower(model, p) {
   if (bound <= 1n) return void 0;
   return { rank: bound, log2: log2Big(bound), method: "shallow recurrent span", cut: [] };
 }
-function recurrentOnInput(model) {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== "recurrent" || first.inputs[0] !== INPUT) return void 0;
-  if (rest.some((l) => l.kind !== "dense" && l.kind !== "pointwise")) return void 0;
-  return first;
+function recurrentOnInput(model, shapes) {
+  let m = shapes.representation;
+  let recurrent2;
+  for (const l of model.layers) {
+    if (l.inputs.length !== 1 || l.inputs[0] !== l.index - 1) return void 0;
+    if (l.kind === "pointwise") continue;
+    if (!recurrent2) {
+      if (l.kind === "recurrent") {
+        if (l.bidirectional) return void 0;
+        recurrent2 = l;
+        continue;
+      }
+      if (l.kind === "position" && l.mode === "learned") continue;
+      const perPosition = l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] !== "input" || l.kind === "conv" && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1);
+      if (!perPosition) return void 0;
+      m = Math.min(m, shapes.layers[l.index].width);
+      continue;
+    }
+    if (l.kind !== "dense") return void 0;
+  }
+  if (!recurrent2) return void 0;
+  const last = shapes.layers[shapes.layers.length - 1].shape;
+  if (recurrent2.sequence && shapes.output.position[0] !== last[0] - 1) return void 0;
+  return { layer: recurrent2, m };
+}
+function sideSizes(side) {
+  let a = 0;
+  for (const x of side) a += x;
+  return [a, side.length - a];
 }
 function sameMask(a, b) {
   if (a.length !== b.length) return false;
@@ -9847,6 +10146,7 @@ function sameMask(a, b) {
 
 // src/policy/parameters.ts
 var AFFINE_NORMS = /* @__PURE__ */ new Set(["batch_norm", "layer_norm", "group_norm", "instance_norm"]);
+var GATES = { arithmetic: 1, rnn: 1, lstm: 4, gru: 3 };
 function parameterCount(model) {
   const inferred = inferShapes(model);
   if (!inferred.ok) throw new Error(`parameter count: the shapes of ${model.file} do not infer: ${inferred.diagnostics[0]?.message ?? ""}`);
@@ -9865,6 +10165,7 @@ function parameterCount(model) {
   return total;
 }
 function outWidth(layer, d, ins, inGrid) {
+  if (layer.kind === "recurrent") return layer.bidirectional && layer.merge === "concat" ? 2 * layer.hidden : layer.hidden;
   const own = layerWidth(layer);
   if (own !== void 0) return own;
   switch (layer.kind) {
@@ -9899,10 +10200,24 @@ function countOf(layer, d, w, model, shapes, inGrid) {
       return reading === "per-position" ? copies(one, outPositions) : one;
     }
     case "recurrent": {
-      let total = 0n;
+      const g = BigInt(GATES[layer.cell]);
       const h = BigInt(layer.hidden);
-      for (let l = 0; l < layer.depth; l++) total += h * h + h * BigInt(l === 0 ? d : layer.hidden) + h;
+      const directions = layer.bidirectional ? 2n : 1n;
+      const below = BigInt(layer.bidirectional && layer.merge === "concat" ? 2 * layer.hidden : layer.hidden);
+      let total = 0n;
+      for (let l = 0; l < layer.depth; l++) total += directions * (g * (h * (l === 0 ? BigInt(d) : below) + h * h) + (layer.bias === false ? 0n : g * h));
       return total;
+    }
+    case "embedding":
+      return BigInt(d) * BigInt(layer.dim);
+    case "position":
+      return layer.mode === "learned" ? BigInt(positionCount(inGrid)) * BigInt(d) : 0n;
+    case "class-token":
+      return BigInt(d);
+    case "attention": {
+      const inner = BigInt(layer.heads) * BigInt(shapes.headDims[layer.index]);
+      const weights = 4n * BigInt(d) * inner;
+      return layer.bias === false ? weights : weights + 3n * inner + BigInt(d);
     }
     case "pointwise":
       if (AFFINE_NORMS.has(layer.op)) return 2n * BigInt(d);
@@ -10632,8 +10947,11 @@ function readInput(node, sink) {
   const channels = positiveIntegerOf(channelsNode);
   const reprNode = fieldOf(node, "representation");
   const representation = positiveIntegerOf(reprNode);
+  const vocabNode = fieldOf(node, "vocabulary");
+  const vocabulary = positiveIntegerOf(vocabNode);
   if (!shapeNode || !given || given.length < 1 || given.length > 3) return void 0;
-  if (channelsNode && channels === void 0 || reprNode && representation === void 0) return void 0;
+  if (channelsNode && channels === void 0 || reprNode && representation === void 0 || vocabNode && vocabulary === void 0) return void 0;
+  if (vocabulary !== void 0 && !tokenFieldsAgree(node, sink)) return void 0;
   let shape = given;
   if (given.length === 3) {
     const at = displayPath(shapeNode);
@@ -10669,10 +10987,25 @@ function readInput(node, sink) {
     shape,
     ...representation !== void 0 ? { representation } : {},
     ...channels !== void 0 ? { channels } : {},
+    ...vocabulary !== void 0 ? { vocabulary } : {},
     ...featuresAsChannels ? { featuresAsChannels: true } : {},
     span: node.span,
-    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels"])
+    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels", "vocabulary"])
   };
+}
+function tokenFieldsAgree(node, sink) {
+  const vocab = entryOf(node, "vocabulary").writtenKey;
+  let ok = true;
+  for (const [field, why] of [
+    ["representation", "a token position supports exactly its V indicator functions, so M = V"],
+    ["channels", "a token position holds one token, not channels"]
+  ]) {
+    const entry = entryOf(node, field);
+    if (!entry) continue;
+    sink.error("config/conflicting-fields", `${displayPath(node)} gives both '${vocab}' and '${entry.writtenKey}': ${why}; drop '${entry.writtenKey}'`, entry.keySpan);
+    ok = false;
+  }
+  return ok;
 }
 function readOutput(node) {
   if (!node) return {};
@@ -10799,7 +11132,34 @@ var ROWS = [
   row(["upsample", "upsampling", "interpolate"], { reader: "upsample", canonical: "upsample" }),
   row(["upsampling_nearest", "upsample_nearest"], { reader: "upsample", canonical: "upsample", upsampleMode: "nearest" }),
   row(["upsampling_bilinear", "upsample_bilinear"], { reader: "upsample", canonical: "upsample", upsampleMode: "linear" }),
-  row(["recurrent", "rnn", "simple_rnn"], { reader: "recurrent", canonical: "recurrent" }),
+  row(["recurrent"], { reader: "recurrent", canonical: "recurrent", cell: "arithmetic" }),
+  row(["rnn", "simple_rnn", "vanilla_rnn", "elman_rnn"], { reader: "recurrent", canonical: "rnn", cell: "rnn" }),
+  row(["lstm", "cudnn_lstm"], { reader: "recurrent", canonical: "lstm", cell: "lstm" }),
+  row(["gru", "cudnn_gru"], { reader: "recurrent", canonical: "gru", cell: "gru" }),
+  row(["embedding", "embed", "embeddings", "token_embedding", "word_embedding"], { reader: "embedding", canonical: "embedding" }),
+  row(["position", "position_embedding", "positional_embedding", "pos_embed", "pos_embedding", "learned_position_embedding", "learned_positional_embedding"], {
+    reader: "position",
+    canonical: "position",
+    positionDefault: "learned"
+  }),
+  row(["positional_encoding", "position_encoding", "pos_encoding"], { reader: "position", canonical: "position", positionDefault: "fixed" }),
+  row(["sinusoidal_position_embedding", "sinusoidal_positional_embedding", "sinusoidal_positional_encoding", "sinusoidal_encoding"], {
+    reader: "position",
+    canonical: "position",
+    positionMode: "fixed"
+  }),
+  row(["class_token", "cls_token", "cls", "class_embedding", "cls_embedding"], { reader: "class_token", canonical: "class_token" }),
+  row(["attention", "self_attention", "multi_head_attention", "multihead_attention", "multi_head_self_attention", "mha"], { reader: "attention", canonical: "attention" }),
+  row(["causal_self_attention", "causal_attention", "masked_self_attention", "masked_attention", "masked_multi_head_attention"], {
+    reader: "attention",
+    canonical: "attention",
+    causal: true
+  }),
+  row(["local_attention", "local_self_attention", "sliding_window_attention"], { reader: "attention", canonical: "attention", local: true }),
+  row(["transformer_block", "transformer_layer", "transformer_encoder_layer", "transformer_encoder"], {
+    reader: "transformer_block",
+    canonical: "transformer_block"
+  }),
   row(["repeat"], { reader: "repeat", canonical: "repeat" }),
   row(["residual", "residual_block", "res_block"], { reader: "residual", canonical: "residual" }),
   row(["branches", "parallel"], { reader: "branches", canonical: "branches" }),
@@ -10809,10 +11169,27 @@ var ROWS = [
   row(["activation"], { reader: "activation", canonical: "activation" }),
   ...POINTWISE_OPS.map((op) => row([op.op, ...op.aliases], { reader: "pointwise", canonical: op.op, op }))
 ];
-var LATER = ["lstm", "gru", "lstm_cell", "gru_cell", "conv_lstm", "embedding", "attention", "multi_head_attention", "multihead_attention", "self_attention", "transformer", "transformer_encoder", "transformer_encoder_layer", "transformer_decoder", "transformer_decoder_layer", "transformer_block", "positional_encoding", "positional_embedding"];
+var NOT_READ = [
+  [
+    ["lstm_cell", "gru_cell", "rnn_cell", "simple_rnn_cell"],
+    "a single-step cell runs inside a loop that the config does not describe; write the sequence layer (lstm, gru or rnn) with its hidden size and number of layers"
+  ],
+  [["conv_lstm", "conv_gru"], "convolutional recurrent layers are not read; a recurrent layer reads a 1D sequence of vectors"],
+  [
+    ["transformer_decoder", "transformer_decoder_layer", "decoder_layer", "cross_attention"],
+    "cross-attention reads a second sequence (an encoder's output), which a model with one input does not have; a decoder-only model is a stack of causal blocks: transformer_block with causal: true"
+  ],
+  [
+    ["rotary_embedding", "rotary_position_embedding", "rotary_positional_embedding", "rope", "alibi", "relative_position_bias", "relative_positional_encoding"],
+    "rotary and relative position schemes act inside attention (they rotate queries and keys, or bias the scores, per pair of positions), which linearised attention does not model; additive position vectors are read (position, positional_encoding)"
+  ],
+  [["transformer"], "the name means an encoder-decoder in some frameworks and a stack of encoder blocks in others; write transformer_block (with depth: N for a stack of N)"],
+  [["bidirectional"], "write the recurrent layer itself with bidirectional: true (and merge: concat or sum), e.g. lstm: {hidden_size: 64, bidirectional: true}"]
+];
 var BY_WORD2 = /* @__PURE__ */ new Map();
 for (const r of ROWS) for (const w of r.words) BY_WORD2.set(normaliseWord(w), r);
-var LATER_WORDS = new Set(LATER.map(normaliseWord));
+var NOT_READ_WORDS = /* @__PURE__ */ new Map();
+for (const [words, why] of NOT_READ) for (const w of words) NOT_READ_WORDS.set(normaliseWord(w), why);
 var SUGGESTIONS = /* @__PURE__ */ new Map();
 for (const r of ROWS) for (const w of r.words) SUGGESTIONS.set(normaliseWord(w), w);
 var KIND_SPELLINGS = ROWS.map((r) => r.words);
@@ -10829,13 +11206,8 @@ function lookupKind(written) {
     return { ok: false, code: "config/unsupported-3d", message: `'${written}' is a 3D layer; only 1D ([length]) and 2D ([height, width]) grids are supported` };
   }
   if (hit) return { ok: true, match: hit.match };
-  if (LATER_WORDS.has(base)) {
-    return {
-      ok: false,
-      code: "config/kind-not-read-yet",
-      message: `'${written}' layers are not read yet: this version reads convolutional, pooling, dense and simple recurrent layers; gated recurrent, embedding and attention layers are planned`
-    };
-  }
+  const why = NOT_READ_WORDS.get(base);
+  if (why !== void 0) return { ok: false, code: "config/unsupported-kind", message: `'${written}' layers are not read: ${why}` };
   const guess = closest(base, [...SUGGESTIONS.keys()]) ?? closest(base.replace(/[123]d/g, ""), [...SUGGESTIONS.keys()]);
   const shown = guess ? SUGGESTIONS.get(guess) : void 0;
   return {
@@ -11044,6 +11416,128 @@ function pointwiseFields(family) {
   const rate = family === "dropout" ? [f("rate", "the dropout rate (accepted; dropout is the identity at inference)", ["p"])] : [];
   return [...rate, ...params, NAME];
 }
+var WIDTH = f("width", "the width the layer reads and keeps; checked against its input", ["dim", "embed_dim", "embedding_dim", "d_model", "hidden_size", "hidden_dim", "n_embd"]);
+var RECURRENT_FIELDS = [
+  f("hidden", "hidden state size (required)", ["hidden_size", "units", "hidden_dim", "num_units"]),
+  f("depth", "stacked layers (default 1)", ["num_layers", "n_layers"]),
+  f("bidirectional", "true: a forward and a backward chain per level (default false)"),
+  f("merge", "how a bidirectional layer joins its two directions at each step: `concat` (default; width 2·hidden) or `sum`", ["merge_mode"]),
+  f("sequence", "true (default): one output per step; false: the final state only", ["return_sequences"]),
+  f("proj_size", "only 0 is read: a projection changes the width the recurrence carries"),
+  f("go_backwards", "only false is read: write bidirectional for both directions"),
+  ignored("input_size", "accepted, ignored (the input width follows from the previous layer)"),
+  ignored("nonlinearity", "accepted, ignored (the surrogate integrates multiplicatively)", ["activation"]),
+  ignored("recurrent_activation", "accepted, ignored (gates are not modelled)"),
+  ignored("dropout", "accepted, ignored (between stacked layers; the identity at inference)"),
+  ignored("recurrent_dropout", "accepted, ignored"),
+  ignored("batch_first", "accepted, ignored", ["time_major"]),
+  ignored("return_state", "accepted, ignored (the layer's output is analysed)"),
+  ignored("stateful", "accepted, ignored"),
+  ignored("unroll", "accepted, ignored"),
+  ignored("reset_after", "accepted, ignored"),
+  ignored("unit_forget_bias", "accepted, ignored"),
+  ignored("recurrent_initializer", "accepted, ignored"),
+  ignored("recurrent_regularizer", "accepted, ignored"),
+  ignored("recurrent_constraint", "accepted, ignored"),
+  BIAS,
+  ...TRAINING_ONLY,
+  NAME
+];
+var EMBEDDING_FIELDS = [
+  f("dim", "embedding width (required)", ["embedding_dim", "embed_dim", "embedding_size", "d_model", "output_dim", "features"]),
+  f("vocabulary", "rows of the table, one per token: gives the input its vocabulary, or must equal it", ["num_embeddings", "vocab_size", "vocabulary_size", "input_dim", "n_vocab", "num_tokens"]),
+  ignored("padding_idx", "accepted, ignored: the padding token is read as an ordinary token (its row learned)", ["mask_zero"]),
+  ignored("max_norm", "accepted, ignored (a lookup stays a lookup)"),
+  ignored("norm_type", "accepted, ignored"),
+  ignored("scale_grad_by_freq", "accepted, ignored"),
+  ignored("sparse", "accepted, ignored"),
+  ignored("input_length", "accepted, ignored (the length is input.shape)"),
+  ignored("embeddings_initializer", "accepted, ignored"),
+  ignored("embeddings_regularizer", "accepted, ignored"),
+  ignored("embeddings_constraint", "accepted, ignored"),
+  ...TRAINING_ONLY,
+  ...SHORTCUT_FIELDS,
+  NAME
+];
+var POSITION_FIELDS = [
+  f("mode", "`learned` (default; also `learnable`, `absolute`) or `fixed` (`sinusoidal`, `sincos`): both read as a learned vector per position", ["encoding", "position_embedding_type"]),
+  f("positions", "rows of the table: at least the positions of the grid", [
+    "max_len",
+    "max_length",
+    "max_position_embeddings",
+    "num_positions",
+    "n_positions",
+    "max_seq_len",
+    "max_seq_length",
+    "context_length",
+    "block_size"
+  ]),
+  WIDTH,
+  ignored("initializer", "accepted, ignored"),
+  ...SHORTCUT_FIELDS,
+  NAME
+];
+var HEADS = f("heads", "attention heads (required)", ["num_heads", "n_head", "n_heads", "nhead", "num_attention_heads"]);
+var HEAD_DIM = f("head_dim", "width of each head's queries, keys and values (default: the width / heads)", ["key_dim", "head_size", "d_head", "kv_channels"]);
+var CAUSAL = f("causal", "true: position i attends only to positions j ≤ i (default false)", ["is_causal", "masked", "autoregressive"]);
+var MASK = f("mask", "`causal` (also `lower_triangular`), or `none` (`full`, `bidirectional`)", ["attn_mask", "attention_mask", "mask_type"]);
+var WINDOW = f("window", "local attention (1D): position i attends only to j with |i − j| ≤ window", ["local_window", "attention_window", "window_size", "sliding_window"]);
+var KV_HEADS = f("num_kv_heads", "only equal to heads is read (grouped keys and values are not modelled)", ["n_kv_heads", "num_key_value_heads", "n_kv_head"]);
+var ROTARY = f("rotary", "only false is read: rotary position schemes act inside attention", ["use_rotary", "rope", "use_rope"]);
+var ATTENTION_DROPOUT = ignored("dropout", "accepted, ignored (the identity at inference)", ["attn_dropout", "attention_dropout", "attn_pdrop", "attention_probs_dropout_prob"]);
+var ATTENTION_FIELDS = [
+  HEADS,
+  HEAD_DIM,
+  WIDTH,
+  CAUSAL,
+  MASK,
+  WINDOW,
+  KV_HEADS,
+  ROTARY,
+  f("kdim", "only the input width is read (keys from another sequence are cross-attention)"),
+  f("vdim", "only the input width is read"),
+  f("value_dim", "only the head width is read"),
+  f("add_bias_kv", "only false is read (a learned extra key and value)"),
+  f("add_zero_attn", "only false is read"),
+  {
+    name: "output_shape",
+    doc: "refused",
+    aliases: [],
+    refused: "the attention layer's output keeps its input width; a different output width is a dense layer after it"
+  },
+  { name: "attention_axes", doc: "refused", aliases: [], refused: "attention runs over every position of the grid (row-major); other axes are not read" },
+  ATTENTION_DROPOUT,
+  ignored("batch_first", "accepted, ignored"),
+  BIAS,
+  ...TRAINING_ONLY,
+  NAME
+];
+var TRANSFORMER_FIELDS = [
+  HEADS,
+  HEAD_DIM,
+  WIDTH,
+  f("mlp", "hidden width of the position-wise MLP", ["dim_feedforward", "mlp_dim", "ffn_dim", "d_ff", "ff_dim", "feedforward_dim", "intermediate_size", "mlp_hidden_dim"]),
+  f("mlp_ratio", "the MLP width as a multiple of the block width (default 4)", ["ffn_ratio", "mlp_expansion"]),
+  f("activation", "the MLP's activation (default gelu)", ["act", "hidden_act", "ffn_activation", "mlp_activation"]),
+  f("norm", "`pre` (default: a norm before attention and before the MLP) or `post` (after each sum)", ["norm_position", "norm_placement"]),
+  f("norm_first", "true: `norm: pre`; false: `norm: post`", ["pre_norm", "prenorm"]),
+  f("norm_type", "`layer` (default) or `rms`", ["norm_layer"]),
+  CAUSAL,
+  MASK,
+  WINDOW,
+  KV_HEADS,
+  ROTARY,
+  f("depth", "blocks in a stack (default 1); copies are labelled name[1], name[2], …", ["num_layers", "n_layers", "n_layer"]),
+  // Dropout is the identity at inference; blocks often give several rates, one per place.
+  ignored("dropout", "accepted, ignored", ["dropout_rate"]),
+  ignored("attention_dropout", "accepted, ignored", ["attn_dropout", "attn_pdrop", "attention_probs_dropout_prob"]),
+  ignored("activation_dropout", "accepted, ignored"),
+  ignored("resid_dropout", "accepted, ignored", ["resid_pdrop", "hidden_dropout", "hidden_dropout_prob"]),
+  ignored("layer_norm_eps", "accepted, ignored", ["norm_eps", "eps", "epsilon"]),
+  ignored("batch_first", "accepted, ignored"),
+  BIAS,
+  NAME
+];
 var LAYER_FIELDS = /* @__PURE__ */ new Map([
   [
     "conv",
@@ -11126,22 +11620,12 @@ var LAYER_FIELDS = /* @__PURE__ */ new Map([
       NAME
     ]
   ],
-  [
-    "recurrent",
-    [
-      f("hidden", "hidden state size", ["hidden_size", "units"]),
-      f("depth", "stacked layers (default 1)", ["num_layers"]),
-      { name: "bidirectional", doc: "only false is read", aliases: [] },
-      { name: "return_sequences", doc: "only false is read (the layer ends on its last state)", aliases: [] },
-      ignored("input_size", "accepted, ignored"),
-      ignored("nonlinearity", "accepted, ignored (the surrogate integrates multiplicatively)", ["activation"]),
-      ignored("dropout", "accepted, ignored", ["recurrent_dropout"]),
-      ignored("batch_first", "accepted, ignored"),
-      ignored("bias", "accepted, ignored", ["use_bias"]),
-      ...TRAINING_ONLY,
-      NAME
-    ]
-  ],
+  ["recurrent", RECURRENT_FIELDS],
+  ["embedding", EMBEDDING_FIELDS],
+  ["position", POSITION_FIELDS],
+  ["class_token", [WIDTH, ignored("initializer", "accepted, ignored"), NAME]],
+  ["attention", ATTENTION_FIELDS],
+  ["transformer_block", TRANSFORMER_FIELDS],
   ["repeat", [f("times", "how many copies (required)", ["count", "repeats"]), f("layers", "the layers repeated, in order"), NAME]],
   [
     "residual",
@@ -11306,6 +11790,18 @@ function requireField(r, field, what, ctx) {
   ctx.sink.error("config/missing-field", `${displayPath(r.entry.body)} is missing '${field}' (${what})`, r.entry.body.span);
   return false;
 }
+function optionalPositive(r, field, ctx) {
+  const node = r.fields.get(field);
+  if (!node) return void 0;
+  return readPositiveInteger(node, ctx) ?? false;
+}
+function readBias(r, ctx) {
+  const node = r.fields.get("bias");
+  if (!node) return {};
+  const b = readBoolean(node, ctx);
+  if (b === void 0) return void 0;
+  return b ? {} : { bias: false };
+}
 
 // src/config/read-conv-layers.ts
 function readWindow(r, ctx) {
@@ -11318,18 +11814,6 @@ function readWindow(r, ctx) {
   const stride = axis("stride");
   const dilation = axis("dilation");
   return kernel && stride && dilation ? { kernel, stride, dilation } : void 0;
-}
-function optionalPositive(r, field, ctx) {
-  const node = r.fields.get(field);
-  if (!node) return void 0;
-  return readPositiveInteger(node, ctx) ?? false;
-}
-function readBias(r, ctx) {
-  const node = r.fields.get("bias");
-  if (!node) return {};
-  const b = readBoolean(node, ctx);
-  if (b === void 0) return void 0;
-  return b ? {} : { bias: false };
 }
 function readConv(r, ctx) {
   const window = readWindow(r, ctx);
@@ -11571,26 +12055,12 @@ function readDense(r, ctx) {
   const ok = requireField(r, "units", "output units", ctx);
   const unitsNode = r.fields.get("units");
   const units = unitsNode && readPositiveInteger(unitsNode, ctx);
-  const biasNode = r.fields.get("bias");
-  const bias = biasNode ? readBoolean(biasNode, ctx) : true;
-  if (!ok || units === void 0 || bias === void 0) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "dense", units, ...bias ? {} : { bias: false } }, site: r.site, labelled: true }], true);
+  const bias = readBias(r, ctx);
+  if (!ok || units === void 0 || !bias) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "dense", units, ...bias }, site: r.site, labelled: true }], true);
 }
 function readFlatten(r, ctx) {
   return chainOf(r, ctx, [{ body: { kind: "flatten" }, site: r.site, labelled: true }], false);
-}
-function readRecurrent(r, ctx) {
-  let ok = requireField(r, "hidden", "hidden state size", ctx);
-  const hiddenNode = r.fields.get("hidden");
-  const hidden = hiddenNode && readPositiveInteger(hiddenNode, ctx);
-  const depthNode = r.fields.get("depth");
-  const depth = depthNode ? readPositiveInteger(depthNode, ctx) : 1;
-  const bi = r.fields.get("bidirectional");
-  if (bi && !readOnly(bi, ctx, false, "bidirectional recurrent layers are not read yet")) ok = false;
-  const seq = r.fields.get("return_sequences");
-  if (seq && !readOnly(seq, ctx, false, "the layer is read as ending on its last state; per-step outputs are not read yet")) ok = false;
-  if (!ok || hidden === void 0 || depth === void 0) return void 0;
-  return chainOf(r, ctx, [{ body: { kind: "recurrent", hidden, depth }, site: r.site, labelled: true }], false);
 }
 function readPointwise2(r, ctx) {
   const op = r.entry.match.op;
@@ -11613,6 +12083,315 @@ function readActivationLayer(r, ctx) {
   if (read === void 0) return void 0;
   const op = read ?? pointwiseOpOf("identity");
   return chainOf(r, ctx, [{ body: { kind: "pointwise", family: op.family, op: op.op }, site: r.site, labelled: true }], false);
+}
+
+// src/config/read-sequence-layers.ts
+function stated(node, value) {
+  return { value, span: node.span, where: displayPath(node) };
+}
+function declaredOf(r, field, against, ctx) {
+  const node = r.fields.get(field);
+  if (!node) return [];
+  const v = readPositiveInteger(node, ctx);
+  return v === void 0 ? void 0 : [{ ...stated(node, v), against }];
+}
+var MERGE_MODES = /* @__PURE__ */ new Map([
+  ["concat", "concat"],
+  ["concatenate", "concat"],
+  ["cat", "concat"],
+  ["sum", "sum"],
+  ["add", "sum"]
+]);
+var OTHER_MERGES = /* @__PURE__ */ new Set(["mul", "multiply", "product", "prod", "ave", "avg", "average", "mean", "none", "null"]);
+function readMerge(node, ctx) {
+  const word = node.kind === "scalar" ? node.value === null ? "null" : typeof node.value === "string" ? node.value : void 0 : void 0;
+  if (word !== void 0 && lookupChoice(word, MERGE_MODES) === void 0 && OTHER_MERGES.has(word.toLowerCase())) {
+    const none = word.toLowerCase() === "none" || word === "null";
+    ctx.sink.error(
+      "config/unsupported-value",
+      `${displayPath(node)} is ${node.kind === "scalar" && node.value === null ? "empty" : `'${word}'`}, which is not read: ${none ? "the two directions returned separately cannot be read by the next layer of a list" : "a product or an average of the two directions is not modelled"}; write 'concat' (the width doubles) or 'sum'`,
+      node.span
+    );
+    return void 0;
+  }
+  return readChoice(node, ctx, MERGE_MODES, ["concat", "sum"]);
+}
+function readRecurrent(r, ctx) {
+  let ok = requireField(r, "hidden", "hidden state size", ctx);
+  const hidden = optionalPositive(r, "hidden", ctx);
+  const depth = optionalPositive(r, "depth", ctx);
+  const flag2 = (field, fallback) => {
+    const node = r.fields.get(field);
+    return node ? readBoolean(node, ctx) : fallback;
+  };
+  const bidirectional = flag2("bidirectional", false);
+  const sequence = flag2("sequence", true);
+  const mergeNode = r.fields.get("merge");
+  const merge = mergeNode ? readMerge(mergeNode, ctx) : "concat";
+  const proj = r.fields.get("proj_size");
+  if (proj) {
+    const p = readNonNegativeInteger(proj, ctx);
+    if (p === void 0) ok = false;
+    else if (p !== 0) {
+      ctx.sink.error("config/unsupported-value", `${displayPath(proj)} is ${p}, which is not read: a projection of the hidden state changes the width the recurrence carries; only 0 (none) is read`, proj.span);
+      ok = false;
+    }
+  }
+  const back = r.fields.get("go_backwards");
+  if (back && !readOnly(back, ctx, false, "a layer that reads the sequence backwards only is not read; write bidirectional: true for both directions")) ok = false;
+  const bias = readBias(r, ctx);
+  if (!ok || hidden === void 0 || hidden === false || depth === false || bidirectional === void 0 || sequence === void 0 || !merge || !bias) return void 0;
+  const body = {
+    kind: "recurrent",
+    hidden,
+    depth: depth ?? 1,
+    cell: r.entry.match.cell ?? "arithmetic",
+    bidirectional,
+    merge,
+    sequence,
+    ...bias
+  };
+  return chainOf(r, ctx, [{ body, site: r.site, labelled: true }], false);
+}
+function readEmbedding(r, ctx) {
+  const ok = requireField(r, "dim", "the embedding width", ctx);
+  const dim = optionalPositive(r, "dim", ctx);
+  const vocabNode = r.fields.get("vocabulary");
+  const vocabulary = vocabNode ? readPositiveInteger(vocabNode, ctx) : void 0;
+  if (!ok || dim === void 0 || dim === false || vocabNode && vocabulary === void 0) return void 0;
+  const made = {
+    body: { kind: "embedding", dim },
+    site: r.site,
+    labelled: true,
+    ...vocabNode && vocabulary !== void 0 ? { vocabulary: stated(vocabNode, vocabulary) } : {}
+  };
+  return chainOf(r, ctx, [made], true);
+}
+var POSITION_MODES = /* @__PURE__ */ new Map([
+  ["learned", "learned"],
+  ["learnable", "learned"],
+  ["trainable", "learned"],
+  ["absolute", "learned"],
+  ["embedding", "learned"],
+  ["fixed", "fixed"],
+  ["sinusoidal", "fixed"],
+  ["sinusoid", "fixed"],
+  ["sine", "fixed"],
+  ["sincos", "fixed"],
+  ["sin_cos", "fixed"],
+  ["static", "fixed"]
+]);
+var INSIDE_ATTENTION = /* @__PURE__ */ new Set(["rotary", "rope", "alibi", "relative", "relative_key", "relative_key_query", "relative_position", "t5_relative"]);
+function readPositionMode(r, ctx) {
+  const { match } = r.entry;
+  const node = r.fields.get("mode");
+  if (!node) return match.positionMode ?? match.positionDefault ?? "learned";
+  if (node.kind === "scalar" && typeof node.value === "string" && INSIDE_ATTENTION.has(node.value.toLowerCase().replace(/-/g, "_"))) {
+    ctx.sink.error(
+      "config/unsupported-value",
+      `${displayPath(node)} is '${node.value}', which is not read: rotary and relative position schemes act inside attention, which linearised attention does not model; additive position vectors are read ('learned' or 'fixed')`,
+      node.span
+    );
+    return void 0;
+  }
+  const mode = readChoice(node, ctx, POSITION_MODES, ["learned", "fixed", "sinusoidal"]);
+  if (mode !== void 0 && match.positionMode !== void 0 && mode !== match.positionMode) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(node)} says ${mode}, but '${r.entry.kindWritten}' is a ${match.positionMode} encoding; drop one of them`, node.span);
+    return void 0;
+  }
+  return mode;
+}
+function readPosition(r, ctx) {
+  const mode = readPositionMode(r, ctx);
+  const positions = declaredOf(r, "positions", "positions", ctx);
+  const width = declaredOf(r, "width", "input-width", ctx);
+  if (!mode || !positions || !width) return void 0;
+  const declared = [...positions, ...width];
+  return chainOf(r, ctx, [{ body: { kind: "position", mode }, site: r.site, labelled: true, ...declared.length > 0 ? { declared } : {} }], true);
+}
+function readClassToken(r, ctx) {
+  const width = declaredOf(r, "width", "input-width", ctx);
+  if (!width) return void 0;
+  return chainOf(r, ctx, [{ body: { kind: "class-token" }, site: r.site, labelled: true, ...width.length > 0 ? { declared: width } : {} }], false);
+}
+var MASKS = /* @__PURE__ */ new Map([
+  ["causal", true],
+  ["lower_triangular", true],
+  ["triangular", true],
+  ["autoregressive", true],
+  ["none", false],
+  ["full", false],
+  ["bidirectional", false]
+]);
+function readCausal(r, ctx) {
+  const byName = r.entry.match.causal === true;
+  const causalNode = r.fields.get("causal");
+  const maskNode = r.fields.get("mask");
+  const fromFlag = causalNode ? readBoolean(causalNode, ctx) : null;
+  const fromMask = maskNode ? maskNode.kind === "scalar" && maskNode.value === null ? false : readChoice(maskNode, ctx, MASKS, ["causal", "none"]) : null;
+  if (fromFlag === void 0 || fromMask === void 0) return void 0;
+  const said = [];
+  if (causalNode && fromFlag !== null) said.push({ node: causalNode, value: fromFlag });
+  if (maskNode && fromMask !== null) said.push({ node: maskNode, value: fromMask });
+  for (const s of said) {
+    if (byName && !s.value) {
+      ctx.sink.error("config/conflicting-fields", `${displayPath(s.node)} turns the causal mask off, but '${r.entry.kindWritten}' is causal attention; drop one of them`, s.node.span);
+      return void 0;
+    }
+  }
+  if (said.length === 2 && said[0].value !== said[1].value) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(said[1].node)} disagrees with ${displayPath(said[0].node)} about the causal mask; keep one of them`, said[1].node.span);
+    return void 0;
+  }
+  return byName || said.some((s) => s.value);
+}
+function readAttentionFields(r, ctx) {
+  let ok = requireField(r, "heads", "the number of attention heads", ctx);
+  const heads = optionalPositive(r, "heads", ctx);
+  const headDim = optionalPositive(r, "head_dim", ctx);
+  const causal = readCausal(r, ctx);
+  const windowNode = r.fields.get("window");
+  const window = windowNode ? readNonNegativeInteger(windowNode, ctx) : void 0;
+  if (windowNode && window === void 0) ok = false;
+  if (!windowNode && r.entry.match.local === true) ok = requireField(r, "window", "how far each position attends on either side", ctx) && ok;
+  const kv = r.fields.get("num_kv_heads");
+  if (kv) {
+    const k = readPositiveInteger(kv, ctx);
+    if (k === void 0) ok = false;
+    else if (typeof heads === "number" && k !== heads) {
+      ctx.sink.error(
+        "config/unsupported-value",
+        `${displayPath(kv)} is ${k}, which is not read: keys and values shared by groups of query heads are not modelled; only ${heads} (one per head) is read`,
+        kv.span
+      );
+      ok = false;
+    }
+  }
+  for (const [field, why] of [
+    ["rotary", "rotary position schemes rotate queries and keys per position, which linearised attention does not model; add position vectors (position) instead"],
+    ["add_bias_kv", "a learned extra key and value is not modelled"],
+    ["add_zero_attn", "an extra zero key and value is not modelled"]
+  ]) {
+    const node = r.fields.get(field);
+    if (node && !readOnly(node, ctx, false, why)) ok = false;
+  }
+  const declared = [];
+  for (const [field, against] of [
+    ["width", "input-width"],
+    ["kdim", "input-width"],
+    ["vdim", "input-width"],
+    ["value_dim", "head-width"]
+  ]) {
+    const d = declaredOf(r, field, against, ctx);
+    if (d) declared.push(...d);
+    else ok = false;
+  }
+  const bias = readBias(r, ctx);
+  if (!ok || heads === void 0 || heads === false || headDim === false || causal === void 0 || !bias) return void 0;
+  return {
+    body: { kind: "attention", heads, ...headDim !== void 0 ? { headDim } : {}, causal, ...window !== void 0 ? { window } : {}, ...bias },
+    declared
+  };
+}
+function readAttention(r, ctx) {
+  const read = readAttentionFields(r, ctx);
+  if (!read) return void 0;
+  return chainOf(r, ctx, [{ body: read.body, site: r.site, labelled: true, ...read.declared.length > 0 ? { declared: read.declared } : {} }], false);
+}
+
+// src/config/read-transformer-block.ts
+var DEFAULT_MLP_RATIO = 4;
+var PLACEMENTS = /* @__PURE__ */ new Map([
+  ["pre", "pre"],
+  ["pre_norm", "pre"],
+  ["prenorm", "pre"],
+  ["post", "post"],
+  ["post_norm", "post"],
+  ["postnorm", "post"]
+]);
+var NORM_TYPES = /* @__PURE__ */ new Map([
+  ["layer", "layernorm"],
+  ["layer_norm", "layernorm"],
+  ["layernorm", "layernorm"],
+  ["rms", "rmsnorm"],
+  ["rms_norm", "rmsnorm"],
+  ["rmsnorm", "rmsnorm"]
+]);
+function readPlacement(r, ctx) {
+  const normNode = r.fields.get("norm");
+  const firstNode = r.fields.get("norm_first");
+  if (normNode && firstNode) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(r.entry.body)} gives both '${r.fields.written("norm")}' and '${r.fields.written("norm_first")}'; keep one of them`, r.fields.keySpan("norm_first") ?? firstNode.span);
+    return void 0;
+  }
+  if (normNode) return readChoice(normNode, ctx, PLACEMENTS, ["pre", "post"]);
+  if (firstNode) {
+    if (firstNode.kind === "scalar" && typeof firstNode.value === "boolean") return firstNode.value ? "pre" : "post";
+    ctx.sink.error("config/type", `${displayPath(firstNode)} must be true or false, got ${firstNode.kind === "scalar" ? String(firstNode.value) : `a ${firstNode.kind === "map" ? "mapping" : "list"}`}`, firstNode.span);
+    return void 0;
+  }
+  return "pre";
+}
+function readMlp(r, ctx, width) {
+  const mlpNode = r.fields.get("mlp");
+  const ratioNode = r.fields.get("mlp_ratio");
+  if (mlpNode && ratioNode) {
+    ctx.sink.error("config/conflicting-fields", `${displayPath(r.entry.body)} gives both '${r.fields.written("mlp")}' and '${r.fields.written("mlp_ratio")}'; give the MLP's width or its ratio, not both`, r.fields.keySpan("mlp_ratio") ?? ratioNode.span);
+    return void 0;
+  }
+  if (mlpNode) {
+    const units2 = readPositiveInteger(mlpNode, ctx);
+    return units2 === void 0 ? void 0 : { units: units2 };
+  }
+  let ratio = { value: DEFAULT_MLP_RATIO, span: r.entry.kindSpan, where: `the default mlp_ratio ${DEFAULT_MLP_RATIO} of ${displayPath(r.entry.body)}` };
+  if (ratioNode) {
+    if (ratioNode.kind !== "scalar" || typeof ratioNode.value !== "number" || !(ratioNode.value > 0) || !Number.isFinite(ratioNode.value)) {
+      ctx.sink.error("config/type", `${displayPath(ratioNode)} must be a positive number, got ${ratioNode.kind === "scalar" ? String(ratioNode.value) : `a ${ratioNode.kind === "map" ? "mapping" : "list"}`}`, ratioNode.span);
+      return void 0;
+    }
+    ratio = stated(ratioNode, ratioNode.value);
+  }
+  if (width === void 0) return { ratio };
+  const units = ratio.value * width;
+  if (!Number.isSafeInteger(units)) {
+    ctx.sink.error("config/mlp-width", `${ratio.where} is ${ratio.value}, and ${ratio.value} × the width ${width} is not a whole number of units; give the MLP's width instead (e.g. mlp: ${Math.max(1, Math.round(units))})`, ratio.span);
+    return void 0;
+  }
+  return { units };
+}
+function readTransformerBlock(r, ctx) {
+  const attention2 = readAttentionFields(r, ctx);
+  const widthNode = r.fields.get("width");
+  const width = widthNode?.kind === "scalar" && typeof widthNode.value === "number" && Number.isSafeInteger(widthNode.value) && widthNode.value >= 1 ? widthNode.value : void 0;
+  const mlp = readMlp(r, ctx, width);
+  const placement = readPlacement(r, ctx);
+  const typeNode = r.fields.get("norm_type");
+  const normWord = typeNode ? readChoice(typeNode, ctx, NORM_TYPES, ["layer", "rms"]) : "layernorm";
+  const actNode = r.fields.get("activation");
+  const act = actNode ? readActivation(actNode, ctx) : pointwiseOpOf("gelu");
+  const depth = optionalPositive(r, "depth", ctx);
+  const bias = readBias(r, ctx);
+  if (!attention2 || !mlp || !placement || !normWord || act === void 0 || depth === false || !bias) return void 0;
+  const at = (part, fields = []) => ({ path: `${r.site.path}/${part}`, span: r.site.span, fieldSpans: r.fields.spans(fields) });
+  const made = (part, body, fields = [], more = {}) => ({ body, site: at(part, fields), ...more });
+  const norm = (part) => {
+    const op = pointwiseOpOf(normWord);
+    return made(part, { kind: "pointwise", family: op.family, op: op.op }, ["norm", "norm_first", "norm_type"]);
+  };
+  const activation = (op) => made("mlp/activation", { kind: "pointwise", family: op.family, op: op.op }, ["activation"]);
+  const sum = (part) => made(part, { kind: "merge", mode: "sum", origin: "residual" });
+  const attn = made("attention", attention2.body, ["heads", "head_dim", "width", "causal", "mask", "window"], attention2.declared.length > 0 ? { declared: attention2.declared } : {});
+  const mlpIn = "units" in mlp ? made("mlp/in", { kind: "dense", units: mlp.units, ...bias }, r.fields.has("mlp") ? ["mlp"] : []) : made("mlp/in", { kind: "dense", units: 0, ...bias }, [], { unitsPerWidth: { ...mlp.ratio, offset: 0 } });
+  const back = { value: 1, span: r.entry.kindSpan, where: `the output of ${displayPath(r.entry.body)}`, offset: act ? -2 : -1 };
+  const mlpOut = width !== void 0 ? made("mlp/out", { kind: "dense", units: width, ...bias }, ["width"]) : made("mlp/out", { kind: "dense", units: 0, ...bias }, [], { unitsPerWidth: back });
+  const mlpPath = [mlpIn, ...act ? [activation(act)] : [], mlpOut];
+  const chain = (layers) => ({ t: "chain", layers });
+  const residual = (main, merge, after) => ({ t: "merge", paths: [[chain(main)], []], refs: [], merge, after });
+  const blocks = placement === "pre" ? [residual([norm("attention/norm"), attn], sum("attention/sum"), []), residual([norm("mlp/norm"), ...mlpPath], sum("mlp/sum"), [])] : [residual([attn], sum("attention/sum"), [norm("attention/norm")]), residual(mlpPath, sum("mlp/sum"), [norm("mlp/norm")])];
+  const one = { t: "sequence", body: blocks, ...r.name ? { name: r.name } : {} };
+  const depthNode = r.fields.get("depth");
+  if (depth === void 0 || !depthNode) return one;
+  return { t: "repeat", times: depth, timesSpan: depthNode.span, timesPath: displayPath(depthNode), body: [one] };
 }
 
 // src/config/read-blocks.ts
@@ -11648,7 +12427,7 @@ function readResidual(r, ctx) {
   const shortcut = shortcutNode ? ctx.readPath(shortcutNode) : [];
   return block(r, ctx, [main, shortcut], [], mergeOf(r, "sum", "residual"), ok);
 }
-var MERGE_MODES = /* @__PURE__ */ new Map([
+var MERGE_MODES2 = /* @__PURE__ */ new Map([
   ["concat", "concat"],
   ["concatenate", "concat"],
   ["cat", "concat"],
@@ -11658,7 +12437,7 @@ var MERGE_MODES = /* @__PURE__ */ new Map([
 function readBranches(r, ctx) {
   let ok = requireField(r, "paths", "a list of paths, each a list of layers", ctx);
   const modeNode = r.fields.get("merge");
-  const mode = modeNode ? readChoice(modeNode, ctx, MERGE_MODES, ["concat", "sum"]) : "concat";
+  const mode = modeNode ? readChoice(modeNode, ctx, MERGE_MODES2, ["concat", "sum"]) : "concat";
   if (!mode) ok = false;
   const pathsNode = r.fields.get("paths");
   const paths = [];
@@ -11712,6 +12491,11 @@ var READERS = {
   dense: readDense,
   flatten: readFlatten,
   recurrent: readRecurrent,
+  embedding: readEmbedding,
+  position: readPosition,
+  class_token: readClassToken,
+  attention: readAttention,
+  transformer_block: readTransformerBlock,
   pointwise: readPointwise2,
   activation: readActivationLayer,
   repeat: readRepeat,
@@ -11800,7 +12584,7 @@ function checkNames(templates, sink) {
     }
     defs.set(name.text, { span: name.span, chain });
   };
-  const check = (ref, chain) => {
+  const check2 = (ref, chain) => {
     if (ref.base === "input") {
       if (ref.copies.length > 0) {
         sink.error("config/invalid-copy", `${ref.where}: 'input' is the model input, which has no copies; write 'input'`, ref.span);
@@ -11861,7 +12645,7 @@ function checkNames(templates, sink) {
           break;
         case "merge":
           for (const p of t.paths) walk2(p, chain);
-          for (const r of t.refs) check(r, chain);
+          for (const r of t.refs) check2(r, chain);
           break;
       }
       define(t.name, chain);
@@ -11936,13 +12720,14 @@ var Expansion = class {
   }
   refs;
   out = [];
+  pending = /* @__PURE__ */ new Map();
   /** Label → the output layer of the entry that carries it. */
   labels = /* @__PURE__ */ new Map();
   /** Iterations (1-based) of the enclosing repeats, outermost first. */
   iterations = [];
   run(templates) {
     this.list(templates, INPUT);
-    return this.out;
+    return { layers: this.out, pending: this.pending };
   }
   list(templates, input) {
     let cur = input;
@@ -11966,6 +12751,9 @@ var Expansion = class {
       ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {}
     };
     this.out.push(layer);
+    if (m.declared || m.unitsPerWidth || m.vocabulary) {
+      this.pending.set(index, { ...m.declared ? { declared: m.declared } : {}, ...m.unitsPerWidth ? { unitsPerWidth: m.unitsPerWidth } : {}, ...m.vocabulary ? { vocabulary: m.vocabulary } : {} });
+    }
     return index;
   }
   chain(layers, input, name) {
@@ -12025,6 +12813,105 @@ var Expansion = class {
   }
 };
 
+// src/config/resolve-pending.ts
+function resolvePending(model, pending, sink) {
+  if (pending.size === 0) return model;
+  const input = resolveVocabulary(model, pending, sink);
+  if (!input) return void 0;
+  const withInput = { ...model, input };
+  if (![...pending.values()].some((p) => p.declared || p.unitsPerWidth)) return withInput;
+  const layers = [];
+  const inputWidths = [];
+  const shapes = inferShapes(withInput, (layer, shape) => {
+    inputWidths.push(shape.width);
+    const p = pending.get(layer.index);
+    const out = p ? adjust(layer, shape, p, inputWidths) : layer;
+    if (!("code" in out)) layers.push(out);
+    return out;
+  });
+  if (!shapes.ok) {
+    for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
+    return void 0;
+  }
+  return { ...withInput, layers };
+}
+function resolveVocabulary(model, pending, sink) {
+  let input = model.input;
+  let from;
+  let ok = true;
+  for (const [index, p] of pending) {
+    const v = p.vocabulary;
+    if (!v) continue;
+    const layer = model.layers[index];
+    if (layer.inputs[0] !== INPUT) {
+      const reads = model.layers[layer.inputs[0]];
+      sink.error(
+        "config/embedding-vocabulary",
+        `${v.where} is given on layer ${layerLabel(layer)}, which reads layer ${layerLabel(reads)} (line ${reads.span.line}), not the input: only an embedding that reads the token input has one row per token`,
+        v.span
+      );
+      ok = false;
+      continue;
+    }
+    const known = input.vocabulary;
+    if (known === void 0) {
+      for (const field of ["representation", "channels"]) {
+        if (input[field] === void 0) continue;
+        sink.error(
+          "config/conflicting-fields",
+          `${v.where} makes the input a sequence of ${v.value} tokens, but model.input gives ${field === "channels" ? "channels" : "a representation"} (line ${input.fieldSpans[field]?.line ?? input.span.line}): ${field === "channels" ? "a token position holds one token, not channels" : "a token position supports exactly its V indicator functions, so M = V"}; drop it`,
+          v.span
+        );
+        ok = false;
+      }
+      input = { ...input, vocabulary: v.value, fieldSpans: { ...input.fieldSpans, vocabulary: v.span } };
+      from = v;
+    } else if (known !== v.value) {
+      const said = from ? `${from.where} (line ${from.span.line})` : `model.input (line ${input.fieldSpans["vocabulary"]?.line ?? input.span.line})`;
+      sink.error("config/vocabulary-mismatch", `${v.where} is ${v.value}, but ${said} gives a vocabulary of ${known} tokens; a token embedding has one row per token, so they must agree`, v.span);
+      ok = false;
+    }
+  }
+  return ok ? input : void 0;
+}
+function adjust(layer, shape, p, inputWidths) {
+  for (const d of p.declared ?? []) {
+    const problem = check(layer, shape, d);
+    if (problem) return problem;
+  }
+  const factor = p.unitsPerWidth;
+  if (!factor || layer.kind !== "dense") return layer;
+  const width = inputWidths[layer.index + factor.offset];
+  const units = factor.value * width;
+  if (!Number.isSafeInteger(units) || units < 1) {
+    return {
+      code: "config/mlp-width",
+      message: `${factor.where} is ${factor.value}, and ${factor.value} × the width ${width} is not a whole number of units; give the MLP's width instead (e.g. mlp: ${Math.max(1, Math.round(units))})`,
+      span: factor.span
+    };
+  }
+  return { ...layer, units };
+}
+function check(layer, shape, d) {
+  const where2 = `layer ${layerLabel(layer)}`;
+  switch (d.against) {
+    case "input-width":
+      if (d.value === shape.width) return void 0;
+      return { code: "config/width-mismatch", message: `${d.where} is ${d.value}, but ${where2} reads vectors of width ${shape.width}; it must equal the width of the layer's input`, span: d.span };
+    case "head-width": {
+      if (layer.kind !== "attention") return void 0;
+      const a = layer.headDim ?? shape.width / layer.heads;
+      if (d.value === a) return void 0;
+      return { code: "config/width-mismatch", message: `${d.where} is ${d.value}, but the heads of ${where2} are ${a} wide (queries, keys and values have one head width here); drop it or make it equal`, span: d.span };
+    }
+    case "positions": {
+      const n = positionCount(shape.shape);
+      if (d.value >= n) return void 0;
+      return { code: "config/too-few-positions", message: `${d.where} is ${d.value}, but ${where2} reads ${n} positions; the table needs a vector for every position`, span: d.span };
+    }
+  }
+}
+
 // src/config/build-layered.ts
 function buildLayeredModel(root, file, sink) {
   const inputNode = asMap(fieldOf(root, "input"));
@@ -12043,9 +12930,10 @@ function buildLayeredModel(root, file, sink) {
   const templates = layersNode ? readLayerList(layersNode, ctx) : void 0;
   const refs = templates && checkNames(templates, sink);
   if (!input || !output || weightSharing === void 0 || !templates || !refs || !layersNode) return void 0;
-  const layers = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
-  if (!layers) return void 0;
-  return { kind: "layered", file, input, weightSharing, layers, output, span: root.span };
+  const expanded = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
+  if (!expanded) return void 0;
+  const model = { kind: "layered", file, input, weightSharing, layers: expanded.layers, output, span: root.span };
+  return resolvePending(model, expanded.pending, sink);
 }
 
 // src/config/diagnostic-sink.ts
@@ -12086,9 +12974,15 @@ function compare(a, b) {
 var INPUT_ALIASES = /* @__PURE__ */ new Map([
   ["features", "channels"],
   ["in_channels", "channels"],
-  ["num_channels", "channels"]
+  ["num_channels", "channels"],
+  ["vocab_size", "vocabulary"],
+  ["vocabulary_size", "vocabulary"],
+  ["vocab", "vocabulary"],
+  ["num_tokens", "vocabulary"],
+  ["n_vocab", "vocabulary"],
+  ["ntoken", "vocabulary"]
 ]);
-var INPUT_FIELDS = ["shape", "channels", "representation"];
+var INPUT_FIELDS = ["shape", "channels", "representation", "vocabulary"];
 function normaliseFieldAliases(root, sink) {
   if (root.kind !== "map") return;
   const input = fieldOf(root, "input");
@@ -12690,7 +13584,11 @@ var FIELDS = {
   dense: same2("units"),
   flatten: [],
   upsample: same2("factor", "mode"),
-  recurrent: same2("hidden", "depth"),
+  recurrent: same2("hidden", "depth", "cell", "bidirectional", "merge", "sequence"),
+  embedding: same2("dim"),
+  position: same2("mode"),
+  "class-token": [],
+  attention: [...same2("heads"), ["headDim", "head_dim"], ...same2("causal", "window")],
   pointwise: same2("op"),
   merge: same2("mode")
 };

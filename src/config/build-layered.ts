@@ -1,8 +1,9 @@
 /**
  * Builds the normalised `LayeredModel` from a (schema-checked) located tree: the input and output
  * specs, the layer list read into templates (every entry form, alias and block), the names and
- * `from:` references checked, and the templates expanded into the DAG of layers. Shapes are
- * inferred afterwards by the loader (`model-shapes.ts`), on the finished model.
+ * `from:` references checked, and the templates expanded into the DAG of layers; then what needs
+ * widths (stated sizes, an MLP ratio, an embedding's vocabulary) is resolved (`resolve-pending.ts`).
+ * Shapes are inferred afterwards by the loader (`model-shapes.ts`), on the finished model.
  */
 import type { LayeredModel } from './model.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
@@ -13,6 +14,7 @@ import { readInput, readOutput } from './read-input.js';
 import { readLayerList } from './read-layers.js';
 import { checkNames } from './layer-names.js';
 import { expandTemplates } from './expand-layers.js';
+import { resolvePending } from './resolve-pending.js';
 
 /** `paramsOf`: in an architecture definition, the parameters a value was computed from. */
 export function buildLayeredModel(root: LocatedMap, file: string, sink: DiagnosticSink, paramsOf?: ReadContext['paramsOf']): LayeredModel | undefined {
@@ -33,7 +35,8 @@ export function buildLayeredModel(root: LocatedMap, file: string, sink: Diagnost
   const templates = layersNode ? readLayerList(layersNode, ctx) : undefined;
   const refs = templates && checkNames(templates, sink);
   if (!input || !output || weightSharing === undefined || !templates || !refs || !layersNode) return undefined;
-  const layers = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
-  if (!layers) return undefined;
-  return { kind: 'layered', file, input, weightSharing, layers, output, span: root.span };
+  const expanded = expandTemplates(templates, refs, displayPath(layersNode), layersNode.span, sink);
+  if (!expanded) return undefined;
+  const model: LayeredModel = { kind: 'layered', file, input, weightSharing, layers: expanded.layers, output, span: root.span };
+  return resolvePending(model, expanded.pending, sink);
 }

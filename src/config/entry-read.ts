@@ -4,7 +4,7 @@
  */
 import type { Located } from './located-value.js';
 import { displayPath } from './located-value.js';
-import type { ReadContext } from './field-readers.js';
+import { readBoolean, readPositiveInteger, type ReadContext } from './field-readers.js';
 import type { LayerEntry } from './layer-entry.js';
 import type { LayerFields } from './layer-fields.js';
 import type { MadeLayer, NameDef, Site, Template } from './layer-templates.js';
@@ -42,4 +42,20 @@ export function requireField(r: EntryRead, field: string, what: string, ctx: Rea
   if (r.fields.wasSuggested(field)) return false;
   ctx.sink.error('config/missing-field', `${displayPath(r.entry.body)} is missing '${field}' (${what})`, r.entry.body.span);
   return false;
+}
+
+/** An optional positive integer field: undefined when absent, false after an error. */
+export function optionalPositive(r: EntryRead, field: string, ctx: ReadContext): number | undefined | false {
+  const node = r.fields.get(field);
+  if (!node) return undefined;
+  return readPositiveInteger(node, ctx) ?? false;
+}
+
+/** `bias: false` is recorded for the parameter count; absent or true is the default. */
+export function readBias(r: EntryRead, ctx: ReadContext): { bias?: false } | undefined {
+  const node = r.fields.get('bias');
+  if (!node) return {};
+  const b = readBoolean(node, ctx);
+  if (b === undefined) return undefined;
+  return b ? {} : { bias: false };
 }

@@ -10,10 +10,16 @@ import type { Span } from '../diagnostic.js';
 import { INPUT, type FieldParameters, type Layer, type ParameterUse } from './model.js';
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { MAX_EXPANDED_LAYERS } from './limits.js';
-import { countOne, expandedCount, type MadeLayer, type NameRef, type Template } from './layer-templates.js';
+import { countOne, expandedCount, type MadeLayer, type NameRef, type Pending, type Template } from './layer-templates.js';
 import type { RefResolution } from './layer-names.js';
 
 type RepeatTemplate = Extract<Template, { t: 'repeat' }>;
+
+/** The layers, and what is left to resolve once shapes are known (by layer index). */
+export interface Expanded {
+  readonly layers: Layer[];
+  readonly pending: ReadonlyMap<number, Pending>;
+}
 
 export function expandTemplates(
   templates: readonly Template[],
@@ -21,7 +27,7 @@ export function expandTemplates(
   listPath: string,
   listSpan: Span,
   sink: DiagnosticSink,
-): Layer[] | undefined {
+): Expanded | undefined {
   const total = expandedCount(templates);
   if (total > MAX_EXPANDED_LAYERS) {
     const amount = Number.isSafeInteger(total) ? `${total} layers` : `more than ${Number.MAX_SAFE_INTEGER} layers`;
@@ -58,6 +64,7 @@ function biggestRepeat(templates: readonly Template[]): RepeatTemplate | undefin
 
 class Expansion {
   private readonly out: Layer[] = [];
+  private readonly pending = new Map<number, Pending>();
   /** Label → the output layer of the entry that carries it. */
   private readonly labels = new Map<string, number>();
   /** Iterations (1-based) of the enclosing repeats, outermost first. */
@@ -67,9 +74,9 @@ class Expansion {
 
   constructor(private readonly refs: ReadonlyMap<NameRef, RefResolution>) {}
 
-  run(templates: readonly Template[]): Layer[] {
+  run(templates: readonly Template[]): Expanded {
     this.list(templates, INPUT);
-    return this.out;
+    return { layers: this.out, pending: this.pending };
   }
 
   private list(templates: readonly Template[], input: number): number {
@@ -98,6 +105,9 @@ class Expansion {
       ...(fieldParams ? { fieldParams } : {}),
     } as Layer;
     this.out.push(layer);
+    if (m.declared || m.unitsPerWidth || m.vocabulary) {
+      this.pending.set(index, { ...(m.declared ? { declared: m.declared } : {}), ...(m.unitsPerWidth ? { unitsPerWidth: m.unitsPerWidth } : {}), ...(m.vocabulary ? { vocabulary: m.vocabulary } : {}) });
+    }
     return index;
   }
 

@@ -16,9 +16,15 @@ export const INPUT_ALIASES: ReadonlyMap<string, string> = new Map([
   ['features', 'channels'],
   ['in_channels', 'channels'],
   ['num_channels', 'channels'],
+  ['vocab_size', 'vocabulary'],
+  ['vocabulary_size', 'vocabulary'],
+  ['vocab', 'vocabulary'],
+  ['num_tokens', 'vocabulary'],
+  ['n_vocab', 'vocabulary'],
+  ['ntoken', 'vocabulary'],
 ]);
 
-const INPUT_FIELDS = ['shape', 'channels', 'representation'];
+const INPUT_FIELDS = ['shape', 'channels', 'representation', 'vocabulary'];
 
 export function normaliseFieldAliases(root: Located, sink: DiagnosticSink): void {
   if (root.kind !== 'map') return;

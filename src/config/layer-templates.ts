@@ -20,12 +20,42 @@ export interface Site {
   readonly fieldParams?: FieldParameters;
 }
 
+/** A value the config states for a layer, as written (for messages and spans). */
+export interface Stated {
+  readonly value: number;
+  readonly span: Span;
+  /** `model.layers[3].embed_dim`. */
+  readonly where: string;
+}
+
+/**
+ * A size a config states that can be checked only once widths are known (after expansion): the
+ * layer's input width (`embed_dim`), its head width (`value_dim`), or at least its input positions
+ * (a position table's `max_len`).
+ */
+export interface DeclaredSize extends Stated {
+  readonly against: 'input-width' | 'head-width' | 'positions';
+}
+
 /** One layer to be made, and whether it carries its entry's name as its label. */
 export interface MadeLayer {
   readonly body: LayerBody;
   readonly site: Site;
   readonly labelled?: boolean;
+  /** Sizes to check against the layer's input once shapes are known. */
+  readonly declared?: readonly DeclaredSize[];
+  /**
+   * A dense layer whose units are a multiple of the input width of the layer `offset` places
+   * before it (0: itself) — a transformer block's MLP, and its map back to the block's width; its
+   * `units` are filled in once shapes are known.
+   */
+  readonly unitsPerWidth?: Stated & { readonly offset: number };
+  /** An embedding's own vocabulary (`num_embeddings`): checked against the token input, or gives it. */
+  readonly vocabulary?: Stated;
 }
+
+/** The parts of a made layer that are resolved after expansion, by layer index. */
+export type Pending = Pick<MadeLayer, 'declared' | 'unitsPerWidth' | 'vocabulary'>;
 
 export interface NameDef {
   readonly text: string;

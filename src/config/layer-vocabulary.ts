@@ -71,6 +71,136 @@ export function pointwiseFields(family: string): FieldSpec[] {
   return [...rate, ...params, NAME];
 }
 
+/** A width stated beside the one the layer reads: checked against the width of its input. */
+const WIDTH = f('width', 'the width the layer reads and keeps; checked against its input', ['dim', 'embed_dim', 'embedding_dim', 'd_model', 'hidden_size', 'hidden_dim', 'n_embd']);
+
+const RECURRENT_FIELDS: readonly FieldSpec[] = [
+  f('hidden', 'hidden state size (required)', ['hidden_size', 'units', 'hidden_dim', 'num_units']),
+  f('depth', 'stacked layers (default 1)', ['num_layers', 'n_layers']),
+  f('bidirectional', 'true: a forward and a backward chain per level (default false)'),
+  f('merge', 'how a bidirectional layer joins its two directions at each step: `concat` (default; width 2·hidden) or `sum`', ['merge_mode']),
+  f('sequence', 'true (default): one output per step; false: the final state only', ['return_sequences']),
+  f('proj_size', 'only 0 is read: a projection changes the width the recurrence carries'),
+  f('go_backwards', 'only false is read: write bidirectional for both directions'),
+  ignored('input_size', 'accepted, ignored (the input width follows from the previous layer)'),
+  ignored('nonlinearity', 'accepted, ignored (the surrogate integrates multiplicatively)', ['activation']),
+  ignored('recurrent_activation', 'accepted, ignored (gates are not modelled)'),
+  ignored('dropout', 'accepted, ignored (between stacked layers; the identity at inference)'),
+  ignored('recurrent_dropout', 'accepted, ignored'),
+  ignored('batch_first', 'accepted, ignored', ['time_major']),
+  ignored('return_state', 'accepted, ignored (the layer\'s output is analysed)'),
+  ignored('stateful', 'accepted, ignored'),
+  ignored('unroll', 'accepted, ignored'),
+  ignored('reset_after', 'accepted, ignored'),
+  ignored('unit_forget_bias', 'accepted, ignored'),
+  ignored('recurrent_initializer', 'accepted, ignored'),
+  ignored('recurrent_regularizer', 'accepted, ignored'),
+  ignored('recurrent_constraint', 'accepted, ignored'),
+  BIAS,
+  ...TRAINING_ONLY,
+  NAME,
+];
+
+const EMBEDDING_FIELDS: readonly FieldSpec[] = [
+  f('dim', 'embedding width (required)', ['embedding_dim', 'embed_dim', 'embedding_size', 'd_model', 'output_dim', 'features']),
+  f('vocabulary', 'rows of the table, one per token: gives the input its vocabulary, or must equal it', ['num_embeddings', 'vocab_size', 'vocabulary_size', 'input_dim', 'n_vocab', 'num_tokens']),
+  ignored('padding_idx', 'accepted, ignored: the padding token is read as an ordinary token (its row learned)', ['mask_zero']),
+  ignored('max_norm', 'accepted, ignored (a lookup stays a lookup)'),
+  ignored('norm_type', 'accepted, ignored'),
+  ignored('scale_grad_by_freq', 'accepted, ignored'),
+  ignored('sparse', 'accepted, ignored'),
+  ignored('input_length', 'accepted, ignored (the length is input.shape)'),
+  ignored('embeddings_initializer', 'accepted, ignored'),
+  ignored('embeddings_regularizer', 'accepted, ignored'),
+  ignored('embeddings_constraint', 'accepted, ignored'),
+  ...TRAINING_ONLY,
+  ...SHORTCUT_FIELDS,
+  NAME,
+];
+
+const POSITION_FIELDS: readonly FieldSpec[] = [
+  f('mode', '`learned` (default; also `learnable`, `absolute`) or `fixed` (`sinusoidal`, `sincos`): both read as a learned vector per position', ['encoding', 'position_embedding_type']),
+  f('positions', 'rows of the table: at least the positions of the grid', [
+    'max_len',
+    'max_length',
+    'max_position_embeddings',
+    'num_positions',
+    'n_positions',
+    'max_seq_len',
+    'max_seq_length',
+    'context_length',
+    'block_size',
+  ]),
+  WIDTH,
+  ignored('initializer', 'accepted, ignored'),
+  ...SHORTCUT_FIELDS,
+  NAME,
+];
+
+const HEADS = f('heads', 'attention heads (required)', ['num_heads', 'n_head', 'n_heads', 'nhead', 'num_attention_heads']);
+const HEAD_DIM = f('head_dim', 'width of each head\'s queries, keys and values (default: the width / heads)', ['key_dim', 'head_size', 'd_head', 'kv_channels']);
+const CAUSAL = f('causal', 'true: position i attends only to positions j ≤ i (default false)', ['is_causal', 'masked', 'autoregressive']);
+const MASK = f('mask', '`causal` (also `lower_triangular`), or `none` (`full`, `bidirectional`)', ['attn_mask', 'attention_mask', 'mask_type']);
+const WINDOW = f('window', 'local attention (1D): position i attends only to j with |i − j| ≤ window', ['local_window', 'attention_window', 'window_size', 'sliding_window']);
+const KV_HEADS = f('num_kv_heads', 'only equal to heads is read (grouped keys and values are not modelled)', ['n_kv_heads', 'num_key_value_heads', 'n_kv_head']);
+const ROTARY = f('rotary', 'only false is read: rotary position schemes act inside attention', ['use_rotary', 'rope', 'use_rope']);
+const ATTENTION_DROPOUT = ignored('dropout', 'accepted, ignored (the identity at inference)', ['attn_dropout', 'attention_dropout', 'attn_pdrop', 'attention_probs_dropout_prob']);
+
+const ATTENTION_FIELDS: readonly FieldSpec[] = [
+  HEADS,
+  HEAD_DIM,
+  WIDTH,
+  CAUSAL,
+  MASK,
+  WINDOW,
+  KV_HEADS,
+  ROTARY,
+  f('kdim', 'only the input width is read (keys from another sequence are cross-attention)'),
+  f('vdim', 'only the input width is read'),
+  f('value_dim', 'only the head width is read'),
+  f('add_bias_kv', 'only false is read (a learned extra key and value)'),
+  f('add_zero_attn', 'only false is read'),
+  {
+    name: 'output_shape',
+    doc: 'refused',
+    aliases: [],
+    refused: "the attention layer's output keeps its input width; a different output width is a dense layer after it",
+  },
+  { name: 'attention_axes', doc: 'refused', aliases: [], refused: 'attention runs over every position of the grid (row-major); other axes are not read' },
+  ATTENTION_DROPOUT,
+  ignored('batch_first', 'accepted, ignored'),
+  BIAS,
+  ...TRAINING_ONLY,
+  NAME,
+];
+
+const TRANSFORMER_FIELDS: readonly FieldSpec[] = [
+  HEADS,
+  HEAD_DIM,
+  WIDTH,
+  f('mlp', 'hidden width of the position-wise MLP', ['dim_feedforward', 'mlp_dim', 'ffn_dim', 'd_ff', 'ff_dim', 'feedforward_dim', 'intermediate_size', 'mlp_hidden_dim']),
+  f('mlp_ratio', 'the MLP width as a multiple of the block width (default 4)', ['ffn_ratio', 'mlp_expansion']),
+  f('activation', 'the MLP\'s activation (default gelu)', ['act', 'hidden_act', 'ffn_activation', 'mlp_activation']),
+  f('norm', '`pre` (default: a norm before attention and before the MLP) or `post` (after each sum)', ['norm_position', 'norm_placement']),
+  f('norm_first', 'true: `norm: pre`; false: `norm: post`', ['pre_norm', 'prenorm']),
+  f('norm_type', '`layer` (default) or `rms`', ['norm_layer']),
+  CAUSAL,
+  MASK,
+  WINDOW,
+  KV_HEADS,
+  ROTARY,
+  f('depth', 'blocks in a stack (default 1); copies are labelled name[1], name[2], …', ['num_layers', 'n_layers', 'n_layer']),
+  // Dropout is the identity at inference; blocks often give several rates, one per place.
+  ignored('dropout', 'accepted, ignored', ['dropout_rate']),
+  ignored('attention_dropout', 'accepted, ignored', ['attn_dropout', 'attn_pdrop', 'attention_probs_dropout_prob']),
+  ignored('activation_dropout', 'accepted, ignored'),
+  ignored('resid_dropout', 'accepted, ignored', ['resid_pdrop', 'hidden_dropout', 'hidden_dropout_prob']),
+  ignored('layer_norm_eps', 'accepted, ignored', ['norm_eps', 'eps', 'epsilon']),
+  ignored('batch_first', 'accepted, ignored'),
+  BIAS,
+  NAME,
+];
+
 export const LAYER_FIELDS: ReadonlyMap<ReaderKind, readonly FieldSpec[]> = new Map<ReaderKind, readonly FieldSpec[]>([
   [
     'conv',
@@ -153,22 +283,12 @@ export const LAYER_FIELDS: ReadonlyMap<ReaderKind, readonly FieldSpec[]> = new M
       NAME,
     ],
   ],
-  [
-    'recurrent',
-    [
-      f('hidden', 'hidden state size', ['hidden_size', 'units']),
-      f('depth', 'stacked layers (default 1)', ['num_layers']),
-      { name: 'bidirectional', doc: 'only false is read', aliases: [] },
-      { name: 'return_sequences', doc: 'only false is read (the layer ends on its last state)', aliases: [] },
-      ignored('input_size', 'accepted, ignored'),
-      ignored('nonlinearity', 'accepted, ignored (the surrogate integrates multiplicatively)', ['activation']),
-      ignored('dropout', 'accepted, ignored', ['recurrent_dropout']),
-      ignored('batch_first', 'accepted, ignored'),
-      ignored('bias', 'accepted, ignored', ['use_bias']),
-      ...TRAINING_ONLY,
-      NAME,
-    ],
-  ],
+  ['recurrent', RECURRENT_FIELDS],
+  ['embedding', EMBEDDING_FIELDS],
+  ['position', POSITION_FIELDS],
+  ['class_token', [WIDTH, ignored('initializer', 'accepted, ignored'), NAME]],
+  ['attention', ATTENTION_FIELDS],
+  ['transformer_block', TRANSFORMER_FIELDS],
   ['repeat', [f('times', 'how many copies (required)', ['count', 'repeats']), f('layers', 'the layers repeated, in order'), NAME]],
   [
     'residual',

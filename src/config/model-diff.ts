@@ -50,7 +50,11 @@ const FIELDS: Record<Layer['kind'], Compared> = {
   dense: same('units'),
   flatten: [],
   upsample: same('factor', 'mode'),
-  recurrent: same('hidden', 'depth'),
+  recurrent: same('hidden', 'depth', 'cell', 'bidirectional', 'merge', 'sequence'),
+  embedding: same('dim'),
+  position: same('mode'),
+  'class-token': [],
+  attention: [...same('heads'), ['headDim', 'head_dim'], ...same('causal', 'window')],
   pointwise: same('op'),
   merge: same('mode'),
 };
@@ -67,7 +71,7 @@ export function diffModels(base: Model, head: Model): FieldChange[] {
     const b = show(to);
     if (a !== b) changes.push({ layer, field: name, from: a, to: b, span });
   };
-  for (const name of ['shape', 'channels', 'representation'] as const) {
+  for (const name of ['shape', 'channels', 'representation', 'vocabulary'] as const) {
     field('input', name, base.input[name], head.input[name], head.input.fieldSpans[name] ?? head.input.span);
   }
   field('model', 'weight_sharing', base.weightSharing, head.weightSharing, head.span);

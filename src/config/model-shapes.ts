@@ -36,6 +36,8 @@ export interface ModelShapes {
   readonly groups: readonly number[];
   /** For each dense layer, how it reads its grid; undefined for other kinds. */
   readonly denseReading: readonly (DenseReading | undefined)[];
+  /** For each attention layer, the width of its heads (given, or the input width / heads); 0 elsewhere. */
+  readonly headDims: readonly number[];
   /** The analysed output position in the last layer's grid, and whether it was defaulted. */
   readonly output: { readonly position: readonly number[]; readonly defaulted: boolean };
 }
@@ -45,7 +47,21 @@ export type ShapesResult = { ok: true; shapes: ModelShapes } | { ok: false; diag
 /** Widths above this are refused (flatten and concatenation multiply and add widths): dimensions are 32-bit. */
 export const MAX_WIDTH = 2 ** 31 - 1;
 
-export function inferShapes(model: LayeredModel): ShapesResult {
+/** A problem `LayerAdjust` finds with a layer's stated sizes. */
+export interface AdjustProblem {
+  readonly code: string;
+  readonly message: string;
+  readonly span: Span;
+}
+
+/**
+ * Called with each layer and its (first) input's shape before the layer is inferred: the loader
+ * fills sizes that follow from the input (a transformer block's MLP width) and checks sizes the
+ * config states (`embed_dim`), returning the layer to infer, or a problem.
+ */
+export type LayerAdjust = (layer: Layer, input: LayerShape) => Layer | AdjustProblem;
+
+export function inferShapes(model: LayeredModel, adjust?: LayerAdjust): ShapesResult {
   const diagnostics: Diagnostic[] = [];
   const fail = (span: Span, code: string, message: string): ShapesResult => {
     diagnostics.push({ code, message, file: model.file, span, severity: 'error' });
@@ -62,18 +78,23 @@ export function inferShapes(model: LayeredModel): ShapesResult {
   const out: LayerShape[] = [];
   const groups: number[] = [];
   const denseReading: (DenseReading | undefined)[] = [];
+  const headDims: number[] = [];
   /** Layers that reach the input through pointwise layers only (for a dense layer reading it whole). */
   const rawInput = new Set<number>([INPUT]);
   const inShape = (i: number): LayerShape => (i === INPUT ? { shape: model.input.shape, width: m } : out[i]!);
 
-  for (const layer of model.layers) {
-    const where = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
-    const ins = layer.inputs.map(inShape);
+  for (const written of model.layers) {
+    const ins = written.inputs.map(inShape);
     const first = ins[0]!;
+    const adjusted = adjust ? adjust(written, first) : written;
+    if ('code' in adjusted) return fail(adjusted.span, adjusted.code, adjusted.message);
+    const layer = adjusted;
+    const where = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
     const dims = first.shape.length;
     let result: LayerShape;
     groups.push(1);
     denseReading.push(undefined);
+    headDims.push(0);
     switch (layer.kind) {
       case 'conv': {
         const axes = perAxis(layer, first.shape);
@@ -128,12 +149,35 @@ export function inferShapes(model: LayeredModel): ShapesResult {
       case 'upsample':
         result = { shape: first.shape.map((n, a) => n * layer.factor[a]!), width: first.width };
         break;
-      case 'recurrent':
+      case 'recurrent': {
         if (dims !== 1) {
           return fail(layer.span, 'config/recurrent-needs-1d', `${where}: a recurrent layer needs a 1D sequence, but the grid is [${first.shape.join(', ')}] here`);
         }
-        result = { shape: [1], width: layer.hidden };
+        const width = layer.bidirectional && layer.merge === 'concat' ? 2 * layer.hidden : layer.hidden;
+        result = { shape: layer.sequence ? first.shape : [1], width };
         break;
+      }
+      case 'embedding':
+        result = { shape: first.shape, width: layer.dim };
+        break;
+      case 'position':
+        result = first;
+        break;
+      case 'class-token':
+        result = { shape: [positionCount(first.shape) + 1], width: first.width };
+        break;
+      case 'attention': {
+        const a = layer.headDim ?? first.width / layer.heads;
+        if (!Number.isInteger(a) || a < 1) {
+          return fail(layer.fieldSpans['heads'] ?? layer.span, 'config/attention-heads', `${where}: ${layer.heads} heads do not divide the width ${first.width}; give head_dim`);
+        }
+        if (layer.window !== undefined && dims !== 1) {
+          return fail(layer.fieldSpans['window'] ?? layer.span, 'config/attention-window', `${where}: a local window needs a 1D sequence, but the grid is [${first.shape.join(', ')}] here`);
+        }
+        headDims[layer.index] = a;
+        result = first;
+        break;
+      }
       case 'pointwise':
         result = first;
         if (layer.inputs.every((i) => rawInput.has(i))) rawInput.add(layer.index);
@@ -160,9 +204,9 @@ export function inferShapes(model: LayeredModel): ShapesResult {
     out.push(result);
   }
   const last = out[out.length - 1]!;
-  const output = outputPosition(model, last.shape);
+  const output = outputPosition(model, last.shape, out, denseReading);
   if (typeof output === 'string') return fail(model.output.span ?? model.span, 'config/output-position', output);
-  return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, output } };
+  return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, headDims, output } };
 }
 
 function perAxis(layer: ConvLayer, shape: readonly number[]): number[] | string {
@@ -195,10 +239,10 @@ function describeInputs(model: LayeredModel, layer: Layer): string {
 
 /**
  * The analysed output: the single position when one is left; else the configured position, or
- * by default the last position of a 1D grid whose convolutions are all causal, and the centre
- * (⌊n/2⌋ per axis) otherwise.
+ * by default the last position of a causal model, position 0 of a model with a class token, and
+ * the centre (⌊n/2⌋ per axis) otherwise (DEVELOPERS.md, "the analysed output's default").
  */
-function outputPosition(model: LayeredModel, shape: readonly number[]): ModelShapes['output'] | string {
+function outputPosition(model: LayeredModel, shape: readonly number[], shapes: readonly LayerShape[], reading: readonly (DenseReading | undefined)[]): ModelShapes['output'] | string {
   const given = model.output.position;
   if (given) {
     if (given.length !== shape.length) {
@@ -208,8 +252,54 @@ function outputPosition(model: LayeredModel, shape: readonly number[]): ModelSha
     if (outside >= 0) return `output.position [${given.join(', ')}] is outside the last layer's grid [${shape.join(', ')}]`;
     return { position: given, defaulted: false };
   }
-  const convs = model.layers.filter((l) => l.kind === 'conv');
-  const causal = shape.length === 1 && convs.length > 0 && convs.every((l) => l.kind === 'conv' && l.padding.mode === 'causal');
-  const position = shape.map((n) => (causal ? n - 1 : Math.floor(n / 2)));
-  return { position, defaulted: positionCount(shape) > 1 };
+  const single = positionCount(shape) === 1;
+  if (single) return { position: shape.map(() => 0), defaulted: false };
+  if (shape.length === 1 && isCausal(model, shapes, reading)) return { position: [shape[0]! - 1], defaulted: true };
+  if (shape.length === 1 && model.layers.some((l) => l.kind === 'class-token')) return { position: [0], defaulted: true };
+  return { position: shape.map((n) => Math.floor(n / 2)), defaulted: true };
+}
+
+/**
+ * Every layer that can read another position than its own is causal, and there is one: a conv
+ * with causal padding, a unidirectional recurrent layer, an attention layer with a causal mask.
+ */
+function isCausal(model: LayeredModel, shapes: readonly LayerShape[], reading: readonly (DenseReading | undefined)[]): boolean {
+  let mixing = 0;
+  for (const l of model.layers) {
+    let causal: boolean;
+    switch (l.kind) {
+      case 'conv':
+        if (l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1)) continue;
+        causal = l.padding.mode === 'causal';
+        break;
+      case 'pool':
+        if (!l.global && l.window.every((w) => w === 1) && l.stride.every((s) => s === 1)) continue;
+        causal = false;
+        break;
+      case 'recurrent':
+        causal = !l.bidirectional;
+        break;
+      case 'attention':
+        causal = l.causal;
+        break;
+      case 'dense':
+        if (reading[l.index] !== 'input') continue;
+        causal = false;
+        break;
+      case 'conv-transpose':
+      case 'upsample':
+      case 'class-token':
+        causal = false;
+        break;
+      case 'flatten':
+        if (positionCount(l.inputs[0] === INPUT ? model.input.shape : shapes[l.inputs[0]!]!.shape) === 1) continue;
+        causal = false;
+        break;
+      default:
+        continue;
+    }
+    if (!causal) return false;
+    mixing++;
+  }
+  return mixing > 0;
 }

@@ -28,6 +28,11 @@ export interface InputSpec {
   readonly representation?: number;
   /** The data's raw channel count (1 for grayscale, 3 for RGB), when the config states it. Not M. */
   readonly channels?: number;
+  /**
+   * A token input: each position holds one of V tokens, read as its indicator vector, so M = V
+   * exactly (the representation functions of a discrete position are its V indicators).
+   */
+  readonly vocabulary?: number;
   /** The config gave the raw channels under `features`, which earlier versions read as M. */
   readonly featuresAsChannels?: boolean;
   readonly span: Span;
@@ -179,6 +184,52 @@ export interface RecurrentLayer extends LayerBase {
   readonly kind: 'recurrent';
   readonly hidden: number;
   readonly depth: number;
+  /** The real network's cell; every cell is read as the recurrent arithmetic circuit. */
+  readonly cell: 'arithmetic' | 'rnn' | 'lstm' | 'gru';
+  readonly bidirectional: boolean;
+  /** How a bidirectional layer joins its two directions at each step. */
+  readonly merge: 'concat' | 'sum';
+  /** true: one output per step (the grid keeps its length); false: the final state only. */
+  readonly sequence: boolean;
+  /**
+   * The real layer's biases, when the config turns them off (`bias: false`); absent means it has
+   * them. The surrogate has no biases: only the parameter count reads this.
+   */
+  readonly bias?: false;
+}
+
+/** A per-position linear map to `dim` (on a token input: the token embedding). */
+export interface EmbeddingLayer extends LayerBase {
+  readonly kind: 'embedding';
+  readonly dim: number;
+}
+
+/** Adds one vector per position (position embeddings; `fixed` encodings are read as learned). */
+export interface PositionLayer extends LayerBase {
+  readonly kind: 'position';
+  readonly mode: 'learned' | 'fixed';
+}
+
+/** Prepends a learned vector as position 0; the grid becomes a 1D sequence of N + 1 positions. */
+export interface ClassTokenLayer extends LayerBase {
+  readonly kind: 'class-token';
+}
+
+/** Linearised multi-head self-attention over the positions of the grid (row-major). */
+export interface AttentionLayer extends LayerBase {
+  readonly kind: 'attention';
+  readonly heads: number;
+  /** Width of each head's queries, keys and values; absent: the input width divided by `heads`. */
+  readonly headDim?: number;
+  /** Position i attends only to j ≤ i. */
+  readonly causal: boolean;
+  /** 1D: position i attends only to j with |i − j| ≤ window. */
+  readonly window?: number;
+  /**
+   * The real layer's biases (of the query, key, value and output maps), when the config turns them
+   * off (`bias: false`); absent means it has them. Only the parameter count reads this.
+   */
+  readonly bias?: false;
 }
 
 /**
@@ -218,6 +269,10 @@ export type Layer =
   | FlattenLayer
   | UpsampleLayer
   | RecurrentLayer
+  | EmbeddingLayer
+  | PositionLayer
+  | ClassTokenLayer
+  | AttentionLayer
   | PointwiseLayer
   | MergeLayer;
 
@@ -320,13 +375,18 @@ export function layerWidth(layer: Layer): number | undefined {
       return layer.units;
     case 'recurrent':
       return layer.hidden;
+    case 'embedding':
+      return layer.dim;
     default:
       return undefined;
   }
 }
 
+/** Kinds with weights: a value can be set to zero there, and a pointwise layer before one is analysed. */
+export const WEIGHTED_KINDS: ReadonlySet<LayerKind> = new Set<LayerKind>(['conv', 'conv-transpose', 'dense', 'recurrent', 'embedding', 'attention']);
+
 /** Kinds a value passes through unchanged in width on its way from the input to the first map. */
-const PASS_THROUGH: ReadonlySet<LayerKind> = new Set<LayerKind>(['pointwise', 'pool', 'upsample', 'flatten']);
+const PASS_THROUGH: ReadonlySet<LayerKind> = new Set<LayerKind>(['pointwise', 'pool', 'upsample', 'flatten', 'position', 'class-token']);
 
 /**
  * The layers that first map the input to a width: reached from the input through pointwise,
@@ -345,12 +405,14 @@ export function firstMaps(model: LayeredModel): Layer[] {
 }
 
 /**
- * M: `input.representation` when the config sets it, else the largest width among the first
+ * M: the vocabulary of a token input; else `input.representation` when the config sets it, else
+ * the largest width among the first
  * layers that map the input (the representation layer of the real network: a continuous value
  * supports any number of functions, and the first layer with its non-linearity computes them).
  * Undefined when no layer maps the input (the loader reports that).
  */
 export function representationOf(model: LayeredModel): number | undefined {
+  if (model.input.vocabulary !== undefined) return model.input.vocabulary;
   if (model.input.representation !== undefined) return model.input.representation;
   let best: number | undefined;
   for (const layer of firstMaps(model)) {

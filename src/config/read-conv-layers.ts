@@ -9,7 +9,7 @@ import { readBoolean, readNonNegativeInteger, readPerAxis, readPositiveInteger, 
 import { readPadding } from './padding-field.js';
 import { extent } from './grid-geometry.js';
 import type { MadeLayer, Template } from './layer-templates.js';
-import { chainOf, requireField, type EntryRead, type ReaderContext } from './entry-read.js';
+import { chainOf, optionalPositive, readBias, requireField, type EntryRead, type ReaderContext } from './entry-read.js';
 
 interface Window {
   readonly kernel: number[];
@@ -28,21 +28,6 @@ function readWindow(r: EntryRead, ctx: ReadContext): Window | undefined {
   const stride = axis('stride');
   const dilation = axis('dilation');
   return kernel && stride && dilation ? { kernel, stride, dilation } : undefined;
-}
-
-function optionalPositive(r: EntryRead, field: string, ctx: ReadContext): number | undefined | false {
-  const node = r.fields.get(field);
-  if (!node) return undefined;
-  return readPositiveInteger(node, ctx) ?? false;
-}
-
-/** `bias: false` is recorded for the parameter count; absent or true is the default. */
-function readBias(r: EntryRead, ctx: ReadContext): { bias?: false } | undefined {
-  const node = r.fields.get('bias');
-  if (!node) return {};
-  const b = readBoolean(node, ctx);
-  if (b === undefined) return undefined;
-  return b ? {} : { bias: false };
 }
 
 export function readConv(r: EntryRead, ctx: ReaderContext): Template | undefined {

@@ -3,7 +3,8 @@
  * `num_channels`) is the data's raw channel count — 1 for grayscale, 3 for RGB — and never M;
  * `input.representation` sets M. A shape written with its channel axis (`[3, 224, 224]` or
  * `[224, 224, 3]`) is accepted when that axis equals the channels, and dropped. `output.position`
- * picks the analysed position of a dense-prediction model.
+ * picks the analysed position of a dense-prediction model. `input.vocabulary` (or `vocab_size`, …)
+ * makes a token input: M is then V, and neither channels nor a representation may be given.
  */
 import type { DiagnosticSink } from './diagnostic-sink.js';
 import { displayPath, entryOf, fieldOf, type Located, type LocatedMap } from './located-value.js';
@@ -20,8 +21,11 @@ export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink, pa
   const channels = positiveIntegerOf(channelsNode);
   const reprNode = fieldOf(node, 'representation');
   const representation = positiveIntegerOf(reprNode);
+  const vocabNode = fieldOf(node, 'vocabulary');
+  const vocabulary = positiveIntegerOf(vocabNode);
   if (!shapeNode || !given || given.length < 1 || given.length > 3) return undefined;
-  if ((channelsNode && channels === undefined) || (reprNode && representation === undefined)) return undefined;
+  if ((channelsNode && channels === undefined) || (reprNode && representation === undefined) || (vocabNode && vocabulary === undefined)) return undefined;
+  if (vocabulary !== undefined && !tokenFieldsAgree(node, sink)) return undefined;
   let shape = given;
   if (given.length === 3) {
     const at = displayPath(shapeNode);
@@ -62,11 +66,31 @@ export function readInput(node: LocatedMap | undefined, sink: DiagnosticSink, pa
     shape,
     ...(representation !== undefined ? { representation } : {}),
     ...(channels !== undefined ? { channels } : {}),
+    ...(vocabulary !== undefined ? { vocabulary } : {}),
     ...(featuresAsChannels ? { featuresAsChannels: true } : {}),
     span: node.span,
-    fieldSpans: fieldSpansOf(node, ['shape', 'representation', 'channels']),
+    fieldSpans: fieldSpansOf(node, ['shape', 'representation', 'channels', 'vocabulary']),
     ...(Object.keys(fieldParams).length > 0 ? { fieldParams } : {}),
   };
+}
+
+/**
+ * A token input carries exactly V functions per position and no channels: `representation` and
+ * `channels` beside a vocabulary are reported at their keys.
+ */
+function tokenFieldsAgree(node: LocatedMap, sink: DiagnosticSink): boolean {
+  const vocab = entryOf(node, 'vocabulary')!.writtenKey;
+  let ok = true;
+  for (const [field, why] of [
+    ['representation', 'a token position supports exactly its V indicator functions, so M = V'],
+    ['channels', 'a token position holds one token, not channels'],
+  ] as const) {
+    const entry = entryOf(node, field);
+    if (!entry) continue;
+    sink.error('config/conflicting-fields', `${displayPath(node)} gives both '${vocab}' and '${entry.writtenKey}': ${why}; drop '${entry.writtenKey}'`, entry.keySpan);
+    ok = false;
+  }
+  return ok;
 }
 
 /** Reads `output` (already schema-checked): `position: [r, c]`, or an integer in 1D. */

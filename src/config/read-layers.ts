@@ -16,7 +16,9 @@ import type { Site, Template } from './layer-templates.js';
 import type { EntryRead, ReaderContext } from './entry-read.js';
 import { readConv, readConvTranspose, readSeparableConv } from './read-conv-layers.js';
 import { readPool, readUpsample } from './read-grid-layers.js';
-import { readActivationLayer, readDense, readFlatten, readPointwise, readRecurrent } from './read-plain-layers.js';
+import { readActivationLayer, readDense, readFlatten, readPointwise } from './read-plain-layers.js';
+import { readAttention, readClassToken, readEmbedding, readPosition, readRecurrent } from './read-sequence-layers.js';
+import { readTransformerBlock } from './read-transformer-block.js';
 import { readBranches, readRepeat, readResidual, readSequence, readSkip } from './read-blocks.js';
 
 type KindReader = (r: EntryRead, ctx: ReaderContext) => Template | undefined;
@@ -30,6 +32,11 @@ const READERS: Record<ReaderKind, KindReader> = {
   dense: readDense,
   flatten: readFlatten,
   recurrent: readRecurrent,
+  embedding: readEmbedding,
+  position: readPosition,
+  class_token: readClassToken,
+  attention: readAttention,
+  transformer_block: readTransformerBlock,
   pointwise: readPointwise,
   activation: readActivationLayer,
   repeat: readRepeat,

@@ -74,13 +74,15 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
 
   const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
-    const deg = circuit.reuse ? degreeBound(circuit, p.side) : null;
-    const prop = circuit.sums ? rankPropagation(circuit, p.side) : null;
-    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity);
+    // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
+    const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
+    const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side) : null;
+    const tokens = model.input.vocabulary === undefined ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
-      const counts = best === cut.value ? cut.counts : best === prop?.log2 ? prop.counts : deg!.counts;
-      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : 'degree';
+      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : best === deg?.log2 ? 'degree' : 'token count';
+      const counts = method === 'min-cut' ? cut.counts : method === 'rank propagation' ? prop!.counts : method === 'degree' ? deg!.counts : new Map();
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
       return finish(p.label, { upper, lower: bestLower(p, upper) });
     }
@@ -90,6 +92,16 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
     ];
     if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
+    // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
+    // columns, whatever the network does with them (reuse included).
+    const vocabulary = model.input.vocabulary;
+    if (vocabulary !== undefined) {
+      const k = Math.min(...sideSizes(p.side));
+      candidates.push({
+        log2: k * Math.log2(vocabulary),
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: 'token count', cut: [{ layer: 'input', line: model.input.span.line, dim: vocabulary, count: k }] }),
+      });
+    }
     if (prop) {
       candidates.push({
         log2: prop.log2,
@@ -110,9 +122,10 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   const bestLower = (p: Partition, upper: Bound): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
-    const published = publishedRecurrentLower(model, p);
+    const recurrent = recurrentOnInput(model, built.shapes);
+    const published = recurrent && publishedRecurrentLower(model, recurrent, p);
     if (published) lowers.push(published);
-    const shallow = shallowRecurrentLower(model, p);
+    const shallow = recurrent && shallowRecurrentLower(recurrent, p);
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
@@ -284,15 +297,15 @@ function diagonalLower(c: Circuit, side: Uint8Array): Bound {
  * T: separation rank ≥ C(min(M, R) + T/2 − 1, T/2) (Levine, Sharir, Ziv, Shashua, "Benefits of
  * depth for long-term memory of recurrent networks").
  */
-function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const first = recurrentOnInput(model);
-  if (!first || first.depth !== 2) return undefined;
+function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: Partition): Bound | undefined {
+  const first = on.layer;
+  if (first.depth !== 2) return undefined;
   if (model.input.shape.length !== 1) return undefined;
   const t = model.input.shape[0]!;
   if (t % 2 !== 0) return undefined;
   const startEnd = resolvePartition('start-end', model.input.shape);
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return undefined;
-  const m = Math.min(representationOf(model)!, first.hidden);
+  const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   return { rank, log2: log2Big(rank), method: 'published depth-2 recurrent', cut: [] };
 }
@@ -304,15 +317,15 @@ function publishedRecurrentLower(model: LayeredModel, p: Partition): Bound | und
  * span min(R, C(M + |A| − 1, |A|)) dimensions (the Veronese variety spans the symmetric power), so
  * by Sylvester's inequality rank ≥ ρ_A + ρ_B − R. One weight choice suffices for a lower bound.
  */
-function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undefined {
-  const first = recurrentOnInput(model);
-  if (!first || first.depth !== 1) return undefined;
+function shallowRecurrentLower(on: RecurrentOnInput, p: Partition): Bound | undefined {
+  const first = on.layer;
+  if (first.depth !== 1) return undefined;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
-  const m = representationOf(model)!;
+  const m = on.m;
   const span = (count: number): bigint => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
@@ -322,15 +335,53 @@ function shallowRecurrentLower(model: LayeredModel, p: Partition): Bound | undef
   return { rank: bound, log2: log2Big(bound), method: 'shallow recurrent span', cut: [] };
 }
 
+interface RecurrentOnInput {
+  readonly layer: RecurrentLayer;
+  /** The dimension the recurrent layer's inputs span: M, cut by the per-position maps before it. */
+  readonly m: number;
+}
+
 /**
- * The recurrent layer of a model that is one recurrent layer on the raw input followed only by a
- * head (dense and pointwise layers on its single output position, all linear there).
+ * A model that is one unidirectional recurrent layer reading the input through per-position
+ * linear maps (embeddings, per-position dense layers, 1×1 convs; learned position vectors, which
+ * may be zero), followed only by a head (dense and pointwise layers), analysed at the last step.
+ * The maps before it can be partial identities (a special case), so the recurrent rules hold with
+ * M replaced by the narrowest of M and their widths.
  */
-function recurrentOnInput(model: LayeredModel): RecurrentLayer | undefined {
-  const [first, ...rest] = model.layers;
-  if (!first || first.kind !== 'recurrent' || first.inputs[0] !== INPUT) return undefined;
-  if (rest.some((l) => l.kind !== 'dense' && l.kind !== 'pointwise')) return undefined;
-  return first;
+function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOnInput | undefined {
+  let m = shapes.representation;
+  let recurrent: RecurrentLayer | undefined;
+  for (const l of model.layers) {
+    if (l.inputs.length !== 1 || l.inputs[0] !== l.index - 1) return undefined;
+    if (l.kind === 'pointwise') continue;
+    if (!recurrent) {
+      if (l.kind === 'recurrent') {
+        if (l.bidirectional) return undefined;
+        recurrent = l;
+        continue;
+      }
+      if (l.kind === 'position' && l.mode === 'learned') continue;
+      const perPosition =
+        l.kind === 'embedding' ||
+        (l.kind === 'dense' && shapes.denseReading[l.index] !== 'input') ||
+        (l.kind === 'conv' && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1));
+      if (!perPosition) return undefined;
+      m = Math.min(m, shapes.layers[l.index]!.width);
+      continue;
+    }
+    if (l.kind !== 'dense') return undefined;
+  }
+  if (!recurrent) return undefined;
+  const last = shapes.layers[shapes.layers.length - 1]!.shape;
+  if (recurrent.sequence && shapes.output.position[0] !== last[0]! - 1) return undefined;
+  return { layer: recurrent, m };
+}
+
+/** Positions on side A and on side B. */
+function sideSizes(side: Uint8Array): [number, number] {
+  let a = 0;
+  for (const x of side) a += x;
+  return [a, side.length - a];
 }
 
 function sameMask(a: Uint8Array, b: Uint8Array): boolean {

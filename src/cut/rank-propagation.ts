@@ -42,6 +42,8 @@ function big(x: Int): bigint {
  */
 interface Arith<T> {
   readonly one: T;
+  /** The empty sum. */
+  readonly zero: T;
   /** A fresh array of n ones (typed for log2 values). */
   ones(n: number): Slots<T>;
   of(n: number): T;
@@ -59,6 +61,7 @@ interface Slots<T> {
 
 const EXACT: Arith<Int> = {
   one: 1,
+  zero: 0,
   ones: (n) => new Array<Int>(n).fill(1),
   of: (n) => n,
   mul: (a, b) => {
@@ -87,10 +90,11 @@ const EXACT: Arith<Int> = {
 
 const LOG: Arith<number> = {
   one: 0,
+  zero: -Infinity,
   ones: (n) => new Float64Array(n),
   of: (n) => Math.log2(n),
   mul: (a, b) => a + b,
-  add: (a, b) => Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
+  add: (a, b) => (a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b))),
   le: (a, b) => a <= b,
   symPow: (x, a) => {
     let r = 0;
@@ -107,13 +111,14 @@ const FROM_DIM_KAPPA = 2;
 const FROM_PURE = 3;
 const FROM_SIDE_A = 4;
 const FROM_SIDE_B = 5;
+const FROM_PURE_FACTOR = 6;
 
 export interface RankPropagation {
   /** log2 of the bound (from the log pass; the exact value may differ in the last digits). */
   readonly log2: number;
   /** The exact bound, or undefined when some node's value exceeds the bit limit (computed on demand). */
   readonly rank: () => bigint | undefined;
-  /** The widths that enter the bound: tag → dimension → count. */
+  /** The widths that enter the bound: tag → dimension → count (found on first use). */
   readonly counts: CutCounts;
 }
 
@@ -131,7 +136,14 @@ export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
     if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]!);
     return big(propagate(c, plan, side, EXACT).lam[c.top]!);
   };
-  return { log2: logs.lam[c.top]!, rank, counts: recordWidths(c, plan, logs) };
+  let counts: CutCounts | undefined;
+  return {
+    log2: logs.lam[c.top]!,
+    rank,
+    get counts(): CutCounts {
+      return (counts ??= recordWidths(c, plan, logs));
+    },
+  };
 }
 
 /**
@@ -152,6 +164,11 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
+  // λ with the terms that read side A only (resp. B) left out, and whether there are such terms.
+  const lamNoA = new Float64Array(n).fill(one);
+  const lamNoB = new Float64Array(n).fill(one);
+  const pureParts = new Uint8Array(n);
+  const zero = log ? -Infinity : 0;
   const of = (x: number): number => (log ? Math.log2(x) : x);
   const mul = (x: number, y: number): number => (log ? x + y : x * y);
   const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
@@ -188,12 +205,17 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
     let k: number;
     let l: number;
     let lWhy = FROM_CHILDREN;
+    let noA: number;
+    let noB: number;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]!]!;
       a = ra[ch]!;
       b = rb[ch]!;
       l = lam[ch]!;
       k = l;
+      noA = lamNoA[ch]!;
+      noB = lamNoB[ch]!;
+      pureParts[v] = pureParts[ch]!;
     } else if (kind === OP_PRODUCT) {
       a = one;
       b = one;
@@ -207,9 +229,25 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       }
       l = mul(D, k);
       lWhy = FROM_DIM_KAPPA;
+      const pf = pureFactor(start, childOf, times, dep, v);
+      if (pf) {
+        // c ⊙ (G_s + G'): the side-s part is one function of x_s; the rest is seen through the
+        // span of c's coordinates (DEVELOPERS.md, rank propagation, rule 4).
+        const onA = dep[pf.pure] === 1;
+        const span = onA ? rb[pf.pure]! : ra[pf.pure]!;
+        const alt = add(pureParts[pf.other]! & (onA ? 1 : 2) ? one : zero, mul(span, onA ? lamNoA[pf.other]! : lamNoB[pf.other]!));
+        if (alt < l) {
+          l = alt;
+          lWhy = FROM_PURE_FACTOR;
+        }
+      }
+      noA = l;
+      noB = l;
     } else {
       // A sum: the rule of sumRule, on doubles.
-      [a, b, l] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      let parts: number;
+      [a, b, l, noA, noB, parts] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      pureParts[v] = parts;
       k = l;
     }
     whyA[v] = FROM_CHILDREN;
@@ -234,8 +272,24 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
     rb[v] = b;
     lam[v] = l;
     kap[v] = Math.min(k, l);
+    lamNoA[v] = Math.min(noA, l);
+    lamNoB[v] = Math.min(noB, l);
   }
   return { dep, ra, rb, lam, whyA, whyB, whyL };
+}
+
+/**
+ * A product of exactly two distinct children, once each, of which one reads one side only and
+ * the other both: the pure one and the other, else undefined.
+ */
+function pureFactor(start: Int32Array, childOf: Int32Array, times: Int32Array, dep: Uint8Array, v: number): { pure: number; other: number } | undefined {
+  if (start[v + 1]! - start[v]! !== 2) return undefined;
+  const [x, y] = [childOf[start[v]!]!, childOf[start[v]! + 1]!];
+  if (times[start[v]!] !== 1 || times[start[v]! + 1] !== 1) return undefined;
+  const [dx, dy] = [dep[x]!, dep[y]!];
+  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
+  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
+  return undefined;
 }
 
 /** A running sum of values given as they are (`plain`) or by their log2. */
@@ -257,13 +311,15 @@ class Log2Sum implements FloatSum {
   private m = -Infinity;
   private s = 0;
   add(x: number): void {
+    if (x === -Infinity) return;
     if (x > this.m) {
-      this.s = this.s * 2 ** (this.m - x) + 1;
+      this.s = this.m === -Infinity ? 1 : this.s * 2 ** (this.m - x) + 1;
       this.m = x;
     } else this.s += 2 ** (x - this.m);
   }
+  /** log2 of the sum; −∞ for an empty sum (zero). */
   get value(): number {
-    return this.m === -Infinity ? 0 : this.m + Math.log2(this.s);
+    return this.m === -Infinity ? -Infinity : this.m + Math.log2(this.s);
   }
 }
 
@@ -278,7 +334,7 @@ function sumFloat(
   termL: (t: number) => number,
   D: number,
   log: boolean,
-): [number, number, number] {
+): [number, number, number, number, number, number] {
   const sum = (): FloatSum => (log ? new Log2Sum() : new PlainSum());
   const one = log ? 0 : 1;
   const a = sum();
@@ -304,7 +360,17 @@ function sumFloat(
       l.add(termL(t));
     }
   }
-  if (constant && !pureA && !pureB) {
+
+  // λ without the side-A group (a constant joins that group when there is one) and without side B.
+  const mixed = l.value;
+  const loneConstant = constant && !pureA && !pureB;
+  const noA = sum();
+  noA.add(mixed);
+  const noB = sum();
+  noB.add(mixed);
+  if (pureB || loneConstant) noA.add(one);
+  if (pureA || loneConstant) noB.add(one);
+  if (loneConstant) {
     a.add(one);
     b.add(one);
     l.add(one);
@@ -319,7 +385,7 @@ function sumFloat(
     b.add(one);
     l.add(one);
   }
-  return [a.value, b.value, l.value];
+  return [a.value, b.value, l.value, noA.value, noB.value, (pureA ? 1 : 0) | (pureB ? 2 : 0)];
 }
 
 /**
@@ -412,6 +478,9 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
   const whyA = new Uint8Array(n).fill(FROM_PURE);
   const whyB = new Uint8Array(n).fill(FROM_PURE);
   const whyL = new Uint8Array(n).fill(FROM_PURE);
+  const lamNoA = ar.ones(n);
+  const lamNoB = ar.ones(n);
+  const pureParts = new Uint8Array(n);
   const min = (a: T, b: T): T => (ar.le(a, b) ? a : b);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
@@ -440,12 +509,17 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
     let k: T;
     let l: T;
     let lWhy = FROM_CHILDREN;
+    let noA: T;
+    let noB: T;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]!]!;
       a = ra[ch]!;
       b = rb[ch]!;
       l = lam[ch]!;
       k = l;
+      noA = lamNoA[ch]!;
+      noB = lamNoB[ch]!;
+      pureParts[v] = pureParts[ch]!;
     } else if (kind === OP_PRODUCT) {
       a = ar.one;
       b = ar.one;
@@ -459,8 +533,22 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       }
       l = ar.mul(D, k);
       lWhy = FROM_DIM_KAPPA;
+      const pf = pureFactor(start, childOf, times, dep, v);
+      if (pf) {
+        const onA = dep[pf.pure] === 1;
+        const span = onA ? rb[pf.pure]! : ra[pf.pure]!;
+        const alt = ar.add(pureParts[pf.other]! & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[pf.other]! : lamNoB[pf.other]!));
+        if (!ar.le(l, alt)) {
+          l = alt;
+          lWhy = FROM_PURE_FACTOR;
+        }
+      }
+      noA = l;
+      noB = l;
     } else if (kind === OP_SUM) {
-      ({ a, b, l } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      let parts: number;
+      ({ a, b, l, noA, noB, parts } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      pureParts[v] = parts;
       k = l;
     } else {
       throw new Error(`rank propagation: unknown node kind ${kind}`);
@@ -487,6 +575,8 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
     rb[v] = b;
     lam[v] = l;
     kap[v] = min(k, l);
+    lamNoA[v] = min(noA, l);
+    lamNoB[v] = min(noB, l);
   }
   return { dep, ra, rb, lam, whyA, whyB, whyL };
 }
@@ -501,49 +591,60 @@ function termRank<T>(plan: Plan, t: number, r: Slots<T>, ar: Arith<T>): T {
   return ar.le(r[node]!, sum) ? r[node]! : sum;
 }
 
-function sumRule<T>(plan: Plan, v: number, D: T, dep: Uint8Array, ra: Slots<T>, rb: Slots<T>, lam: Slots<T>, ar: Arith<T>): { a: T; b: T; l: T } {
+function sumRule<T>(
+  plan: Plan,
+  v: number,
+  D: T,
+  dep: Uint8Array,
+  ra: Slots<T>,
+  rb: Slots<T>,
+  lam: Slots<T>,
+  ar: Arith<T>,
+): { a: T; b: T; l: T; noA: T; noB: T; parts: number } {
   const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
-  let a: T | undefined;
-  let b: T | undefined;
-  let l: T | undefined;
-  const plus = (x: T | undefined, y: T): T => (x === undefined ? y : ar.add(x, y));
+  let a = ar.zero;
+  let b = ar.zero;
+  let l = ar.zero;
   let pureA = false;
   let pureB = false;
   let constant = false;
-  let pureAonB: T | undefined;
-  let pureBonA: T | undefined;
+  let pureAonB = ar.zero;
+  let pureBonA = ar.zero;
   for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
     const d = dep[plan.childOf[t]!]!;
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB = plus(pureAonB, termRank(plan, t, rb, ar));
+      pureAonB = ar.add(pureAonB, termRank(plan, t, rb, ar));
     } else if (d === 2) {
       pureB = true;
-      pureBonA = plus(pureBonA, termRank(plan, t, ra, ar));
+      pureBonA = ar.add(pureBonA, termRank(plan, t, ra, ar));
     } else {
-      a = plus(a, termRank(plan, t, ra, ar));
-      b = plus(b, termRank(plan, t, rb, ar));
-      l = plus(l, termRank(plan, t, lam, ar));
+      a = ar.add(a, termRank(plan, t, ra, ar));
+      b = ar.add(b, termRank(plan, t, rb, ar));
+      l = ar.add(l, termRank(plan, t, lam, ar));
     }
   }
-  // A constant term is a function of either side: it joins a pure group when there is one.
-  if (constant && !pureA && !pureB) {
-    a = plus(a, ar.one);
-    b = plus(b, ar.one);
-    l = plus(l, ar.one);
+  // λ without the side-A group (a constant joins that group when there is one) and without side B.
+  const loneConstant = constant && !pureA && !pureB;
+  const noA = pureB || loneConstant ? ar.add(l, ar.one) : l;
+  const noB = pureA || loneConstant ? ar.add(l, ar.one) : l;
+  if (loneConstant) {
+    a = ar.add(a, ar.one);
+    b = ar.add(b, ar.one);
+    l = ar.add(l, ar.one);
   }
   if (pureA) {
-    a = plus(a, ar.one);
-    b = plus(b, min(D, pureAonB!));
-    l = plus(l, ar.one);
+    a = ar.add(a, ar.one);
+    b = ar.add(b, min(D, pureAonB));
+    l = ar.add(l, ar.one);
   }
   if (pureB) {
-    a = plus(a, min(D, pureBonA!));
-    b = plus(b, ar.one);
-    l = plus(l, ar.one);
+    a = ar.add(a, min(D, pureBonA));
+    b = ar.add(b, ar.one);
+    l = ar.add(l, ar.one);
   }
-  return { a: a ?? ar.one, b: b ?? ar.one, l: l ?? ar.one };
+  return { a, b, l, noA, noB, parts: (pureA ? 1 : 0) | (pureB ? 2 : 0) };
 }
 
 /**
@@ -581,6 +682,13 @@ function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
     }
     if (why === FROM_SIDE_A || why === FROM_SIDE_B) {
       stack.push([v, why === FROM_SIDE_A ? A : B]);
+      continue;
+    }
+    if (why === FROM_PURE_FACTOR) {
+      // The pure factor's span and the other factor's functionals.
+      const pf = pureFactor(plan.start, plan.childOf, plan.times, dep, v)!;
+      note(pf.pure);
+      stack.push([pf.other, L]);
       continue;
     }
     if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {

@@ -14,7 +14,7 @@
  * The reduced model pins M and the analysed output position of the original, and is used only if
  * every layer it keeps is read the same way (pointwise readings, dense readings).
  */
-import { INPUT, type Layer, type LayeredModel } from '../config/model.js';
+import { INPUT, WEIGHTED_KINDS, type Layer, type LayeredModel } from '../config/model.js';
 import { extent } from '../config/grid-geometry.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import { inferShapes } from '../config/model-shapes.js';
@@ -29,7 +29,6 @@ export interface SpecialCase {
   readonly how: string;
 }
 
-const WEIGHTED: ReadonlySet<Layer['kind']> = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent']);
 const ZERO_PRESERVING: ReadonlySet<Layer['kind']> = new Set<Layer['kind']>(['pointwise', 'pool', 'upsample', 'flatten']);
 
 export function specialCases(model: LayeredModel, surrogate: Surrogate, shapes: ModelShapes, reading: PointwiseReading): SpecialCase[] {
@@ -40,18 +39,69 @@ export function specialCases(model: LayeredModel, surrogate: Surrogate, shapes: 
     under = 'tree';
     steps.push('off-centre taps zeroed');
   }
+  // Position vectors: learned ones can be zero (the layer is then the identity); fixed ones cannot.
+  if (model.layers.some((l) => l.kind === 'position' && l.mode === 'fixed')) return [];
   const pinned: LayeredModel = {
     ...model,
     input: { ...model.input, representation: shapes.representation },
     output: { ...model.output, position: shapes.output.position },
   };
-  if (!model.layers.some((l) => l.kind === 'merge')) return [{ model: pinned, surrogate: under, how: steps.join(', ') }];
+  const base = bypass(pinned, (l) => l.kind === 'position');
+  const verified = (r: Reduction | undefined): LayeredModel | undefined => (r ? readSame(r, shapes, reading) : undefined);
+  if (!model.layers.some((l) => l.kind === 'merge')) {
+    const only = verified(base);
+    return only ? [{ model: only, surrogate: under, how: steps.join(', ') }] : [];
+  }
   const cases: SpecialCase[] = [];
   for (const pick of ['first', 'last'] as const) {
-    const reduced = keepOneInput(pinned, pick, reading, shapes);
-    if (reduced) cases.push({ model: reduced, surrogate: under, how: [...steps, `merges keep their ${pick} input where the others can be zeroed`].join(', ') });
+    const reduced = keepOneInput(base.model, pick);
+    const found = verified(reduced && { model: reduced.model, from: reduced.from.map((k) => base.from[k]!) });
+    if (found) cases.push({ model: found, surrogate: under, how: [...steps, `merges keep their ${pick} input where the others can be zeroed`].join(', ') });
   }
   return cases;
+}
+
+/** A reduced model and, for each of its layers, the index of the layer of the original it is. */
+interface Reduction {
+  readonly model: LayeredModel;
+  readonly from: readonly number[];
+}
+
+/** The reduced model when every layer it keeps is read as in the original (square rule, dense readings). */
+function readSame(r: Reduction, shapes: ModelShapes, reading: PointwiseReading): LayeredModel | undefined {
+  const shaped = inferShapes(r.model);
+  if (!shaped.ok) return undefined;
+  const again = readPointwise(r.model, shaped.shapes);
+  for (let k = 0; k < r.from.length; k++) {
+    const i = r.from[k]!;
+    if (reading.squared.has(i) !== again.squared.has(k) || reading.ignored.has(i) !== again.ignored.has(k)) return undefined;
+    if (shapes.denseReading[i] !== shaped.shapes.denseReading[k]) return undefined;
+  }
+  return r.model;
+}
+
+/** The model with the chosen layers replaced by the identity (their readers read their input). */
+function bypass(model: LayeredModel, drop: (l: Layer) => boolean): Reduction {
+  const through = new Map<number, number>();
+  const resolve = (i: number): number => (i === INPUT ? INPUT : (through.get(i) ?? i));
+  const kept: Layer[] = [];
+  const newIndex = new Map<number, number>();
+  for (const l of model.layers) {
+    if (drop(l)) {
+      through.set(l.index, resolve(l.inputs[0]!));
+      continue;
+    }
+    newIndex.set(l.index, kept.length);
+    kept.push(l);
+  }
+  const renumber = (i: number): number => {
+    const r = resolve(i);
+    return r === INPUT ? INPUT : newIndex.get(r)!;
+  };
+  return {
+    model: { ...model, layers: kept.map((l, k) => ({ ...l, index: k, inputs: l.inputs.map(renumber) })) },
+    from: kept.map((l) => l.index),
+  };
 }
 
 /** Whether zeroing taps turns every overlapping window of the model into its tree counterpart. */
@@ -82,7 +132,7 @@ function treeIsSpecialCase(model: LayeredModel, shapes: ModelShapes): boolean {
 }
 
 /** The model with every merge replaced by one of its inputs, or undefined when that is not a special case. */
-function keepOneInput(model: LayeredModel, pick: 'first' | 'last', reading: PointwiseReading, shapes: ModelShapes): LayeredModel | undefined {
+function keepOneInput(model: LayeredModel, pick: 'first' | 'last'): Reduction | undefined {
   const layers = model.layers;
   const consumers: number[][] = layers.map(() => []);
   for (const l of layers) for (const i of l.inputs) if (i !== INPUT) consumers[i]!.push(l.index);
@@ -114,18 +164,13 @@ function keepOneInput(model: LayeredModel, pick: 'first' | 'last', reading: Poin
   const kept: Layer[] = order.map((l, k) => ({
     ...l,
     index: k,
-    inputs: l.inputs.map((j) => (j === INPUT ? INPUT : newIndex.get(resolve(j))!)),
+    inputs: l.inputs.map((j) => {
+      const r = resolve(j);
+      return r === INPUT ? INPUT : newIndex.get(r)!;
+    }),
   }));
-  const reduced: LayeredModel = { ...model, layers: kept };
-  const shaped = inferShapes(reduced);
-  if (!shaped.ok) return undefined;
-  const again = readPointwise(reduced, shaped.shapes);
-  for (const l of order) {
-    const k = newIndex.get(l.index)!;
-    if (reading.squared.has(l.index) !== again.squared.has(k) || reading.ignored.has(l.index) !== again.ignored.has(k)) return undefined;
-    if (shapes.denseReading[l.index] !== shaped.shapes.denseReading[k]) return undefined;
-  }
-  return reduced;
+  if (kept.length === 0) return undefined;
+  return { model: { ...model, layers: kept }, from: order.map((l) => l.index) };
 }
 
 /** Zero can be set on this input of a merge by zeroing a weighted layer that feeds nothing else. */
@@ -137,7 +182,7 @@ function zeroable(layers: readonly Layer[], consumers: readonly number[][], inpu
     const uses = consumers[at]!;
     if (uses.length !== 1 || uses[0] !== reader) return false;
     const l = layers[at]!;
-    if (WEIGHTED.has(l.kind)) return true;
+    if (WEIGHTED_KINDS.has(l.kind)) return true;
     if (!ZERO_PRESERVING.has(l.kind)) return false;
     reader = at;
     at = l.inputs[0]!;
@@ -154,7 +199,7 @@ function onlyCoordinatewiseUntilWeighted(layers: readonly Layer[], consumers: re
     seen.add(i);
     for (const c of consumers[i]!) {
       const l = layers[c]!;
-      if (WEIGHTED.has(l.kind)) continue;
+      if (WEIGHTED_KINDS.has(l.kind)) continue;
       if (!ZERO_PRESERVING.has(l.kind)) return false;
       stack.push(c);
     }

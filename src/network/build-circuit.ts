@@ -14,7 +14,9 @@ import {
   layerWidth,
   positionCount,
   type ConvLayer,
+  type AttentionLayer,
   type ConvTransposeLayer,
+  type RecurrentLayer,
   type Layer,
   type LayeredModel,
   type PoolLayer,
@@ -199,7 +201,22 @@ function buildLayer(
       return { shape: out.shape, nodes, dim: out.width, flat: false };
     }
     case 'recurrent':
-      return recurrent(b, materialise(b, first, tag), layer.hidden, layer.depth, tag);
+      return recurrent(b, materialise(b, first, tag), layer, tag);
+    case 'embedding': {
+      const g = materialise(b, first, tag);
+      return { shape: out.shape, nodes: g.nodes.map((v) => linearOf(b, layer.dim, tag, v)), dim: layer.dim, flat: false };
+    }
+    case 'position': {
+      // v_t + p_t: a sum with a learned vector of its own per position.
+      const g = materialise(b, first, tag);
+      return { ...g, nodes: g.nodes.map((v) => sumOf(b, g.dim, tag, [v, b.add(OP_CONST, g.dim, tag, [])])) };
+    }
+    case 'class-token': {
+      const g = materialise(b, first, tag);
+      return { shape: out.shape, nodes: [b.add(OP_CONST, g.dim, tag, []), ...g.nodes], dim: g.dim, flat: false };
+    }
+    case 'attention':
+      return attention(b, materialise(b, first, tag), layer, shapes.headDims[layer.index]!, tag);
     case 'pool':
       return pool(b, materialise(b, first, tag), layer, out.shape, tag);
     case 'upsample':
@@ -211,18 +228,77 @@ function buildLayer(
   }
 }
 
-function recurrent(b: CircuitBuilder, g: Grid, hidden: number, depth: number, tag: number): Grid {
-  let below = g.nodes;
-  for (let l = 0; l < depth; l++) {
-    let prev = b.add(OP_CONST, hidden, tag, []);
-    const states: number[] = [];
-    for (const x of below) {
-      prev = productOf(b, hidden, tag, [linearOf(b, hidden, tag, prev), linearOf(b, hidden, tag, x)]);
-      states.push(prev);
+/**
+ * The recurrent arithmetic circuit: per level a forward chain (and a backward one when
+ * bidirectional) of states h_t = (W_H h_{t∓1}) ⊙ (W_I z_t) from a learned initial state.
+ */
+function recurrent(b: CircuitBuilder, g: Grid, layer: RecurrentLayer, tag: number): Grid {
+  const R = layer.hidden;
+  const chain = (inputs: readonly number[], backward: boolean): number[] => {
+    const states = new Array<number>(inputs.length);
+    let prev = b.add(OP_CONST, R, tag, []);
+    for (let k = 0; k < inputs.length; k++) {
+      const t = backward ? inputs.length - 1 - k : k;
+      prev = productOf(b, R, tag, [linearOf(b, R, tag, prev), linearOf(b, R, tag, inputs[t]!)]);
+      states[t] = prev;
     }
-    below = states;
+    return states;
+  };
+  const width = layer.bidirectional && layer.merge === 'concat' ? 2 * R : R;
+  const join = (f: number, bw: number): number => sumOf(b, width, tag, [f, bw]);
+  let below = g.nodes;
+  let forward: number[] = [];
+  let backward: number[] = [];
+  for (let l = 0; l < layer.depth; l++) {
+    forward = chain(below, false);
+    if (layer.bidirectional) {
+      backward = chain(below, true);
+      below = forward.map((f, t) => join(f, backward[t]!));
+    } else below = forward;
   }
-  return { shape: [1], nodes: [below[below.length - 1]!], dim: hidden, flat: false };
+  if (layer.sequence) return { shape: g.shape, nodes: below, dim: width, flat: false };
+  const last = layer.bidirectional ? join(forward[forward.length - 1]!, backward[0]!) : forward[forward.length - 1]!;
+  return { shape: [1], nodes: [last], dim: width, flat: false };
+}
+
+/**
+ * Linearised attention, per head h: k_j = K v_j, u_j = V v_j and their outer product as a
+ * product of two maps into a·a coordinates; the sum S(i) of those over the positions i attends to
+ * (one sum shared by every position for full attention, prefix sums when causal, windows when
+ * local); then the output O·(q_i ⊗-contracted with S(i)) as a map of the product of q_i's a·a
+ * expansion with S(i). Structured maps (the outer product, the contraction) are built as generic
+ * ones: the function family only grows, so upper bounds stay sound.
+ */
+function attention(b: CircuitBuilder, g: Grid, layer: AttentionLayer, a: number, tag: number): Grid {
+  const D = g.dim;
+  const n = g.nodes.length;
+  const window = layer.window;
+  const attends = (i: number, j: number): boolean =>
+    (!layer.causal || j <= i) && (window === undefined || Math.abs(i - j) <= window);
+  const heads: number[][] = [];
+  for (let h = 0; h < layer.heads; h++) {
+    const kv = g.nodes.map((v) =>
+      productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), linearOf(b, a * a, tag, linearOf(b, a, tag, v))]),
+    );
+    const sums = new Array<number>(n);
+    if (window === undefined && !layer.causal) {
+      const all = sumOf(b, a * a, tag, kv);
+      sums.fill(all);
+    } else if (window === undefined) {
+      let prefix = ZERO;
+      for (let i = 0; i < n; i++) sums[i] = prefix = sumOf(b, a * a, tag, [prefix, kv[i]!]);
+    } else {
+      for (let i = 0; i < n; i++) {
+        const from = Math.max(0, i - window);
+        const to = layer.causal ? i : Math.min(n - 1, i + window);
+        const terms: number[] = [];
+        for (let j = from; j <= to; j++) if (attends(i, j)) terms.push(kv[j]!);
+        sums[i] = sumOf(b, a * a, tag, terms);
+      }
+    }
+    heads.push(g.nodes.map((v, i) => linearOf(b, D, tag, productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), sums[i]!]))));
+  }
+  return { shape: g.shape, nodes: g.nodes.map((_, i) => sumOf(b, D, tag, heads.map((hs) => hs[i]!))), dim: D, flat: false };
 }
 
 /**
@@ -367,12 +443,25 @@ class Notes {
   constructor(model: LayeredModel, shapes: ModelShapes, pointwise: PointwiseReading, surrogate: Surrogate) {
     const where = (l: Layer): string => `${l.kind === 'pointwise' ? l.op : `layer ${layerLabel(l)}`} (line ${l.span.line})`;
     const input = model.input;
-    if (input.representation === undefined) {
+    if (input.representation === undefined && input.vocabulary === undefined) {
       const from = firstMaps(model).find((l) => layerWidth(l) === shapes.representation);
       const which = from ? `layer ${layerLabel(from)} (line ${from.span.line})` : 'the first layer';
       this.out.push(
         `M = ${shapes.representation} representation functions per input position: the width of ${which}, the first layer that maps the input; set input.representation to choose M`,
       );
+    }
+    if (input.vocabulary !== undefined) {
+      this.out.push(`token input: each position holds one of ${input.vocabulary} tokens, read as its indicator vector, so M = ${input.vocabulary}`);
+    }
+    const gated = [...new Set(model.layers.flatMap((l) => (l.kind === 'recurrent' && l.cell !== 'arithmetic' ? [l.cell] : [])))].sort();
+    if (gated.length > 0) {
+      this.out.push(`${gated.join(' and ')} layers are read as recurrent arithmetic circuits of the same width and depth (multiplicative integration): their gates are not modelled`);
+    }
+    if (model.layers.some((l) => l.kind === 'attention')) {
+      this.out.push('attention is read as linearised self-attention (softmax and normalisation removed): each layer is a polynomial of degree 3 in its input');
+    }
+    if (model.layers.some((l) => l.kind === 'position' && l.mode === 'fixed')) {
+      this.out.push('fixed position encodings are read as learned position vectors: no lower bound is claimed through them');
     }
     if (input.featuresAsChannels) {
       const line = input.fieldSpans['channels']?.line ?? input.span.line;
@@ -402,7 +491,9 @@ class Notes {
       const reading = shapes.denseReading[l.index];
       const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]!]!.shape;
       if (reading === 'per-position') {
-        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution; put flatten before it to read them all at once`);
+        // On an image grid a per-position dense layer is often a forgotten flatten; on a sequence it is the usual per-step head.
+        const advice = before.length === 2 ? '; put flatten before it to read them all at once' : '';
+        this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) acts on each of the ${positionCount(before)} positions of its grid separately, like a 1×1 convolution${advice}`);
       } else if (reading === 'input') {
         this.out.push(`dense layer ${layerLabel(l)} (line ${l.span.line}) reads all ${positionCount(before)} input positions at once (a fully connected layer on the raw input)`);
       }

@@ -5,7 +5,7 @@
  * where it would act on the score itself). Kept apart from the builder because the reports and
  * the lower-bound reductions need the same reading.
  */
-import { INPUT, positionCount, type Layer, type LayeredModel } from '../config/model.js';
+import { INPUT, WEIGHTED_KINDS, positionCount, type LayeredModel } from '../config/model.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 
 export interface PointwiseReading {
@@ -17,7 +17,6 @@ export interface PointwiseReading {
   readonly mixing: ReadonlySet<number>;
 }
 
-const WEIGHTED: ReadonlySet<Layer['kind']> = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent']);
 
 export function readPointwise(model: LayeredModel, shapes: ModelShapes): PointwiseReading {
   const layers = model.layers;
@@ -25,7 +24,7 @@ export function readPointwise(model: LayeredModel, shapes: ModelShapes): Pointwi
   for (let i = layers.length - 1; i >= 0; i--) {
     for (const j of layers[i]!.inputs) {
       if (j === INPUT) continue;
-      if (WEIGHTED.has(layers[i]!.kind) || reachesWeighted[i]) reachesWeighted[j] = 1;
+      if (WEIGHTED_KINDS.has(layers[i]!.kind) || reachesWeighted[i]) reachesWeighted[j] = 1;
     }
   }
   /** The nearest layer at or above `i` that is not pointwise, and whether an activation lies between. */

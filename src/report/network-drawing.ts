@@ -229,8 +229,21 @@ function kindText(l: Layer): string {
       return 'flatten';
     case 'upsample':
       return `upsample ×${axes(l.factor)} (${l.mode})`;
-    case 'recurrent':
-      return `recurrent, depth ${l.depth}`;
+    case 'recurrent': {
+      const cell = l.cell === 'arithmetic' ? 'recurrent' : l.cell.toUpperCase();
+      return `${l.bidirectional ? `bidirectional ${cell} (${l.merge})` : cell}, depth ${l.depth}${l.sequence ? ', every step' : ''}`;
+    }
+    case 'embedding':
+      return 'embedding';
+    case 'position':
+      return `position vectors (${l.mode})`;
+    case 'class-token':
+      return 'class token';
+    case 'attention': {
+      const mask = l.causal ? ', causal' : '';
+      const window = l.window !== undefined ? `, window ${l.window}` : '';
+      return `attention, ${l.heads} head${l.heads === 1 ? '' : 's'}${l.headDim !== undefined ? ` of ${l.headDim}` : ''}${mask}${window}`;
+    }
     case 'pointwise':
       return l.op;
     case 'merge':

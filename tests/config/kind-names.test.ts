@@ -1,8 +1,8 @@
 /**
  * The kind alias table: the spellings teams use for each layer (common practice), compared in
  * lower case without `_`/`-` and with a trailing 1d/2d dropped, each read as our kind with what
- * the spelling itself fixes (a max pool, a global pool, a depthwise conv). 3D kinds and the
- * sequence kinds the next version reads get their own messages.
+ * the spelling itself fixes (a max pool, a global pool, a depthwise conv, an LSTM cell). 3D kinds
+ * and kinds whose function the surrogate does not model get their own messages.
  */
 import { describe, expect, test } from 'vitest';
 import { lookupKind } from '../../src/config/kind-names.js';
@@ -23,8 +23,19 @@ describe('kind spellings', () => {
     ['Linear', 'dense'],
     ['fc', 'dense'],
     ['UpSampling2D', 'upsample'],
-    ['SimpleRNN', 'recurrent'],
-    ['RNN', 'recurrent'],
+    ['SimpleRNN', 'rnn'],
+    ['RNN', 'rnn'],
+    ['recurrent', 'recurrent'],
+    ['LSTM', 'lstm'],
+    ['CuDNNLSTM', 'lstm'],
+    ['GRU', 'gru'],
+    ['Embedding', 'embedding'],
+    ['MultiheadAttention', 'attention'],
+    ['MultiHeadAttention', 'attention'],
+    ['CausalSelfAttention', 'attention'],
+    ['TransformerEncoderLayer', 'transformer_block'],
+    ['PositionalEncoding', 'position'],
+    ['cls_token', 'class_token'],
     ['Concatenate', 'concat'],
     ['Add', 'add'],
     ['Sequential', 'sequence'],
@@ -124,10 +135,18 @@ describe('kinds that are refused, with what to do instead', () => {
     expect(d[0]!.message).toBe("model.layers[1]: 'Conv3d' is a 3D layer; only 1D ([length]) and 2D ([height, width]) grids are supported");
   });
 
-  test.each(['LSTM', 'GRU', 'Embedding', 'MultiheadAttention', 'TransformerEncoderLayer'])('%s is not read yet', (kind) => {
+  test.each([
+    ['LSTMCell', 'a single-step cell runs inside a loop'],
+    ['ConvLSTM2D', 'convolutional recurrent layers are not read'],
+    ['TransformerDecoderLayer', 'cross-attention reads a second sequence'],
+    ['RotaryEmbedding', 'rotary and relative position schemes act inside attention'],
+    ['Transformer', 'an encoder-decoder in some frameworks'],
+    ['Bidirectional', 'bidirectional: true'],
+  ])('%s is refused with what to write instead', (kind, why) => {
     const d = diagnostics(withConv([`{type: ${kind}, hidden_size: 8}`], '[16]'));
-    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/kind-not-read-yet@7:14']);
-    expect(d[0]!.message).toContain(`'${kind}' layers are not read yet`);
+    expect(d.map((x) => `${x.code}@${x.span?.line}:${x.span?.column}`)).toEqual(['config/unsupported-kind@7:14']);
+    expect(d[0]!.message).toContain(`'${kind}' layers are not read: `);
+    expect(d[0]!.message).toContain(why);
   });
 
   test('adaptive pooling to a size other than 1: at the size, with the fixed-window hint', () => {

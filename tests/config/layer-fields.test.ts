@@ -74,7 +74,7 @@ describe('field aliases per kind', () => {
     expect(pool).toMatchObject({ kind: 'pool', window: [2, 2] });
     expect(rnn).toBeUndefined();
     const [r] = afterConv(['{type: RNN, input_size: 4, hidden_size: 8, batch_first: true, nonlinearity: tanh, dropout: 0.2, bidirectional: false}'], '[16]');
-    expect(bodyOf(r!)).toEqual({ kind: 'recurrent', hidden: 8, depth: 1 });
+    expect(bodyOf(r!)).toEqual({ kind: 'recurrent', hidden: 8, depth: 1, cell: 'rnn', bidirectional: false, merge: 'concat', sequence: true });
   });
 });
 
@@ -108,9 +108,9 @@ describe('field errors, at the field', () => {
       'config/unsupported-value@7:36',
       'config/unsupported-value@8:47',
     ]);
-    expect(codesAt(withConv(['recurrent: {hidden: 2, bidirectional: true}', 'recurrent: {hidden: 2, return_sequences: true}'], '[8]'))).toEqual([
-      'config/unsupported-value@7:45',
-      'config/unsupported-value@8:48',
+    expect(codesAt(withConv(['recurrent: {hidden: 2, go_backwards: true}', 'attention: {heads: 2, add_bias_kv: true}'], '[8]'))).toEqual([
+      'config/unsupported-value@7:44',
+      'config/unsupported-value@8:42',
     ]);
   });
 

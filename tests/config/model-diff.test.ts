@@ -59,4 +59,33 @@ describe('model diff', () => {
     const head = BASE.replace('    - MaxPool2d', '    - BatchNorm2d\n    - MaxPool2d');
     expect(diffModels(load(BASE), load(head)).map(show)).toEqual(['5.layer: (none) → pointwise @8:7']);
   });
+
+  test('sequence kinds: the vocabulary, the cell and directions of a recurrent layer, embedding width, heads and masks', () => {
+    const base = `model:
+  input: {shape: [16], vocab_size: 100}
+  layers:
+    - embedding: {dim: 8}
+    - position: {}
+    - lstm: {hidden: 8, bidirectional: true}
+    - attention: {heads: 2, window: 2}
+    - dense: {units: 3}
+`;
+    const head = base
+      .replace('vocab_size: 100', 'vocab_size: 120')
+      .replace('dim: 8', 'dim: 16')
+      .replace('position: {}', 'positional_encoding: {}')
+      .replace('lstm: {hidden: 8, bidirectional: true}', 'gru: {hidden: 8, bidirectional: true, merge_mode: sum, return_sequences: true}')
+      .replace('heads: 2, window: 2', 'heads: 4, head_dim: 2, causal: true');
+    expect(diffModels(load(base), load(head)).map(show)).toEqual([
+      'input.vocabulary: 100 → 120 @2:36',
+      '0.dim: 8 → 16 @4:24',
+      '1.mode: learned → fixed @5:7',
+      '2.cell: lstm → gru @6:7',
+      '2.merge: concat → sum @6:57',
+      '3.heads: 2 → 4 @7:26',
+      '3.head_dim: (none) → 2 @7:39',
+      '3.causal: false → true @7:50',
+      '3.window: 2 → (none) @7:7',
+    ]);
+  });
 });

@@ -32,12 +32,12 @@ describe('README, Config format', () => {
   });
 
   test('the input aliases are documented', () => {
-    expect([...INPUT_ALIASES.keys(), 'channels', 'representation'].filter((w) => !quoted.has(w))).toEqual([]);
+    expect([...INPUT_ALIASES.keys(), 'channels', 'representation', 'vocabulary'].filter((w) => !quoted.has(w))).toEqual([]);
   });
 
   test('every YAML example loads', () => {
     const blocks = [...section.matchAll(/```yaml\n([\s\S]*?)```/g)].map((m) => m[1]!);
-    expect(blocks.length).toBe(3);
+    expect(blocks.length).toBe(6);
     for (const text of blocks) {
       const r = loadConfigText(text, 'README.md');
       expect(r.ok ? [] : r.diagnostics.map((d) => `${d.span?.line}:${d.span?.column} ${d.message}`)).toEqual([]);

@@ -15,14 +15,18 @@ import { defaultPartitions, resolvePartition } from '../../src/partition/partiti
 const DIR = new URL('../../examples/architectures/', import.meta.url);
 
 const CORPUS: Record<string, string> = {
+  'bigru-shipment-tagger.yaml': '/network',
+  'causal-lm-release-notes.yaml': '/model',
   'inception-wildlife.yaml': '/pipeline/stages/1/network',
   'lenet-digits.yaml': '/model',
+  'lstm-ticket-router.yaml': '/model',
   'mlp-fashion.yaml': '/model',
   'mobilenet-leaf-disease.yaml': '/trainer/model',
   'resnet18-shelf-products.yaml': '/experiment/model',
   'tcn-fall-detection.yaml': '/model',
   'unet-nuclei-segmentation.yaml': '/model',
   'vgg11-aerial-tiles.yaml': '/training/network',
+  'vit-solar-panel-defects.yaml': '/experiment/model',
 };
 
 function load(file: string): LayeredModel {

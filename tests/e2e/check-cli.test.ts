@@ -22,6 +22,8 @@ describe('rankfloor check over examples/ and policies/', () => {
       doc.results.map((x: { file: string; policy: string; verdict: string }) => [`${x.file} ${x.policy}`, x.verdict]),
     );
     expect(verdicts).toEqual({
+      'examples/architectures/causal-lm-release-notes.yaml long-document-memory': 'pass',
+      'examples/architectures/lstm-ticket-router.yaml long-document-memory': 'pass',
       'examples/gait-sequence.yaml long-sensor-sequences': 'pass',
       'examples/renal-pair-net-trimmed.yaml paired-organ-scans': 'fail',
       'examples/renal-pair-net.yaml paired-organ-scans': 'pass',
@@ -46,6 +48,12 @@ describe('rankfloor check over examples/ and policies/', () => {
     ]);
     const gait = doc.results.find((x: { file: string }) => x.file === 'examples/gait-sequence.yaml');
     expect(gait.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['unproven', 'pass']);
+    // the linearised-attention model has no proven lower bound (unproven, a warning under org-base);
+    // the LSTM classifier proves both floors
+    const lm = doc.results.find((x: { file: string }) => x.file === 'examples/architectures/causal-lm-release-notes.yaml');
+    expect(lm.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['unproven', 'unproven']);
+    const router = doc.results.find((x: { file: string }) => x.file === 'examples/architectures/lstm-ticket-router.yaml');
+    expect(router.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['pass', 'pass']);
   });
 
   test('text: the failing requirement is explained; --quiet prints failures only', () => {

@@ -31,11 +31,12 @@ test('--sarif and --junit from a run over examples/ and policies/', () => {
   expect(failed[0]!.locations[0]!.physicalLocation.artifactLocation.uri).toBe('examples/renal-pair-net-trimmed.yaml');
   // without a base there is no changed line: the finding points at the bottleneck layer
   expect(failed[0]!.locations[0]!.physicalLocation.region.startLine).toBe(17);
-  expect(results.filter((x) => x.ruleId === 'rankfloor/requirement-unproven')).toHaveLength(1);
+  // the gait model's start-end floor and both floors of the causal language model
+  expect(results.filter((x) => x.ruleId === 'rankfloor/requirement-unproven')).toHaveLength(3);
 
   const xml = readFileSync(junitPath, 'utf8');
-  // 8 configs × 2 requirements each
-  expect(xml.match(/<testcase /g)).toHaveLength(16);
+  // 10 configs × 2 requirements each
+  expect(xml.match(/<testcase /g)).toHaveLength(20);
   expect(xml.match(/<failure /g)).toHaveLength(1);
-  expect(xml).toMatch(/<testsuites [^>]*tests="16"[^>]*failures="1"/);
+  expect(xml).toMatch(/<testsuites [^>]*tests="20"[^>]*failures="1"/);
 });

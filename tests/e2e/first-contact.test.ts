@@ -74,7 +74,7 @@ describe('check', () => {
     const r = runCli(['check', '--policy', 'policies/']);
     expect(r.code).toBe(1);
     const last = r.stdout.trimEnd().split('\n').at(-1)!;
-    expect(last).toBe('8 configs against 5 policies: 8 checks (1 failing, 1 unproven, 6 passing); 16 requirements (1 failing, 1 unproven, 14 passing)');
+    expect(last).toBe('10 configs against 6 policies: 10 checks (1 failing, 2 unproven, 7 passing); 20 requirements (1 failing, 3 unproven, 16 passing)');
   });
 
   test('an unproven requirement counted as failing says what would prove it, never that it is short', () => {

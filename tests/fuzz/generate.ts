@@ -70,7 +70,7 @@ export class Gen {
 
   /** A layer of a kind from the vocabulary, with its canonical fields or their aliases. */
   layer(depth: number): Node {
-    const kind = this.chance(0.9) ? this.pick(LAYER_KINDS) : this.chance(0.9) ? this.pick(SPELLINGS) : this.pick(['Conv3d', 'lstm', '']);
+    const kind = this.chance(0.9) ? this.pick(LAYER_KINDS) : this.chance(0.9) ? this.pick(SPELLINGS) : this.pick(['Conv3d', 'lstm_cell', '']);
     if (kind === 'repeat' && depth < 3) {
       const inner = Array.from({ length: this.int(1, 3) }, () => this.layer(depth + 1));
       const body: [string, Node][] = [['times', this.chance(0.9) ? raw(String(this.int(1, 3))) : this.hostileScalar()], ['layers', seq(inner)]];

@@ -25,7 +25,7 @@ type LayerBody = Wiring &
     | { kind: 'dense'; units: number }
     | { kind: 'flatten' }
     | { kind: 'upsample'; factor: number[]; mode?: 'nearest' | 'linear' }
-    | { kind: 'recurrent'; hidden: number; depth?: number }
+    | { kind: 'recurrent'; hidden: number; depth?: number; cell?: 'arithmetic' | 'rnn' | 'lstm' | 'gru'; bidirectional?: boolean; merge?: 'concat' | 'sum'; sequence?: boolean }
     | { kind: 'pointwise'; op: string; family?: PointwiseFamily }
     | { kind: 'merge'; mode: 'sum' | 'concat'; inputs: number[]; origin?: 'residual' | 'branches' | 'skip' }
   );
@@ -84,7 +84,17 @@ export function layered(shape: number[], representation: number, bodies: LayerBo
       case 'upsample':
         return { ...base, kind: 'upsample', factor: b.factor, mode: b.mode ?? 'nearest' };
       case 'recurrent':
-        return { ...base, kind: 'recurrent', hidden: b.hidden, depth: b.depth ?? 1 };
+        // Defaults: the arithmetic cell, one direction, the final state only (as engine tests were written).
+        return {
+          ...base,
+          kind: 'recurrent',
+          hidden: b.hidden,
+          depth: b.depth ?? 1,
+          cell: b.cell ?? 'arithmetic',
+          bidirectional: b.bidirectional ?? false,
+          merge: b.merge ?? 'concat',
+          sequence: b.sequence ?? false,
+        };
       case 'pointwise':
         return { ...base, kind: 'pointwise', op: b.op, family: b.family ?? 'activation' };
       case 'merge':

@@ -8,7 +8,7 @@ import { computeBounds } from '../../src/cut/bounds.js';
 import { formatDiagnosticLine } from '../../src/diagnostic.js';
 import type { PartitionBounds } from '../../src/cut/types.js';
 import { Rng } from './field.js';
-import { compile, probeRankWith, RefusedModel, WeightStore } from './surrogate.js';
+import { compile, probeRankAdaptive, probeRankWith, RefusedModel, WeightStore, type Evaluator } from './surrogate.js';
 import { explicitRank } from './contract.js';
 import type { ExplicitCase, LayeredCase } from './families.js';
 import { describeModel } from './models.js';
@@ -144,8 +144,14 @@ function guarded<T>(run: () => T): T | string {
   }
 }
 
-/** Checks one layered case. `cap`: partitions whose upper bound exceeds it are skipped. */
-export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: number): void {
+/**
+ * Checks one layered case. `cap`: partitions whose upper bound exceeds it are skipped, and the
+ * probe uses K = upper + 8. `adaptive`: the probe grows K from 16 until its reading falls below K
+ * (`probeRankAdaptive`), at most min(upper, cap) + 8; a partition is skipped only when the
+ * reading reaches that limit while the upper bound is beyond it (the rank is then out of reach).
+ * The cost follows the rank instead of the bound, so loose bounds of deep models are checked too.
+ */
+export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: number, adaptive = false): void {
   const where = `${stats.family} seed=${seed} surrogate=${c.surrogate} ${describeModel(c.model)}`;
   stats.models++;
   // The rules alone first (cheap), then the probe on the partitions the oracle reads: a probe of
@@ -179,7 +185,7 @@ export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: nu
   }
   const judged = c.partitions.filter((p, i) => {
     const pb = out.result.partitions[i];
-    return pb !== undefined && pb.partition === p.label && pb.upper.rank <= BigInt(cap);
+    return pb !== undefined && pb.partition === p.label && (adaptive || pb.upper.rank <= BigInt(cap));
   });
   const probed = guarded(() => computeBounds(c.model, judged, { surrogate: c.surrogate }));
   if (typeof probed === 'string' || !probed.ok) {
@@ -194,23 +200,29 @@ export function checkLayered(stats: Stats, seed: number, c: LayeredCase, cap: nu
       record(stats, c, `${where}: result ${i} is for '${rules?.partition}', expected '${p.label}'`);
       return;
     }
+    const ev = (attempt: number): Evaluator => {
+      while (evals.length <= attempt) evals.push(compile(c.model, c.surrogate, new WeightStore(new Rng(seed + 7919 * evals.length))));
+      return evals[attempt]!;
+    };
+    if (adaptive) {
+      const pb = probed.result.partitions[judged.indexOf(p)]!;
+      const beyond = rules.upper.rank > BigInt(cap);
+      const maxK = (beyond ? cap : Number(rules.upper.rank)) + 8;
+      const first = probeRankAdaptive(ev(0), p.side, maxK, probeRng);
+      if (beyond && first >= maxK) {
+        stats.skipped++;
+        return;
+      }
+      judge(stats, c, where, pb, (attempt) => (attempt === 0 ? first : probeRankAdaptive(ev(attempt), p.side, maxK, probeRng)), rules);
+      return;
+    }
     if (rules.upper.rank > BigInt(cap)) {
       stats.skipped++;
       return;
     }
     const pb = probed.result.partitions[judged.indexOf(p)]!;
     const k = Number(pb.upper.rank) + 8;
-    judge(
-      stats,
-      c,
-      where,
-      pb,
-      (attempt) => {
-        while (evals.length <= attempt) evals.push(compile(c.model, c.surrogate, new WeightStore(new Rng(seed + 7919 * evals.length))));
-        return probeRankWith(evals[attempt]!, p.side, k, probeRng);
-      },
-      rules,
-    );
+    judge(stats, c, where, pb, (attempt) => probeRankWith(ev(attempt), p.side, k, probeRng), rules);
   });
 }
 

@@ -285,8 +285,16 @@ export function treeNetwork(model: LayeredModel, weights: WeightStore): { net: F
       case 'pointwise':
         if (plan.square[li]) throw new NotATreeNetwork(`activation ${li} squares`);
         break;
+      case 'embedding':
+        // A per-position linear map, one matrix for every position.
+        cur = cur.map((v) => linearAt(v, `L${li}`, layer.dim, 1));
+        d = layer.dim;
+        break;
       case 'recurrent': {
         if (layer.depth !== 1) throw new NotATreeNetwork('a deep recurrence reuses states');
+        if (layer.bidirectional) throw new NotATreeNetwork('both directions read every input');
+        // Per-step outputs reuse every state but the last (next step and output).
+        if (layer.sequence && cur.length > 1) throw new NotATreeNetwork('per-step outputs reuse states');
         const R = layer.hidden;
         const keys = recurrentKeys(li, 1);
         const wh = weights.get(keys.h, R * R);

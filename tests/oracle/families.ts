@@ -21,9 +21,12 @@ import {
   branches,
   conv,
   convTranspose,
+  attention,
+  classToken,
   dense,
   depthwise,
   dropout,
+  embedding,
   explicit,
   flatten,
   globalPool,
@@ -33,6 +36,7 @@ import {
   norm,
   partition,
   pool,
+  positions,
   recurrent,
   residual,
   scaling,
@@ -129,6 +133,8 @@ function partitionsFor(rng: Rng, shape: Shape, extra: number): Partition[] {
 class Draw {
   readonly items: Item[] = [];
   names = 0;
+  /** A token input's vocabulary (then M = V). */
+  vocabulary: number | undefined;
   constructor(
     readonly rng: Rng,
     readonly shape: Shape,
@@ -139,12 +145,12 @@ class Draw {
   ) {}
 
   model(opts: LayeredOptions = {}): LayeredModel {
-    return layered(this.shape, this.m, this.shared, this.items, opts);
+    return layered(this.shape, this.m, this.shared, this.items, this.vocabulary !== undefined ? { ...opts, vocabulary: this.vocabulary } : opts);
   }
 
   /** The current grid (the input's when nothing is placed yet; its width is M or 0 if unknown). */
   grid(): GridShape {
-    if (this.items.length === 0) return { dims: this.shape, width: this.m ?? 0 };
+    if (this.items.length === 0) return { dims: this.shape, width: this.vocabulary ?? this.m ?? 0 };
     const p = planModel(this.model(), this.surrogate);
     return p.grids[p.grids.length - 1] as GridShape;
   }
@@ -589,26 +595,173 @@ export function positionsCase(rng: Rng, dims: Dims, surrogate: SurrogateKind): L
   const last = d.grid().dims;
   const opts: LayeredOptions = count(last) > 1 && rng.chance(0.5) ? { output: last.map((n) => rng.int(0, n - 1)) } : {};
   const c = d.done(1, opts);
+  return { ...c, partitions: distinct([...c.partitions, ...fieldPartitions(rng, c, surrogate)]) };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Sequences: token inputs, embeddings, position vectors, recurrent stacks, attention.
+
+/**
+ * Partitions that test receptive fields: side A made of positions the output cannot read (some
+ * of them, all of them; rank 1 exactly), and all of them plus one position it reads.
+ */
+function fieldPartitions(rng: Rng, c: LayeredCase, surrogate: SurrogateKind): Partition[] {
   const field = compile(c.model, surrogate, new WeightStore(rng)).dependsOn();
-  const n = count(d.shape);
+  const n = field.length;
   const outside: number[] = [];
   const inside: number[] = [];
   field.forEach((f, p) => (f === 0 ? outside : inside).push(p));
+  const out: Partition[] = [];
   if (outside.length > 0 && inside.length > 0) {
     const some = new Uint8Array(n);
     for (const p of outside) if (rng.chance(0.6)) some[p] = 1;
     some[rng.pick(outside)] = 1;
-    c.partitions.push(maskPartition(some));
+    out.push(maskPartition(some));
     const all = new Uint8Array(n);
     for (const p of outside) all[p] = 1;
-    c.partitions.push(maskPartition(all));
+    out.push(maskPartition(all));
     if (inside.length > 1) {
       const plusOne = all.slice();
       plusOne[rng.pick(inside)] = 1;
-      c.partitions.push(maskPartition(plusOne));
+      out.push(maskPartition(plusOne));
     }
   }
-  return { ...c, partitions: distinct(c.partitions) };
+  return out;
+}
+
+/** A random output position for a grid of several positions (else the default), with chance q. */
+function outputOption(d: Draw, q: number): LayeredOptions {
+  const last = d.grid().dims;
+  return count(last) > 1 && d.rng.chance(q) ? { output: last.map((n) => d.rng.int(0, n - 1)) } : {};
+}
+
+/**
+ * A token input most of the time, else a continuous one of M features. Vocabularies of 2–5 up to
+ * 6 positions, 2–3 beyond: the probe enumerates a side's V^n token sequences when they are few,
+ * and samples them (at a higher cost) otherwise.
+ */
+function sequenceDraw(rng: Rng, n: number, tokenChance: number, limits: { positions: number; width: number }): Draw {
+  const token = rng.chance(tokenChance);
+  const d = new Draw(rng, [n], token ? undefined : rng.pick([1, 2, 2, 3, 3, 4]), rng.chance(0.5), 'tree', limits);
+  if (token) d.vocabulary = rng.pick(n <= 6 ? [2, 2, 3, 3, 4, 5] : [2, 2, 3, 3]);
+  return d;
+}
+
+const CELLS = ['arithmetic', 'rnn', 'lstm', 'gru'] as const;
+
+/**
+ * Token + embedding + recurrent stacks (LSTM, GRU, plain cells, all read as the arithmetic
+ * circuit): one or two recurrent layers, unidirectional or bidirectional (concat or sum), per-step
+ * outputs or the final state, the analysed output at the default or any step, sometimes position
+ * vectors or a per-position dense head.
+ */
+export function sequenceRecurrentCase(rng: Rng, bidirectional: boolean): LayeredCase {
+  const d = sequenceDraw(rng, rng.int(2, bidirectional ? 6 : 8), 0.7, { positions: 16, width: 6 });
+  if (d.vocabulary === undefined ? rng.chance(0.3) : rng.chance(0.8)) d.push(embedding(rng.pick([1, 2, 2, 3, 3, 4])));
+  if (rng.chance(0.2)) d.push(positions(rng.chance(0.5) ? 'learned' : 'fixed'));
+  const layers = rng.chance(0.25) ? 2 : 1;
+  for (let l = 0; l < layers; l++) {
+    const lastLayer = l === layers - 1;
+    d.attempt(() => {
+      const bi = bidirectional && (l === 0 || rng.chance(0.5));
+      const depth = bi ? rng.pick([1, 1, 2]) : rng.pick([1, 1, 2, 2, 3]);
+      return [
+        recurrent(rng.pick(bi ? [1, 2, 2, 3] : SMALL), depth, {
+          cell: rng.pick(CELLS),
+          bidirectional: bi,
+          merge: rng.chance(0.5) ? 'concat' : 'sum',
+          sequence: !lastLayer || rng.chance(0.6),
+        }),
+      ];
+    });
+    if (!lastLayer && rng.chance(0.3)) d.push(rng.pick([dropout(), norm('layer_norm')]));
+  }
+  if (rng.chance(0.2)) d.push(dense(rng.pick(SMALL)));
+  const c = d.done(2, outputOption(d, 0.5));
+  return { ...c, partitions: distinct([...c.partitions, ...fieldPartitions(rng, c, 'tree')]) };
+}
+
+/**
+ * Token inputs under the other kinds: a dense layer on the whole token sequence with the square
+ * rule, an embedding then flatten + dense, convs and pools (with or without an embedding first),
+ * under both surrogates. On the discrete domain a position supports V functions only, and a
+ * squared or reused position passes no more than that.
+ */
+export function tokenStackCase(rng: Rng): LayeredCase {
+  const n = rng.int(2, 6);
+  // Wide enough for a flatten of 6 positions of width 3.
+  const d = new Draw(rng, [n], undefined, rng.chance(0.5), rng.chance(0.5) ? 'overlap' : 'tree', { positions: 16, width: 18 });
+  d.vocabulary = rng.pick([2, 2, 3, 4]);
+  switch (rng.int(0, 3)) {
+    case 0:
+      d.push(dense(rng.int(1, 4)), act(), dense(rng.int(1, 3)));
+      break;
+    case 1:
+      d.push(embedding(rng.int(1, 3)), flatten(), dense(rng.int(1, 4)), act(), dense(1));
+      break;
+    case 2:
+      d.attempt(() => [randomConv(rng, 1, rng.int(1, 3), { strided: 0.2 })]);
+      if (d.positions() > 1) d.attempt(() => [randomPool(rng, d.grid(), 0.3)]);
+      d.attempt(() => [conv(rng.int(1, 3), { kernel: [rng.int(1, 3)] })]);
+      finish(d, 0.7);
+      break;
+    default:
+      d.push(embedding(rng.int(1, 3)));
+      d.attempt(() => [conv(rng.int(1, 3), { kernel: [rng.int(1, 3)] })]);
+      finish(d, 0.7);
+  }
+  if (d.items.length === 0) d.push(embedding(rng.int(1, 3)));
+  return d.done(1, outputOption(d, 0.3));
+}
+
+/**
+ * Linearised attention nets: 2–12 positions (a class token included), width 2–4, 1–3 attention
+ * layers (heads 1–3, head width 1–3 or the default), with or without residual connections,
+ * layer norms and position-wise MLP blocks, position vectors, class tokens; `masked`: causal masks
+ * and windows (on most layers, some full ones mixed in). Token inputs with an embedding of the
+ * width, or continuous inputs of M = width. Deeper nets draw fewer heads and narrower widths, so
+ * that most bounds stay within reach of the probe.
+ */
+export function attentionCase(rng: Rng, masked: boolean): LayeredCase {
+  const layers = rng.pick([1, 1, 1, 2, 2, 3]);
+  const width = layers === 3 ? rng.pick([2, 2, 3]) : rng.pick([2, 2, 3, 3, 4]);
+  const cls = rng.chance(masked ? 0.15 : 0.3);
+  // Deeper nets on shorter sequences: their ranks do not grow with the length (measured here),
+  // their cost does.
+  const n = rng.int(2, (layers === 1 ? 12 : layers === 2 ? 10 : 8) - (cls ? 1 : 0));
+  const d = sequenceDraw(rng, n, 0.6, { positions: 16, width: 12 });
+  // A continuous input reads the width directly (M = width), or through an embedding map.
+  const direct = d.vocabulary === undefined && rng.chance(0.6);
+  const draw = direct ? new Draw(rng, [n], width, d.shared, 'tree', { positions: 16, width: 12 }) : d;
+  if (!direct) draw.push(embedding(width));
+  if (rng.chance(0.4)) draw.push(positions(rng.chance(0.7) ? 'learned' : 'fixed'));
+  if (cls) draw.push(classToken());
+  for (let l = 0; l < layers; l++) {
+    // Three layers: scalar heads (start-end rank 50 at most, measured here); two: narrow ones.
+    const heads = layers === 1 ? rng.int(1, 3) : layers === 2 ? rng.pick([1, 1, 2]) : 1;
+    const byDefault = width % heads === 0 && (layers === 1 || width / heads <= 2);
+    const headDim = layers === 3 ? 1 : byDefault && rng.chance(0.4) ? undefined : rng.pick(layers === 1 ? [1, 2, 2, 3] : [1, 1, 2]);
+    const causal = masked && rng.chance(0.75);
+    const window = masked && rng.chance(0.4) ? rng.int(0, 3) : undefined;
+    const att = attention(heads, { ...(headDim !== undefined ? { headDim } : {}), causal, ...(window !== undefined ? { window } : {}) });
+    const pre = rng.chance(0.3) ? [norm('layer_norm')] : [];
+    draw.attempt(() => [rng.chance(0.5) ? residual([...pre, att]) : att], 4);
+    if (rng.chance(0.25)) {
+      const hidden = rng.int(1, 4);
+      draw.push(residual([...pre, dense(hidden), act(rng.pick(['relu', 'gelu'])), dense(width)]));
+    }
+  }
+  if (rng.chance(0.15)) draw.push(dense(rng.int(1, 3)));
+  const c = draw.done(2, outputOption(draw, 0.4));
+  const extra: Partition[] = fieldPartitions(rng, c, 'tree');
+  // Positions after the output's input position: rank 1 exactly when every layer is causal.
+  const out = planModel(c.model, 'tree').output.index - (cls ? 1 : 0);
+  if (out >= 0 && out < n - 1) {
+    const after = new Uint8Array(n);
+    for (let p = out + 1; p < n; p++) after[p] = 1;
+    extra.push(maskPartition(after));
+  }
+  return { ...c, partitions: distinct([...c.partitions, ...extra]) };
 }
 
 /** Partitions with distinct masks, first occurrence kept. */
@@ -714,5 +867,10 @@ export const LAYERED_GENERATORS: readonly { readonly name: string; readonly gen:
   { name: 'overlap1d', gen: overlap1d },
   { name: 'overlap2d', gen: overlap2d },
   { name: 'recurrent', gen: (rng) => recurrentCase(rng, rng.int(1, 3)) },
+  { name: 'sequence-recurrent', gen: (rng) => sequenceRecurrentCase(rng, false) },
+  { name: 'sequence-bidirectional', gen: (rng) => sequenceRecurrentCase(rng, true) },
+  { name: 'tokens', gen: tokenStackCase },
+  { name: 'attention', gen: (rng) => attentionCase(rng, false) },
+  { name: 'attention-masked', gen: (rng) => attentionCase(rng, true) },
   ...BLOCK_FAMILIES.flatMap((f) => (['tree', 'overlap'] as const).map((s) => ({ name: `${f.name}-${s}`, gen: (rng: Rng) => blockCase(rng, f, s) }))),
 ];

@@ -10,9 +10,12 @@
 import { NO_SPAN } from '../../src/diagnostic.js';
 import {
   INPUT,
+  type AttentionLayer,
+  type ClassTokenLayer,
   type ConvLayer,
   type ConvTransposeLayer,
   type DenseLayer,
+  type EmbeddingLayer,
   type ExplicitBond,
   type ExplicitModel,
   type ExplicitTensor,
@@ -24,6 +27,7 @@ import {
   type PointwiseFamily,
   type PointwiseLayer,
   type PoolLayer,
+  type PositionLayer,
   type PoolMode,
   type RecurrentLayer,
   type Shape,
@@ -146,8 +150,64 @@ export function dense(units: number): Draft<DenseLayer> {
   return { ...base, kind: 'dense', units };
 }
 
-export function recurrent(hidden: number, depth: number): Draft<RecurrentLayer> {
-  return { ...base, kind: 'recurrent', hidden, depth };
+export interface RecurrentOptions {
+  readonly cell?: RecurrentLayer['cell'];
+  readonly bidirectional?: boolean;
+  readonly merge?: RecurrentLayer['merge'];
+  /** One output per step (true) or the final state only (false, this builder's default). */
+  readonly sequence?: boolean;
+}
+
+/**
+ * A recurrent layer. This builder's default is the final state only (`sequence: false`), the
+ * reading every earlier oracle test was written for; the config's default (per-step outputs) is
+ * asked for with `{ sequence: true }`. Unidirectional, joined by `concat` when bidirectional.
+ */
+export function recurrent(hidden: number, depth: number, opts: RecurrentOptions = {}): Draft<RecurrentLayer> {
+  return {
+    ...base,
+    kind: 'recurrent',
+    hidden,
+    depth,
+    cell: opts.cell ?? 'arithmetic',
+    bidirectional: opts.bidirectional ?? false,
+    merge: opts.merge ?? 'concat',
+    sequence: opts.sequence ?? false,
+  };
+}
+
+/** A per-position linear map to `dim` (the token embedding on a token input). */
+export function embedding(dim: number): Draft<EmbeddingLayer> {
+  return { ...base, kind: 'embedding', dim };
+}
+
+/** One added vector per position (`fixed` is read as learned). */
+export function positions(mode: PositionLayer['mode'] = 'learned'): Draft<PositionLayer> {
+  return { ...base, kind: 'position', mode };
+}
+
+/** A learned vector prepended as position 0 of a 1D grid of N + 1 positions. */
+export function classToken(): Draft<ClassTokenLayer> {
+  return { ...base, kind: 'class-token' };
+}
+
+export interface AttentionOptions {
+  /** Width of each head; absent: the input width divided by the heads. */
+  readonly headDim?: number;
+  readonly causal?: boolean;
+  readonly window?: number;
+}
+
+/** Linearised self-attention with `heads` heads. */
+export function attention(heads: number, opts: AttentionOptions = {}): Draft<AttentionLayer> {
+  return {
+    ...base,
+    kind: 'attention',
+    heads,
+    ...(opts.headDim !== undefined ? { headDim: opts.headDim } : {}),
+    causal: opts.causal ?? false,
+    ...(opts.window !== undefined ? { window: opts.window } : {}),
+  };
 }
 
 export function pointwise(family: PointwiseFamily, op: string): Draft<PointwiseLayer> {
@@ -234,6 +294,8 @@ export interface LayeredOptions {
   readonly output?: readonly number[];
   /** The data's raw channel count (reported only). */
   readonly channels?: number;
+  /** A token input of this vocabulary: M = V, each position an indicator vector. */
+  readonly vocabulary?: number;
 }
 
 /**
@@ -256,6 +318,7 @@ export function layered(
       shape,
       ...(representation !== undefined ? { representation } : {}),
       ...(opts.channels !== undefined ? { channels: opts.channels } : {}),
+      ...(opts.vocabulary !== undefined ? { vocabulary: opts.vocabulary } : {}),
       span: NO_SPAN,
       fieldSpans: {},
     },
@@ -350,8 +413,25 @@ export function describeLayer(l: Layer | LayerDraft): string {
       return 'flatten';
     case 'dense':
       return `dense(${l.units})`;
-    case 'recurrent':
-      return `recurrent(R=${l.hidden},L=${l.depth})`;
+    case 'recurrent': {
+      const parts = [`R=${l.hidden}`, `L=${l.depth}`];
+      if (l.bidirectional) parts.push(`bi-${l.merge}`);
+      parts.push(l.sequence ? 'seq' : 'last');
+      return `recurrent(${parts.join(',')})`;
+    }
+    case 'embedding':
+      return `embedding(${l.dim})`;
+    case 'position':
+      return l.mode === 'learned' ? 'position' : 'position(fixed)';
+    case 'class-token':
+      return 'class-token';
+    case 'attention': {
+      const parts = [`H=${l.heads}`];
+      if (l.headDim !== undefined) parts.push(`a=${l.headDim}`);
+      if (l.causal) parts.push('causal');
+      if (l.window !== undefined) parts.push(`w=${l.window}`);
+      return `attention(${parts.join(',')})`;
+    }
     case 'pointwise':
       return l.op;
     case 'merge':
@@ -371,7 +451,7 @@ export function describeModel(model: LayeredModel | ExplicitModel): string {
     const from = chained ? '' : `${list(l.inputs.map((i) => (i === INPUT ? 'in' : i) as number))}>`;
     return `${l.index}:${from}${describeLayer(l)}${l.name !== undefined ? `@${l.name}` : ''}`;
   });
-  const m = model.input.representation ?? 'default';
+  const m = model.input.vocabulary !== undefined ? `V${model.input.vocabulary}` : (model.input.representation ?? 'default');
   const out = model.output.position ? ` output=${list(model.output.position)}` : '';
   return `layered shape=[${model.input.shape.join(',')}] M=${m} shared=${model.weightSharing}${out} ${ls.join(' ')}`;
 }

@@ -8,9 +8,9 @@
 import { describe, expect, it } from 'vitest';
 import type { LayeredModel } from '../../src/config/model.js';
 import { P, Rng, inv, mul, mulAdd, randomVector, rank } from './field.js';
-import { compile, probeInputs, probeMatrixNaive, probeRank, probeRankWith, WeightStore, type SurrogateKind } from './surrogate.js';
+import { compile, probeInputs, probeMatrixNaive, probeRank, probeRankAdaptive, probeRankWith, tokenProbeExact, WeightStore, type SurrogateKind } from './surrogate.js';
 import { explicitRank, NotATreeNetwork, treeTensorRank } from './contract.js';
-import { LAYERED_GENERATORS, randomMask } from './families.js';
+import { attentionCase, LAYERED_GENERATORS, randomMask, sequenceRecurrentCase } from './families.js';
 import { conv, explicit, globalPool, layered, partition, pool, recurrent, type LayerDraft } from './models.js';
 import { planModel } from './plan.js';
 
@@ -157,6 +157,54 @@ describe('the two oracle methods agree', () => {
     }
   });
 });
+
+describe('sequence models: the oracle against itself', () => {
+  it('attention: the aggregated form equals the literal double sum, in value and receptive field', () => {
+    // Two evaluations of the same text (`AttentionForm`), one weight draw: every attention draw of
+    // both families must give the same number and the same positions read.
+    const master = new Rng(4711);
+    for (let i = 0; i < 120; i++) {
+      const seed = master.fork();
+      const c = attentionCase(new Rng(seed), i % 2 === 1);
+      const weights = new WeightStore(new Rng(seed));
+      const agg = compile(c.model, 'tree', weights, 'aggregate');
+      const lit = compile(c.model, 'tree', weights, 'literal');
+      const x = agg.plan.vocabulary === undefined ? randomVector(new Rng(seed + 1), agg.positions * agg.features) : tokens(new Rng(seed + 1), agg.positions, agg.plan.vocabulary);
+      expect(agg.evaluate(x), `seed ${seed}`).toBe(lit.evaluate(x));
+      expect(Array.from(agg.dependsOn()), `seed ${seed}`).toEqual(Array.from(lit.dependsOn()));
+    }
+  });
+
+  it('token inputs: the adaptive probe reads the rank of the whole token table', () => {
+    // Reference: K large enough that both sides are enumerated (every token sequence of each
+    // side: the matrix is the function on its discrete domain, its rank exact). The adaptive
+    // probe samples larger sides; it must not read lower on these draws.
+    const master = new Rng(99);
+    let compared = 0;
+    for (let i = 0; i < 200 && compared < 40; i++) {
+      const seed = master.fork();
+      const c = i % 2 === 0 ? attentionCase(new Rng(seed), i % 4 === 0) : sequenceRecurrentCase(new Rng(seed), i % 4 === 1);
+      if (c.model.input.vocabulary === undefined) continue;
+      const ev = compile(c.model, 'tree', new WeightStore(new Rng(seed)));
+      for (const p of c.partitions) {
+        let k = 16;
+        while (!tokenProbeExact(ev, p.side, k) && k < 64) k *= 2;
+        if (!tokenProbeExact(ev, p.side, k) || tokenProbeExact(ev, p.side, 16)) continue;
+        const full = probeRankWith(ev, p.side, k, new Rng(seed + 2));
+        expect(probeRankAdaptive(ev, p.side, 158, new Rng(seed + 3)), `seed ${seed} ${p.label}`).toBe(full);
+        compared++;
+      }
+    }
+    expect(compared).toBeGreaterThanOrEqual(40);
+  });
+});
+
+/** n random tokens of a vocabulary v, as indicator vectors. */
+function tokens(rng: Rng, n: number, v: number): Float64Array {
+  const x = new Float64Array(n * v);
+  for (let p = 0; p < n; p++) x[p * v + rng.int(0, v - 1)] = 1;
+  return x;
+}
 
 describe('measured here (exact rank mod a prime)', () => {
   it('1D, 8 inputs, windows 2·2·2, unshared, even/odd, M = 3, r = (3,3,3): 81', () => {

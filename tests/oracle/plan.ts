@@ -29,11 +29,15 @@ export interface GridShape {
 export interface ModelPlan {
   /** M, the dimension of each input vector. */
   readonly m: number;
+  /** A token input's vocabulary V (then M = V and every input vector is an indicator). */
+  readonly vocabulary: number | undefined;
   readonly input: GridShape;
   /** Output grid of every layer, indexed like `model.layers`. */
   readonly grids: readonly GridShape[];
   /** Groups of a conv or conv-transpose (`depthwise` resolved); 1 elsewhere. */
   readonly groups: readonly number[];
+  /** Per attention layer: the head width a (given, or the input width divided by the heads). */
+  readonly headDim: readonly (number | undefined)[];
   /** Per dense layer; undefined for other kinds. */
   readonly reading: readonly (DenseReading | undefined)[];
   /** Dense layers that mix positions (the square rule's condition). */
@@ -46,7 +50,8 @@ export interface ModelPlan {
   readonly output: { readonly position: readonly number[]; readonly index: number; readonly defaulted: boolean };
 }
 
-const WEIGHTED = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent']);
+/** "Pointwise layers from which no weighted layer (conv, conv-transpose, dense, recurrent, embedding, attention) can be reached are ignored." */
+const WEIGHTED = new Set<Layer['kind']>(['conv', 'conv-transpose', 'dense', 'recurrent', 'embedding', 'attention']);
 
 function singlePosition(g: GridShape): boolean {
   return count(g.dims) === 1;
@@ -75,13 +80,17 @@ function windowFields(layer: ConvLayer | ConvTransposeLayer, dims: readonly numb
 }
 
 export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overlap'): ModelPlan {
-  const m = representationOf(model);
+  const vocabulary = model.input.vocabulary;
+  // "A token input [...] carries at each position the indicator vector of its token: M = V
+  // exactly, whatever else the config says."
+  const m = vocabulary ?? representationOf(model);
   if (m === undefined || m < 1) throw new Error('model has no representation width M');
   const input: GridShape = { dims: [...model.input.shape], width: m };
   const layers = model.layers;
   const grids: GridShape[] = [];
   const groups: number[] = [];
   const reading: (DenseReading | undefined)[] = [];
+  const headDim: (number | undefined)[] = [];
   const gridOf = (i: number): GridShape => {
     if (i === INPUT) return input;
     const g = grids[i];
@@ -174,7 +183,38 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
       case 'recurrent': {
         const src = one(layer);
         if (src.dims.length !== 1) throw new Error(`recurrent ${li} needs a 1D grid, got [${src.dims.join(',')}]`);
-        out = { dims: [1], width: layer.hidden };
+        if (layer.hidden < 1 || layer.depth < 1) throw new Error(`recurrent ${li}: hidden ${layer.hidden}, depth ${layer.depth}`);
+        // D_l = 2R for a bidirectional concat, R otherwise; `sequence` keeps the T positions.
+        const width = layer.bidirectional && layer.merge === 'concat' ? 2 * layer.hidden : layer.hidden;
+        out = { dims: layer.sequence ? src.dims : [1], width };
+        break;
+      }
+      case 'embedding': {
+        const src = one(layer);
+        out = { dims: src.dims, width: layer.dim };
+        break;
+      }
+      case 'position':
+        out = one(layer);
+        break;
+      case 'class-token': {
+        // "the grid (any shape, N positions) becomes a 1D grid of N + 1 positions"
+        const src = one(layer);
+        out = { dims: [count(src.dims) + 1], width: src.width };
+        break;
+      }
+      case 'attention': {
+        const src = one(layer);
+        if (layer.heads < 1) throw new Error(`attention ${li}: ${layer.heads} heads`);
+        // "head width a [...] absent: the input width divided by heads" — refused when it does not divide.
+        const a = layer.headDim ?? src.width / layer.heads;
+        if (!Number.isInteger(a) || a < 1) throw new Error(`attention ${li}: head width ${a} (width ${src.width}, ${layer.heads} heads)`);
+        // "with a window w (1D grids)"
+        if (layer.window !== undefined && (src.dims.length !== 1 || !Number.isInteger(layer.window) || layer.window < 0)) {
+          throw new Error(`attention ${li}: window ${layer.window} on grid [${src.dims.join(',')}]`);
+        }
+        headDim[li] = a;
+        out = src;
         break;
       }
       case 'pointwise':
@@ -253,12 +293,40 @@ export function planModel(model: LayeredModel, surrogate: SurrogateKind = 'overl
     }
   } else {
     defaulted = true;
-    // "the model has at least one conv and every conv is causal" (layers of kind `conv`).
-    const convs = layers.filter((l) => l.kind === 'conv');
-    const allCausal = convs.length > 0 && convs.every((l) => l.kind === 'conv' && l.padding.mode === 'causal');
-    position = last.dims.length === 1 && allCausal ? [(last.dims[0] as number) - 1] : last.dims.map((n) => Math.floor(n / 2));
+    // "a model is causal when its grid is 1D and every layer that can read another position than
+    // its own [...] is causal [...], and at least one such layer exists"; a class token: position 0.
+    let readers = 0;
+    let causal = true;
+    layers.forEach((l, li) => {
+      let reads = false;
+      let ok = false;
+      if (l.kind === 'conv') {
+        reads = l.kernel.some((k) => k !== 1) || l.stride.some((x) => x !== 1);
+        ok = l.padding.mode === 'causal';
+      } else if (l.kind === 'pool') {
+        reads = l.global || l.window.some((w) => w !== 1) || l.stride.some((x) => x !== 1);
+      } else if (l.kind === 'dense') {
+        reads = reading[li] === 'input';
+      } else if (l.kind === 'flatten') {
+        reads = count(gridOf(l.inputs[0] as number).dims) > 1;
+      } else if (l.kind === 'conv-transpose' || l.kind === 'upsample' || l.kind === 'class-token') {
+        reads = true;
+      } else if (l.kind === 'recurrent') {
+        reads = true;
+        ok = !l.bidirectional;
+      } else if (l.kind === 'attention') {
+        reads = true;
+        ok = l.causal;
+      }
+      if (!reads) return;
+      readers++;
+      if (!ok) causal = false;
+    });
+    const isCausal = last.dims.length === 1 && readers > 0 && causal;
+    const classToken = last.dims.length === 1 && layers.some((l) => l.kind === 'class-token');
+    position = isCausal ? [(last.dims[0] as number) - 1] : classToken ? [0] : last.dims.map((n) => Math.floor(n / 2));
   }
   let index = 0;
   for (let a = 0; a < last.dims.length; a++) index = index * (last.dims[a] as number) + (position[a] as number);
-  return { m, input, grids, groups, reading, mixes, square, ignored, output: { position, index, defaulted } };
+  return { m, vocabulary, input, grids, groups, headDim, reading, mixes, square, ignored, output: { position, index, defaulted } };
 }

@@ -10,17 +10,22 @@ import { inv, mul, Rng } from './field.js';
 import { planModel, type SurrogateKind } from './plan.js';
 import {
   act,
+  attention,
   branches,
+  classToken,
   conv,
   convTranspose,
   dense,
   depthwise,
   dropout,
+  embedding,
   flatten,
   globalPool,
   layered,
   norm,
   pool,
+  positions,
+  recurrent,
   residual,
   upsample,
 } from './models.js';
@@ -180,5 +185,115 @@ describe('merges and M', () => {
     const p = planModel(layered([2], undefined, true, [branches('concat', [[conv(2)], []])]));
     expect(p.m).toBe(2);
     expect(p.grids[1]!.width).toBe(4);
+  });
+});
+
+describe('token inputs, embeddings, position vectors, class tokens', () => {
+  it('a token is its indicator vector; the embedding picks its column', () => {
+    // V = 3, d = 1, E = (2, 3, 5): token 1 → 3, token 2 → 5 (one position).
+    const m = layered([1], undefined, true, [embedding(1)], { vocabulary: 3 });
+    expect(planModel(m).m).toBe(3);
+    expect(value(m, 'tree', { L0: [2, 3, 5], head: [1] }, [0, 1, 0])).toBe(3);
+    expect(value(m, 'tree', { L0: [2, 3, 5], head: [1] }, [0, 0, 1])).toBe(5);
+  });
+
+  it('position vectors add one vector per position', () => {
+    // (x0 + 10)(x1 + 20) at x = (1, 2): 242.
+    const m = layered([2], 1, true, [positions(), globalPool()]);
+    expect(value(m, 'tree', { 'L0@0': [10], 'L0@1': [20], head: [1] }, [1, 2])).toBe(242);
+    expect(value(layered([2], 1, true, [positions('fixed'), globalPool()]), 'tree', { 'L0@0': [10], 'L0@1': [20], head: [1] }, [1, 2])).toBe(242);
+  });
+
+  it('a class token is a learned vector at position 0 of a 1D grid of N + 1 positions', () => {
+    // 2×2 input → 5 positions: c·x0·x1·x2·x3 = 7·2·3·5·11.
+    const m = layered([2, 2], 1, true, [classToken(), globalPool()]);
+    expect(planModel(m).grids[0]).toEqual({ dims: [5], width: 1 });
+    expect(value(m, 'tree', { L0: [7], head: [1] }, [2, 3, 5, 11])).toBe(2310);
+    // Without a pool the default output is position 0, the class token itself.
+    expect(value(layered([2], 1, true, [classToken()]), 'tree', { L0: [7], head: [1] }, [2, 3])).toBe(7);
+  });
+});
+
+describe('linearised attention', () => {
+  // D = 1, one head of width 1: y_i = Σ_{j∈N(i)} (q·x_i)(k·x_j)·o·v·x_j = qkov·x_i·Σ_j x_j².
+  const w = { 'L0:Q0': [2], 'L0:K0': [3], 'L0:V0': [5], 'L0:O0': [7], head: [1] };
+  it('full, causal and windowed fields', () => {
+    // N = 2, default output 1 (centre; also the last position when causal); x = (1, 2).
+    expect(value(layered([2], 1, true, [attention(1)]), 'tree', w, [1, 2])).toBe(210 * 2 * 5);
+    expect(value(layered([2], 1, true, [attention(1, { causal: true })]), 'tree', w, [1, 2])).toBe(210 * 2 * 5);
+    // Causal, output 0: x0·x0².
+    expect(value(layered([2], 1, true, [attention(1, { causal: true })], { output: [0] }), 'tree', w, [1, 2])).toBe(210);
+    // Window 0: y_1 = x1·x1².
+    expect(value(layered([2], 1, true, [attention(1, { window: 0 })]), 'tree', w, [1, 2])).toBe(210 * 8);
+    // N = 4, window 1, output 1: x1·(x0² + x1² + x2²) at x = (1, 2, 3, 100): 2·14.
+    expect(value(layered([4], 1, true, [attention(1, { window: 1 })], { output: [1] }), 'tree', w, [1, 2, 3, 100])).toBe(210 * 28);
+    // Causal and window 1, output 2: x2·(x1² + x2²) = 3·13.
+    expect(value(layered([4], 1, true, [attention(1, { window: 1, causal: true })], { output: [2] }), 'tree', w, [1, 2, 3, 100])).toBe(210 * 39);
+  });
+
+  it('a causal mask on a 2D grid follows row-major order', () => {
+    // 2×2 grid, output (0, 1) = position 1: x1·(x0² + x1²) at x = (1, 2, 3, 4).
+    const m = layered([2, 2], 1, true, [attention(1, { causal: true })], { output: [0, 1] });
+    expect(value(m, 'tree', w, [1, 2, 3, 4])).toBe(210 * 2 * 5);
+  });
+
+  it('heads add up; a head of width 2 contracts its queries and keys', () => {
+    // Two heads of width 1: (qkov + 1)·x_1·Σ x_j².
+    const two = { ...w, 'L0:Q1': [1], 'L0:K1': [1], 'L0:V1': [1], 'L0:O1': [1] };
+    expect(value(layered([2], 1, true, [attention(2, { headDim: 1 })]), 'tree', two, [1, 2])).toBe(211 * 2 * 5);
+    // One head of width 2, D = 1: Q = (1, 2)ᵀ, K = (3, 4)ᵀ → ⟨Q x_i, K x_j⟩ = 11·x_i·x_j;
+    // V = (5, 6)ᵀ, O = (1, 1) → O V x_j = 11·x_j.
+    const wide = { 'L0:Q0': [1, 2], 'L0:K0': [3, 4], 'L0:V0': [5, 6], 'L0:O0': [1, 1], head: [1] };
+    expect(value(layered([2], 1, true, [attention(1, { headDim: 2 })]), 'tree', wide, [1, 2])).toBe(121 * 2 * 5);
+  });
+
+  it('queries and keys read the full width: D = 2, one head of width 1', () => {
+    // Q = (1, 0), K = (0, 1), V = (1, 1), O = (1, 0)ᵀ, head (1, 0): y_1[0] = x1[0]·Σ_j x_j[1]·(x_j[0] + x_j[1]).
+    // x_0 = (1, 2), x_1 = (3, 4): 3·(2·3 + 4·7) = 102.
+    const m = layered([2], 2, true, [attention(1, { headDim: 1 })]);
+    expect(value(m, 'tree', { 'L0:Q0': [1, 0], 'L0:K0': [0, 1], 'L0:V0': [1, 1], 'L0:O0': [1, 0], head: [1, 0] }, [1, 2, 3, 4])).toBe(102);
+  });
+
+  it('the literal double sum and the aggregated form agree', () => {
+    const rng = new Rng(17);
+    for (const layer of [attention(2, { headDim: 2 }), attention(1, { headDim: 3, causal: true }), attention(3, { headDim: 1, window: 1 }), attention(1, { window: 2, causal: true })]) {
+      const m = layered([6], 3, true, [layer, attention(1, { headDim: 2, window: 1 })], { output: [4] });
+      const weights = new WeightStore(rng);
+      const x = Float64Array.from({ length: 18 }, () => rng.residue());
+      expect(compile(m, 'tree', weights, 'aggregate').evaluate(x)).toBe(compile(m, 'tree', weights, 'literal').evaluate(x));
+    }
+  });
+});
+
+describe('recurrent layers', () => {
+  it('per-step outputs: the grid keeps T positions holding h_t', () => {
+    // R = M = 1, W_H = 2, W_I = 3, h_0 = 5: h_1 = 30·x0, h_2 = 2·h_1·3·x1 = 180·x0·x1.
+    const m = layered([3], 1, true, [recurrent(1, 1, { sequence: true })], { output: [1] });
+    expect(planModel(m).grids[0]).toEqual({ dims: [3], width: 1 });
+    expect(value(m, 'tree', { 'L0:H1': [2], 'L0:I1': [3], 'L0:h0_1': [5], head: [1] }, [1, 2, 7])).toBe(360);
+  });
+
+  it('both directions: [f_T ; b_1] or their sum for the final state', () => {
+    // T = 2: f_2 = 2·(2·5·3x0)·3x1 = 180·x0x1; b_1 = 7·(7·13·11x1)·11x0 = 77077·x0x1.
+    const ws = { 'L0:H1': [2], 'L0:I1': [3], 'L0:h0_1': [5], 'L0:UH1': [7], 'L0:UI1': [11], 'L0:b0_1': [13] };
+    const cat = layered([2], 1, true, [recurrent(1, 1, { bidirectional: true })]);
+    expect(planModel(cat).grids[0]).toEqual({ dims: [1], width: 2 });
+    expect(value(cat, 'tree', { ...ws, head: [1, 10] }, [1, 1])).toBe(180 + 770770);
+    const sum = layered([2], 1, true, [recurrent(1, 1, { bidirectional: true, merge: 'sum' })]);
+    expect(value(sum, 'tree', { ...ws, head: [1] }, [1, 1])).toBe(180 + 77077);
+    // Per-step outputs, step 0: [f_1 ; b_1] = [30·x0 ; 77077·x0x1].
+    const steps = layered([2], 1, true, [recurrent(1, 1, { bidirectional: true, sequence: true })], { output: [0] });
+    expect(value(steps, 'tree', { ...ws, head: [1, 1] }, [1, 2])).toBe(30 + 154154);
+  });
+
+  it('the next level of a bidirectional stack reads [f ; b] in that order', () => {
+    // One step, x: f¹ = 2x, b¹ = 3x; level 2: W_I = (1, 1) → 5x, U_I = (1, 2) → 8x; head (1, 10): 85x.
+    const m = layered([1], 1, true, [recurrent(1, 2, { bidirectional: true })]);
+    const ws = {
+      'L0:H1': [1], 'L0:I1': [2], 'L0:h0_1': [1], 'L0:UH1': [1], 'L0:UI1': [3], 'L0:b0_1': [1],
+      'L0:H2': [1], 'L0:I2': [1, 1], 'L0:h0_2': [1], 'L0:UH2': [1], 'L0:UI2': [1, 2], 'L0:b0_2': [1],
+      head: [1, 10],
+    };
+    expect(value(m, 'tree', ws, [2])).toBe(170);
   });
 });
