@@ -2045,7 +2045,7 @@ var require_YAMLMap = __commonJS({
       static from(schema, obj, ctx) {
         const { keepUndefined, replacer } = ctx;
         const map = new this(schema);
-        const add = (key, value) => {
+        const add2 = (key, value) => {
           if (typeof replacer === "function")
             value = replacer.call(obj, key, value);
           else if (Array.isArray(replacer) && !replacer.includes(key))
@@ -2055,10 +2055,10 @@ var require_YAMLMap = __commonJS({
         };
         if (obj instanceof Map) {
           for (const [key, value] of obj)
-            add(key, value);
+            add2(key, value);
         } else if (obj && typeof obj === "object") {
           for (const key of Object.keys(obj))
-            add(key, obj[key]);
+            add2(key, obj[key]);
         }
         if (typeof schema.sortMapEntries === "function") {
           map.items.sort(schema.sortMapEntries);
@@ -3998,10 +3998,10 @@ var require_resolve_block_map = __commonJS({
       let offset = bm.offset;
       let commentEnd = null;
       for (const collItem of bm.items) {
-        const { start, key, sep, value } = collItem;
+        const { start, key, sep: sep3, value } = collItem;
         const keyProps = resolveProps.resolveProps(start, {
           indicator: "explicit-key-ind",
-          next: key ?? sep?.[0],
+          next: key ?? sep3?.[0],
           offset,
           onError,
           parentIndent: bm.indent,
@@ -4015,7 +4015,7 @@ var require_resolve_block_map = __commonJS({
             else if ("indent" in key && key.indent !== bm.indent)
               onError(offset, "BAD_INDENT", startColMsg);
           }
-          if (!keyProps.anchor && !keyProps.tag && !sep) {
+          if (!keyProps.anchor && !keyProps.tag && !sep3) {
             commentEnd = keyProps.end;
             if (keyProps.comment) {
               if (map.comment)
@@ -4039,7 +4039,7 @@ var require_resolve_block_map = __commonJS({
         ctx.atKey = false;
         if (utilMapIncludes.mapIncludes(ctx, map.items, keyNode))
           onError(keyStart, "DUPLICATE_KEY", "Map keys must be unique");
-        const valueProps = resolveProps.resolveProps(sep ?? [], {
+        const valueProps = resolveProps.resolveProps(sep3 ?? [], {
           indicator: "map-value-ind",
           next: value,
           offset: keyNode.range[2],
@@ -4055,7 +4055,7 @@ var require_resolve_block_map = __commonJS({
             if (ctx.options.strict && keyProps.start < valueProps.found.offset - 1024)
               onError(keyNode.range, "KEY_OVER_1024_CHARS", "The : indicator must be at most 1024 chars after the start of an implicit block mapping key");
           }
-          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : composeEmptyNode(ctx, offset, sep, null, valueProps, onError);
+          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : composeEmptyNode(ctx, offset, sep3, null, valueProps, onError);
           if (ctx.schema.compat)
             utilFlowIndentCheck.flowIndentCheck(bm.indent, value, onError);
           offset = valueNode.range[2];
@@ -4146,7 +4146,7 @@ var require_resolve_end = __commonJS({
       let comment = "";
       if (end) {
         let hasSpace = false;
-        let sep = "";
+        let sep3 = "";
         for (const token of end) {
           const { source, type } = token;
           switch (type) {
@@ -4160,13 +4160,13 @@ var require_resolve_end = __commonJS({
               if (!comment)
                 comment = cb;
               else
-                comment += sep + cb;
-              sep = "";
+                comment += sep3 + cb;
+              sep3 = "";
               break;
             }
             case "newline":
               if (comment)
-                sep += source;
+                sep3 += source;
               hasSpace = true;
               break;
             default:
@@ -4209,18 +4209,18 @@ var require_resolve_flow_collection = __commonJS({
       let offset = fc.offset + fc.start.source.length;
       for (let i = 0; i < fc.items.length; ++i) {
         const collItem = fc.items[i];
-        const { start, key, sep, value } = collItem;
+        const { start, key, sep: sep3, value } = collItem;
         const props = resolveProps.resolveProps(start, {
           flow: fcName,
           indicator: "explicit-key-ind",
-          next: key ?? sep?.[0],
+          next: key ?? sep3?.[0],
           offset,
           onError,
           parentIndent: fc.indent,
           startOnNewline: false
         });
         if (!props.found) {
-          if (!props.anchor && !props.tag && !sep && !value) {
+          if (!props.anchor && !props.tag && !sep3 && !value) {
             if (i === 0 && props.comma)
               onError(props.comma, "UNEXPECTED_TOKEN", `Unexpected , in ${fcName}`);
             else if (i < fc.items.length - 1)
@@ -4274,8 +4274,8 @@ var require_resolve_flow_collection = __commonJS({
             }
           }
         }
-        if (!isMap4 && !sep && !props.found) {
-          const valueNode = value ? composeNode(ctx, value, props, onError) : composeEmptyNode(ctx, props.end, sep, null, props, onError);
+        if (!isMap4 && !sep3 && !props.found) {
+          const valueNode = value ? composeNode(ctx, value, props, onError) : composeEmptyNode(ctx, props.end, sep3, null, props, onError);
           coll.items.push(valueNode);
           offset = valueNode.range[2];
           if (isBlock(value))
@@ -4287,7 +4287,7 @@ var require_resolve_flow_collection = __commonJS({
           if (isBlock(key))
             onError(keyNode.range, "BLOCK_IN_FLOW", blockMsg);
           ctx.atKey = false;
-          const valueProps = resolveProps.resolveProps(sep ?? [], {
+          const valueProps = resolveProps.resolveProps(sep3 ?? [], {
             flow: fcName,
             indicator: "map-value-ind",
             next: value,
@@ -4298,8 +4298,8 @@ var require_resolve_flow_collection = __commonJS({
           });
           if (valueProps.found) {
             if (!isMap4 && !props.found && ctx.options.strict) {
-              if (sep)
-                for (const st of sep) {
+              if (sep3)
+                for (const st of sep3) {
                   if (st === valueProps.found)
                     break;
                   if (st.type === "newline") {
@@ -4316,7 +4316,7 @@ var require_resolve_flow_collection = __commonJS({
             else
               onError(valueProps.start, "MISSING_CHAR", `Missing , or : between ${fcName} items`);
           }
-          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : valueProps.found ? composeEmptyNode(ctx, valueProps.end, sep, null, valueProps, onError) : null;
+          const valueNode = value ? composeNode(ctx, value, valueProps, onError) : valueProps.found ? composeEmptyNode(ctx, valueProps.end, sep3, null, valueProps, onError) : null;
           if (valueNode) {
             if (isBlock(value))
               onError(valueNode.range, "BLOCK_IN_FLOW", blockMsg);
@@ -4496,7 +4496,7 @@ var require_resolve_block_scalar = __commonJS({
           chompStart = i + 1;
       }
       let value = "";
-      let sep = "";
+      let sep3 = "";
       let prevMoreIndented = false;
       for (let i = 0; i < contentStart; ++i)
         value += lines[i][0].slice(trimIndent) + "\n";
@@ -4513,24 +4513,24 @@ var require_resolve_block_scalar = __commonJS({
           indent = "";
         }
         if (type === Scalar.Scalar.BLOCK_LITERAL) {
-          value += sep + indent.slice(trimIndent) + content;
-          sep = "\n";
+          value += sep3 + indent.slice(trimIndent) + content;
+          sep3 = "\n";
         } else if (indent.length > trimIndent || content[0] === "	") {
-          if (sep === " ")
-            sep = "\n";
-          else if (!prevMoreIndented && sep === "\n")
-            sep = "\n\n";
-          value += sep + indent.slice(trimIndent) + content;
-          sep = "\n";
+          if (sep3 === " ")
+            sep3 = "\n";
+          else if (!prevMoreIndented && sep3 === "\n")
+            sep3 = "\n\n";
+          value += sep3 + indent.slice(trimIndent) + content;
+          sep3 = "\n";
           prevMoreIndented = true;
         } else if (content === "") {
-          if (sep === "\n")
+          if (sep3 === "\n")
             value += "\n";
           else
-            sep = "\n";
+            sep3 = "\n";
         } else {
-          value += sep + content;
-          sep = " ";
+          value += sep3 + content;
+          sep3 = " ";
           prevMoreIndented = false;
         }
       }
@@ -4713,25 +4713,25 @@ var require_resolve_flow_scalar = __commonJS({
         trimBoth = /^[ \t]+|[ \t]+$/g;
       }
       let res = match[1].replace(trimEnd, "");
-      let sep = " ";
+      let sep3 = " ";
       let pos = line.lastIndex;
       while (match = line.exec(source)) {
         const lm = match[1].replace(trimBoth, "");
         if (lm === "") {
-          if (sep === "\n")
-            res += sep;
+          if (sep3 === "\n")
+            res += sep3;
           else
-            sep = "\n";
+            sep3 = "\n";
         } else {
-          res += sep + lm;
-          sep = " ";
+          res += sep3 + lm;
+          sep3 = " ";
         }
         pos = line.lastIndex;
       }
       const last = /[ \t]*(.*)/sy;
       last.lastIndex = pos;
       match = last.exec(source);
-      return res + sep + (match?.[1] ?? "");
+      return res + sep3 + (match?.[1] ?? "");
     }
     function doubleQuotedValue(source, onError) {
       let res = "";
@@ -5541,14 +5541,14 @@ var require_cst_stringify = __commonJS({
         }
       }
     }
-    function stringifyItem({ start, key, sep, value }) {
+    function stringifyItem({ start, key, sep: sep3, value }) {
       let res = "";
       for (const st of start)
         res += st.source;
       if (key)
         res += stringifyToken(key);
-      if (sep)
-        for (const st of sep)
+      if (sep3)
+        for (const st of sep3)
           res += st.source;
       if (value)
         res += stringifyToken(value);
@@ -6315,7 +6315,7 @@ var require_lexer = __commonJS({
 var require_line_counter = __commonJS({
   "node_modules/yaml/dist/parse/line-counter.js"(exports) {
     "use strict";
-    var LineCounter2 = class {
+    var LineCounter3 = class {
       constructor() {
         this.lineStarts = [];
         this.addNewLine = (offset) => this.lineStarts.push(offset);
@@ -6338,7 +6338,7 @@ var require_line_counter = __commonJS({
         };
       }
     };
-    exports.LineCounter = LineCounter2;
+    exports.LineCounter = LineCounter3;
   }
 });
 
@@ -6439,7 +6439,7 @@ var require_parser = __commonJS({
         }
       }
     }
-    var Parser = class {
+    var Parser2 = class {
       /**
        * @param onNewLine - If defined, called separately with the start position of
        *   each new line (in `parse()`, including the start of input).
@@ -6715,18 +6715,18 @@ var require_parser = __commonJS({
         if (this.type === "map-value-ind") {
           const prev = getPrevProps(this.peek(2));
           const start = getFirstKeyStartProps(prev);
-          let sep;
+          let sep3;
           if (scalar.end) {
-            sep = scalar.end;
-            sep.push(this.sourceToken);
+            sep3 = scalar.end;
+            sep3.push(this.sourceToken);
             delete scalar.end;
           } else
-            sep = [this.sourceToken];
+            sep3 = [this.sourceToken];
           const map = {
             type: "block-map",
             offset: scalar.offset,
             indent: scalar.indent,
-            items: [{ start, key: scalar, sep }]
+            items: [{ start, key: scalar, sep: sep3 }]
           };
           this.onKeyLine = true;
           this.stack[this.stack.length - 1] = map;
@@ -6879,15 +6879,15 @@ var require_parser = __commonJS({
                 } else if (isFlowToken(it.key) && !includesToken(it.sep, "newline")) {
                   const start2 = getFirstKeyStartProps(it.start);
                   const key = it.key;
-                  const sep = it.sep;
-                  sep.push(this.sourceToken);
+                  const sep3 = it.sep;
+                  sep3.push(this.sourceToken);
                   delete it.key;
                   delete it.sep;
                   this.stack.push({
                     type: "block-map",
                     offset: this.offset,
                     indent: this.indent,
-                    items: [{ start: start2, key, sep }]
+                    items: [{ start: start2, key, sep: sep3 }]
                   });
                 } else if (start.length > 0) {
                   it.sep = it.sep.concat(start, this.sourceToken);
@@ -7081,13 +7081,13 @@ var require_parser = __commonJS({
             const prev = getPrevProps(parent);
             const start = getFirstKeyStartProps(prev);
             fixFlowSeqItems(fc);
-            const sep = fc.end.splice(1, fc.end.length);
-            sep.push(this.sourceToken);
+            const sep3 = fc.end.splice(1, fc.end.length);
+            sep3.push(this.sourceToken);
             const map = {
               type: "block-map",
               offset: fc.offset,
               indent: fc.indent,
-              items: [{ start, key: fc, sep }]
+              items: [{ start, key: fc, sep: sep3 }]
             };
             this.onKeyLine = true;
             this.stack[this.stack.length - 1] = map;
@@ -7212,7 +7212,7 @@ var require_parser = __commonJS({
         }
       }
     };
-    exports.Parser = Parser;
+    exports.Parser = Parser2;
   }
 });
 
@@ -7246,7 +7246,7 @@ var require_public_api = __commonJS({
         return docs;
       return Object.assign([], { empty: true }, composer$1.streamInfo());
     }
-    function parseDocument2(source, options = {}) {
+    function parseDocument3(source, options = {}) {
       const { lineCounter: lineCounter2, prettyErrors } = parseOptions(options);
       const parser$1 = new parser.Parser(lineCounter2?.addNewLine);
       const composer$1 = new composer.Composer(options);
@@ -7272,7 +7272,7 @@ var require_public_api = __commonJS({
       } else if (options === void 0 && reviver && typeof reviver === "object") {
         options = reviver;
       }
-      const doc = parseDocument2(src, options);
+      const doc = parseDocument3(src, options);
       if (!doc)
         return null;
       doc.warnings.forEach((warning) => log.warn(doc.options.logLevel, warning));
@@ -7308,7 +7308,7 @@ var require_public_api = __commonJS({
     }
     exports.parse = parse;
     exports.parseAllDocuments = parseAllDocuments;
-    exports.parseDocument = parseDocument2;
+    exports.parseDocument = parseDocument3;
     exports.stringify = stringify;
   }
 });
@@ -7705,6 +7705,12 @@ function windowTaps(j, n, k, s, d, left) {
   for (let t = first; t <= last; t++) at.push(j * s - left + t * d);
   return at;
 }
+function windowTapIndices(j, n, k, s, d, left) {
+  const [first, last] = tapRange(j, n, k, s, d, left);
+  const taps = [];
+  for (let t = first; t <= last; t++) taps.push(t);
+  return taps;
+}
 function treeConvPositions(j, n, k, s, d, plan, causal) {
   const m = Math.min(k, s);
   const e = extent(k, d);
@@ -7743,13 +7749,13 @@ function linearSources(j, n, f2) {
 var MAX_WIDTH = 2 ** 31 - 1;
 function inferShapes(model, adjust2) {
   const diagnostics = [];
-  const fail = (span, code, message) => {
+  const fail2 = (span, code, message) => {
     diagnostics.push({ code, message, file: model.file, span, severity: "error" });
     return { ok: false, diagnostics };
   };
   const m = representationOf(model);
   if (m === void 0) {
-    return fail(
+    return fail2(
       model.input.span,
       "config/no-representation",
       "no layer maps the input to a width, so the number of representation functions per position cannot be defaulted; set input.representation"
@@ -7765,7 +7771,7 @@ function inferShapes(model, adjust2) {
     const ins = written.inputs.map(inShape);
     const first = ins[0];
     const adjusted = adjust2 ? adjust2(written, first) : written;
-    if ("code" in adjusted) return fail(adjusted.span, adjusted.code, adjusted.message);
+    if ("code" in adjusted) return fail2(adjusted.span, adjusted.code, adjusted.message);
     const layer = adjusted;
     const where2 = `layer ${layerLabel(layer)} (line ${layer.span.line})`;
     const dims = first.shape.length;
@@ -7776,12 +7782,12 @@ function inferShapes(model, adjust2) {
     switch (layer.kind) {
       case "conv": {
         const axes = perAxis(layer, first.shape);
-        if (typeof axes === "string") return fail(layer.fieldSpans["kernel"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${axes}`);
+        if (typeof axes === "string") return fail2(layer.fieldSpans["kernel"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${axes}`);
         if (layer.padding.mode === "causal" && dims !== 1) {
-          return fail(layer.fieldSpans["padding"] ?? layer.span, "config/causal-needs-1d", `${where2}: causal padding needs a 1D grid, but the grid is [${first.shape.join(", ")}]`);
+          return fail2(layer.fieldSpans["padding"] ?? layer.span, "config/causal-needs-1d", `${where2}: causal padding needs a 1D grid, but the grid is [${first.shape.join(", ")}]`);
         }
         const g = convGroups(layer, first.width);
-        if (typeof g === "string") return fail(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: ${g}`);
+        if (typeof g === "string") return fail2(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: ${g}`);
         groups[layer.index] = g.groups;
         result = { shape: axes, width: g.channels };
         break;
@@ -7791,10 +7797,10 @@ function inferShapes(model, adjust2) {
           (n, a) => transposeLength(n, layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a], layer.outputPadding[a])
         );
         if (shape.some((n) => n < 1)) {
-          return fail(layer.fieldSpans["padding"] ?? layer.span, "config/window-does-not-fit", `${where2}: the output would have no positions ([${shape.join(", ")}]); reduce the padding`);
+          return fail2(layer.fieldSpans["padding"] ?? layer.span, "config/window-does-not-fit", `${where2}: the output would have no positions ([${shape.join(", ")}]); reduce the padding`);
         }
         if (first.width % layer.groups !== 0 || layer.channels % layer.groups !== 0) {
-          return fail(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: groups ${layer.groups} must divide both the input width ${first.width} and the channels ${layer.channels}`);
+          return fail2(layer.fieldSpans["groups"] ?? layer.span, "config/groups", `${where2}: groups ${layer.groups} must divide both the input width ${first.width} and the channels ${layer.channels}`);
         }
         groups[layer.index] = layer.groups;
         result = { shape, width: layer.channels };
@@ -7808,7 +7814,7 @@ function inferShapes(model, adjust2) {
         const shape = [];
         for (let a = 0; a < dims; a++) {
           const plan = windowAxis(first.shape[a], layer.window[a], layer.stride[a], 1, layer.padding, a);
-          if (typeof plan === "string") return fail(layer.fieldSpans["window"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${plan}`);
+          if (typeof plan === "string") return fail2(layer.fieldSpans["window"] ?? layer.span, "config/window-does-not-fit", `${where2}: ${plan}`);
           shape.push(plan.out);
         }
         result = { shape, width: first.width };
@@ -7829,7 +7835,7 @@ function inferShapes(model, adjust2) {
         break;
       case "recurrent": {
         if (dims !== 1) {
-          return fail(layer.span, "config/recurrent-needs-1d", `${where2}: a recurrent layer needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
+          return fail2(layer.span, "config/recurrent-needs-1d", `${where2}: a recurrent layer needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
         }
         const width = layer.bidirectional && layer.merge === "concat" ? 2 * layer.hidden : layer.hidden;
         result = { shape: layer.sequence ? first.shape : [1], width };
@@ -7847,10 +7853,10 @@ function inferShapes(model, adjust2) {
       case "attention": {
         const a = layer.headDim ?? first.width / layer.heads;
         if (!Number.isInteger(a) || a < 1) {
-          return fail(layer.fieldSpans["heads"] ?? layer.span, "config/attention-heads", `${where2}: ${layer.heads} heads do not divide the width ${first.width}; give head_dim`);
+          return fail2(layer.fieldSpans["heads"] ?? layer.span, "config/attention-heads", `${where2}: ${layer.heads} heads do not divide the width ${first.width}; give head_dim`);
         }
         if (layer.window !== void 0 && dims !== 1) {
-          return fail(layer.fieldSpans["window"] ?? layer.span, "config/attention-window", `${where2}: a local window needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
+          return fail2(layer.fieldSpans["window"] ?? layer.span, "config/attention-window", `${where2}: a local window needs a 1D sequence, but the grid is [${first.shape.join(", ")}] here`);
         }
         headDims[layer.index] = a;
         result = first;
@@ -7863,11 +7869,11 @@ function inferShapes(model, adjust2) {
       case "merge": {
         const mismatch = ins.findIndex((s) => s.shape.length !== dims || s.shape.some((n, a) => n !== first.shape[a]));
         if (mismatch >= 0) {
-          return fail(layer.span, "config/merge-shape", `${where2}: the paths it ${layer.mode === "sum" ? "adds" : "joins"} end on different grids: ${ins.map((s) => `[${s.shape.join(", ")}]`).join(" and ")}${describeInputs(model, layer)}`);
+          return fail2(layer.span, "config/merge-shape", `${where2}: the paths it ${layer.mode === "sum" ? "adds" : "joins"} end on different grids: ${ins.map((s) => `[${s.shape.join(", ")}]`).join(" and ")}${describeInputs(model, layer)}`);
         }
         if (layer.mode === "sum") {
           if (ins.some((s) => s.width !== first.width)) {
-            return fail(layer.span, "config/merge-width", `${where2}: the paths it adds have different widths ${ins.map((s) => s.width).join(" and ")}${describeInputs(model, layer)}; a sum needs equal widths (give the shortcut a 1×1 conv to the main path's width)`);
+            return fail2(layer.span, "config/merge-width", `${where2}: the paths it adds have different widths ${ins.map((s) => s.width).join(" and ")}${describeInputs(model, layer)}; a sum needs equal widths (give the shortcut a 1×1 conv to the main path's width)`);
           }
           result = { shape: first.shape, width: first.width };
         } else {
@@ -7877,13 +7883,13 @@ function inferShapes(model, adjust2) {
       }
     }
     if (result.width > MAX_WIDTH) {
-      return fail(layer.span, "config/too-wide", `${where2}: its width ${result.width} is above the limit of ${MAX_WIDTH}`);
+      return fail2(layer.span, "config/too-wide", `${where2}: its width ${result.width} is above the limit of ${MAX_WIDTH}`);
     }
     out.push(result);
   }
   const last = out[out.length - 1];
   const output = outputPosition(model, last.shape, out, denseReading);
-  if (typeof output === "string") return fail(model.output.span ?? model.span, "config/output-position", output);
+  if (typeof output === "string") return fail2(model.output.span ?? model.span, "config/output-position", output);
   return { ok: true, shapes: { representation: m, layers: out, groups, denseReading, headDims, output } };
 }
 function perAxis(layer, shape) {
@@ -8027,11 +8033,11 @@ function buildCircuit(model, options) {
   const shaped = inferShapes(model);
   if (!shaped.ok) return shaped;
   const shapes = shaped.shapes;
-  const fail = (span, code, message) => ({
+  const fail2 = (span, code, message) => ({
     ok: false,
     diagnostics: [{ code, message, file: model.file, span, severity: "error" }]
   });
-  const tooLarge2 = () => fail(
+  const tooLarge2 = () => fail2(
     model.input.fieldSpans["shape"] ?? model.input.span,
     "network/too-large",
     `this model's tensor network would exceed ${limit} nodes or ${limit * 4} links; analyse a smaller input shape`
@@ -8051,7 +8057,7 @@ function buildCircuit(model, options) {
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
       const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
-      if ("code" in built) return fail(built.span, built.code, built.message);
+      if ("code" in built) return fail2(built.span, built.code, built.message);
       grids.push(built);
     }
     const last = grids[grids.length - 1];
@@ -8064,7 +8070,7 @@ function buildCircuit(model, options) {
       top = last.nodes[flatIndex(last.shape, shapes.output.position)];
     }
     if (top === ZERO) {
-      return fail(
+      return fail2(
         lastLayer.span,
         "network/zero-output",
         `the analysed output is zero for every choice of weights: it reads only padding; reduce the padding or analyse another output position`
@@ -8161,7 +8167,7 @@ function recurrent(b, g, layer, tag) {
     return states;
   };
   const width = layer.bidirectional && layer.merge === "concat" ? 2 * R : R;
-  const join = (f2, bw) => sumOf(b, width, tag, [f2, bw]);
+  const join3 = (f2, bw) => sumOf(b, width, tag, [f2, bw]);
   let below = g.nodes;
   let forward = [];
   let backward = [];
@@ -8169,11 +8175,11 @@ function recurrent(b, g, layer, tag) {
     forward = chain(below, false);
     if (layer.bidirectional) {
       backward = chain(below, true);
-      below = forward.map((f2, t) => join(f2, backward[t]));
+      below = forward.map((f2, t) => join3(f2, backward[t]));
     } else below = forward;
   }
   if (layer.sequence) return { shape: g.shape, nodes: below, dim: width, flat: false };
-  const last = layer.bidirectional ? join(forward[forward.length - 1], backward[0]) : forward[forward.length - 1];
+  const last = layer.bidirectional ? join3(forward[forward.length - 1], backward[0]) : forward[forward.length - 1];
   return { shape: [1], nodes: [last], dim: width, flat: false };
 }
 function attention(b, g, layer, a, tag) {
@@ -8243,12 +8249,12 @@ function pool(b, g, layer, shape, tag) {
   if (layer.global) {
     return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
   }
-  const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
+  const axisPlans2 = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes = [];
   const problem = eachOutput(
     g.shape,
     shape,
-    (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans[a].left),
+    (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans2[a].left),
     (positions, at) => {
       if (positions.length === 0) return emptyWindow(layer, at);
       nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
@@ -8276,14 +8282,14 @@ function upsample(b, g, layer, shape, tag) {
   return { shape, nodes, dim: g.dim, flat: false };
 }
 function conv(b, g, layer, shape, width, tag, surrogate, identity) {
-  const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
+  const axisPlans2 = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === "causal";
   const nodes = [];
   if (surrogate === "overlap") {
     const problem2 = eachOutput(
       g.shape,
       shape,
-      (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a].left),
+      (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans2[a].left),
       (positions) => {
         nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p])));
         return void 0;
@@ -8299,7 +8305,7 @@ function conv(b, g, layer, shape, width, tag, surrogate, identity) {
   const problem = eachOutput(
     g.shape,
     shape,
-    (a, j) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans[a], causal),
+    (a, j) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans2[a], causal),
     (positions) => {
       nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
       return void 0;
@@ -8984,6 +8990,9 @@ function checkNode(v, nodeCount) {
 // src/cut/types.ts
 var MAX_RANK_BITS = 4e6;
 var HUGE_RANK = 1n << BigInt(MAX_RANK_BITS);
+function boundsMeet(lower, upper) {
+  return !lower.huge && !upper.huge && lower.rank === upper.rank;
+}
 function log2Big(x) {
   if (x <= 0n) throw new RangeError("log2Big needs a positive integer");
   const bits = x.toString(2).length;
@@ -9063,7 +9072,7 @@ function buildNetwork(model, partition) {
   for (let i = 0; i < model.tensors.length; i++) fresh();
   let hyper = false;
   let cycle = false;
-  const join = (a, b) => {
+  const join3 = (a, b) => {
     const ra = find(a);
     const rb = find(b);
     if (ra === rb) cycle = true;
@@ -9079,9 +9088,9 @@ function buildNetwork(model, partition) {
     if (members.length >= 3) {
       hyper = true;
       const h = fresh();
-      for (const m of members) join(h, m);
+      for (const m of members) join3(h, m);
     } else if (members.length === 2) {
-      join(members[0], members[1]);
+      join3(members[0], members[1]);
     } else {
       cycle = true;
     }
@@ -9275,14 +9284,14 @@ function propagateFloat(c, plan, side, log) {
   const pureParts = new Uint8Array(n);
   const zero = log ? -Infinity : 0;
   const of = (x) => log ? Math.log2(x) : x;
-  const mul = (x, y) => log ? x + y : x * y;
-  const add = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
+  const mul2 = (x, y) => log ? x + y : x * y;
+  const add2 = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
   const symPow = (x, a) => log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a));
   const term = (t, r) => {
     const node = childOf[t];
     if (mStart[t + 1] === mStart[t]) return r[node];
     let sum = r[members[mStart[t]]];
-    for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = add(sum, r[members[i]]);
+    for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = add2(sum, r[members[i]]);
     return Math.min(r[node], sum);
   };
   for (let v = 0; v < n; v++) {
@@ -9328,17 +9337,17 @@ function propagateFloat(c, plan, side, log) {
       for (let t = start[v]; t < start[v + 1]; t++) {
         const ch = childOf[t];
         const m = times[t];
-        a = mul(a, m === 1 ? ra[ch] : symPow(ra[ch], m));
-        b = mul(b, m === 1 ? rb[ch] : symPow(rb[ch], m));
-        k = mul(k, m === 1 ? kap[ch] : symPow(kap[ch], m));
+        a = mul2(a, m === 1 ? ra[ch] : symPow(ra[ch], m));
+        b = mul2(b, m === 1 ? rb[ch] : symPow(rb[ch], m));
+        k = mul2(k, m === 1 ? kap[ch] : symPow(kap[ch], m));
       }
-      l = mul(D, k);
+      l = mul2(D, k);
       lWhy = FROM_DIM_KAPPA;
       const pf = pureFactor(start, childOf, times, dep, v);
       if (pf) {
         const onA = dep[pf.pure] === 1;
         const span = onA ? rb[pf.pure] : ra[pf.pure];
-        const alt = add(pureParts[pf.other] & (onA ? 1 : 2) ? one : zero, mul(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
+        const alt = add2(pureParts[pf.other] & (onA ? 1 : 2) ? one : zero, mul2(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
         if (alt < l) {
           l = alt;
           lWhy = FROM_PURE_FACTOR;
@@ -9355,9 +9364,9 @@ function propagateFloat(c, plan, side, log) {
     whyA[v] = FROM_CHILDREN;
     whyB[v] = FROM_CHILDREN;
     whyL[v] = lWhy;
-    const viaB = mul(D, b);
-    const viaA = mul(D, a);
-    const viaK = mul(D, k);
+    const viaB = mul2(D, b);
+    const viaA = mul2(D, a);
+    const viaK = mul2(D, k);
     if (a > Math.min(viaB, viaK)) {
       whyA[v] = viaB <= viaK ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
       a = Math.min(viaB, viaK);
@@ -9719,11 +9728,11 @@ function recordWidths(c, plan, p) {
       continue;
     }
     if (kind === OP_SUM) {
-      const sub = which === K ? L : which;
+      const sub2 = which === K ? L : which;
       for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
         const node = plan.childOf[t];
-        if (dep[node] === 3) stack.push([node, sub]);
-        else if (farSide(node, sub)) note(v);
+        if (dep[node] === 3) stack.push([node, sub2]);
+        else if (farSide(node, sub2)) note(v);
       }
       continue;
     }
@@ -9779,19 +9788,19 @@ function readSame(r, shapes, reading) {
 }
 function bypass(model, drop) {
   const through = /* @__PURE__ */ new Map();
-  const resolve = (i) => i === INPUT ? INPUT : through.get(i) ?? i;
+  const resolve3 = (i) => i === INPUT ? INPUT : through.get(i) ?? i;
   const kept = [];
   const newIndex = /* @__PURE__ */ new Map();
   for (const l of model.layers) {
     if (drop(l)) {
-      through.set(l.index, resolve(l.inputs[0]));
+      through.set(l.index, resolve3(l.inputs[0]));
       continue;
     }
     newIndex.set(l.index, kept.length);
     kept.push(l);
   }
   const renumber = (i) => {
-    const r = resolve(i);
+    const r = resolve3(i);
     return r === INPUT ? INPUT : newIndex.get(r);
   };
   return {
@@ -9828,7 +9837,7 @@ function keepOneInput(model, pick) {
   const consumers = layers.map(() => []);
   for (const l of layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
   const replaced = /* @__PURE__ */ new Map();
-  const resolve = (i) => replaced.get(i) ?? i;
+  const resolve3 = (i) => replaced.get(i) ?? i;
   for (const l of layers) {
     if (l.kind !== "merge") continue;
     const coordinatewise = l.mode === "concat" && onlyCoordinatewiseUntilWeighted(layers, consumers, l.index);
@@ -9836,16 +9845,16 @@ function keepOneInput(model, pick) {
     const ends = pick === "first" ? [0, l.inputs.length - 1] : [l.inputs.length - 1, 0];
     const keptAt = ends.find(canKeep);
     if (keptAt === void 0) return void 0;
-    replaced.set(l.index, resolve(l.inputs[keptAt]));
+    replaced.set(l.index, resolve3(l.inputs[keptAt]));
   }
-  const last = resolve(layers.length - 1);
+  const last = resolve3(layers.length - 1);
   const live = /* @__PURE__ */ new Set();
   const stack = [last];
   while (stack.length > 0) {
     const i = stack.pop();
     if (i === INPUT || live.has(i)) continue;
     live.add(i);
-    for (const j of layers[i].inputs) stack.push(resolve(j));
+    for (const j of layers[i].inputs) stack.push(resolve3(j));
   }
   const order = layers.filter((l) => live.has(l.index) && l.kind !== "merge");
   const newIndex = new Map(order.map((l, k) => [l.index, k]));
@@ -9853,7 +9862,7 @@ function keepOneInput(model, pick) {
     ...l,
     index: k,
     inputs: l.inputs.map((j) => {
-      const r = resolve(j);
+      const r = resolve3(j);
       return r === INPUT ? INPUT : newIndex.get(r);
     })
   }));
@@ -9891,6 +9900,597 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
   return true;
 }
 
+// src/cut/probe/modular.ts
+var PROBE_PRIME = 67108859;
+var INVERSE = 1 / PROBE_PRIME;
+function mulAddMod(a, b, c) {
+  const x = a * b + c;
+  const r = x - Math.floor(x * INVERSE) * PROBE_PRIME;
+  return r < 0 ? r + PROBE_PRIME : r >= PROBE_PRIME ? r - PROBE_PRIME : r;
+}
+function inverseMod(a) {
+  if (a === 0) throw new RangeError("0 has no inverse modulo the probe prime");
+  let result = 1;
+  let base = a;
+  for (let e = PROBE_PRIME - 2; e > 0; e = Math.floor(e / 2)) {
+    if (e % 2 === 1) result = mulAddMod(result, base, 0);
+    base = mulAddMod(base, base, 0);
+  }
+  return result;
+}
+function certifyingMinor(m, rows, cols) {
+  const origin = Array.from({ length: rows }, (_, i) => i);
+  const pivotRows = [];
+  const pivotCols = [];
+  let det = 1;
+  let rank = 0;
+  for (let c = 0; c < cols && rank < rows; c++) {
+    let pivot = rank;
+    while (pivot < rows && m[pivot * cols + c] === 0) pivot++;
+    if (pivot === rows) continue;
+    if (pivot !== rank) {
+      for (let k = c; k < cols; k++) {
+        const t = m[pivot * cols + k];
+        m[pivot * cols + k] = m[rank * cols + k];
+        m[rank * cols + k] = t;
+      }
+      const o = origin[pivot];
+      origin[pivot] = origin[rank];
+      origin[rank] = o;
+    }
+    const head = m[rank * cols + c];
+    det = mulAddMod(det, head, 0);
+    const scale = inverseMod(head);
+    for (let r = rank + 1; r < rows; r++) {
+      const f2 = m[r * cols + c];
+      if (f2 === 0) continue;
+      const factor = PROBE_PRIME - mulAddMod(f2, scale, 0);
+      const ro = r * cols;
+      const po = rank * cols;
+      for (let k = c; k < cols; k++) {
+        const x = factor * m[po + k] + m[ro + k];
+        const y = x - Math.floor(x * INVERSE) * PROBE_PRIME;
+        m[ro + k] = y < 0 ? y + PROBE_PRIME : y >= PROBE_PRIME ? y - PROBE_PRIME : y;
+      }
+    }
+    pivotRows.push(origin[rank]);
+    pivotCols.push(c);
+    rank++;
+  }
+  let inversions = 0;
+  for (let i = 0; i < pivotRows.length; i++) for (let j = i + 1; j < pivotRows.length; j++) if (pivotRows[i] > pivotRows[j]) inversions++;
+  if (inversions % 2 === 1 && det !== 0) det = PROBE_PRIME - det;
+  return { rows: [...pivotRows].sort((a, b) => a - b), cols: pivotCols, determinant: det };
+}
+
+// src/cut/probe/draw.ts
+function fnv1a(name) {
+  let h = 2166136261;
+  for (let i = 0; i < name.length; i++) h = Math.imul(h ^ name.charCodeAt(i), 16777619) >>> 0;
+  return h;
+}
+function mix(x) {
+  x = Math.imul(x ^ x >>> 16, 2246822507) >>> 0;
+  x = Math.imul(x ^ x >>> 13, 3266489909) >>> 0;
+  return (x ^ x >>> 16) >>> 0;
+}
+function drawValues(seed, name, length) {
+  const base = mix((seed ^ fnv1a(name)) >>> 0);
+  const out = new Float64Array(length);
+  for (let i = 0; i < length; i++) out[i] = mix(base + Math.imul(i + 1, 2654435769) >>> 0) % PROBE_PRIME;
+  return out;
+}
+
+// src/cut/probe/surrogate-program.ts
+var mulAddMod2 = mulAddMod;
+function applyMap(map, buf, vo, oo, accumulate) {
+  const { w, r, d, g } = map;
+  const dg = d / g;
+  const rg = r / g;
+  for (let k = 0; k < r; k++) {
+    let acc = accumulate ? buf[oo + k] : 0;
+    const from = vo + Math.floor(k / rg) * dg;
+    const row2 = k * dg;
+    for (let c = 0; c < dg; c++) acc = mulAddMod2(w[row2 + c], buf[from + c], acc);
+    buf[oo + k] = acc;
+  }
+}
+var ProgramBuilder = class {
+  constructor(seed) {
+    this.seed = seed;
+  }
+  seed;
+  steps = [];
+  size = 0;
+  weights = /* @__PURE__ */ new Map();
+  zeros = /* @__PURE__ */ new Map();
+  add(length, reads, cost, make) {
+    const offset = this.size;
+    this.steps.push({ offset, length, reads, cost, run: make ? make(offset) : null });
+    this.size += length;
+    return this.steps.length - 1;
+  }
+  off(s) {
+    return this.steps[s].offset;
+  }
+  len(s) {
+    return this.steps[s].length;
+  }
+  weight(name, length) {
+    let w = this.weights.get(name);
+    if (!w) {
+      w = drawValues(this.seed, name, length);
+      this.weights.set(name, w);
+    }
+    return w;
+  }
+  map(name, r, d, g) {
+    return { w: this.weight(name, r * (d / g)), r, d, g };
+  }
+  /** A vector that is zero for every weight (a window of padding only). */
+  zeroVector(width) {
+    let z = this.zeros.get(width);
+    if (z === void 0) {
+      z = this.add(width, [], 0, (oo) => (buf) => buf.fill(0, oo, oo + width));
+      this.zeros.set(width, z);
+    }
+    return z;
+  }
+  /** Σ_i W_i v_i over (map, step) terms; the zero vector without terms. */
+  mapSum(terms, r) {
+    if (terms.length === 0) return this.zeroVector(r);
+    const parts = terms.map((t) => ({ map: t.map, vo: this.off(t.src) }));
+    const cost = terms.reduce((a, t) => a + t.map.r * (t.map.d / t.map.g), 0);
+    return this.add(r, [...new Set(terms.map((t) => t.src))], cost, (oo) => (buf) => {
+      parts.forEach((p, i) => applyMap(p.map, buf, p.vo, oo, i > 0));
+    });
+  }
+  /** The elementwise product of the vectors (one vector: itself). */
+  product(srcs, width) {
+    if (srcs.length === 1) return srcs[0];
+    const offs = srcs.map((s) => this.off(s));
+    return this.add(width, [...new Set(srcs)], width * (srcs.length - 1), (oo) => (buf) => {
+      for (let k = 0; k < width; k++) {
+        let acc = buf[offs[0] + k];
+        for (let i = 1; i < offs.length; i++) acc = mulAddMod2(acc, buf[offs[i] + k], 0);
+        buf[oo + k] = acc;
+      }
+    });
+  }
+  /** Σ_i c_i v_i with fixed coefficients (residues). */
+  combination(srcs, coefficients, width) {
+    if (srcs.length === 1 && coefficients[0] === 1) return srcs[0];
+    const offs = srcs.map((s) => this.off(s));
+    return this.add(width, [...new Set(srcs)], width * srcs.length, (oo) => (buf) => {
+      for (let k = 0; k < width; k++) {
+        let acc = 0;
+        for (let i = 0; i < offs.length; i++) acc = mulAddMod2(coefficients[i], buf[offs[i] + k], acc);
+        buf[oo + k] = acc;
+      }
+    });
+  }
+  concat(srcs) {
+    if (srcs.length === 1) return srcs[0];
+    const parts = srcs.map((s) => ({ off: this.off(s), len: this.len(s) }));
+    const total = parts.reduce((a, p) => a + p.len, 0);
+    return this.add(total, [...new Set(srcs)], total, (oo) => (buf) => {
+      let o = oo;
+      for (const p of parts) {
+        buf.copyWithin(o, p.off, p.off + p.len);
+        o += p.len;
+      }
+    });
+  }
+};
+function flat(at, shape) {
+  return shape.length === 1 ? at[0] : at[0] * shape[1] + at[1];
+}
+function eachIndex(shape) {
+  if (shape.length === 1) return Array.from({ length: shape[0] }, (_, j) => [j]);
+  const out = [];
+  for (let i = 0; i < shape[0]; i++) for (let j = 0; j < shape[1]; j++) out.push([i, j]);
+  return out;
+}
+function product2(lists) {
+  if (lists.length === 1) return lists[0].map((x) => [x]);
+  const out = [];
+  for (const a of lists[0]) for (const b of lists[1]) out.push([a, b]);
+  return out;
+}
+function surrogateProgram(model, shapes, reading, surrogate, seed) {
+  const b = new ProgramBuilder(seed);
+  const m = shapes.representation;
+  const n = positionCount(model.input.shape);
+  const input = { shape: model.input.shape, width: m, steps: Array.from({ length: n }, () => b.add(m, [], 0, null)) };
+  const grids = [];
+  const gridOf = (i) => i === INPUT ? input : grids[i];
+  for (const layer of model.layers) {
+    const src = gridOf(layer.inputs[0]);
+    const out = shapes.layers[layer.index];
+    const groups = shapes.groups[layer.index];
+    const i = layer.index;
+    let grid;
+    switch (layer.kind) {
+      case "pointwise":
+        grid = reading.squared.has(i) ? { ...src, steps: src.steps.map((s) => b.product([s, s], src.width)) } : src;
+        break;
+      case "flatten":
+        grid = { shape: out.shape, width: src.width * src.steps.length, steps: [b.concat(src.steps)] };
+        break;
+      case "dense": {
+        const u = layer.units;
+        if (shapes.denseReading[i] === "per-position") {
+          const steps = src.steps.map((s, p) => b.mapSum([{ map: b.map(model.weightSharing ? `L${i}` : `L${i}@${p}`, u, src.width, 1), src: s }], u));
+          grid = { shape: out.shape, width: u, steps };
+        } else {
+          const whole = b.concat(src.steps);
+          grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
+        }
+        break;
+      }
+      case "merge": {
+        const ins = layer.inputs.map(gridOf);
+        const steps = src.steps.map((_, p) => {
+          const at = ins.map((g) => g.steps[p]);
+          return layer.mode === "sum" ? b.combination(at, at.map(() => 1), out.width) : b.concat(at);
+        });
+        grid = { shape: out.shape, width: out.width, steps };
+        break;
+      }
+      case "recurrent":
+        grid = recurrent2(b, src, i, layer.hidden, layer.depth);
+        break;
+      case "pool":
+        grid = pool2(b, src, layer, out.shape);
+        break;
+      case "upsample":
+        if (layer.mode === "linear" && layer.factor.some((f2) => 2 * f2 % PROBE_PRIME === 0)) return void 0;
+        grid = upsample2(b, src, layer, out.shape);
+        break;
+      case "conv":
+        grid = surrogate === "tree" ? treeConv(b, src, layer, out.shape, out.width, groups, model.weightSharing) : overlapConv(b, src, layer, out.shape, out.width, groups, model.weightSharing);
+        break;
+      case "conv-transpose":
+        grid = convTranspose2(b, src, layer, out.shape, groups, model.weightSharing, surrogate);
+        break;
+      default:
+        return void 0;
+    }
+    if (!grid || grid.steps.length !== positionCount(out.shape) || grid.width !== out.width) return void 0;
+    grids.push(grid);
+  }
+  const last = grids[grids.length - 1];
+  const top = last.steps[flat(shapes.output.position, last.shape)];
+  const head = b.weight("head", last.width);
+  const to = b.off(top);
+  const width = last.width;
+  const output = b.add(1, [top], width, (oo) => (buf) => {
+    let acc = 0;
+    for (let k = 0; k < width; k++) acc = mulAddMod2(head[k], buf[to + k], acc);
+    buf[oo] = acc;
+  });
+  return { steps: b.steps, bufferSize: b.size, positions: n, m, output };
+}
+function recurrent2(b, src, i, hidden, depth) {
+  let below = src.steps;
+  let width = src.width;
+  for (let l = 1; l <= depth; l++) {
+    const wh = b.map(`L${i}:H${l}`, hidden, hidden, 1);
+    const wi = b.map(`L${i}:I${l}`, hidden, width, 1);
+    const h0 = b.weight(`L${i}:h0_${l}`, hidden);
+    let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
+    const states = [];
+    for (const x of below) {
+      state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: x }], hidden)], hidden);
+      states.push(state);
+    }
+    below = states;
+    width = hidden;
+  }
+  return { shape: [1], width, steps: [below[below.length - 1]] };
+}
+function axisPlans(src, k, s, d, layer) {
+  const plans3 = src.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
+  return plans3.every((p) => typeof p !== "string") ? plans3 : void 0;
+}
+function pool2(b, src, layer, shape) {
+  if (layer.global) return { shape, width: src.width, steps: [b.product(src.steps, src.width)] };
+  const plans3 = axisPlans(src, layer.window, layer.stride, layer.window.map(() => 1), layer);
+  if (!plans3) return void 0;
+  const steps = [];
+  for (const j of eachIndex(shape)) {
+    const lists = j.map((jj, a) => windowTaps(jj, src.shape[a], layer.window[a], layer.stride[a], 1, plans3[a].left));
+    const at = product2(lists).map((p) => src.steps[flat(p, src.shape)]);
+    if (at.length === 0) return void 0;
+    steps.push(b.product(at, src.width));
+  }
+  return { shape, width: src.width, steps };
+}
+function upsample2(b, src, layer, shape) {
+  const steps = eachIndex(shape).map((j) => {
+    if (layer.mode === "nearest") return src.steps[flat(j.map((jj, a) => Math.floor(jj / layer.factor[a])), src.shape)];
+    const perAxis2 = j.map((jj, a) => {
+      const s = linearSources(jj, src.shape[a], layer.factor[a]);
+      const lambda = mulAddMod2(s.num, inverseMod(s.den), 0);
+      return [
+        { i: s.i0, w: (1 - lambda + PROBE_PRIME) % PROBE_PRIME },
+        { i: s.i1, w: lambda }
+      ];
+    });
+    const bySource = /* @__PURE__ */ new Map();
+    for (const combo of product2(perAxis2)) {
+      const step = src.steps[flat(combo.map((t) => t.i), src.shape)];
+      const w = combo.reduce((acc, t) => mulAddMod2(acc, t.w, 0), 1);
+      bySource.set(step, ((bySource.get(step) ?? 0) + w) % PROBE_PRIME);
+    }
+    const terms = [...bySource].filter(([, w]) => w !== 0);
+    return b.combination(terms.map(([s]) => s), terms.map(([, w]) => w), src.width);
+  });
+  return { shape, width: src.width, steps };
+}
+function treeConv(b, src, layer, shape, r, g, shared) {
+  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
+  if (!plans3) return void 0;
+  const causal = layer.padding.mode === "causal";
+  const mapped = /* @__PURE__ */ new Map();
+  const mapAt = (p) => {
+    let s = mapped.get(p);
+    if (s === void 0) {
+      s = b.mapSum([{ map: b.map(shared ? `L${layer.index}` : `L${layer.index}@${p}`, r, src.width, g), src: src.steps[p] }], r);
+      mapped.set(p, s);
+    }
+    return s;
+  };
+  const steps = eachIndex(shape).map((j) => {
+    const lists = j.map((jj, a) => treeConvPositions(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a], causal));
+    const at = product2(lists).map((p) => flat(p, src.shape));
+    return at.length === 0 ? b.zeroVector(r) : b.product(at.map(mapAt), r);
+  });
+  return { shape, width: r, steps };
+}
+function overlapConv(b, src, layer, shape, r, g, shared) {
+  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
+  if (!plans3) return void 0;
+  const steps = eachIndex(shape).map((j, o) => {
+    const perAxis2 = j.map((jj, a) => {
+      const args = [jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a].left];
+      const at = windowTaps(...args);
+      const taps = windowTapIndices(...args);
+      return at.map((p, x) => ({ p, t: taps[x] }));
+    });
+    const terms = product2(perAxis2).map((pair) => {
+      const t = flat(pair.map((x) => x.t), layer.kernel);
+      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
+      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pair.map((x) => x.p), src.shape)] };
+    });
+    return b.mapSum(terms, r);
+  });
+  return { shape, width: r, steps };
+}
+function convTranspose2(b, src, layer, shape, g, shared, surrogate) {
+  const r = layer.channels;
+  const steps = eachIndex(shape).map((j, o) => {
+    if (surrogate === "tree") {
+      const per = j.map((jj, a) => treeTransposeSource(jj, src.shape[a], layer.stride[a]));
+      const u = flat(per.map((x) => x[1]), layer.stride);
+      const name = shared ? `L${layer.index}o${u}` : `L${layer.index}@${o}`;
+      return b.mapSum([{ map: b.map(name, r, src.width, g), src: src.steps[flat(per.map((x) => x[0]), src.shape)] }], r);
+    }
+    const perAxis2 = j.map((jj, a) => transposeSources(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]));
+    const terms = product2(perAxis2).map((pairs) => {
+      const t = flat(pairs.map((x) => x[1]), layer.kernel);
+      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
+      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pairs.map((x) => x[0]), src.shape)] };
+    });
+    return b.mapSum(terms, r);
+  });
+  return { shape, width: r, steps };
+}
+
+// src/cut/probe/certified-probe.ts
+var PROBE_METHOD = "certified probe";
+var PROBE_BUDGET = 1e7;
+var PROBE_SEED = 1;
+var PROBE_SCHEME = 1;
+var MAX_PROBES = 1024;
+var FIRST_PROBES = 8;
+var MAX_BUFFER = 4e6;
+function certifiedProbe(model, shapes, reading, surrogate, budget = PROBE_BUDGET) {
+  if (budget <= 0) return void 0;
+  const estimate = estimateCost(model, shapes, surrogate);
+  if (estimate.cost * 2 * FIRST_PROBES > budget || estimate.buffer > MAX_BUFFER) return void 0;
+  let program = null;
+  return (side, lower, upper) => {
+    if (program === null) program = surrogateProgram(model, shapes, reading, surrogate, PROBE_SEED);
+    if (!program) return void 0;
+    const limit = upper < BigInt(MAX_PROBES) ? Number(upper) : MAX_PROBES;
+    if (BigInt(limit) <= lower) return void 0;
+    const found = probeRank(program, side, lower, limit, budget);
+    if (!found || BigInt(found.minor.rows.length) <= lower) return void 0;
+    const rank = BigInt(found.minor.rows.length);
+    const certificate = {
+      scheme: PROBE_SCHEME,
+      prime: PROBE_PRIME,
+      seed: PROBE_SEED,
+      probes: found.probes,
+      rows: found.minor.rows,
+      cols: found.minor.cols,
+      determinant: found.minor.determinant
+    };
+    return { rank, log2: log2Big(rank), method: PROBE_METHOD, cut: [], certificate };
+  };
+}
+function probeInputName(side, index, position) {
+  return `${side}${index}@${position}`;
+}
+var CONSTANT = 0;
+var SIDE_A = 1;
+var SIDE_B = 2;
+var MIXED = 3;
+function probeRank(program, side, lower, most, budget) {
+  let limit = most;
+  const { steps, positions, m } = program;
+  const cls = new Uint8Array(steps.length);
+  for (let s = 0; s < steps.length; s++) {
+    if (s < positions) cls[s] = side[s] === 1 ? SIDE_A : SIDE_B;
+    else {
+      let c = CONSTANT;
+      for (const r of steps[s].reads) c |= cls[r];
+      cls[s] = c;
+    }
+  }
+  if (cls[program.output] !== MIXED) return void 0;
+  const lists = [[], [], [], []];
+  const cost = [0, 0, 0, 0];
+  for (let s = positions; s < steps.length; s++) {
+    lists[cls[s]].push(s);
+    cost[cls[s]] += steps[s].cost + 1;
+  }
+  const frontier = [[], [], [], []];
+  const seen = new Uint8Array(steps.length);
+  for (const s of lists[MIXED]) {
+    for (const r of steps[s].reads) {
+      if (cls[r] !== MIXED && cls[r] !== CONSTANT && !seen[r]) {
+        seen[r] = 1;
+        frontier[cls[r]].push(r);
+      }
+    }
+  }
+  const spans2 = frontier.map((list2) => Int32Array.from(list2.flatMap((s) => [steps[s].offset, steps[s].length])));
+  const width = (which) => frontier[which].reduce((a, s) => a + steps[s].length, 0);
+  const frontierA = width(SIDE_A);
+  const frontierB = width(SIDE_B);
+  const rowCost = cost[SIDE_A] + frontierA + m * positions;
+  const colCost = cost[SIDE_B] + frontierB + m * positions;
+  const entryCost = cost[MIXED] + frontierB;
+  const buf = new Float64Array(program.bufferSize);
+  const runAll = (list2) => {
+    for (const s of list2) steps[s].run(buf);
+  };
+  runAll(lists[CONSTANT]);
+  const sideOf = (which) => {
+    const at = [];
+    for (let p = 0; p < positions; p++) if (cls[p] === which) at.push(p);
+    return at;
+  };
+  const positionsA = sideOf(SIDE_A);
+  const positionsB = sideOf(SIDE_B);
+  const sideValues = (which, index) => {
+    const name = which === SIDE_A ? "a" : "b";
+    for (const p of which === SIDE_A ? positionsA : positionsB) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p].offset);
+    runAll(lists[which]);
+    const saved = new Float64Array(which === SIDE_A ? frontierA : frontierB);
+    const at = spans2[which];
+    for (let x = 0, o = 0; x < at.length; x += 2) for (let k2 = 0; k2 < at[x + 1]; k2++) saved[o++] = buf[at[x] + k2];
+    return saved;
+  };
+  const restore = (which, saved) => {
+    const at = spans2[which];
+    for (let x = 0, o = 0; x < at.length; x += 2) for (let k2 = 0; k2 < at[x + 1]; k2++) buf[at[x] + k2] = saved[o++];
+  };
+  const mixed = lists[MIXED];
+  const out = steps[program.output].offset;
+  const rows = [];
+  const cols = [];
+  const entries2 = [];
+  let spent = 0;
+  let best;
+  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
+  let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
+  const stepCost = (from, to) => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + to * to * to / 3;
+  for (; ; ) {
+    const before = rows.length;
+    if (spent + stepCost(before, k) > budget) {
+      let lo = before;
+      let hi = k;
+      while (hi - lo > 1) {
+        const mid = Math.floor((lo + hi) / 2);
+        if (spent + stepCost(before, mid) <= budget) lo = mid;
+        else hi = mid;
+      }
+      if (lo <= Math.max(before, known, best?.minor.rows.length ?? 0)) break;
+      k = lo;
+      limit = k;
+    }
+    spent += stepCost(before, k);
+    while (cols.length < k) cols.push(sideValues(SIDE_B, cols.length));
+    while (rows.length < k) {
+      rows.push(sideValues(SIDE_A, rows.length));
+      entries2.push(new Float64Array(limit));
+    }
+    for (let i = 0; i < k; i++) {
+      restore(SIDE_A, rows[i]);
+      for (let j = i < before ? before : 0; j < k; j++) {
+        restore(SIDE_B, cols[j]);
+        runAll(mixed);
+        entries2[i][j] = buf[out];
+      }
+    }
+    const matrix = new Float64Array(k * k);
+    for (let i = 0; i < k; i++) matrix.set(entries2[i].subarray(0, k), i * k);
+    const minor = certifyingMinor(matrix, k, k);
+    if (!best || minor.rows.length > best.minor.rows.length) best = { probes: k, minor };
+    if (minor.rows.length < k || k >= limit) break;
+    k = Math.min(limit, 2 * k);
+  }
+  return best;
+}
+function nextPowerOfTwo(x) {
+  let p = 1;
+  while (p < x) p *= 2;
+  return p;
+}
+function estimateCost(model, shapes, surrogate) {
+  const m = shapes.representation;
+  let cost = 0;
+  let buffer = positionCount(model.input.shape) * m;
+  for (const layer of model.layers) {
+    const src = layer.inputs[0] < 0 ? { shape: model.input.shape, width: m } : shapes.layers[layer.inputs[0]];
+    const out = shapes.layers[layer.index];
+    const pin = positionCount(src.shape);
+    const pout = positionCount(out.shape);
+    const d = src.width;
+    const r = out.width;
+    const g = shapes.groups[layer.index];
+    const taps = (k) => k.reduce((a, x) => a * x, 1);
+    let c;
+    switch (layer.kind) {
+      case "pointwise":
+        c = pout * r;
+        break;
+      case "flatten":
+        c = pin * d;
+        break;
+      case "dense":
+        c = shapes.denseReading[layer.index] === "per-position" ? pout * r * d : r * d * pin + d * pin;
+        break;
+      case "merge":
+        c = pout * r * layer.inputs.length;
+        break;
+      case "recurrent":
+        c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));
+        break;
+      case "pool":
+        c = layer.global ? pin * d : pout * taps(layer.window) * d;
+        break;
+      case "upsample":
+        c = pout * 4 * d;
+        break;
+      case "conv":
+        c = surrogate === "overlap" ? pout * taps(layer.kernel) * r * (d / g) : pin * r * (d / g) + pout * taps(layer.stride) * r;
+        break;
+      case "conv-transpose":
+        c = pout * taps(layer.kernel) * r * (d / g);
+        break;
+      default:
+        return { cost: Infinity, buffer: Infinity };
+    }
+    cost += c;
+    buffer += layer.kind === "recurrent" ? pin * layer.depth * layer.hidden * 3 : (pout + pin) * r;
+  }
+  return { cost, buffer };
+}
+
 // src/cut/bounds.ts
 function computeBounds(model, partitions, options) {
   if (model.kind === "explicit") {
@@ -9922,6 +10522,7 @@ function analyseLayered(model, options) {
   const hasRecurrent = model.layers.some((l) => l.kind === "recurrent");
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
+  const probe = certifiedProbe(model, built.shapes, built.pointwise, options.surrogate, options.probeBudget);
   const bounds = (p) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
@@ -9932,7 +10533,7 @@ function analyseLayered(model, options) {
       const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : "token count";
       const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : /* @__PURE__ */ new Map();
       const upper2 = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === "min-cut" ? augment : 0) };
-      return finish(p.label, { upper: upper2, lower: bestLower(p) });
+      return finish(p.label, { upper: upper2, lower: bestLower(p, upper2) });
     }
     const candidates2 = [
       { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
@@ -9961,18 +10562,19 @@ function analyseLayered(model, options) {
       const b = c.make();
       if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
-    return finish(p.label, { upper, lower: bestLower(p) });
+    return finish(p.label, { upper, lower: bestLower(p, upper) });
   };
-  const bestLower = (p) => {
+  const bestLower = (p, upper) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
-    const recurrent2 = recurrentOnInput(model, built.shapes);
-    const published = recurrent2 && publishedRecurrentLower(model, recurrent2, p);
+    const recurrent3 = recurrentOnInput(model, built.shapes);
+    const published = recurrent3 && publishedRecurrentLower(model, recurrent3, p);
     if (published) lowers.push(published);
-    const shallow = recurrent2 && shallowRecurrentLower(recurrent2, p);
+    const shallow = recurrent3 && shallowRecurrentLower(recurrent3, p);
     if (shallow) lowers.push(shallow);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
+    if (probe && (!lower || lower.rank < upper.rank)) return probe(p.side, lower?.rank ?? 0n, upper.rank) ?? lower;
     return lower;
   };
   return { ok: true, notes, bounds };
@@ -10005,11 +10607,13 @@ function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
   return out;
 }
 function finish(label, b) {
-  if (b.lower && b.lower.rank > b.upper.rank) {
-    throw new Error(`unsound bounds for '${label}': lower ${b.lower.rank} (${b.lower.method}) > upper ${b.upper.rank} (${b.upper.method})`);
-  }
-  const status = !b.lower ? "upper-only" : b.lower.rank === b.upper.rank ? "exact" : "bounded";
-  return { partition: label, upper: b.upper, lower: b.lower, status };
+  const upper = b.upper;
+  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
+  const shown = (x) => x.huge ? `2^${x.log2}` : String(x.rank);
+  if (above) throw new Error(`unsound bounds for '${label}': lower ${shown(lower)} (${lower.method}) > upper ${shown(upper)} (${upper.method})`);
+  const status = !lower ? "upper-only" : boundsMeet(lower, upper) ? "exact" : "bounded";
+  return { partition: label, upper, lower, status };
 }
 function productOf2(counts, augment) {
   const byDim = /* @__PURE__ */ new Map();
@@ -10042,8 +10646,14 @@ function roundingPlan(c) {
   const qs = powerCandidates(c.dim);
   return {
     candidates: qs.map((q) => {
+      const exponent = /* @__PURE__ */ new Map();
       const w = new Float64Array(c.size);
-      for (let v = 0; v < c.size; v++) w[v] = floorLog(c.dim[v], q);
+      for (let v = 0; v < c.size; v++) {
+        const d = c.dim[v];
+        let e = exponent.get(d);
+        if (e === void 0) exponent.set(d, e = floorLog(d, q));
+        w[v] = e;
+      }
       return { q, weights: w };
     })
   };
@@ -10052,6 +10662,12 @@ function roundingLower(c, side, plan) {
   let best;
   for (const { q, weights } of plan.candidates) {
     const cut2 = treeMinCut(c, side, weights);
+    const log2 = cut2.value * Math.log2(q);
+    if (log2 > MAX_RANK_BITS) {
+      if (!best || log2 > best.log2) best = { rank: HUGE_RANK, log2, huge: true, method: `power-rounding q=${q}`, cut: [] };
+      continue;
+    }
+    if (best?.huge) continue;
     const rank = BigInt(q) ** BigInt(cut2.value);
     if (!best || rank > best.rank) {
       const counts = /* @__PURE__ */ new Map();
@@ -10110,14 +10726,14 @@ function shallowRecurrentLower(on, p) {
 }
 function recurrentOnInput(model, shapes) {
   let m = shapes.representation;
-  let recurrent2;
+  let recurrent3;
   for (const l of model.layers) {
     if (l.inputs.length !== 1 || l.inputs[0] !== l.index - 1) return void 0;
     if (l.kind === "pointwise") continue;
-    if (!recurrent2) {
+    if (!recurrent3) {
       if (l.kind === "recurrent") {
         if (l.bidirectional) return void 0;
-        recurrent2 = l;
+        recurrent3 = l;
         continue;
       }
       if (l.kind === "position" && l.mode === "learned") continue;
@@ -10128,10 +10744,10 @@ function recurrentOnInput(model, shapes) {
     }
     if (l.kind !== "dense") return void 0;
   }
-  if (!recurrent2) return void 0;
+  if (!recurrent3) return void 0;
   const last = shapes.layers[shapes.layers.length - 1].shape;
-  if (recurrent2.sequence && shapes.output.position[0] !== last[0] - 1) return void 0;
-  return { layer: recurrent2, m };
+  if (recurrent3.sequence && shapes.output.position[0] !== last[0] - 1) return void 0;
+  return { layer: recurrent3, m };
 }
 function sideSizes(side) {
   let a = 0;
@@ -10142,6 +10758,106 @@ function sameMask(a, b) {
   if (a.length !== b.length) return false;
   for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
   return true;
+}
+
+// src/config/exact-number.ts
+var EXACT_LIMIT = 1n << 63n;
+var OverflowError = class extends Error {
+  name = "OverflowError";
+};
+function gcd(a, b) {
+  let x = a < 0n ? -a : a;
+  let y = b < 0n ? -b : b;
+  while (y !== 0n) [x, y] = [y, x % y];
+  return x;
+}
+function exact(n, d = 1n) {
+  if (d === 0n) throw new RangeError("exact: zero denominator");
+  if (d < 0n) [n, d] = [-n, -d];
+  const g = gcd(n, d) || 1n;
+  const out = { n: n / g, d: d / g };
+  if (out.n >= EXACT_LIMIT || out.n <= -EXACT_LIMIT || out.d >= EXACT_LIMIT) throw new OverflowError(`${show(out)} is beyond 2^63`);
+  return out;
+}
+function show(x) {
+  const text = x.d === 1n ? x.n.toString() : `${x.n}/${x.d}`;
+  return text.length > 40 ? `a number of ${text.length} digits` : text;
+}
+var ZERO2 = { n: 0n, d: 1n };
+function add(a, b) {
+  return exact(a.n * b.d + b.n * a.d, a.d * b.d);
+}
+function sub(a, b) {
+  return exact(a.n * b.d - b.n * a.d, a.d * b.d);
+}
+function mul(a, b) {
+  return exact(a.n * b.n, a.d * b.d);
+}
+function div(a, b) {
+  return exact(a.n * b.d, a.d * b.n);
+}
+function neg(a) {
+  return { n: -a.n, d: a.d };
+}
+function isZero(a) {
+  return a.n === 0n;
+}
+function isInteger(a) {
+  return a.d === 1n;
+}
+function compare(a, b) {
+  const l = a.n * b.d;
+  const r = b.n * a.d;
+  return l < r ? -1 : l > r ? 1 : 0;
+}
+function floor(a) {
+  const q = a.n / a.d;
+  return { n: a.n < 0n && q * a.d !== a.n ? q - 1n : q, d: 1n };
+}
+function ceil(a) {
+  const q = a.n / a.d;
+  return { n: a.n > 0n && q * a.d !== a.n ? q + 1n : q, d: 1n };
+}
+function pow(a, k) {
+  if (k < 0 && a.n === 0n) throw new RangeError("zero to a negative power");
+  let out = { n: 1n, d: 1n };
+  const base = k < 0 ? div({ n: 1n, d: 1n }, a) : a;
+  for (let i = 0; i < Math.abs(k); i++) out = mul(out, base);
+  return out;
+}
+function parseDecimal(text) {
+  const m = /^([+-]?)([0-9]+)(?:\.([0-9]*))?(?:[eE]([+-]?[0-9]+))?$/.exec(text) ?? /^([+-]?)()\.([0-9]+)(?:[eE]([+-]?[0-9]+))?$/.exec(text);
+  if (!m) return void 0;
+  const digits = `${m[2] ?? ""}${m[3] ?? ""}`.replace(/^0+(?=[0-9])/, "") || "0";
+  const exponent = Number(m[4] ?? "0") - (m[3] ?? "").length;
+  if (!Number.isSafeInteger(exponent) || Math.abs(exponent) > 400 || digits.length > 400) {
+    if (/^0*$/.test(digits)) return ZERO2;
+    throw new OverflowError(`${text} is beyond 2^63`);
+  }
+  const n = BigInt(digits) * (m[1] === "-" ? -1n : 1n);
+  return exponent >= 0 ? exact(n * 10n ** BigInt(exponent), 1n) : exact(n, 10n ** BigInt(-exponent));
+}
+function fromNumber(x) {
+  if (!Number.isFinite(x)) return void 0;
+  return parseDecimal(String(x));
+}
+function toNumber(a) {
+  if (a.d === 1n) return Number(a.n);
+  return Number(a.n) / Number(a.d);
+}
+function formatExact(a) {
+  if (a.d === 1n) return a.n.toString();
+  let d = a.d;
+  let twos = 0;
+  let fives = 0;
+  while (d % 2n === 0n) [d, twos] = [d / 2n, twos + 1];
+  while (d % 5n === 0n) [d, fives] = [d / 5n, fives + 1];
+  if (d !== 1n) return `${a.n}/${a.d}`;
+  const places = Math.max(twos, fives);
+  const scaled = a.n * 10n ** BigInt(places) / a.d;
+  const negative = scaled < 0n;
+  const digits = (negative ? -scaled : scaled).toString().padStart(places + 1, "0");
+  return `${negative ? "-" : ""}${digits.slice(0, -places)}.${digits.slice(-places)}`;
 }
 
 // src/policy/parameters.ts
@@ -10228,6 +10944,62 @@ function countOf(layer, d, w, model, shapes, inGrid) {
   }
 }
 
+// src/policy/parameter-fixes.ts
+var MAX_GRID = 1 << 20;
+var MAX_SEARCHED_PARAMETERS = 32;
+function searchParameterFixes(model, space, near, inputCut, restoring, minRank) {
+  const fed = /* @__PURE__ */ new Set();
+  for (const i of near) for (const uses of Object.values(model.layers[i].fieldParams ?? {})) for (const u of uses) fed.add(u.name);
+  if (inputCut) for (const uses of Object.values(model.input.fieldParams ?? {})) for (const u of uses) fed.add(u.name);
+  const baseParams = parameterCount(model);
+  const fixes = [];
+  for (const choice of space.choices.filter((c) => fed.has(c.name)).slice(0, MAX_SEARCHED_PARAMETERS)) {
+    const found = smallestRestoring(choice, space, restoring);
+    if (!found) continue;
+    fixes.push({
+      layer: "parameter",
+      field: choice.label,
+      line: choice.span.line,
+      column: choice.span.column,
+      ...choice.set ? {} : { added: true },
+      from: toNumber(choice.value),
+      to: toNumber(found.value),
+      addedParameters: parameterCount(found.model) - baseParams,
+      verdict: found.bounds.lower !== null && found.bounds.lower.rank >= minRank ? "pass" : "unproven"
+    });
+  }
+  return fixes;
+}
+function smallestRestoring(choice, space, restoring) {
+  const step = choice.step;
+  const first = floor(div(choice.value, step)).n + 1n;
+  const last = floor(div(choice.max, step)).n;
+  if (first > last || last - first > BigInt(MAX_GRID)) return void 0;
+  const at = (k) => {
+    const value = mul({ n: k, d: 1n }, step);
+    const m = space.withValue(choice, value);
+    const b = m && restoring(m);
+    return m && b ? { value, model: m, bounds: b } : void 0;
+  };
+  let lo = first - 1n;
+  let hi = first;
+  let found;
+  for (let gap = 1n; ; gap *= 2n) {
+    found = at(hi);
+    if (found) break;
+    if (hi >= last) return void 0;
+    lo = hi;
+    hi = hi + gap > last ? last : hi + gap;
+  }
+  while (hi - lo > 1n) {
+    const mid = (lo + hi) / 2n;
+    const f2 = at(mid);
+    if (f2) [hi, found] = [mid, f2];
+    else lo = mid;
+  }
+  return found;
+}
+
 // src/policy/fix-search.ts
 function restores(b, minRank, unproven) {
   if (b.upper.rank < minRank) return false;
@@ -10235,54 +11007,79 @@ function restores(b, minRank, unproven) {
 }
 var MAX_WIDTH2 = 1 << 16;
 var MAX_DEPTH = 64;
-function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers) {
-  const judge = (m) => {
-    const a = analyseLayered(m, { surrogate });
+function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers, parameters) {
+  const probing = minRank <= BigInt(MAX_PROBES);
+  const judge = (m, probe) => {
+    const a = analyseLayered(m, { surrogate, ...probe && probing ? {} : { probeBudget: 0 } });
     if (!a.ok) return void 0;
     const b = a.bounds(partition);
     return "diagnostic" in b ? void 0 : b;
   };
+  const near = nearLayers(model, cutLayers);
+  const restoring = (m) => {
+    const b = judge(m, true);
+    return b && restores(b, minRank, unproven) ? b : void 0;
+  };
+  const byParameter = parameters ? searchParameterFixes(model, parameters, near, cutLayers.has("input"), restoring, minRank) : [];
   const baseParams = parameterCount(model);
   const fixes = [];
-  for (const cand of candidates(model, cutLayers)) {
-    const at = (v) => judge(cand.apply(model, v));
-    let lo = cand.from;
-    let hi = Math.min(cand.max, Math.max(cand.from + 1, cand.from * 2));
-    let found;
-    for (; ; ) {
-      const b = at(hi);
-      if (b && restores(b, minRank, unproven)) {
-        found = b;
-        break;
-      }
-      if (hi >= cand.max) break;
-      lo = hi;
-      hi = Math.min(cand.max, hi * 2);
+  const file = model.architecture ? { file: model.architecture.path } : {};
+  for (const cand of candidates(model, near)) {
+    const reaches = (v) => {
+      const b = judge(cand.apply(model, v), false);
+      return b !== void 0 && b.upper.rank >= minRank;
+    };
+    const ceiling = reaches(cand.from) ? cand.from : smallest(cand.from, cand.max, reaches);
+    if (ceiling === void 0) continue;
+    let to = ceiling;
+    let found = judge(cand.apply(model, to), true);
+    if (unproven === "fail" && !(found && restores(found, minRank, "fail"))) {
+      const proven = smallest(ceiling, cand.max, (v) => {
+        const b = judge(cand.apply(model, v), true);
+        return b !== void 0 && restores(b, minRank, "fail");
+      });
+      if (proven === void 0) continue;
+      to = proven;
+      found = judge(cand.apply(model, to), true);
     }
-    if (!found) continue;
-    while (hi - lo > 1) {
-      const mid = Math.floor((lo + hi) / 2);
-      const b = at(mid);
-      if (b && restores(b, minRank, unproven)) {
-        hi = mid;
-        found = b;
-      } else lo = mid;
-    }
-    const fixed = cand.apply(model, hi);
+    if (!found || to === cand.from) continue;
+    const fixed = cand.apply(model, to);
+    const pass = found.lower !== null && found.lower.rank >= minRank;
     fixes.push({
       layer: cand.layer,
       field: cand.field,
       line: cand.span.line,
       column: cand.span.column,
+      ...file,
       from: cand.from,
-      to: hi,
+      to,
       addedParameters: parameterCount(fixed) - baseParams,
-      verdict: found.lower !== null && found.lower.rank >= minRank ? "pass" : "unproven"
+      verdict: pass ? "pass" : "unproven",
+      ...pass ? { rule: found.lower.method } : {}
     });
   }
-  return fixes.sort((a, b) => a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line);
+  return [...cheapestFirst(byParameter), ...cheapestFirst(fixes)];
 }
-function candidates(model, cutLayers) {
+function cheapestFirst(fixes) {
+  return [...fixes].sort((a, b) => a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line);
+}
+function smallest(from, max, ok) {
+  let lo = from;
+  let hi = Math.min(max, Math.max(from + 1, from * 2));
+  for (; ; ) {
+    if (ok(hi)) break;
+    if (hi >= max) return void 0;
+    lo = hi;
+    hi = Math.min(max, hi * 2);
+  }
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (ok(mid)) hi = mid;
+    else lo = mid;
+  }
+  return hi;
+}
+function nearLayers(model, cutLayers) {
   const near = /* @__PURE__ */ new Set();
   const consumers = model.layers.map(() => []);
   for (const l of model.layers) for (const i of l.inputs) if (i !== INPUT) consumers[i].push(l.index);
@@ -10293,6 +11090,9 @@ function candidates(model, cutLayers) {
     for (const c of consumers[l.index]) near.add(c);
   }
   if (cutLayers.has("input") && model.input.representation === void 0) for (const l of firstMaps(model)) near.add(l.index);
+  return near;
+}
+function candidates(model, near) {
   const seen = /* @__PURE__ */ new Set();
   const out = [];
   for (const i of [...near].sort((a, b) => a - b)) {
@@ -10367,7 +11167,7 @@ function evaluatePolicy(model, policy, options = {}) {
     const bounds = outcome.result.partitions[i];
     const verdict = verdictOf(bounds, req.minRank);
     const failing = verdict === "fail" || verdict === "unproven" && req.unproven === "fail";
-    const fixes = failing && wantFixes && model.kind === "layered" ? searchFixes(model, partitions[i], req.minRank, req.unproven, surrogate, new Set(bounds.upper.cut.map((c) => c.layer))) : [];
+    const fixes = failing && wantFixes && model.kind === "layered" ? searchFixes(model, partitions[i], req.minRank, req.unproven, surrogate, new Set(bounds.upper.cut.map((c) => c.layer)), options.parameters) : [];
     return { requirement: req, partition: partitions[i], bounds, verdict, failing, fixes };
   });
   return {
@@ -10384,7 +11184,7 @@ function evaluatePolicy(model, policy, options = {}) {
 }
 
 // src/config/load-config.ts
-var import_yaml6 = __toESM(require_dist(), 1);
+var import_yaml7 = __toESM(require_dist(), 1);
 
 // src/config/located-value.ts
 var import_yaml2 = __toESM(require_dist(), 1);
@@ -10939,7 +11739,7 @@ function opsOf(family) {
 }
 
 // src/config/read-input.ts
-function readInput(node, sink) {
+function readInput(node, sink, paramsOf) {
   if (!node) return void 0;
   const shapeNode = fieldOf(node, "shape");
   const given = positiveIntegerListOf(shapeNode);
@@ -10981,6 +11781,11 @@ function readInput(node, sink) {
     }
     shape = kept;
   }
+  const fieldParams = {};
+  for (const [field, value] of [["shape", shapeNode], ["channels", channelsNode], ["representation", reprNode]]) {
+    const used = value && paramsOf ? paramsOf(value) : [];
+    if (used.length > 0) fieldParams[field] = used;
+  }
   const written = entryOf(node, "channels")?.writtenKey;
   const featuresAsChannels = written !== void 0 && normaliseWord(written) === "features";
   return {
@@ -10990,7 +11795,8 @@ function readInput(node, sink) {
     ...vocabulary !== void 0 ? { vocabulary } : {},
     ...featuresAsChannels ? { featuresAsChannels: true } : {},
     span: node.span,
-    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels", "vocabulary"])
+    fieldSpans: fieldSpansOf(node, ["shape", "representation", "channels", "vocabulary"]),
+    ...Object.keys(fieldParams).length > 0 ? { fieldParams } : {}
   };
 }
 function tokenFieldsAgree(node, sink) {
@@ -11019,7 +11825,7 @@ function readOutput(node) {
 }
 
 // src/config/field-readers.ts
-function isInteger(node) {
+function isInteger2(node) {
   return node.kind === "scalar" && typeof node.value === "number" && Number.isSafeInteger(node.value);
 }
 function wrong(node, ctx, what, numeric) {
@@ -11029,10 +11835,10 @@ function wrong(node, ctx, what, numeric) {
   return void 0;
 }
 function readPositiveInteger(node, ctx) {
-  return isInteger(node) && node.value >= 1 ? node.value : wrong(node, ctx, "a positive integer", true);
+  return isInteger2(node) && node.value >= 1 ? node.value : wrong(node, ctx, "a positive integer", true);
 }
 function readNonNegativeInteger(node, ctx) {
-  return isInteger(node) && node.value >= 0 ? node.value : wrong(node, ctx, "a non-negative integer", true);
+  return isInteger2(node) && node.value >= 0 ? node.value : wrong(node, ctx, "a non-negative integer", true);
 }
 function readPerAxis(node, ctx, min = 1) {
   const one = min === 1 ? readPositiveInteger : readNonNegativeInteger;
@@ -11362,6 +12168,15 @@ var LayerFields = class {
   }
   keySpan(name) {
     return this.values.get(name)?.keySpan;
+  }
+  /** Per read field, what `of` says of its value; fields it says nothing of are left out. */
+  provenance(of) {
+    const out = {};
+    for (const [name, entry] of this.values) {
+      const found = of(entry.value);
+      if (found.length > 0) out[name] = found;
+    }
+    return out;
   }
   /** Value spans of the given canonical fields that are present (all read fields when omitted). */
   spans(names) {
@@ -11694,7 +12509,7 @@ var BOOLEAN_NORMS = [
 function readShortcutFields(fields, ctx) {
   let ok = true;
   const out = [];
-  const add = (field, node, op) => {
+  const add2 = (field, node, op) => {
     const keySpan = fields.keySpan(field) ?? node.span;
     out.push({
       body: { kind: "pointwise", family: op.family, op: op.op },
@@ -11724,19 +12539,19 @@ function readShortcutFields(fields, ctx) {
     );
     ok = false;
   } else if (norms.length === 1) {
-    add(norms[0].field, norms[0].node, norms[0].op);
+    add2(norms[0].field, norms[0].node, norms[0].op);
   }
   const actNode = fields.get("activation");
   if (actNode) {
     const op = readActivation(actNode, ctx);
     if (op === void 0) ok = false;
-    else if (op !== null) add("activation", actNode, op);
+    else if (op !== null) add2("activation", actNode, op);
   }
   const dropNode = fields.get("dropout");
   if (dropNode) {
     const rate = readRate(dropNode, ctx);
     if (rate === void 0) ok = false;
-    else if (rate > 0) add("dropout", dropNode, pointwiseOpOf("dropout"));
+    else if (rate > 0) add2("dropout", dropNode, pointwiseOpOf("dropout"));
   }
   return ok ? out : void 0;
 }
@@ -11999,8 +12814,8 @@ function readPool(r, ctx) {
   } else if (match.adaptive) {
     ok = requireField(r, "output_size", "the output size; only 1 is read", ctx) && ok;
   }
-  const ceil = r.fields.get("ceil_mode");
-  if (ceil && !readOnly(ceil, ctx, false, "rounding the output length up changes the grid; give the padding instead")) ok = false;
+  const ceil2 = r.fields.get("ceil_mode");
+  if (ceil2 && !readOnly(ceil2, ctx, false, "rounding the output length up changes the grid; give the padding instead")) ok = false;
   const windowNode = r.fields.get("window");
   const strideNode = r.fields.get("stride");
   const paddingNode = r.fields.get("padding");
@@ -12403,7 +13218,16 @@ function readRepeat(r, ctx) {
   const layersNode = r.fields.get("layers");
   const body = layersNode && ctx.readList(layersNode, false);
   if (!hasTimes || !hasLayers || !timesNode || times === void 0 || !body) return void 0;
-  return { t: "repeat", times, timesSpan: timesNode.span, timesPath: displayPath(timesNode), body, ...r.name ? { name: r.name } : {} };
+  const timesParams = ctx.paramsOf?.(timesNode) ?? [];
+  return {
+    t: "repeat",
+    times,
+    timesSpan: timesNode.span,
+    timesPath: displayPath(timesNode),
+    ...timesParams.length > 0 ? { timesParams } : {},
+    body,
+    ...r.name ? { name: r.name } : {}
+  };
 }
 function readSequence(r, ctx) {
   if (!requireField(r, "layers", "the layers, in order", ctx)) return void 0;
@@ -12547,7 +13371,8 @@ function readLayer(item, ctx) {
   const fields = new LayerFields(entry.body, entry.fields, fieldsOf(entry.match.reader, entry.match.op?.family), ctx.sink);
   const nameNode = fields.get("name");
   const text = nameNode ? readName(nameNode, ctx) : void 0;
-  const site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans() };
+  const fieldParams = ctx.paramsOf ? fields.provenance(ctx.paramsOf) : {};
+  const site = { path: pointerOf(item), span: item.span, fieldSpans: fields.spans(), ...Object.keys(fieldParams).length > 0 ? { fieldParams } : {} };
   const read = { entry, fields, site, ...text !== void 0 && nameNode ? { name: { text, span: nameNode.span } } : {} };
   const t = READERS[entry.match.reader](read, ctx);
   return t && fields.ok && (nameNode === void 0 || text !== void 0) ? t : void 0;
@@ -12725,6 +13550,8 @@ var Expansion = class {
   labels = /* @__PURE__ */ new Map();
   /** Iterations (1-based) of the enclosing repeats, outermost first. */
   iterations = [];
+  /** The parameters of the enclosing repeats' counts (in a definition), outermost first. */
+  counts = [];
   run(templates) {
     this.list(templates, INPUT);
     return { layers: this.out, pending: this.pending };
@@ -12740,6 +13567,7 @@ var Expansion = class {
   make(m, inputs, name) {
     const index = this.out.length;
     const depth = this.iterations.length;
+    const fieldParams = withCounts(m.site.fieldParams, this.counts);
     const layer = {
       ...m.body,
       index,
@@ -12748,7 +13576,8 @@ var Expansion = class {
       span: m.site.span,
       fieldSpans: m.site.fieldSpans,
       ...name !== void 0 && m.labelled ? { name } : {},
-      ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {}
+      ...depth > 0 ? { repeatIteration: this.iterations[depth - 1] - 1 } : {},
+      ...fieldParams ? { fieldParams } : {}
     };
     this.out.push(layer);
     if (m.declared || m.unitsPerWidth || m.vocabulary) {
@@ -12779,11 +13608,13 @@ var Expansion = class {
       }
       case "repeat": {
         let cur = input;
+        this.counts.push(t.timesParams ?? []);
         for (let i = 1; i <= t.times; i++) {
           this.iterations.push(i);
           cur = this.list(t.body, cur);
           this.iterations.pop();
         }
+        this.counts.pop();
         this.register(t.name?.text, cur, true);
         return cur;
       }
@@ -12812,6 +13643,12 @@ var Expansion = class {
     return at;
   }
 };
+function withCounts(own, counts) {
+  const around = [];
+  for (const list2 of counts) for (const p of list2) if (!around.some((q) => q.name === p.name)) around.push(p);
+  if (around.length === 0) return own;
+  return { ...own, layer: around };
+}
 
 // src/config/resolve-pending.ts
 function resolvePending(model, pending, sink) {
@@ -12913,9 +13750,9 @@ function check(layer, shape, d) {
 }
 
 // src/config/build-layered.ts
-function buildLayeredModel(root, file, sink) {
+function buildLayeredModel(root, file, sink, paramsOf) {
   const inputNode = asMap(fieldOf(root, "input"));
-  const input = readInput(inputNode, sink);
+  const input = readInput(inputNode, sink, paramsOf);
   const output = readOutput(asMap(fieldOf(root, "output")));
   const ws = fieldOf(root, "weight_sharing");
   const weightSharing = ws === void 0 ? true : booleanOf(ws);
@@ -12924,7 +13761,8 @@ function buildLayeredModel(root, file, sink) {
     sink,
     dims: input?.shape.length,
     shapeText: input ? `[${input.shape.join(", ")}]` : "",
-    shapePath: shapeNode ? displayPath(shapeNode) : "the input shape"
+    shapePath: shapeNode ? displayPath(shapeNode) : "the input shape",
+    ...paramsOf ? { paramsOf } : {}
   };
   const layersNode = fieldOf(root, "layers");
   const templates = layersNode ? readLayerList(layersNode, ctx) : void 0;
@@ -12956,7 +13794,7 @@ var DiagnosticSink = class {
   /** Sorted by offset (position-less ones first), then by end, code and message; capped. */
   sorted() {
     const all = [...this.items].sort(
-      (a, b) => (a.span?.offset ?? -1) - (b.span?.offset ?? -1) || (a.span?.endOffset ?? -1) - (b.span?.endOffset ?? -1) || compare(a.code, b.code) || compare(a.message, b.message)
+      (a, b) => (a.span?.offset ?? -1) - (b.span?.offset ?? -1) || (a.span?.endOffset ?? -1) - (b.span?.endOffset ?? -1) || compare2(a.code, b.code) || compare2(a.message, b.message)
     );
     if (all.length <= MAX_DIAGNOSTICS_PER_FILE) return all;
     const next = all[MAX_DIAGNOSTICS_PER_FILE];
@@ -12966,7 +13804,7 @@ var DiagnosticSink = class {
     return [...all.slice(0, MAX_DIAGNOSTICS_PER_FILE), summary];
   }
 };
-function compare(a, b) {
+function compare2(a, b) {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
@@ -13017,9 +13855,460 @@ function normaliseBody(body, fields, aliases, sink) {
   }
 }
 
+// src/config/definition-source.ts
+import { dirname as dirname2, posix, relative as relative2, resolve as resolve2, sep as sep2 } from "node:path";
+
+// src/files/repo-root.ts
+import { existsSync } from "node:fs";
+import { dirname, join, relative, resolve, sep } from "node:path";
+function findRepoRoot(start) {
+  let dir = resolve(start);
+  for (; ; ) {
+    if (existsSync(join(dir, ".git"))) return dir;
+    const up = dirname(dir);
+    if (up === dir) return resolve(start);
+    dir = up;
+  }
+}
+function toRootRelative(root, path) {
+  return relative(root, resolve(path)).split(sep).join("/");
+}
+
+// src/files/work-tree.ts
+import { closeSync, constants, fstatSync, lstatSync, openSync, readFileSync } from "node:fs";
+import { join as join2 } from "node:path";
+
+// src/files/file-read.ts
+function refused(code, message) {
+  return { kind: "refused", code, message };
+}
+
+// src/files/work-tree.ts
+function inspectWorkTree(root, rel) {
+  const segments = rel.split("/").filter((s) => s !== "" && s !== ".");
+  if (segments.length === 0 || segments.includes("..") || /^[A-Za-z]:/.test(rel) || rel.startsWith("/")) return { kind: "absent" };
+  for (let i = 1; i <= segments.length; i++) {
+    const sub2 = segments.slice(0, i).join("/");
+    let s;
+    try {
+      s = lstatSync(join2(root, sub2));
+    } catch {
+      return { kind: "absent" };
+    }
+    if (s.isSymbolicLink()) return { kind: "symlink", link: sub2 };
+    if (i < segments.length && !s.isDirectory()) return { kind: "absent" };
+    if (i === segments.length) {
+      if (s.isFile()) return { kind: "file", size: s.size };
+      return s.isDirectory() ? { kind: "directory" } : { kind: "special" };
+    }
+  }
+  return { kind: "absent" };
+}
+function readWorkTree(root, rel) {
+  const entry = inspectWorkTree(root, rel);
+  switch (entry.kind) {
+    case "absent":
+      return { kind: "absent" };
+    case "symlink":
+      return refused("symlink", symlinkMessage(rel, entry.link));
+    case "directory":
+      return refused("directory", `${rel} is a directory, not a file`);
+    case "special":
+      return refused("special", `${rel} is not a regular file`);
+    case "file":
+      break;
+  }
+  if (entry.size > MAX_DOCUMENT_BYTES) {
+    return refused("too-large", `${rel} is ${entry.size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
+  }
+  let fd;
+  try {
+    fd = openSync(join2(root, rel), constants.O_RDONLY | (constants.O_NOFOLLOW ?? 0));
+    const s = fstatSync(fd);
+    if (!s.isFile()) return refused("special", `${rel} is not a regular file`);
+    if (s.size > MAX_DOCUMENT_BYTES) return refused("too-large", `${rel} is ${s.size} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
+    return { kind: "file", text: readFileSync(fd, "utf8") };
+  } catch (err) {
+    const code = err.code;
+    if (code === "ENOENT") return { kind: "absent" };
+    if (code === "ELOOP") return refused("symlink", symlinkMessage(rel, rel));
+    return refused("unreadable", `cannot read ${rel}: ${err.message}`);
+  } finally {
+    if (fd !== void 0) closeSync(fd);
+  }
+}
+function symlinkMessage(rel, link) {
+  const where2 = link === rel ? `${rel} is a symbolic link` : `${rel} lies behind the symbolic link ${link}`;
+  return `${where2}; links are never followed (they could lead outside the repository), point the check at the file itself`;
+}
+
+// src/config/definition-source.ts
+function resolveDefinitionPath(written, configRel) {
+  if (written.startsWith("/") || /^[A-Za-z]:/.test(written) || written.includes("\\")) {
+    return {
+      ok: false,
+      code: "config/architecture-outside-root",
+      message: `architecture '${written}' is not a path relative to the config; write it from the config's directory with forward slashes (e.g. ../arch/residual.yaml), inside the repository`
+    };
+  }
+  const rel = posix.normalize(posix.join(posix.dirname(configRel), written));
+  if (rel === ".." || rel.startsWith("../") || rel === "." || rel === "") {
+    return {
+      ok: false,
+      code: "config/architecture-outside-root",
+      message: `architecture '${written}' points outside the repository root; a config may only use definitions inside the repository`
+    };
+  }
+  return { ok: true, rel };
+}
+function workTreeDefinitions(root, cwd = process.cwd()) {
+  return {
+    read: (rel) => readWorkTree(root, rel),
+    display: (rel) => relative2(cwd, resolve2(root, rel)).split(sep2).join("/") || rel
+  };
+}
+function repositoryOf(file) {
+  const root = findRepoRoot(dirname2(resolve2(file)));
+  return { root, configRel: toRootRelative(root, file) };
+}
+
+// src/config/definition-document.ts
+var import_yaml4 = __toESM(require_dist(), 1);
+
+// src/config/expression.ts
+var MAX_EXPRESSION_LENGTH = 500;
+var MAX_EXPRESSION_DEPTH = 32;
+var MAX_EXPONENT = 64;
+var FUNCTIONS = /* @__PURE__ */ new Map([
+  ["ceil", { min: 1, max: 1 }],
+  ["floor", { min: 1, max: 1 }],
+  ["min", { min: 2, max: 16 }],
+  ["max", { min: 2, max: 16 }]
+]);
+function isExpressionText(value) {
+  return typeof value === "string" && value.startsWith("=");
+}
+var OPERATORS = { "+": "+", "-": "-", "−": "-", "*": "*", "×": "*", "/": "/", "÷": "/", "^": "^", "(": "(", ")": ")", "[": "[", "]": "]", ",": "," };
+var Fail = class extends Error {
+  constructor(problem) {
+    super(problem.message);
+    this.problem = problem;
+  }
+  problem;
+};
+function fail(code, message, start, end) {
+  throw new Fail({ code, message, start, end: Math.max(end, start + 1) });
+}
+function tokenize(text) {
+  const out = [];
+  let i = 1;
+  while (i < text.length) {
+    const c = text[i];
+    if (/\s/.test(c)) {
+      i++;
+      continue;
+    }
+    const num = /^(?:[0-9]+(?:\.[0-9]+)?|\.[0-9]+)/.exec(text.slice(i));
+    if (num) {
+      const after = text[i + num[0].length];
+      if (after !== void 0 && /[A-Za-z_.0-9]/.test(after)) fail("definition/expression-syntax", `'${text.slice(i, i + num[0].length + 1)}' is not a number; write decimals as 0.5`, i, i + num[0].length + 1);
+      out.push({ k: "num", text: num[0], start: i, end: i + num[0].length });
+      i += num[0].length;
+      continue;
+    }
+    const name = /^[A-Za-z_][A-Za-z0-9_]*/.exec(text.slice(i));
+    if (name) {
+      out.push({ k: "name", text: name[0], start: i, end: i + name[0].length });
+      i += name[0].length;
+      continue;
+    }
+    const op = OPERATORS[c];
+    if (op !== void 0) {
+      out.push({ k: "op", text: op, start: i, end: i + 1 });
+      i++;
+      continue;
+    }
+    fail("definition/expression-syntax", `'${c}' has no meaning in an expression; it reads numbers, parameter names, + - * / ^, ( ), [ ] and ceil, floor, min, max`, i, i + 1);
+  }
+  out.push({ k: "end", text: "", start: text.length, end: text.length });
+  return out;
+}
+var Parser = class {
+  constructor(text, tokens) {
+    this.text = text;
+    this.tokens = tokens;
+  }
+  text;
+  tokens;
+  at = 0;
+  depth = 0;
+  parse() {
+    if (this.peek().k === "end") fail("definition/expression-syntax", "the expression is empty; write a value after '=', e.g. '=ceil(64 * width)'", 0, this.text.length);
+    const e = this.additive();
+    const t = this.peek();
+    if (t.k !== "end") fail("definition/expression-syntax", `unexpected '${t.text}' after a complete expression`, t.start, t.end);
+    return e;
+  }
+  peek() {
+    return this.tokens[this.at];
+  }
+  next() {
+    return this.tokens[this.at++];
+  }
+  isOp(text) {
+    const t = this.peek();
+    return t.k === "op" && t.text === text;
+  }
+  expect(text, what) {
+    const t = this.peek();
+    if (t.k === "op" && t.text === text) return this.next();
+    const got = t.k === "end" ? "the end of the expression" : `'${t.text}'`;
+    return fail("definition/expression-syntax", `expected '${text}' ${what}, got ${got}`, t.start, t.end);
+  }
+  deeper(start, f2) {
+    if (++this.depth > MAX_EXPRESSION_DEPTH) {
+      fail("definition/expression-limit", `the expression is nested more than ${MAX_EXPRESSION_DEPTH} levels deep here; split it or simplify it`, start, start + 1);
+    }
+    try {
+      return f2();
+    } finally {
+      this.depth--;
+    }
+  }
+  additive() {
+    let left = this.multiplicative();
+    while (this.isOp("+") || this.isOp("-")) {
+      const op = this.next();
+      const right = this.multiplicative();
+      left = { t: "bin", op: op.text, left, right, opStart: op.start, start: left.start, end: right.end };
+    }
+    return left;
+  }
+  multiplicative() {
+    let left = this.unary();
+    while (this.isOp("*") || this.isOp("/")) {
+      const op = this.next();
+      const right = this.unary();
+      left = { t: "bin", op: op.text, left, right, opStart: op.start, start: left.start, end: right.end };
+    }
+    return left;
+  }
+  unary() {
+    const t = this.peek();
+    if (t.k === "op" && (t.text === "-" || t.text === "+")) {
+      this.next();
+      const operand = this.deeper(t.start, () => this.unary());
+      return t.text === "-" ? { t: "neg", operand, start: t.start, end: operand.end } : operand;
+    }
+    return this.power();
+  }
+  power() {
+    const base = this.primary();
+    if (!this.isOp("^")) return base;
+    const op = this.next();
+    const exponent = this.deeper(op.start, () => this.unary());
+    return { t: "bin", op: "^", left: base, right: exponent, opStart: op.start, start: base.start, end: exponent.end };
+  }
+  primary() {
+    const t = this.next();
+    if (t.k === "num") {
+      let value;
+      try {
+        value = parseDecimal(t.text);
+      } catch (e) {
+        if (e instanceof OverflowError) fail("definition/overflow", `${t.text} is beyond 2^63; numbers in expressions must stay below it`, t.start, t.end);
+        throw e;
+      }
+      if (!value) fail("definition/expression-syntax", `'${t.text}' is not a number`, t.start, t.end);
+      return { t: "num", value, start: t.start, end: t.end };
+    }
+    if (t.k === "name") {
+      if (this.isOp("(")) return this.deeper(t.start, () => this.call(t));
+      if (this.isOp("[")) {
+        return this.deeper(t.start, () => {
+          this.next();
+          const index = this.additive();
+          const close = this.expect("]", "to close the index");
+          return { t: "index", list: { name: t.text, start: t.start, end: t.end }, index, start: t.start, end: close.end };
+        });
+      }
+      if (FUNCTIONS.has(t.text)) fail("definition/expression-syntax", `${t.text} is a function; call it with its arguments in parentheses, e.g. ${t.text}(…)`, t.start, t.end);
+      return { t: "name", name: t.text, start: t.start, end: t.end };
+    }
+    if (t.k === "op" && t.text === "(") {
+      return this.deeper(t.start, () => {
+        const inner = this.additive();
+        const close = this.expect(")", "to close the parenthesis");
+        return { ...inner, start: t.start, end: close.end };
+      });
+    }
+    const got = t.k === "end" ? "the end of the expression" : `'${t.text}'`;
+    return fail("definition/expression-syntax", `expected a number, a parameter name or '(', got ${got}`, t.start, t.end);
+  }
+  call(name) {
+    const spec = FUNCTIONS.get(name.text);
+    if (!spec) {
+      const guess = closest(name.text, [...FUNCTIONS.keys()]);
+      fail("definition/expression-syntax", `'${name.text}' is not a function${guess ? ` (did you mean '${guess}'?)` : ""}; the functions are ceil, floor, min and max`, name.start, name.end);
+    }
+    this.next();
+    const args = [];
+    if (!this.isOp(")")) {
+      args.push(this.additive());
+      while (this.isOp(",")) {
+        this.next();
+        args.push(this.additive());
+      }
+    }
+    const close = this.expect(")", `to close ${name.text}(`);
+    if (args.length < spec.min || args.length > spec.max) {
+      const wanted = spec.min === spec.max ? `${spec.min} argument` : `${spec.min} to ${spec.max} arguments`;
+      fail("definition/expression-syntax", `${name.text} takes ${wanted}, got ${args.length}`, name.start, close.end);
+    }
+    return { t: "call", fn: name.text, args, start: name.start, end: close.end };
+  }
+};
+function parseExpression(text) {
+  if (text.length > MAX_EXPRESSION_LENGTH) {
+    return { ok: false, error: { code: "definition/expression-limit", message: `the expression is ${text.length} characters long; at most ${MAX_EXPRESSION_LENGTH} are read`, start: 0, end: text.length } };
+  }
+  try {
+    return { ok: true, expr: new Parser(text, tokenize(text)).parse() };
+  } catch (e) {
+    if (e instanceof Fail) return { ok: false, error: e.problem };
+    throw e;
+  }
+}
+function evaluateExpression(expr, values) {
+  const used = [];
+  const lookup = (name, start, end) => {
+    const v = values.get(name);
+    if (v === void 0) {
+      const guess = closest(name, [...values.keys()]);
+      const known = values.size > 0 ? `; the parameters are ${[...values.keys()].join(", ")}` : "; the definition declares no parameters";
+      fail("definition/unknown-parameter", `'${name}' is not a parameter of this definition${guess ? ` (did you mean '${guess}'?)` : ""}${known}`, start, end);
+    }
+    if (!used.includes(name)) used.push(name);
+    return v;
+  };
+  const guarded = (f2, start, end, what) => {
+    try {
+      return f2();
+    } catch (e) {
+      if (e instanceof OverflowError) fail("definition/overflow", `${what} overflows: ${e.message}; values in expressions must stay below 2^63 (numerator and denominator)`, start, end);
+      throw e;
+    }
+  };
+  const value = (e) => {
+    switch (e.t) {
+      case "num":
+        return e.value;
+      case "name": {
+        const v = lookup(e.name, e.start, e.end);
+        if (isList(v)) fail("definition/expression-type", `'${e.name}' is a list; pick one entry, e.g. ${e.name}[0]`, e.start, e.end);
+        return v;
+      }
+      case "index": {
+        const list2 = lookup(e.list.name, e.list.start, e.list.end);
+        if (!isList(list2)) fail("definition/expression-type", `'${e.list.name}' is a number, not a list; it cannot be indexed`, e.list.start, e.list.end);
+        const i = value(e.index);
+        if (!isInteger(i) || i.n < 0n || i.n >= BigInt(list2.length)) {
+          fail("definition/index", `index ${formatExact(i)} is outside ${e.list.name}, which has ${list2.length} entr${list2.length === 1 ? "y" : "ies"} (indices 0 to ${list2.length - 1})`, e.index.start, e.index.end);
+        }
+        return list2[Number(i.n)];
+      }
+      case "neg":
+        return neg(value(e.operand));
+      case "call":
+        return callOf(e.fn, e.args.map(value));
+      case "bin": {
+        const l = value(e.left);
+        const r = value(e.right);
+        switch (e.op) {
+          case "+":
+            return guarded(() => add(l, r), e.start, e.end, "this sum");
+          case "-":
+            return guarded(() => sub(l, r), e.start, e.end, "this difference");
+          case "*":
+            return guarded(() => mul(l, r), e.start, e.end, "this product");
+          case "/":
+            if (isZero(r)) fail("definition/division-by-zero", `division by zero: ${describe2(e.right)} is 0 here`, e.right.start, e.right.end);
+            return guarded(() => div(l, r), e.start, e.end, "this quotient");
+          case "^": {
+            if (!isInteger(r) || r.n > BigInt(MAX_EXPONENT) || r.n < -BigInt(MAX_EXPONENT)) {
+              fail("definition/expression-type", `the exponent is ${formatExact(r)}; it must be an integer from -${MAX_EXPONENT} to ${MAX_EXPONENT}`, e.right.start, e.right.end);
+            }
+            if (isZero(l) && r.n < 0n) fail("definition/division-by-zero", "division by zero: 0 to a negative power", e.start, e.end);
+            return guarded(() => pow(l, Number(r.n)), e.start, e.end, "this power");
+          }
+        }
+      }
+    }
+  };
+  try {
+    return { ok: true, value: value(expr), used };
+  } catch (err) {
+    if (err instanceof Fail) return { ok: false, error: err.problem };
+    throw err;
+  }
+}
+function callOf(fn, args) {
+  switch (fn) {
+    case "ceil":
+      return ceil(args[0]);
+    case "floor":
+      return floor(args[0]);
+    case "min":
+      return args.reduce((a, b) => compare(b, a) < 0 ? b : a);
+    case "max":
+      return args.reduce((a, b) => compare(b, a) > 0 ? b : a);
+  }
+}
+function isList(v) {
+  return Array.isArray(v);
+}
+function describe2(e) {
+  switch (e.t) {
+    case "num":
+      return formatExact(e.value);
+    case "name":
+      return e.name;
+    default:
+      return "the divisor";
+  }
+}
+function namesOf(expr) {
+  const out = [];
+  const visit3 = (e) => {
+    switch (e.t) {
+      case "num":
+        return;
+      case "name":
+        if (!out.includes(e.name)) out.push(e.name);
+        return;
+      case "index":
+        if (!out.includes(e.list.name)) out.push(e.list.name);
+        visit3(e.index);
+        return;
+      case "neg":
+        visit3(e.operand);
+        return;
+      case "bin":
+        visit3(e.left);
+        visit3(e.right);
+        return;
+      case "call":
+        e.args.forEach(visit3);
+        return;
+    }
+  };
+  visit3(expr);
+  return out;
+}
+
 // src/config/model-schema.ts
 import { createHash } from "node:crypto";
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync as existsSync2, readFileSync as readFileSync2 } from "node:fs";
 import { createRequire } from "node:module";
 import { fileURLToPath } from "node:url";
 
@@ -13042,7 +14331,7 @@ var compiler = (schema) => {
 function schemaFilePath(name) {
   for (const dir of CANDIDATE_DIRS) {
     const path = fileURLToPath(new URL(dir + name, import.meta.url));
-    if (existsSync(path)) return path;
+    if (existsSync2(path)) return path;
   }
   const looked = CANDIDATE_DIRS.map((dir) => dir + name).join(" and ");
   throw new Error(`${name} not found (looked for ${looked} relative to ${import.meta.url}); the installation is incomplete`);
@@ -13053,7 +14342,7 @@ function schemaTextHash(text) {
 function precompiled(name, hash) {
   for (const dir of VALIDATOR_DIRS) {
     const path = fileURLToPath(new URL(dir + validatorFileName(name), import.meta.url));
-    if (!existsSync(path)) continue;
+    if (!existsSync2(path)) continue;
     const mod = require2(path);
     return mod.sourceHash === hash && mod.schemaRoots ? mod : void 0;
   }
@@ -13067,7 +14356,7 @@ function pairObjects(copy, loaded, into) {
 function compiledSchemaFile(name) {
   const hit = cached.get(name);
   if (hit) return hit;
-  const text = readFileSync(schemaFilePath(name), "utf8");
+  const text = readFileSync2(schemaFilePath(name), "utf8");
   const schema = JSON.parse(text);
   const locations = /* @__PURE__ */ new Map();
   const objects = /* @__PURE__ */ new Map();
@@ -13102,189 +14391,6 @@ function compiledModelSchema() {
 function validateAgainstSchema(value) {
   const { validate } = compiledModelSchema();
   return validate(value) ? [] : [...validate.errors ?? []];
-}
-
-// src/config/model-pointer.ts
-var import_yaml4 = __toESM(require_dist(), 1);
-
-// src/config/model-candidates.ts
-var import_yaml3 = __toESM(require_dist(), 1);
-var MAX_VISITED = 5e3;
-var MAX_CANDIDATES2 = 3;
-function modelCandidates(doc) {
-  const found = [];
-  const queue = [{ node: doc.contents, path: [] }];
-  for (let visited = 0; queue.length > 0 && visited < MAX_VISITED && found.length < MAX_CANDIDATES2; visited++) {
-    const { node, path } = queue.shift();
-    if ((0, import_yaml3.isMap)(node)) {
-      const keys = node.items.map((p) => (0, import_yaml3.isScalar)(p.key) ? String(p.key.value) : void 0);
-      const network = node.items[keys.indexOf("network")]?.value;
-      const layered = keys.includes("input") && keys.includes("layers");
-      if (layered || (0, import_yaml3.isMap)(network) && network.items.some((p) => (0, import_yaml3.isScalar)(p.key) && p.key.value === "tensors")) {
-        found.push(formatPointer(path));
-        continue;
-      }
-      node.items.forEach((p, i) => {
-        if (keys[i] !== void 0) queue.push({ node: p.value, path: [...path, keys[i]] });
-      });
-    } else if ((0, import_yaml3.isSeq)(node)) {
-      node.items.forEach((item, i) => queue.push({ node: item, path: [...path, i] }));
-    }
-  }
-  return found;
-}
-
-// src/config/model-pointer.ts
-function resolveModelNode(doc, lines, sink, pointer, segments) {
-  const anchors = new AnchorIndex(doc);
-  const docSpan = spanFromOffsets(lines, 0, 0);
-  let cur = doc.contents;
-  let curSpan = spanOfRange(lines, rangeOf(cur)) ?? docSpan;
-  const walked = [];
-  const fail = (detail, hintKeys) => {
-    const where2 = walked.length === 0 ? "the document" : formatFieldPath(walked);
-    const keys = hintKeys.length > 0 ? ` (it has ${hintKeys.slice(0, 8).map((k) => `'${k}'`).join(", ")}${hintKeys.length > 8 ? ", …" : ""})` : "";
-    sink.error("config/model-missing", `the model path '${pointer}' does not resolve: ${where2} ${detail}${keys}; ${pathHint(doc, walked, hintKeys)}`, curSpan);
-    return void 0;
-  };
-  for (let i = 0; i < segments.length; i++) {
-    const seg = segments[i];
-    if ((0, import_yaml4.isAlias)(cur)) cur = anchors.resolve(cur);
-    if ((0, import_yaml4.isMap)(cur)) {
-      const keys = [];
-      let found;
-      for (const pair of cur.items) {
-        const k = (0, import_yaml4.isScalar)(pair.key) ? pair.key.value : void 0;
-        if (k === void 0 || k !== null && typeof k === "object") continue;
-        keys.push(String(k));
-        if (String(k) === seg) found = { value: pair.value, keyRange: rangeOf(pair.key) };
-      }
-      if (!found) {
-        const guess = closest(seg, keys);
-        return fail(`has no key '${seg}'${guess ? ` (did you mean '${guess}'?)` : ""}`, guess ? [] : keys);
-      }
-      walked.push(seg);
-      const keySpan = spanOfRange(lines, found.keyRange) ?? curSpan;
-      cur = found.value;
-      curSpan = spanOfRange(lines, rangeOf(cur)) ?? spanFromOffsets(lines, keySpan.endOffset, keySpan.endOffset);
-    } else if ((0, import_yaml4.isSeq)(cur)) {
-      if (!isArrayIndex(seg) || Number(seg) >= cur.items.length) {
-        return fail(`is a list of ${cur.items.length} entries, so '${seg}' is not one of its indices`, []);
-      }
-      walked.push(Number(seg));
-      cur = cur.items[Number(seg)];
-      curSpan = spanOfRange(lines, rangeOf(cur)) ?? curSpan;
-    } else {
-      return fail(cur === null || cur === void 0 || (0, import_yaml4.isScalar)(cur) && cur.value === null ? `is empty, so it has no '${seg}'` : `is a single value, so it has no '${seg}'`, []);
-    }
-  }
-  if (cur === null || cur === void 0) {
-    if (segments.length === 0) {
-      sink.error("config/model-missing", `the document is empty; expected the model architecture at '${pointer || "/"}' (see --model-path)`, docSpan);
-      return void 0;
-    }
-  }
-  return { node: cur, segments: walked, fallback: curSpan };
-}
-function rangeOf(node) {
-  if (node && typeof node === "object" && "range" in node) {
-    const r = node.range;
-    if (Array.isArray(r) && r.length === 3) return r;
-  }
-  return void 0;
-}
-function pathHint(doc, walked, keys) {
-  const candidates2 = modelCandidates(doc);
-  if (candidates2.length > 0) {
-    const list2 = candidates2.map((c) => `--model-path ${c === "" ? "''" : c}`).join(" or ");
-    return `this file holds an architecture elsewhere: pass ${list2} (or set model_path in the policy)`;
-  }
-  if (keys.length > 0) {
-    return `pass --model-path with the JSON pointer of the architecture, which starts with one of the keys listed, e.g. --model-path ${formatPointer([...walked, keys[0]])}`;
-  }
-  return "pass --model-path with the JSON pointer of the architecture (or set model_path in the policy)";
-}
-
-// src/config/layer-entry-count.ts
-var LIST_KEYS = new Set(["layers", "body", "main", "path", "shortcut", "projection", "downsample", "skip"].map(normaliseWord));
-var PATHS_KEYS = new Set(["paths", "branches"].map(normaliseWord));
-function checkLayerEntryCount(root, sink) {
-  if (root.kind !== "map") return true;
-  const layers = fieldOf(root, "layers");
-  if (layers?.kind !== "seq") return true;
-  const count = countList(layers);
-  if (count <= MAX_EXPANDED_LAYERS) return true;
-  sink.error(
-    "config/too-many-layers",
-    `${displayPath(layers)} lists ${count} layers (counting those inside blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
-    layers.span
-  );
-  return false;
-}
-function countList(list2) {
-  if (list2.kind !== "seq") return 0;
-  let n = 0;
-  for (const item of list2.items) n += countEntry(item);
-  return n;
-}
-function countEntry(item) {
-  if (item.kind !== "map") return 1;
-  const maps = [item, ...item.entries.map((e) => e.value).filter((v) => v.kind === "map")];
-  let nested = 0;
-  let holds = false;
-  for (const m of maps) {
-    if (m.kind !== "map") continue;
-    for (const e of m.entries) {
-      const key = normaliseWord(e.key);
-      if (LIST_KEYS.has(key) && e.value.kind === "seq") {
-        holds = true;
-        nested += countList(e.value);
-      } else if (PATHS_KEYS.has(key) && e.value.kind === "seq") {
-        holds = true;
-        for (const p of e.value.items) nested += p.kind === "seq" ? countList(p) : countEntry(p);
-      }
-    }
-  }
-  return holds ? nested : 1;
-}
-
-// src/config/size-limits.ts
-function checkModelSizes(root, sink) {
-  walk(root, sink);
-  if (root.kind !== "map") return;
-  for (const holder of ["input", "network"]) {
-    const node = fieldOf(root, holder);
-    const shape = node?.kind === "map" ? fieldOf(node, "shape") : void 0;
-    if (shape?.kind !== "seq") continue;
-    let positions = 1;
-    for (const item of shape.items) {
-      if (item.kind !== "scalar" || typeof item.value !== "number" || !(item.value >= 1)) return;
-      positions *= item.value;
-    }
-    if (positions > MAX_INPUT_POSITIONS) {
-      const count = Number.isSafeInteger(positions) ? positions.toLocaleString("en-US") : `more than ${Number.MAX_SAFE_INTEGER.toLocaleString("en-US")}`;
-      sink.error(
-        "network/too-large",
-        `${displayPath(shape)} has ${count} positions; rankfloor analyses inputs of at most ${MAX_INPUT_POSITIONS.toLocaleString("en-US")} positions (every position is a node of the tensor network)`,
-        shape.span
-      );
-    }
-  }
-}
-function walk(node, sink) {
-  if (node.kind === "scalar") {
-    const v = node.value;
-    if (typeof v === "number" && v > MAX_MODEL_INTEGER) {
-      sink.error(
-        "config/number-too-large",
-        `${displayPath(node)} is ${Number.isSafeInteger(v) ? v : String(v)}; rankfloor accepts sizes and counts up to ${MAX_MODEL_INTEGER} (2^31 − 1), far beyond any real architecture`,
-        node.span
-      );
-    }
-    return;
-  }
-  if (node.kind === "seq") for (const item of node.items) walk(item, sink);
-  else for (const e of node.entries) walk(e.value, sink);
 }
 
 // src/config/schema-errors.ts
@@ -13493,7 +14599,7 @@ function lengthHint(loc) {
 }
 
 // src/config/yaml-errors.ts
-var import_yaml5 = __toESM(require_dist(), 1);
+var import_yaml3 = __toESM(require_dist(), 1);
 function reportYamlErrors(doc, lines, sink) {
   const duplicates = doc.errors.some((e) => e.code === "DUPLICATE_KEY") ? duplicateKeys(doc, lines) : /* @__PURE__ */ new Map();
   for (const e of doc.errors) {
@@ -13508,11 +14614,11 @@ function reportYamlErrors(doc, lines, sink) {
 }
 function duplicateKeys(doc, lines) {
   const out = /* @__PURE__ */ new Map();
-  (0, import_yaml5.visit)(doc, {
+  (0, import_yaml3.visit)(doc, {
     Map(_, map) {
       const first = /* @__PURE__ */ new Map();
       for (const pair of map.items) {
-        if (!(0, import_yaml5.isScalar)(pair.key) || !pair.key.range) continue;
+        if (!(0, import_yaml3.isScalar)(pair.key) || !pair.key.range) continue;
         const name = String(pair.key.value);
         const at = pair.key.range[0];
         const earlier = first.get(name);
@@ -13524,29 +14630,607 @@ function duplicateKeys(doc, lines) {
   return out;
 }
 
+// src/config/definition-document.ts
+var DEFINITION_SCHEMA = "definition.schema.json";
+var TYPES = /* @__PURE__ */ new Map([
+  ["int", "int"],
+  ["integer", "int"],
+  ["number", "number"],
+  ["float", "number"],
+  ["decimal", "number"],
+  ["list", "list"]
+]);
+var RESERVED_NAMES = /* @__PURE__ */ new Set(["ceil", "floor", "min", "max", "architecture"]);
+var DEFAULT_STEP = { int: { n: 1n, d: 1n }, list: { n: 1n, d: 1n }, number: { n: 1n, d: 100n } };
+var DefinitionSink = class extends DiagnosticSink {
+  notes = /* @__PURE__ */ new Map();
+  error(code, message, span) {
+    const renamed = code.startsWith("config/") ? `definition/${code.slice("config/".length)}` : code;
+    const note = span ? this.notes.get(span.offset) : void 0;
+    super.error(renamed, note ? `${message} (${note})` : message, span);
+  }
+};
+function readDefinition(text, file, path, sink) {
+  const bytes = Buffer.byteLength(text, "utf8");
+  if (bytes > MAX_DOCUMENT_BYTES) {
+    sink.error("definition/too-large", `the definition file is ${bytes} bytes; files larger than ${MAX_DOCUMENT_BYTES} bytes (4 MiB) are refused`);
+    return void 0;
+  }
+  const lines = new import_yaml4.LineCounter();
+  const doc = (0, import_yaml4.parseDocument)(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
+  reportYamlErrors(doc, lines, sink);
+  if (sink.count > 0) return void 0;
+  const root = convertNode(doc, lines, sink, doc.contents, [], spanFromOffsets(lines, 0, 0), { rootName: "the definition", subject: "architecture definition" });
+  if (!root) return void 0;
+  if (root.kind !== "map") {
+    sink.error("definition/type", `the definition file holds ${describeValue(root)}; a definition is a mapping with 'name', 'description', 'parameters' and 'model'`, root.span);
+    return void 0;
+  }
+  const { validate, locations } = compiledSchemaFile(DEFINITION_SCHEMA);
+  if (!validate(toPlain(root))) reportSchemaErrors(validate.errors ?? [], root, locations, sink);
+  if (sink.count > 0) return void 0;
+  const parameters = /* @__PURE__ */ new Map();
+  const params = fieldOf(root, "parameters");
+  if (params?.kind === "map") {
+    for (const entry of params.entries) {
+      const decl = readParameter(entry.key, entry.keySpan, entry.value, sink);
+      if (decl) parameters.set(entry.key, decl);
+    }
+  }
+  const model = fieldOf(root, "model");
+  const expressions = /* @__PURE__ */ new Map();
+  collectExpressions(model, text, lines, expressions, sink);
+  if (sink.count > 0) return void 0;
+  return {
+    file,
+    path,
+    name: stringOf(fieldOf(root, "name")),
+    description: stringOf(fieldOf(root, "description")),
+    lines,
+    parameters,
+    model,
+    expressions
+  };
+}
+function readParameter(name, keySpan, body, sink) {
+  const where2 = `parameters.${name}`;
+  if (RESERVED_NAMES.has(name)) {
+    const why = name === "architecture" ? "a config names the definition with it" : "it is a function of the expressions";
+    sink.error("definition/invalid-name", `${where2}: '${name}' cannot name a parameter: ${why}`, keySpan);
+    return void 0;
+  }
+  const type = TYPES.get(stringOf(fieldOf(body, "type")));
+  const bound = (key) => {
+    const node = fieldOf(body, key);
+    if (!node) return void 0;
+    const v = exactNumber(node, sink, "definition");
+    if (v === null) return void 0;
+    if (!v || type !== "number" && !isInteger(v)) {
+      sink.error("definition/invalid-number", `${displayPath(node)} must be ${type === "number" ? "a number" : "a whole number"} for a parameter of type ${type}, got ${describeValue(node)}`, node.span);
+      return void 0;
+    }
+    return v;
+  };
+  const min = bound("min");
+  const max = bound("max");
+  const step = bound("step") ?? DEFAULT_STEP[type];
+  if (!min || !max) return void 0;
+  const maxNode = fieldOf(body, "max");
+  if (compare(min, max) > 0) {
+    sink.error("definition/invalid-range", `${displayPath(maxNode)} is ${formatExact(max)}, below min ${formatExact(min)}; the range is min to max, both included`, maxNode.span);
+    return void 0;
+  }
+  const defaultNode = fieldOf(body, "default");
+  const lengthNode = fieldOf(body, "length");
+  if (lengthNode && type !== "list") {
+    sink.error("definition/invalid-field", `${displayPath(lengthNode)}: only a list parameter has a length`, lengthNode.span);
+    return void 0;
+  }
+  const declaredLength = lengthNode?.kind === "scalar" ? Number(lengthNode.value) : void 0;
+  const decl = { name, type, min, max, step, description: stringOf(fieldOf(body, "description")), span: keySpan, ...declaredLength !== void 0 ? { length: declaredLength } : {} };
+  const value = readParameterValue(defaultNode, decl, sink, "definition", displayPath(defaultNode));
+  if (!value) return void 0;
+  const length = Array.isArray(value) ? value.length : void 0;
+  return { ...decl, default: value, ...length !== void 0 ? { length } : {} };
+}
+function readParameterValue(node, decl, sink, owner, what, declaredIn = "") {
+  const range = `${formatExact(decl.min)} to ${formatExact(decl.max)}`;
+  const one = (item, label) => {
+    const v = exactNumber(item, sink, owner);
+    if (v === null) return void 0;
+    const whole = decl.type !== "number";
+    if (!v || whole && !isInteger(v)) {
+      sink.error(`${owner}/parameter-type`, `${label} must be ${whole ? "a whole number" : "a number"} (parameter ${decl.name} is of type ${decl.type}${declaredIn}), got ${describeValue(item)}`, item.span);
+      return void 0;
+    }
+    if (compare(v, decl.min) < 0 || compare(v, decl.max) > 0) {
+      const side = compare(v, decl.min) < 0 ? `below the minimum ${formatExact(decl.min)}` : `above the maximum ${formatExact(decl.max)}`;
+      sink.error(`${owner}/parameter-range`, `${label} is ${formatExact(v)}, ${side}: parameter ${decl.name} allows ${range}${declaredIn}`, item.span);
+      return void 0;
+    }
+    return v;
+  };
+  if (decl.type !== "list") {
+    if (node.kind !== "scalar") {
+      sink.error(`${owner}/parameter-type`, `${what} must be a number (parameter ${decl.name} is of type ${decl.type}${declaredIn}), got ${describeValue(node)}`, node.span);
+      return void 0;
+    }
+    return one(node, what);
+  }
+  if (node.kind !== "seq") {
+    sink.error(`${owner}/parameter-type`, `${what} must be a list of whole numbers (parameter ${decl.name} is a list${declaredIn}), got ${describeValue(node)}`, node.span);
+    return void 0;
+  }
+  if (decl.length !== void 0 && node.items.length !== decl.length) {
+    sink.error(`${owner}/parameter-length`, `${what} has ${node.items.length} entr${node.items.length === 1 ? "y" : "ies"}; parameter ${decl.name} takes ${decl.length}${declaredIn}`, node.span);
+    return void 0;
+  }
+  if (node.items.length === 0) {
+    sink.error(`${owner}/parameter-length`, `${what} is empty; parameter ${decl.name} takes at least one entry`, node.span);
+    return void 0;
+  }
+  const out = [];
+  let ok = true;
+  node.items.forEach((item, i) => {
+    const v = one(item, `${what}[${i}]`);
+    if (v) out.push(v);
+    else ok = false;
+  });
+  return ok ? out : void 0;
+}
+function exactNumber(node, sink, owner) {
+  if (node.kind !== "scalar" || typeof node.value !== "number") return void 0;
+  try {
+    return fromNumber(node.value);
+  } catch (e) {
+    if (!(e instanceof OverflowError)) throw e;
+    sink.error(`${owner}/number-too-large`, `${displayPath(node)} is ${String(node.value)}; parameter values stay below 2^63`, node.span);
+    return null;
+  }
+}
+function collectExpressions(node, text, lines, out, sink) {
+  if (node.kind === "map") for (const e of node.entries) collectExpressions(e.value, text, lines, out, sink);
+  else if (node.kind === "seq") for (const item of node.items) collectExpressions(item, text, lines, out, sink);
+  else if (isExpressionText(node.value)) {
+    const at = contentOffset(text, node);
+    const parsed = parseExpression(node.value);
+    if (parsed.ok) out.set(node, { text: node.value, expr: parsed.expr, ...at !== void 0 ? { at } : {} });
+    else sink.error(parsed.error.code, `${displayPath(node)}: ${parsed.error.message}`, expressionSpan(lines, node, at, parsed.error.start, parsed.error.end));
+  }
+}
+function contentOffset(text, node) {
+  const raw = text.slice(node.span.offset, node.span.endOffset);
+  const value = String(node.value);
+  if (raw === value) return node.span.offset;
+  const q = raw[0];
+  if ((q === '"' || q === "'") && raw.length === value.length + 2 && raw.slice(1, -1) === value) return node.span.offset + 1;
+  return void 0;
+}
+function expressionSpan(lines, node, at, start, end) {
+  if (at === void 0) return node.span;
+  return spanFromOffsets(lines, at + start, at + end);
+}
+
+// src/config/instantiate-definition.ts
+function instantiate(def, bindings, sink) {
+  const values = /* @__PURE__ */ new Map();
+  for (const [name, b] of bindings) values.set(name, b.value);
+  const used = /* @__PURE__ */ new WeakMap();
+  let ok = true;
+  const copy = (node, parent) => {
+    if (node.kind === "map") {
+      const map = { ...node, parent, entries: [] };
+      for (const e of node.entries) map.entries.push({ ...e, value: copy(e.value, map) });
+      return map;
+    }
+    if (node.kind === "seq") {
+      const seq = { ...node, parent, items: [] };
+      for (const item of node.items) seq.items.push(copy(item, seq));
+      return seq;
+    }
+    const parsed = def.expressions.get(node);
+    if (!parsed) return { ...node, parent };
+    const result = evaluateExpression(parsed.expr, values);
+    if (!result.ok) {
+      ok = false;
+      const read = describeBindings(bindings, namesOf(parsed.expr));
+      sink.error(result.error.code, `${displayPath(node)}: ${result.error.message}${read ? ` (with ${read})` : ""}`, expressionSpan(def.lines, node, parsed.at, result.error.start, result.error.end));
+      return { ...node, parent };
+    }
+    const out = { ...node, parent, value: toNumber(result.value) };
+    used.set(out, result.used);
+    sink.notes.set(node.span.offset, noteOf(parsed.text, result.value, result.used, bindings));
+    return out;
+  };
+  const root = copy(def.model, def.model.parent);
+  if (!ok) return void 0;
+  const memo = /* @__PURE__ */ new WeakMap();
+  const paramsOf = (node) => {
+    const hit = memo.get(node);
+    if (hit) return hit;
+    const names = [];
+    const visit3 = (n) => {
+      for (const name of used.get(n) ?? []) if (!names.includes(name)) names.push(name);
+      if (n.kind === "map") for (const e of n.entries) visit3(e.value);
+      else if (n.kind === "seq") for (const item of n.items) visit3(item);
+    };
+    visit3(node);
+    const uses = names.map((name) => {
+      const span = bindings.get(name)?.span;
+      return span ? { name, span } : { name };
+    });
+    memo.set(node, uses);
+    return uses;
+  };
+  return { root, paramsOf };
+}
+function showValue(v) {
+  return Array.isArray(v) ? `[${v.map(formatExact).join(", ")}]` : formatExact(v);
+}
+function describeBindings(bindings, names) {
+  return names.filter((n) => bindings.has(n)).map((n) => {
+    const b = bindings.get(n);
+    return `${n} = ${showValue(b.value)} from ${b.where}`;
+  }).join(", ");
+}
+function noteOf(text, value, names, bindings) {
+  const read = describeBindings(bindings, names);
+  return `computed as ${formatExact(value)} by '${text}'${read ? ` with ${read}` : ""}`;
+}
+
+// src/config/load-architecture.ts
+function loadArchitecture(req, sink) {
+  const fail2 = (more = []) => ({ ok: false, diagnostics: [...sink.sorted(), ...more] });
+  const archEntry = entryOf(req.root, "architecture");
+  const archNode = archEntry.value;
+  const written = stringOf(archNode);
+  if (written === void 0 || written.trim() === "") {
+    sink.error("config/architecture", `${displayPath(archNode)} must be the path of an architecture definition, relative to this config (e.g. ../arch/residual.yaml), got ${describeValue(archNode)}`, archNode.span);
+    return fail2();
+  }
+  if (req.configRel === void 0) {
+    sink.error("config/architecture-outside-root", `${displayPath(archNode)}: this config lies outside the repository root, so its definition cannot be read; definitions are read only from inside the repository`, archNode.span);
+    return fail2();
+  }
+  const where2 = resolveDefinitionPath(written, req.configRel);
+  if (!where2.ok) {
+    sink.error(where2.code, where2.message, archNode.span);
+    return fail2();
+  }
+  const rel = where2.rel;
+  const display = req.source.display(rel);
+  const read = req.source.read(rel);
+  if (read.kind !== "file") {
+    const [code, message] = read.kind === "absent" ? ["config/architecture-missing", `architecture '${written}': there is no file ${rel} in the repository`] : [read.code === "symlink" ? "config/architecture-symlink" : read.code === "too-large" ? "config/architecture-too-large" : "config/architecture-unreadable", `architecture '${written}': ${read.message}`];
+    sink.error(code, message, archNode.span);
+    return fail2();
+  }
+  const defSink = new DefinitionSink(display);
+  const definition = readDefinition(read.text, display, rel, defSink);
+  if (!definition) {
+    sink.error("config/architecture-failed", `architecture '${written}': ${display} did not load (its problems are listed with it)`, archNode.span);
+    return fail2(defSink.sorted());
+  }
+  const judged = judgingDeclarations(definition, req.source, rel);
+  const bindings = /* @__PURE__ */ new Map();
+  const names = [...definition.parameters.keys()];
+  for (const entry of req.root.entries) {
+    if (entry === archEntry) continue;
+    const decl = judged.get(entry.key) ?? definition.parameters.get(entry.key);
+    if (!decl) {
+      const guess = closest(entry.key, names);
+      const list2 = names.length > 0 ? `its parameters are ${names.join(", ")}` : "it declares no parameters";
+      sink.error(
+        "config/unknown-parameter",
+        `'${entry.writtenKey}' is not a parameter of ${display}${guess ? ` (did you mean '${guess}'?)` : ""}; ${list2} (a config that names an architecture sets only its parameters)`,
+        entry.keySpan
+      );
+      continue;
+    }
+    const own = definition.parameters.get(entry.key);
+    const judging = own && judged.get(entry.key) !== own ? ` (its range as the base revision declares it in ${display}: a change cannot widen a range for its own configs)` : ` (declared in ${display})`;
+    const value = readParameterValue(entry.value, decl, sink, "config", displayPath(entry.value), judging);
+    if (value === void 0) continue;
+    const span = entry.value.span;
+    const itemSpans = entry.value.kind === "seq" ? { itemSpans: entry.value.items.map((item) => item.span) } : {};
+    bindings.set(entry.key, { value, span, ...itemSpans, where: `${sink.file}:${span.line}:${span.column}` });
+  }
+  if (sink.count > 0) return fail2();
+  for (const [name, decl] of definition.parameters) if (!bindings.has(name)) bindings.set(name, { value: decl.default, where: `the default in ${display}` });
+  const instance = { definition, configFile: req.file, span: archNode.span, bindings, judged };
+  const model = makeModel(instance, req.read, defSink);
+  if (!model) {
+    sink.error("config/architecture-failed", `architecture '${written}': ${display} does not make a model with these parameters (its problems are listed with it)`, archNode.span);
+    return fail2(defSink.sorted());
+  }
+  return { ok: true, model, instance };
+}
+function makeModel(instance, read, defSink) {
+  const def = instance.definition;
+  const made = instantiate(def, instance.bindings, defSink);
+  if (!made) return void 0;
+  if (entryOf(made.root, "network") !== void 0) {
+    defSink.error("definition/network", `${displayPath(fieldOf(made.root, "network"))}: a definition describes a layered model (input and layers); write an explicit network in the config itself`, entryOf(made.root, "network").keySpan);
+    return void 0;
+  }
+  const model = read(made.root, defSink, made.paramsOf);
+  if (model === void 0 || model === "explicit" || defSink.count > 0) return void 0;
+  const parameters = [...def.parameters.values()].map((decl) => {
+    const b = instance.bindings.get(decl.name);
+    return { name: decl.name, value: showValue(b.value), ...b.span ? { span: b.span } : {}, declared: decl.span };
+  });
+  return { ...model, architecture: { file: def.file, path: def.path, name: def.name, span: instance.span, parameters } };
+}
+function judgingDeclarations(def, source, rel) {
+  const out = new Map(def.parameters);
+  const judging = source.judging?.(rel);
+  if (judging?.kind !== "file") return out;
+  const other = readDefinition(judging.text, def.file, rel, new DefinitionSink(def.file));
+  if (!other) return out;
+  for (const [name, decl] of other.parameters) {
+    const own = def.parameters.get(name);
+    if (own && own.type === decl.type && (own.length === decl.length || own.type !== "list")) {
+      if (sameRange(own, decl)) continue;
+      out.set(name, { ...own, min: decl.min, max: decl.max });
+    }
+  }
+  return out;
+}
+function sameRange(a, b) {
+  return a.min.n === b.min.n && a.min.d === b.min.d && a.max.n === b.max.n && a.max.d === b.max.d;
+}
+
+// src/config/parameter-space.ts
+function parameterSpace(instance, read) {
+  const choices = [];
+  for (const decl of instance.definition.parameters.values()) {
+    const judged = instance.judged.get(decl.name) ?? decl;
+    const b = instance.bindings.get(decl.name);
+    const common = { name: decl.name, min: judged.min, max: judged.max, step: decl.step };
+    if (Array.isArray(b.value)) {
+      b.value.forEach((value, index) => {
+        choices.push({ ...common, label: `${decl.name}[${index}]`, index, value, span: b.itemSpans?.[index] ?? b.span ?? instance.span, set: b.span !== void 0 });
+      });
+    } else choices.push({ ...common, label: decl.name, value: b.value, span: b.span ?? instance.span, set: b.span !== void 0 });
+  }
+  return {
+    choices,
+    withValue(choice, value) {
+      const old = instance.bindings.get(choice.name);
+      const next = choice.index === void 0 ? value : old.value.map((v, i) => i === choice.index ? value : v);
+      const bindings = new Map(instance.bindings);
+      bindings.set(choice.name, { ...old, value: next });
+      return makeModel({ ...instance, bindings }, read, new DefinitionSink(instance.definition.file));
+    }
+  };
+}
+
+// src/config/model-pointer.ts
+var import_yaml6 = __toESM(require_dist(), 1);
+
+// src/config/model-candidates.ts
+var import_yaml5 = __toESM(require_dist(), 1);
+var MAX_VISITED = 5e3;
+var MAX_CANDIDATES2 = 3;
+function modelCandidates(doc) {
+  const found = [];
+  const queue = [{ node: doc.contents, path: [] }];
+  for (let visited = 0; queue.length > 0 && visited < MAX_VISITED && found.length < MAX_CANDIDATES2; visited++) {
+    const { node, path } = queue.shift();
+    if ((0, import_yaml5.isMap)(node)) {
+      const keys = node.items.map((p) => (0, import_yaml5.isScalar)(p.key) ? String(p.key.value) : void 0);
+      const network = node.items[keys.indexOf("network")]?.value;
+      const layered = keys.includes("input") && keys.includes("layers") || keys.includes("architecture");
+      if (layered || (0, import_yaml5.isMap)(network) && network.items.some((p) => (0, import_yaml5.isScalar)(p.key) && p.key.value === "tensors")) {
+        found.push(formatPointer(path));
+        continue;
+      }
+      node.items.forEach((p, i) => {
+        if (keys[i] !== void 0) queue.push({ node: p.value, path: [...path, keys[i]] });
+      });
+    } else if ((0, import_yaml5.isSeq)(node)) {
+      node.items.forEach((item, i) => queue.push({ node: item, path: [...path, i] }));
+    }
+  }
+  return found;
+}
+
+// src/config/model-pointer.ts
+function resolveModelNode(doc, lines, sink, pointer, segments) {
+  const anchors = new AnchorIndex(doc);
+  const docSpan = spanFromOffsets(lines, 0, 0);
+  let cur = doc.contents;
+  let curSpan = spanOfRange(lines, rangeOf(cur)) ?? docSpan;
+  const walked = [];
+  const fail2 = (detail, hintKeys) => {
+    const where2 = walked.length === 0 ? "the document" : formatFieldPath(walked);
+    const keys = hintKeys.length > 0 ? ` (it has ${hintKeys.slice(0, 8).map((k) => `'${k}'`).join(", ")}${hintKeys.length > 8 ? ", …" : ""})` : "";
+    sink.error("config/model-missing", `the model path '${pointer}' does not resolve: ${where2} ${detail}${keys}; ${pathHint(doc, walked, hintKeys)}`, curSpan);
+    return void 0;
+  };
+  for (let i = 0; i < segments.length; i++) {
+    const seg = segments[i];
+    if ((0, import_yaml6.isAlias)(cur)) cur = anchors.resolve(cur);
+    if ((0, import_yaml6.isMap)(cur)) {
+      const keys = [];
+      let found;
+      for (const pair of cur.items) {
+        const k = (0, import_yaml6.isScalar)(pair.key) ? pair.key.value : void 0;
+        if (k === void 0 || k !== null && typeof k === "object") continue;
+        keys.push(String(k));
+        if (String(k) === seg) found = { value: pair.value, keyRange: rangeOf(pair.key) };
+      }
+      if (!found) {
+        const guess = closest(seg, keys);
+        return fail2(`has no key '${seg}'${guess ? ` (did you mean '${guess}'?)` : ""}`, guess ? [] : keys);
+      }
+      walked.push(seg);
+      const keySpan = spanOfRange(lines, found.keyRange) ?? curSpan;
+      cur = found.value;
+      curSpan = spanOfRange(lines, rangeOf(cur)) ?? spanFromOffsets(lines, keySpan.endOffset, keySpan.endOffset);
+    } else if ((0, import_yaml6.isSeq)(cur)) {
+      if (!isArrayIndex(seg) || Number(seg) >= cur.items.length) {
+        return fail2(`is a list of ${cur.items.length} entries, so '${seg}' is not one of its indices`, []);
+      }
+      walked.push(Number(seg));
+      cur = cur.items[Number(seg)];
+      curSpan = spanOfRange(lines, rangeOf(cur)) ?? curSpan;
+    } else {
+      return fail2(cur === null || cur === void 0 || (0, import_yaml6.isScalar)(cur) && cur.value === null ? `is empty, so it has no '${seg}'` : `is a single value, so it has no '${seg}'`, []);
+    }
+  }
+  if (cur === null || cur === void 0) {
+    if (segments.length === 0) {
+      sink.error("config/model-missing", `the document is empty; expected the model architecture at '${pointer || "/"}' (see --model-path)`, docSpan);
+      return void 0;
+    }
+  }
+  return { node: cur, segments: walked, fallback: curSpan };
+}
+function rangeOf(node) {
+  if (node && typeof node === "object" && "range" in node) {
+    const r = node.range;
+    if (Array.isArray(r) && r.length === 3) return r;
+  }
+  return void 0;
+}
+function pathHint(doc, walked, keys) {
+  const candidates2 = modelCandidates(doc);
+  if (candidates2.length > 0) {
+    const list2 = candidates2.map((c) => `--model-path ${c === "" ? "''" : c}`).join(" or ");
+    return `this file holds an architecture elsewhere: pass ${list2} (or set model_path in the policy)`;
+  }
+  if (keys.length > 0) {
+    return `pass --model-path with the JSON pointer of the architecture, which starts with one of the keys listed, e.g. --model-path ${formatPointer([...walked, keys[0]])}`;
+  }
+  return "pass --model-path with the JSON pointer of the architecture (or set model_path in the policy)";
+}
+
+// src/config/layer-entry-count.ts
+var LIST_KEYS = new Set(["layers", "body", "main", "path", "shortcut", "projection", "downsample", "skip"].map(normaliseWord));
+var PATHS_KEYS = new Set(["paths", "branches"].map(normaliseWord));
+function checkLayerEntryCount(root, sink) {
+  if (root.kind !== "map") return true;
+  const layers = fieldOf(root, "layers");
+  if (layers?.kind !== "seq") return true;
+  const count = countList(layers);
+  if (count <= MAX_EXPANDED_LAYERS) return true;
+  sink.error(
+    "config/too-many-layers",
+    `${displayPath(layers)} lists ${count} layers (counting those inside blocks); at most ${MAX_EXPANDED_LAYERS} layers are allowed`,
+    layers.span
+  );
+  return false;
+}
+function countList(list2) {
+  if (list2.kind !== "seq") return 0;
+  let n = 0;
+  for (const item of list2.items) n += countEntry(item);
+  return n;
+}
+function countEntry(item) {
+  if (item.kind !== "map") return 1;
+  const maps = [item, ...item.entries.map((e) => e.value).filter((v) => v.kind === "map")];
+  let nested = 0;
+  let holds = false;
+  for (const m of maps) {
+    if (m.kind !== "map") continue;
+    for (const e of m.entries) {
+      const key = normaliseWord(e.key);
+      if (LIST_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        nested += countList(e.value);
+      } else if (PATHS_KEYS.has(key) && e.value.kind === "seq") {
+        holds = true;
+        for (const p of e.value.items) nested += p.kind === "seq" ? countList(p) : countEntry(p);
+      }
+    }
+  }
+  return holds ? nested : 1;
+}
+
+// src/config/size-limits.ts
+function checkModelSizes(root, sink) {
+  walk(root, sink);
+  if (root.kind !== "map") return;
+  for (const holder of ["input", "network"]) {
+    const node = fieldOf(root, holder);
+    const shape = node?.kind === "map" ? fieldOf(node, "shape") : void 0;
+    if (shape?.kind !== "seq") continue;
+    let positions = 1;
+    for (const item of shape.items) {
+      if (item.kind !== "scalar" || typeof item.value !== "number" || !(item.value >= 1)) return;
+      positions *= item.value;
+    }
+    if (positions > MAX_INPUT_POSITIONS) {
+      const count = Number.isSafeInteger(positions) ? positions.toLocaleString("en-US") : `more than ${Number.MAX_SAFE_INTEGER.toLocaleString("en-US")}`;
+      sink.error(
+        "network/too-large",
+        `${displayPath(shape)} has ${count} positions; rankfloor analyses inputs of at most ${MAX_INPUT_POSITIONS.toLocaleString("en-US")} positions (every position is a node of the tensor network)`,
+        shape.span
+      );
+    }
+  }
+}
+function walk(node, sink) {
+  if (node.kind === "scalar") {
+    const v = node.value;
+    if (typeof v === "number" && v > MAX_MODEL_INTEGER) {
+      sink.error(
+        "config/number-too-large",
+        `${displayPath(node)} is ${Number.isSafeInteger(v) ? v : String(v)}; rankfloor accepts sizes and counts up to ${MAX_MODEL_INTEGER} (2^31 − 1), far beyond any real architecture`,
+        node.span
+      );
+    }
+    return;
+  }
+  if (node.kind === "seq") for (const item of node.items) walk(item, sink);
+  else for (const e of node.entries) walk(e.value, sink);
+}
+
 // src/config/load-config.ts
 var DEFAULT_MODEL_PATH = "/model";
 function loadConfigText(text, file, options = {}) {
   const sink = new DiagnosticSink(file);
-  const fail = () => ({ ok: false, diagnostics: sink.sorted() });
+  const fail2 = () => ({ ok: false, diagnostics: sink.sorted() });
   const bytes = Buffer.byteLength(text, "utf8");
   if (bytes > MAX_DOCUMENT_BYTES) return tooLarge(sink, bytes);
   const modelPath = options.modelPath ?? DEFAULT_MODEL_PATH;
   const pointer = parsePointer(modelPath);
   if (!pointer.ok) {
     sink.error("config/model-path", pointer.message);
-    return fail();
+    return fail2();
   }
-  const lines = new import_yaml6.LineCounter();
-  const doc = (0, import_yaml6.parseDocument)(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
+  const lines = new import_yaml7.LineCounter();
+  const doc = (0, import_yaml7.parseDocument)(text, { lineCounter: lines, prettyErrors: false, uniqueKeys: true });
   reportYamlErrors(doc, lines, sink);
-  if (sink.count > 0) return fail();
+  if (sink.count > 0) return fail2();
   const found = resolveModelNode(doc, lines, sink, modelPath, pointer.segments);
-  if (!found) return fail();
+  if (!found) return fail2();
   const root = convertNode(doc, lines, sink, found.node, found.segments, found.fallback);
-  if (!root) return fail();
+  if (!root) return fail2();
+  if (root.kind === "map" && entryOf(root, "architecture") !== void 0) {
+    const around = options.definitions && options.configPath !== void 0 ? void 0 : repositoryOf(file);
+    const source = options.definitions ?? workTreeDefinitions(around.root);
+    const configRel = insideRoot(options.configPath ?? around.configRel);
+    const read = (tree, into, paramsOf) => {
+      const m = modelFromTree(tree, file, into, paramsOf);
+      return m?.kind === "explicit" ? "explicit" : m;
+    };
+    const loaded = loadArchitecture({ root, file, configRel, source, read }, sink);
+    if (!loaded.ok) return { ok: false, diagnostics: loaded.diagnostics };
+    return { ok: true, model: loaded.model, parameters: parameterSpace(loaded.instance, read) };
+  }
+  const model = modelFromTree(root, file, sink);
+  if (sink.count > 0 || !model) {
+    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
+    return fail2();
+  }
+  return { ok: true, model };
+}
+function modelFromTree(root, file, sink, paramsOf) {
   normaliseFieldAliases(root, sink);
-  if (!checkLayerEntryCount(root, sink)) return fail();
+  if (!checkLayerEntryCount(root, sink)) return void 0;
   checkModelSizes(root, sink);
   const schema = compiledModelSchema();
   reportSchemaErrors(validateAgainstSchema(toPlain(root)), root, schema.locations, sink);
@@ -13555,17 +15239,16 @@ function loadConfigText(text, file, options = {}) {
     const explicit = entryOf(root, "network") !== void 0;
     const layered = ["input", "output", "layers", "weight_sharing"].some((k) => entryOf(root, k) !== void 0);
     if (explicit && !layered) model = buildExplicitModel(root, file, sink);
-    else if (layered && !explicit) model = buildLayeredModel(root, file, sink);
+    else if (layered && !explicit) model = buildLayeredModel(root, file, sink, paramsOf);
   }
   if (model?.kind === "layered" && sink.count === 0) {
     const shapes = inferShapes(model);
     if (!shapes.ok) for (const d of shapes.diagnostics) sink.error(d.code, d.message, d.span);
   }
-  if (sink.count > 0 || !model) {
-    if (sink.count === 0) throw new Error(`config loader: no model and no diagnostic for ${file} (a loader bug)`);
-    return fail();
-  }
-  return { ok: true, model };
+  return sink.count > 0 ? void 0 : model;
+}
+function insideRoot(rel) {
+  return rel === "" || rel === ".." || rel.startsWith("../") || /^[A-Za-z]:/.test(rel) || rel.startsWith("/") ? void 0 : rel;
 }
 function tooLarge(sink, bytes) {
   sink.error(
@@ -13594,13 +15277,13 @@ var FIELDS = {
 };
 
 // src/check/compare-config.ts
-function loadConfig(text, file, policy, errors) {
-  const loaded = loadConfigText(text, file, policy.modelPath === void 0 ? {} : { modelPath: policy.modelPath });
+function loadConfig(text, file, policy, errors, where2) {
+  const loaded = loadConfigText(text, file, { ...policy.modelPath === void 0 ? {} : { modelPath: policy.modelPath }, ...where2 });
   if (!loaded.ok) {
     errors.push(...loaded.diagnostics);
     return void 0;
   }
-  return loaded.model;
+  return loaded.parameters ? { model: loaded.model, parameters: loaded.parameters } : { model: loaded.model };
 }
 
 // src/check/base-evaluation.ts
@@ -13610,8 +15293,9 @@ function evaluateBaseTexts(tasks2, progress) {
   const policyIds = /* @__PURE__ */ new Map();
   return tasks2.map((t) => {
     progress?.();
-    const model = loadConfig(t.text, t.file, t.policy, []);
-    if (!model) return void 0;
+    const loaded = loadConfig(t.text, t.file, t.policy, [], t.path === void 0 ? void 0 : { definitions: recordedDefinitions(t.definitions ?? {}), configPath: t.path });
+    if (!loaded) return void 0;
+    const model = loaded.model;
     let id = policyIds.get(t.policy);
     if (id === void 0) policyIds.set(t.policy, id = policyIds.size);
     const key = `${id}\0${modelKey(model)}`;
@@ -13622,6 +15306,12 @@ function evaluateBaseTexts(tasks2, progress) {
     memo.set(key, answer);
     return answer;
   });
+}
+function recordedDefinitions(texts) {
+  return {
+    read: (rel) => Object.hasOwn(texts, rel) ? { kind: "file", text: texts[rel] } : { kind: "absent" },
+    display: (rel) => rel
+  };
 }
 var PLACE = /* @__PURE__ */ new Set(["file", "span", "fieldSpans"]);
 function modelKey(model) {

@@ -91,7 +91,7 @@ describe('sarifLog against the SARIF 2.1.0 schema', () => {
     const log = sarifLog([], TOOL);
     expectValid(log);
     expect(run(log).results).toEqual([]);
-    expect(run(log).tool.driver.rules).toHaveLength(7);
+    expect(run(log).tool.driver.rules).toHaveLength(8);
   });
 
   it('accepts the text form, which parses back to the same log', () => {

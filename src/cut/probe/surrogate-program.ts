@@ -212,6 +212,9 @@ function product2<T>(lists: readonly (readonly T[])[]): T[][] {
  * kind added later gets no probe until its function is written here).
  */
 export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, reading: PointwiseReading, surrogate: Surrogate, seed: number): SurrogateProgram | undefined {
+  // A token input takes only the V indicator vectors at each position; the program draws general
+  // vectors, whose rank exceeds the function's on tokens wherever an input is reused.
+  if (model.input.vocabulary !== undefined) return undefined;
   const b = new ProgramBuilder(seed);
   const m = shapes.representation;
   const n = positionCount(model.input.shape);
@@ -252,6 +255,9 @@ export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, readi
         break;
       }
       case 'recurrent':
+        // Written for one direction and the final state only: a bidirectional layer or per-step
+        // outputs are another function, and a reading of it would prove nothing.
+        if (layer.bidirectional || layer.sequence) return undefined;
         grid = recurrent(b, src, i, layer.hidden, layer.depth);
         break;
       case 'pool':
