@@ -10098,6 +10098,7 @@ function product2(lists) {
   return out;
 }
 function surrogateProgram(model, shapes, reading, surrogate, seed) {
+  if (model.input.vocabulary !== void 0) return void 0;
   const b = new ProgramBuilder(seed);
   const m = shapes.representation;
   const n = positionCount(model.input.shape);
@@ -10138,6 +10139,7 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
         break;
       }
       case "recurrent":
+        if (layer.bidirectional || layer.sequence) return void 0;
         grid = recurrent2(b, src, i, layer.hidden, layer.depth);
         break;
       case "pool":
