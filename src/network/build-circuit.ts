@@ -262,12 +262,17 @@ function recurrent(b: CircuitBuilder, g: Grid, layer: RecurrentLayer, tag: numbe
 }
 
 /**
- * Linearised attention, per head h: k_j = K v_j, u_j = V v_j and their outer product as a
+ * Linearised attention, per head h: k_j = K_h v_j, u_j = V_h v_j and their outer product as a
  * product of two maps into a·a coordinates; the sum S(i) of those over the positions i attends to
  * (one sum shared by every position for full attention, prefix sums when causal, windows when
- * local); then the output O·(q_i ⊗-contracted with S(i)) as a map of the product of q_i's a·a
- * expansion with S(i). Structured maps (the outer product, the contraction) are built as generic
- * ones: the function family only grows, so upper bounds stay sound.
+ * local); then the output O_h·(q_i ⊗-contracted with S(i)) as a map of the product of q_i's a·a
+ * expansion with S(i), summed over heads. Structured maps (the outer product, the contraction)
+ * are built as generic ones: the function family only grows, so upper bounds stay sound. The H
+ * heads are built as one block of H·a query/key/value coordinates and H·a·a product coordinates:
+ * with block-diagonal maps that block is exactly the H heads side by side (a Hadamard product of
+ * concatenations is the concatenation of the products, and sums over positions and the output
+ * map Σ_h O_h(·) = [O_1 … O_H](·) commute with concatenating), so it contains the per-head family
+ * and its bounds are sound; it costs one set of nodes per position instead of H.
  */
 function attention(b: CircuitBuilder, g: Grid, layer: AttentionLayer, a: number, tag: number): Grid {
   const D = g.dim;
@@ -275,30 +280,29 @@ function attention(b: CircuitBuilder, g: Grid, layer: AttentionLayer, a: number,
   const window = layer.window;
   const attends = (i: number, j: number): boolean =>
     (!layer.causal || j <= i) && (window === undefined || Math.abs(i - j) <= window);
-  const heads: number[][] = [];
-  for (let h = 0; h < layer.heads; h++) {
-    const kv = g.nodes.map((v) =>
-      productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), linearOf(b, a * a, tag, linearOf(b, a, tag, v))]),
-    );
-    const sums = new Array<number>(n);
-    if (window === undefined && !layer.causal) {
-      const all = sumOf(b, a * a, tag, kv);
-      sums.fill(all);
-    } else if (window === undefined) {
-      let prefix = ZERO;
-      for (let i = 0; i < n; i++) sums[i] = prefix = sumOf(b, a * a, tag, [prefix, kv[i]!]);
-    } else {
-      for (let i = 0; i < n; i++) {
-        const from = Math.max(0, i - window);
-        const to = layer.causal ? i : Math.min(n - 1, i + window);
-        const terms: number[] = [];
-        for (let j = from; j <= to; j++) if (attends(i, j)) terms.push(kv[j]!);
-        sums[i] = sumOf(b, a * a, tag, terms);
-      }
+  const ha = layer.heads * a;
+  const lifted = layer.heads * a * a;
+  const kv = g.nodes.map((v) =>
+    productOf(b, lifted, tag, [linearOf(b, lifted, tag, linearOf(b, ha, tag, v)), linearOf(b, lifted, tag, linearOf(b, ha, tag, v))]),
+  );
+  const sums = new Array<number>(n);
+  if (window === undefined && !layer.causal) {
+    const all = sumOf(b, lifted, tag, kv);
+    sums.fill(all);
+  } else if (window === undefined) {
+    let prefix = ZERO;
+    for (let i = 0; i < n; i++) sums[i] = prefix = sumOf(b, lifted, tag, [prefix, kv[i]!]);
+  } else {
+    for (let i = 0; i < n; i++) {
+      const from = Math.max(0, i - window);
+      const to = layer.causal ? i : Math.min(n - 1, i + window);
+      const terms: number[] = [];
+      for (let j = from; j <= to; j++) if (attends(i, j)) terms.push(kv[j]!);
+      sums[i] = sumOf(b, lifted, tag, terms);
     }
-    heads.push(g.nodes.map((v, i) => linearOf(b, D, tag, productOf(b, a * a, tag, [linearOf(b, a * a, tag, linearOf(b, a, tag, v)), sums[i]!]))));
   }
-  return { shape: g.shape, nodes: g.nodes.map((_, i) => sumOf(b, D, tag, heads.map((hs) => hs[i]!))), dim: D, flat: false };
+  const nodes = g.nodes.map((v, i) => linearOf(b, D, tag, productOf(b, lifted, tag, [linearOf(b, lifted, tag, linearOf(b, ha, tag, v)), sums[i]!])));
+  return { shape: g.shape, nodes, dim: D, flat: false };
 }
 
 /**
