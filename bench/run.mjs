@@ -178,6 +178,8 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   console.log(`${'1,000 changed configs: the same check without --base (CLI)'.padEnd(64)} ${without.toFixed(1).padStart(9)} ms (median of 3)`);
   console.log(`${'    ratio --base / without'.padEnd(64)} ${(withBase / without).toFixed(2).padStart(9)}   (load average ${load} on ${os.availableParallelism()} cores)`);
   rmSync(dir, { recursive: true, force: true });
+}
+
 // `rankfloor measure` on invented data: grey 28×28 "ink blot" images (two to four Gaussian blots
 // each, 8-bit), written as a .npy file; every built-in 2D partition. Each run is a child process,
 // so the peak memory printed is that run's own.
@@ -233,6 +235,8 @@ time('1,000 small configs in one process (overlap surrogate)', () => {
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
+}
+
 // Start-up of the CLI against bare node, measured in this run: the medians of interleaved runs
 // of `node -e 0`, `rankfloor --version` and `rankfloor bounds` on a tiny config (whose analysis
 // takes well under a millisecond, so the time is start-up: loading modules and validators).
