@@ -27,6 +27,13 @@ export interface BoundsOptions {
   readonly nodeLimit?: number;
   /** Multiply-adds the certified probe may spend per partition (probe/certified-probe.ts); 0: no probe. */
   readonly probeBudget?: number;
+  /**
+   * Per partition of `computeBounds`, the rank the certified probe has to prove: it runs only when
+   * the other rules leave that rank unproven and the upper bound allows it, and stops once it is
+   * proven (a policy check needs no more). null: no probe for that partition. Absent: the probe
+   * runs towards the upper bound.
+   */
+  readonly probeTargets?: readonly (bigint | null)[];
 }
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };
@@ -42,8 +49,8 @@ export function computeBounds(model: Model, partitions: readonly Partition[], op
   const analysis = analyseLayered(model, options);
   if (!analysis.ok) return analysis;
   const results: PartitionBounds[] = [];
-  for (const p of partitions) {
-    const r = analysis.bounds(p);
+  for (const [i, p] of partitions.entries()) {
+    const r = analysis.bounds(p, options.probeTargets?.[i]);
     if ('diagnostic' in r) return { ok: false, diagnostics: [r.diagnostic] };
     results.push(r);
   }
@@ -51,7 +58,7 @@ export function computeBounds(model: Model, partitions: readonly Partition[], op
 }
 
 type LayeredAnalysis =
-  | { ok: true; notes: string[]; bounds: (p: Partition) => PartitionBounds | { diagnostic: Diagnostic } }
+  | { ok: true; notes: string[]; bounds: (p: Partition, probeTarget?: bigint | null) => PartitionBounds | { diagnostic: Diagnostic } }
   | { ok: false; diagnostics: Diagnostic[] };
 
 /** Builds the networks once, then bounds any number of partitions of the model. */
@@ -72,7 +79,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
   const probe = certifiedProbe(model, built.shapes, built.pointwise, options.surrogate, options.probeBudget);
 
-  const bounds = (p: Partition): PartitionBounds | { diagnostic: Diagnostic } => {
+  const bounds = (p: Partition, probeTarget?: bigint | null): PartitionBounds | { diagnostic: Diagnostic } => {
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
     const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
@@ -84,7 +91,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : best === deg?.log2 ? 'degree' : 'token count';
       const counts = method === 'min-cut' ? cut.counts : method === 'rank propagation' ? prop!.counts : method === 'degree' ? deg!.counts : new Map();
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
-      return finish(p.label, { upper, lower: bestLower(p, upper) });
+      return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
     }
     // Choose by log2 first: the losers may have millions of digits and are never written out.
     // Close calls (log-gamma and log-sum are approximate) are settled on the exact values.
@@ -117,9 +124,9 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       const b = c.make();
       if (b && (!upper || b.rank < upper.rank)) upper = b;
     }
-    return finish(p.label, { upper: upper!, lower: bestLower(p, upper!) });
+    return finish(p.label, { upper: upper!, lower: bestLower(p, upper!, probeTarget) });
   };
-  const bestLower = (p: Partition, upper: Bound): Bound | null => {
+  const bestLower = (p: Partition, upper: Bound, probeTarget: bigint | null | undefined): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const recurrent = recurrentOnInput(model, built.shapes);
@@ -129,8 +136,13 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     if (shallow) lowers.push(shallow);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
-    // The probe runs last, from just above what the rules proved, and only while it can improve.
-    if (probe && (!lower || lower.rank < upper.rank)) return probe(p.side, lower?.rank ?? 0n, upper.rank) ?? lower;
+    // The probe runs last, from just above what the rules proved, and only while it can improve:
+    // up to the upper bound, or to the target when one is given.
+    if (!probe || probeTarget === null) return lower;
+    // A target above the upper bound is provably out of reach: nothing for the probe to prove.
+    if (probeTarget !== undefined && probeTarget > upper.rank) return lower;
+    const goal = probeTarget ?? upper.rank;
+    if (!lower || lower.rank < goal) return probe(p.side, lower?.rank ?? 0n, goal) ?? lower;
     return lower;
   };
   return { ok: true, notes, bounds };

@@ -69,7 +69,8 @@ export function evaluatePolicy(model: Model, policy: Policy, options: EvaluateOp
   }
   if (diagnostics.length > 0) return { ok: false, diagnostics };
   const surrogate = policy.surrogate;
-  const outcome = computeBounds(model, partitions, { surrogate });
+  // The certified probe only has to prove each minimum (and runs only where the rules do not).
+  const outcome = computeBounds(model, partitions, { surrogate, probeTargets: policy.requirements.map((r) => r.minRank) });
   if (!outcome.ok) return outcome;
   // Building the network once more per probe is the price of exact fixes; only failing
   // requirements of layered models pay it.

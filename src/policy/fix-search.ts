@@ -78,7 +78,7 @@ export function searchFixes(
   const judge = (m: LayeredModel, probe: boolean): PartitionBounds | undefined => {
     const a = analyseLayered(m, { surrogate, ...(probe && probing ? {} : { probeBudget: 0 }) });
     if (!a.ok) return undefined;
-    const b = a.bounds(partition);
+    const b = a.bounds(partition, probe && probing ? minRank : null);
     return 'diagnostic' in b ? undefined : b;
   };
   const near = nearLayers(model, cutLayers);
