@@ -30,10 +30,10 @@ export interface BoundsOptions {
   /**
    * Per partition of `computeBounds`, the rank the certified probe has to prove: it runs only when
    * the other rules leave that rank unproven and the upper bound allows it, and stops once it is
-   * proven (a policy check needs no more). null: no probe for that partition. Absent: the probe
-   * runs towards the upper bound.
+   * proven (a policy check needs no more). null: no probe for that partition. Absent (the list or
+   * its entry): the probe runs towards the upper bound.
    */
-  readonly probeTargets?: readonly (bigint | null)[];
+  readonly probeTargets?: readonly (bigint | null | undefined)[];
 }
 
 export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; diagnostics: Diagnostic[] };

@@ -69,8 +69,11 @@ export function evaluatePolicy(model: Model, policy: Policy, options: EvaluateOp
   }
   if (diagnostics.length > 0) return { ok: false, diagnostics };
   const surrogate = policy.surrogate;
-  // The certified probe only has to prove each minimum (and runs only where the rules do not).
-  const outcome = computeBounds(model, partitions, { surrogate, probeTargets: policy.requirements.map((r) => r.minRank) });
+  // The certified probe only has to prove each minimum (and runs only where the rules do not),
+  // unless the requirement limits drops against a base: a proven drop needs the base's lower
+  // bound as high as it goes, so there it runs towards the upper bound.
+  const probeTargets = policy.requirements.map((r) => ((r.maxDropBits ?? policy.maxDropBits) === undefined ? r.minRank : undefined));
+  const outcome = computeBounds(model, partitions, { surrogate, probeTargets });
   if (!outcome.ok) return outcome;
   // Building the network once more per probe is the price of exact fixes; only failing
   // requirements of layered models pay it.
