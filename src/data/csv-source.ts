@@ -7,9 +7,8 @@ import { statSync } from 'node:fs';
 import { positionCount } from '../config/model.js';
 import type { Diagnostic } from '../diagnostic.js';
 import { splitCsvLine, numberOf } from './csv-fields.js';
-import { changedWhileRead, dataError, dataErrorAt, labelColumn, type DataSource, type OpenOptions, type OpenResult } from './data-source.js';
+import { changedWhileRead, dataError, dataErrorAt, labelColumn, scanDataLines, type DataSource, type OpenOptions, type OpenResult } from './data-source.js';
 import { valueBatch } from './feature-batch.js';
-import { scanLines } from './line-records.js';
 
 export function openCsv(file: string, options: OpenOptions): OpenResult {
   let header: string[] | undefined;
@@ -66,13 +65,8 @@ export function openCsv(file: string, options: OpenOptions): OpenResult {
     return undefined;
   };
 
-  let scanned;
-  try {
-    scanned = scanLines(file, check);
-  } catch (e) {
-    return { ok: false, diagnostics: [dataError('data/unreadable', `cannot read the data file: ${(e as Error).message}`, file)] };
-  }
-  if (!scanned.ok) return { ok: false, diagnostics: [scanned.diagnostic] };
+  const scanned = scanDataLines(file, check);
+  if (!scanned.ok) return scanned;
   const records = scanned.records;
   const headerRows = header ? 1 : 0;
   const count = records.count - headerRows;

@@ -8,6 +8,7 @@
 import type { Diagnostic } from '../diagnostic.js';
 import type { Shape } from '../config/model.js';
 import type { FeatureBatch, ValueRange } from './feature-batch.js';
+import { scanLines, type LineRecords } from './line-records.js';
 
 export type DataFormat = 'csv' | 'npy' | 'png' | 'jsonl';
 
@@ -63,6 +64,19 @@ export function labelColumn(texts: readonly string[]): LabelColumn {
 
 export function dataError(code: string, message: string, file: string): Diagnostic {
   return { code, message, file, severity: 'error' };
+}
+
+/** `scanLines` for a data source: a file that cannot be read, or a line `check` refuses, is a diagnostic. */
+export function scanDataLines(
+  file: string,
+  check: (text: string, line: number, offset: number) => Diagnostic | undefined,
+): { ok: true; records: LineRecords } | { ok: false; diagnostics: Diagnostic[] } {
+  try {
+    const scanned = scanLines(file, check);
+    return scanned.ok ? scanned : { ok: false, diagnostics: [scanned.diagnostic] };
+  } catch (e) {
+    return { ok: false, diagnostics: [dataError('data/unreadable', `cannot read the data file: ${(e as Error).message}`, file)] };
+  }
 }
 
 /** A diagnostic at `column` (1-based, characters) of line `line`, the line starting at byte `lineOffset`. */

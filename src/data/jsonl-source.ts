@@ -6,9 +6,8 @@
  */
 import { statSync } from 'node:fs';
 import type { Diagnostic } from '../diagnostic.js';
-import { changedWhileRead, dataError, dataErrorAt, labelColumn, type DataSource, type OpenOptions, type OpenResult } from './data-source.js';
+import { changedWhileRead, dataError, dataErrorAt, labelColumn, scanDataLines, type DataSource, type OpenOptions, type OpenResult } from './data-source.js';
 import { tokenBatch } from './feature-batch.js';
-import { scanLines } from './line-records.js';
 
 type Parsed = { ok: true; tokens: unknown[]; label?: string } | { ok: false; message: string; column: number };
 
@@ -70,13 +69,8 @@ export function openJsonl(file: string, options: OpenOptions): OpenResult {
     return undefined;
   };
 
-  let scanned;
-  try {
-    scanned = scanLines(file, check);
-  } catch (e) {
-    return { ok: false, diagnostics: [dataError('data/unreadable', `cannot read the data file: ${(e as Error).message}`, file)] };
-  }
-  if (!scanned.ok) return { ok: false, diagnostics: [scanned.diagnostic] };
+  const scanned = scanDataLines(file, check);
+  if (!scanned.ok) return scanned;
   const records = scanned.records;
   if (records.count === 0 || length < 1) {
     records.close();
