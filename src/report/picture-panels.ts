@@ -11,6 +11,7 @@ import type { BoundsResult } from '../cut/types.js';
 import type { DrawingMark } from './architecture-svg.js';
 import { boundsDocument, type RankJson } from './bounds-json.js';
 import type { BarRow } from './capacity-bars-svg.js';
+import { requirementLabel, type RequirementLabel } from './requirement-label.js';
 import { checkDocument, type RequirementDocument } from './check-json.js';
 import { placeOf, type NetworkDrawing } from './network-drawing.js';
 
@@ -44,6 +45,16 @@ export interface Panel {
   readonly side: Uint8Array;
 }
 
+const STATE_OF_LABEL: Readonly<Record<RequirementLabel, PanelState>> = {
+  fail: 'fail',
+  'fail (unproven)': 'fail-unproven',
+  'fail (drop)': 'drop',
+  'fail (may have dropped)': 'fail-may-drop',
+  'may have dropped': 'may-drop',
+  unproven: 'unproven',
+  pass: 'pass',
+};
+
 const ORDER: Readonly<Record<PanelState, number>> = { fail: 0, 'fail-unproven': 0, drop: 1, 'fail-may-drop': 1, 'may-drop': 2, unproven: 2, 'upper-only': 2, bounded: 3, exact: 3, pass: 3 };
 
 export function checkPanels(outcome: CheckOutcome): Panel[] {
@@ -57,19 +68,8 @@ export function checkPanels(outcome: CheckOutcome): Panel[] {
     res.requirements.forEach((r, j) => {
       const q = c.result!.requirements[j]!;
       const compared = 'base' in r;
-      // The same word as every other output (requirement-label.ts), from the JSON's own fields.
-      const drop = compared ? r.drop : 'none';
-      const state: PanelState = q.failing
-        ? q.verdict === 'fail'
-          ? 'fail'
-          : 'fail-unproven'
-        : drop === 'proven'
-          ? 'drop'
-          : drop === 'possible'
-            ? r.drop_fails
-              ? 'fail-may-drop'
-              : 'may-drop'
-            : q.verdict;
+      // The same word as every other output.
+      const state = STATE_OF_LABEL[requirementLabel(q, c.deltas?.[j])];
       const base = compared ? r.base : undefined;
       const rows: BarRow[] = [{ series: 'required', label: 'required', value: r.required }];
       if (compared) {
