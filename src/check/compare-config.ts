@@ -13,7 +13,7 @@ import type { ParameterSpace } from '../config/parameter-space.js';
 import { widthSources } from '../config/width-sources.js';
 import { diffModels, type FieldChange } from '../config/model-diff.js';
 import type { FileRead } from '../files/file-read.js';
-import type { Policy, Requirement } from '../policy/policy.js';
+import { maxDropBitsOf, type Policy } from '../policy/policy.js';
 import type { Bound } from '../cut/types.js';
 import { evaluatePolicy, type PolicyResult, type RequirementResult } from '../policy/evaluate.js';
 import { searchFixes } from '../policy/fix-search.js';
@@ -114,7 +114,7 @@ function onTheCut(changes: readonly FieldChange[], head: Model, cutLayers: Reado
 
 function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes: readonly FieldChange[], head: Model, parameters: ParameterSpace | undefined): RequirementDelta {
   const b = base.requirements.find((x) => x.requirement.partition === q.requirement.partition);
-  const maxDropBits = maxDrop(q.requirement, policy);
+  const maxDropBits = maxDropBitsOf(q.requirement, policy);
   const cutLayers = new Set(q.bounds.upper.cut.map((c) => c.layer));
   if (!b) return { base: null, changeBits: null, maxDropBits, drop: 'none', dropFails: false, attributed: onTheCut(changes, head, cutLayers, false), fixes: [] };
   const changeBits = q.bounds.upper.log2 - b.bounds.upper.log2;
@@ -147,8 +147,4 @@ function delta(q: RequirementResult, base: PolicyResult, policy: Policy, changes
 export function exceedsBy(a: Bound, c: Bound, k: number): boolean {
   if (!a.huge && !c.huge && Number.isInteger(k)) return a.rank > c.rank << BigInt(k);
   return a.log2 - c.log2 > k + 1e-9 * Math.max(1, a.log2, c.log2);
-}
-
-function maxDrop(r: Requirement, p: Policy): number | undefined {
-  return r.maxDropBits ?? p.maxDropBits;
 }

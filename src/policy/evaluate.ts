@@ -11,7 +11,7 @@ import { resolvePartition, type Partition } from '../partition/partition.js';
 import { computeBounds } from '../cut/bounds.js';
 import type { PartitionBounds, Surrogate } from '../cut/types.js';
 import { searchFixes, type Fix } from './fix-search.js';
-import type { Policy, Requirement } from './policy.js';
+import { maxDropBitsOf, type Policy, type Requirement } from './policy.js';
 
 export type RequirementVerdict = 'pass' | 'fail' | 'unproven';
 
@@ -72,7 +72,7 @@ export function evaluatePolicy(model: Model, policy: Policy, options: EvaluateOp
   // The certified probe only has to prove each minimum (and runs only where the rules do not),
   // unless the requirement limits drops against a base: a proven drop needs the base's lower
   // bound as high as it goes, so there it runs towards the upper bound.
-  const probeTargets = policy.requirements.map((r) => ((r.maxDropBits ?? policy.maxDropBits) === undefined ? r.minRank : undefined));
+  const probeTargets = policy.requirements.map((r) => (maxDropBitsOf(r, policy) === undefined ? r.minRank : undefined));
   const outcome = computeBounds(model, partitions, { surrogate, probeTargets });
   if (!outcome.ok) return outcome;
   // Building the network once more per probe is the price of exact fixes; only failing

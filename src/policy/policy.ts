@@ -54,3 +54,8 @@ export interface Policy {
   readonly chain: readonly string[];
   readonly span: Span;
 }
+
+/** The drop limit of a requirement: its own `max_drop_bits`, else its policy's (undefined: none). */
+export function maxDropBitsOf(r: Requirement, p: Policy): number | undefined {
+  return r.maxDropBits ?? p.maxDropBits;
+}
