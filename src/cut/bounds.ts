@@ -84,7 +84,11 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
     const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
     const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side) : null;
-    const tokens = model.input.vocabulary === undefined ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
+    // columns, whatever the network does with them (reuse included).
+    const vocabulary = model.input.vocabulary;
+    const tokenSide = vocabulary === undefined ? 0 : Math.min(...sideSizes(p.side));
+    const tokens = vocabulary === undefined ? Infinity : tokenSide * Math.log2(vocabulary);
     const best = Math.min(cut.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
@@ -99,14 +103,10 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
       { log2: cut.value, make: () => makeBound(productOf(cut.counts, augment), 'min-cut', circuit, cut.counts, augment) },
     ];
     if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
-    // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
-    // columns, whatever the network does with them (reuse included).
-    const vocabulary = model.input.vocabulary;
     if (vocabulary !== undefined) {
-      const k = Math.min(...sideSizes(p.side));
       candidates.push({
-        log2: k * Math.log2(vocabulary),
-        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: 'token count', cut: [{ layer: 'input', line: model.input.span.line, dim: vocabulary, count: k }] }),
+        log2: tokens,
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(tokenSide), log2: tokens, method: 'token count', cut: [{ layer: 'input', line: model.input.span.line, dim: vocabulary, count: tokenSide }] }),
       });
     }
     if (prop) {
