@@ -41723,7 +41723,9 @@ function analyseLayered(model, options) {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
     const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side) : null;
-    const tokens = model.input.vocabulary === void 0 ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    const vocabulary = model.input.vocabulary;
+    const tokenSide = vocabulary === void 0 ? 0 : Math.min(...sideSizes(p.side));
+    const tokens = vocabulary === void 0 ? Infinity : tokenSide * Math.log2(vocabulary);
     const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : "token count";
@@ -41735,12 +41737,10 @@ function analyseLayered(model, options) {
       { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
-    const vocabulary = model.input.vocabulary;
     if (vocabulary !== void 0) {
-      const k = Math.min(...sideSizes(p.side));
       candidates2.push({
-        log2: k * Math.log2(vocabulary),
-        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: "token count", cut: [{ layer: "input", line: model.input.span.line, dim: vocabulary, count: k }] })
+        log2: tokens,
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(tokenSide), log2: tokens, method: "token count", cut: [{ layer: "input", line: model.input.span.line, dim: vocabulary, count: tokenSide }] })
       });
     }
     if (prop) {
@@ -42333,6 +42333,11 @@ function withField(layer, field2, value) {
   return { ...layer, [field2]: value };
 }
 
+// src/policy/policy.ts
+function maxDropBitsOf(r, p) {
+  return r.maxDropBits ?? p.maxDropBits;
+}
+
 // src/policy/evaluate.ts
 function verdictOf(b, minRank) {
   if (b.upper.rank < minRank) return "fail";
@@ -42359,7 +42364,7 @@ function evaluatePolicy(model, policy, options = {}) {
   }
   if (diagnostics.length > 0) return { ok: false, diagnostics };
   const surrogate = policy.surrogate;
-  const probeTargets = policy.requirements.map((r) => (r.maxDropBits ?? policy.maxDropBits) === void 0 ? r.minRank : void 0);
+  const probeTargets = policy.requirements.map((r) => maxDropBitsOf(r, policy) === void 0 ? r.minRank : void 0);
   const outcome = computeBounds(model, partitions, { surrogate, probeTargets });
   if (!outcome.ok) return outcome;
   const wantFixes = options.fixes ?? true;
@@ -46504,7 +46509,7 @@ function onTheCut(changes, head, cutLayers, lost) {
 }
 function delta(q2, base, policy, changes, head, parameters) {
   const b = base.requirements.find((x) => x.requirement.partition === q2.requirement.partition);
-  const maxDropBits = maxDrop(q2.requirement, policy);
+  const maxDropBits = maxDropBitsOf(q2.requirement, policy);
   const cutLayers = new Set(q2.bounds.upper.cut.map((c) => c.layer));
   if (!b) return { base: null, changeBits: null, maxDropBits, drop: "none", dropFails: false, attributed: onTheCut(changes, head, cutLayers, false), fixes: [] };
   const changeBits = q2.bounds.upper.log2 - b.bounds.upper.log2;
@@ -46518,9 +46523,6 @@ function delta(q2, base, policy, changes, head, parameters) {
 function exceedsBy(a, c, k) {
   if (!a.huge && !c.huge && Number.isInteger(k)) return a.rank > c.rank << BigInt(k);
   return a.log2 - c.log2 > k + 1e-9 * Math.max(1, a.log2, c.log2);
-}
-function maxDrop(r, p) {
-  return r.maxDropBits ?? p.maxDropBits;
 }
 
 // src/check/base-evaluation.ts
@@ -50447,6 +50449,15 @@ function partitionSvg(shape, side, title, id) {
 }
 
 // src/report/picture-panels.ts
+var STATE_OF_LABEL = {
+  fail: "fail",
+  "fail (unproven)": "fail-unproven",
+  "fail (drop)": "drop",
+  "fail (may have dropped)": "fail-may-drop",
+  "may have dropped": "may-drop",
+  unproven: "unproven",
+  pass: "pass"
+};
 var ORDER = { fail: 0, "fail-unproven": 0, drop: 1, "fail-may-drop": 1, "may-drop": 2, unproven: 2, "upper-only": 2, bounded: 3, exact: 3, pass: 3 };
 function checkPanels(outcome) {
   const doc = checkDocument(outcome);
@@ -50459,8 +50470,7 @@ function checkPanels(outcome) {
     res.requirements.forEach((r, j) => {
       const q2 = c.result.requirements[j];
       const compared = "base" in r;
-      const drop = compared ? r.drop : "none";
-      const state = q2.failing ? q2.verdict === "fail" ? "fail" : "fail-unproven" : drop === "proven" ? "drop" : drop === "possible" ? r.drop_fails ? "fail-may-drop" : "may-drop" : q2.verdict;
+      const state = STATE_OF_LABEL[requirementLabel(q2, c.deltas?.[j])];
       const base = compared ? r.base : void 0;
       const rows = [{ series: "required", label: "required", value: r.required }];
       if (compared) {

@@ -10528,7 +10528,9 @@ function analyseLayered(model, options) {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
     const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side) : null;
-    const tokens = model.input.vocabulary === void 0 ? Infinity : Math.log2(model.input.vocabulary) * Math.min(...sideSizes(p.side));
+    const vocabulary = model.input.vocabulary;
+    const tokenSide = vocabulary === void 0 ? 0 : Math.min(...sideSizes(p.side));
+    const tokens = vocabulary === void 0 ? Infinity : tokenSide * Math.log2(vocabulary);
     const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : "token count";
@@ -10540,12 +10542,10 @@ function analyseLayered(model, options) {
       { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
-    const vocabulary = model.input.vocabulary;
     if (vocabulary !== void 0) {
-      const k = Math.min(...sideSizes(p.side));
       candidates2.push({
-        log2: k * Math.log2(vocabulary),
-        make: () => ({ rank: BigInt(vocabulary) ** BigInt(k), log2: k * Math.log2(vocabulary), method: "token count", cut: [{ layer: "input", line: model.input.span.line, dim: vocabulary, count: k }] })
+        log2: tokens,
+        make: () => ({ rank: BigInt(vocabulary) ** BigInt(tokenSide), log2: tokens, method: "token count", cut: [{ layer: "input", line: model.input.span.line, dim: vocabulary, count: tokenSide }] })
       });
     }
     if (prop) {
@@ -11138,6 +11138,11 @@ function withField(layer, field, value) {
   return { ...layer, [field]: value };
 }
 
+// src/policy/policy.ts
+function maxDropBitsOf(r, p) {
+  return r.maxDropBits ?? p.maxDropBits;
+}
+
 // src/policy/evaluate.ts
 function verdictOf(b, minRank) {
   if (b.upper.rank < minRank) return "fail";
@@ -11164,7 +11169,7 @@ function evaluatePolicy(model, policy, options = {}) {
   }
   if (diagnostics.length > 0) return { ok: false, diagnostics };
   const surrogate = policy.surrogate;
-  const probeTargets = policy.requirements.map((r) => (r.maxDropBits ?? policy.maxDropBits) === void 0 ? r.minRank : void 0);
+  const probeTargets = policy.requirements.map((r) => maxDropBitsOf(r, policy) === void 0 ? r.minRank : void 0);
   const outcome = computeBounds(model, partitions, { surrogate, probeTargets });
   if (!outcome.ok) return outcome;
   const wantFixes = options.fixes ?? true;
