@@ -9,6 +9,7 @@ import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
 import { OP_INPUT, OP_LINEAR, type Circuit } from '../network/circuit.js';
 import { buildCircuit } from '../network/build-circuit.js';
+import { headCone } from '../network/head-cone.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial } from './degree-bound.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
@@ -65,7 +66,8 @@ type LayeredAnalysis =
 export function analyseLayered(model: LayeredModel, options: BoundsOptions): LayeredAnalysis {
   const built = buildCircuit(model, options);
   if (!built.ok) return built;
-  const circuit = built.circuit;
+  // The upper-bound rules read only what the head reads.
+  const circuit = headCone(built.circuit);
   const notes = [...built.notes];
   if (circuit.sums) {
     notes.push('the network has sums (overlapping windows, merges, flatten + dense): a min-cut index carries one extra constant coordinate (dimension + 1), and rank propagation adds the ranks of summed terms');
@@ -83,7 +85,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     const cut = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     // A cut of weight 0 is rank 1, which no other rule improves on: skip them.
     const deg = circuit.reuse && cut.value > 0 ? degreeBound(circuit, p.side) : null;
-    const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side) : null;
+    const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side, built.circuit) : null;
     // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
     // columns, whatever the network does with them (reuse included).
     const vocabulary = model.input.vocabulary;
@@ -166,10 +168,12 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
     // of width 1): the lower-bound rules read the head from the last node that is not a linear map.
     let top = built.circuit.top;
     while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]!]!;
-    const c: Circuit = { ...built.circuit, top };
+    // The rules read only what that node reads.
+    const c = headCone({ ...built.circuit, top });
     const suffix = sc.how ? ` (${sc.how})` : '';
-    // Power rounding needs a tensor network: no reuse, no shared weights, no recurrence.
-    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : undefined;
+    // Power rounding needs a tensor network: no reuse, no shared weights, no recurrence. Its bases
+    // come from every dimension of the special case, read or not.
+    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c, built.circuit.dim) : undefined;
     const topWindow = model.weightSharing && !hasRecurrent && !c.reuse;
     out.push({
       lower: (side) => {
@@ -237,8 +241,8 @@ interface RoundingPlan {
   readonly candidates: { q: number; weights: Float64Array }[];
 }
 
-function roundingPlan(c: Circuit): RoundingPlan {
-  const qs = powerCandidates(c.dim);
+function roundingPlan(c: Circuit, dims: Int32Array): RoundingPlan {
+  const qs = powerCandidates(dims);
   return {
     candidates: qs.map((q) => {
       // A network has few distinct dimensions: each exponent is worked out once.

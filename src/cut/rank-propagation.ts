@@ -125,13 +125,27 @@ export interface RankPropagation {
 /** The exact pass is skipped when any node's value would exceed this many bits. */
 const MAX_BITS = 4_000_000;
 
-export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
+/**
+ * @param whole the circuit that `c` was cut from (`headCone`): the bit limit of the exact pass
+ *   looks at all of its nodes, as it did before the cone was cut, so that cutting it changes no
+ *   bound.
+ */
+export function rankPropagation(c: Circuit, side: Uint8Array, whole: Circuit = c): RankPropagation {
   const plan = planOf(c);
   const logs = propagateFloat(c, plan, side, true);
   let largest = 0;
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v]!, logs.rb[v]!);
+  const tooLarge = (): boolean => {
+    if (largest > MAX_BITS) return true;
+    if (whole === c || ceilingOf(whole) * (1 + 1e-9) + 1 <= MAX_BITS) return false;
+    // The ceiling cannot rule it out: the log pass over the whole circuit says.
+    const all = propagateFloat(whole, planOf(whole), side, true);
+    let most = 0;
+    for (let v = 0; v < whole.size; v++) most = Math.max(most, all.ra[v]!, all.rb[v]!);
+    return most > MAX_BITS;
+  };
   const rank = (): bigint | undefined => {
-    if (largest > MAX_BITS) return undefined;
+    if (tooLarge()) return undefined;
     // Below 2^40 every value, and every step of a symmetric power, is an exact double.
     if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]!);
     return big(propagate(c, plan, side, EXACT).lam[c.top]!);
@@ -144,6 +158,41 @@ export function rankPropagation(c: Circuit, side: Uint8Array): RankPropagation {
       return (counts ??= recordWidths(c, plan, logs));
     },
   };
+}
+
+const ceilings = new WeakMap<Circuit, number>();
+
+/**
+ * A log2 ceiling on ρ_A and ρ_B of every node for every partition: the rules with every minimum
+ * left out. An input, or a node that reads one side only, is at most its dimension; a product at
+ * most the product of its children (C(x + a − 1, a) ≤ x^a); a sum of k children at most k + 2
+ * times the largest (the pure groups and a constant add at most two terms). Computed once per
+ * circuit.
+ */
+function ceilingOf(c: Circuit): number {
+  const hit = ceilings.get(c);
+  if (hit !== undefined) return hit;
+  const { op, dim, childStart, childList } = c;
+  const w = new Float64Array(c.size);
+  let most = 0;
+  for (let v = 0; v < c.size; v++) {
+    let x = Math.log2(dim[v]!);
+    const kind = op[v];
+    if (kind === OP_LINEAR) x = Math.max(x, w[childList[childStart[v]!]!]!);
+    else if (kind === OP_PRODUCT) {
+      let s = 0;
+      for (let i = childStart[v]!; i < childStart[v + 1]!; i++) s += w[childList[i]!]!;
+      x = Math.max(x, s);
+    } else if (kind === OP_SUM) {
+      let m = 0;
+      for (let i = childStart[v]!; i < childStart[v + 1]!; i++) m = Math.max(m, w[childList[i]!]!);
+      x = Math.max(x, m + Math.log2(childStart[v + 1]! - childStart[v]! + 2));
+    }
+    w[v] = x;
+    most = Math.max(most, x);
+  }
+  ceilings.set(c, most);
+  return most;
 }
 
 /**
