@@ -458,51 +458,95 @@ const plans = new WeakMap<Circuit, Plan>();
 function planOf(c: Circuit): Plan {
   const hit = plans.get(c);
   if (hit) return hit;
+  const n = c.size;
   const { op, childStart, childList } = c;
-  const source = new Int32Array(c.size);
-  const start = new Int32Array(c.size + 1);
-  const childOf: number[] = [];
-  const times: number[] = [];
-  const mStart: number[] = [0];
-  const members: number[] = [];
-  for (let v = 0; v < c.size; v++) {
-    start[v] = childOf.length;
+  const source = new Int32Array(n);
+  const start = new Int32Array(n + 1);
+  // At most one term per child link.
+  const links = childList.length;
+  const childOf = new Int32Array(links);
+  const times = new Int32Array(links);
+  const mStart = new Int32Array(links + 1);
+  const members = new Int32Array(links);
+  // Scratch indexed by node, valid where `seen` (resp. `grouped`) holds the current node + 1:
+  // the slot of a child among the distinct children, and per linear source the size of its
+  // group, its first child and the next free place of its members.
+  const seen = new Int32Array(n);
+  const slot = new Int32Array(n);
+  const grouped = new Int32Array(n);
+  const size = new Int32Array(n);
+  const first = new Int32Array(n);
+  const place = new Int32Array(n);
+  const distinct = new Int32Array(n === 0 ? 0 : maxChildren(c));
+  const order = new Int32Array(distinct.length);
+  let terms = 0;
+  let used = 0;
+  for (let v = 0; v < n; v++) {
+    start[v] = terms;
     source[v] = op[v] === OP_LINEAR ? source[childList[childStart[v]!]!]! : v;
     if (op[v] !== OP_PRODUCT && op[v] !== OP_SUM) continue;
-    const counts = new Map<number, number>();
-    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) counts.set(childList[i]!, (counts.get(childList[i]!) ?? 0) + 1);
-    if (op[v] === OP_PRODUCT) {
-      for (const [ch, k] of counts) {
-        childOf.push(ch);
-        times.push(k);
-        mStart.push(members.length);
+    const stamp = v + 1;
+    // The distinct children in order of first appearance, with their multiplicities.
+    let k = 0;
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
+      const ch = childList[i]!;
+      if (seen[ch] === stamp) {
+        if (op[v] === OP_PRODUCT) times[slot[ch]!]!++;
+        continue;
       }
-      continue;
+      seen[ch] = stamp;
+      if (op[v] === OP_PRODUCT) {
+        slot[ch] = terms;
+        childOf[terms] = ch;
+        times[terms] = 1;
+        mStart[++terms] = used;
+      } else distinct[k++] = ch;
     }
-    const bySource = new Map<number, number[]>();
-    for (const ch of counts.keys()) {
-      const g = bySource.get(source[ch]!);
-      if (g) g.push(ch);
-      else bySource.set(source[ch]!, [ch]);
+    if (op[v] === OP_PRODUCT) continue;
+    // A sum: the distinct children grouped by linear source, groups in order of first appearance.
+    let groups = 0;
+    for (let j = 0; j < k; j++) {
+      const ch = distinct[j]!;
+      const src = source[ch]!;
+      if (grouped[src] !== stamp) {
+        grouped[src] = stamp;
+        size[src] = 0;
+        first[src] = ch;
+        order[groups++] = src;
+      }
+      size[src]!++;
     }
-    for (const [src, group] of bySource) {
-      childOf.push(group.length === 1 ? group[0]! : src);
-      times.push(1);
-      if (group.length > 1) members.push(...group);
-      mStart.push(members.length);
+    for (let g = 0; g < groups; g++) {
+      const src = order[g]!;
+      const alone = size[src] === 1;
+      childOf[terms] = alone ? first[src]! : src;
+      times[terms] = 1;
+      place[src] = used;
+      if (!alone) used += size[src]!;
+      mStart[++terms] = used;
+    }
+    for (let j = 0; j < k; j++) {
+      const src = source[distinct[j]!]!;
+      if (size[src]! > 1) members[place[src]!++] = distinct[j]!;
     }
   }
-  start[c.size] = childOf.length;
+  start[n] = terms;
   const plan: Plan = {
     source,
     start,
-    childOf: Int32Array.from(childOf),
-    times: Int32Array.from(times),
-    mStart: Int32Array.from(mStart),
-    members: Int32Array.from(members),
+    childOf: childOf.slice(0, terms),
+    times: times.slice(0, terms),
+    mStart: mStart.slice(0, terms + 1),
+    members: members.slice(0, used),
   };
   plans.set(c, plan);
   return plan;
+}
+
+function maxChildren(c: Circuit): number {
+  let most = 0;
+  for (let v = 0; v < c.size; v++) most = Math.max(most, c.childStart[v + 1]! - c.childStart[v]!);
+  return most;
 }
 
 interface Propagated<T> {
