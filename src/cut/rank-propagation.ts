@@ -198,12 +198,13 @@ function ceilingOf(c: Circuit): number {
 /**
  * The rules of `propagate` on doubles, written out for speed (most circuits are large, and this
  * pass runs for every partition): in log2 (`log`) to measure sizes and name the widths, or on
- * the values themselves when all of them are known to be small integers.
+ * the values themselves when all of them are known to be small integers. Nothing is allocated per
+ * node: sums run in `FloatSums` slots.
  */
 function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean): Propagated<number> {
   const n = c.size;
   const { op, dim, childStart, childList } = c;
-  const { start, childOf, times, mStart, members } = plan;
+  const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
   const one = log ? 0 : 1;
   const ra = new Float64Array(n).fill(one);
@@ -218,17 +219,11 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const lamNoB = new Float64Array(n).fill(one);
   const pureParts = new Uint8Array(n);
   const zero = log ? -Infinity : 0;
+  const sums = new FloatSums(log);
   const of = (x: number): number => (log ? Math.log2(x) : x);
   const mul = (x: number, y: number): number => (log ? x + y : x * y);
   const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
   const symPow = (x: number, a: number): number => (log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a)));
-  const term = (t: number, r: Float64Array): number => {
-    const node = childOf[t]!;
-    if (mStart[t + 1] === mStart[t]) return r[node]!;
-    let sum = r[members[mStart[t]!]!]!;
-    for (let i = mStart[t]! + 1; i < mStart[t + 1]!; i++) sum = add(sum, r[members[i]!]!);
-    return Math.min(r[node]!, sum);
-  };
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
@@ -278,13 +273,14 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       }
       l = mul(D, k);
       lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
-      if (pf) {
+      const pure = pureFactor(start, childOf, times, dep, v);
+      if (pure >= 0) {
         // c ⊙ (G_s + G'): the side-s part is one function of x_s; the rest is seen through the
         // span of c's coordinates (DEVELOPERS.md, rank propagation, rule 4).
-        const onA = dep[pf.pure] === 1;
-        const span = onA ? rb[pf.pure]! : ra[pf.pure]!;
-        const alt = add(pureParts[pf.other]! & (onA ? 1 : 2) ? one : zero, mul(span, onA ? lamNoA[pf.other]! : lamNoB[pf.other]!));
+        const other = otherFactor(start, childOf, v, pure);
+        const onA = dep[pure] === 1;
+        const span = onA ? rb[pure]! : ra[pure]!;
+        const alt = add(pureParts[other]! & (onA ? 1 : 2) ? one : zero, mul(span, onA ? lamNoA[other]! : lamNoB[other]!));
         if (alt < l) {
           l = alt;
           lWhy = FROM_PURE_FACTOR;
@@ -294,9 +290,12 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       noB = l;
     } else {
       // A sum: the rule of sumRule, on doubles.
-      let parts: number;
-      [a, b, l, noA, noB, parts] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
-      pureParts[v] = parts;
+      pureParts[v] = sumFloat(v, plan, dep, ra, rb, lam, D, sums);
+      a = sums.value(SUM_A);
+      b = sums.value(SUM_B);
+      l = sums.value(SUM_L);
+      noA = sums.value(SUM_NO_A);
+      noB = sums.value(SUM_NO_B);
       k = l;
     }
     whyA[v] = FROM_CHILDREN;
@@ -329,68 +328,95 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
 
 /**
  * A product of exactly two distinct children, once each, of which one reads one side only and
- * the other both: the pure one and the other, else undefined.
+ * the other both: the pure one (the other is `otherFactor`), else −1.
  */
-function pureFactor(start: Int32Array, childOf: Int32Array, times: Int32Array, dep: Uint8Array, v: number): { pure: number; other: number } | undefined {
-  if (start[v + 1]! - start[v]! !== 2) return undefined;
-  const [x, y] = [childOf[start[v]!]!, childOf[start[v]! + 1]!];
-  if (times[start[v]!] !== 1 || times[start[v]! + 1] !== 1) return undefined;
-  const [dx, dy] = [dep[x]!, dep[y]!];
-  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
-  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
-  return undefined;
+function pureFactor(start: Int32Array, childOf: Int32Array, times: Int32Array, dep: Uint8Array, v: number): number {
+  const t = start[v]!;
+  if (start[v + 1]! - t !== 2 || times[t] !== 1 || times[t + 1] !== 1) return -1;
+  const x = childOf[t]!;
+  const y = childOf[t + 1]!;
+  const dx = dep[x]!;
+  const dy = dep[y]!;
+  if ((dx === 1 || dx === 2) && dy === 3) return x;
+  if ((dy === 1 || dy === 2) && dx === 3) return y;
+  return -1;
 }
 
-/** A running sum of values given as they are (`plain`) or by their log2. */
-interface FloatSum {
-  add(x: number): void;
-  readonly value: number;
+/** The factor of a two-factor product that is not `pure`. */
+function otherFactor(start: Int32Array, childOf: Int32Array, v: number, pure: number): number {
+  const x = childOf[start[v]!]!;
+  return x === pure ? childOf[start[v]! + 1]! : x;
 }
 
-/** Plain values: exact while every partial sum stays below 2^53. */
-class PlainSum implements FloatSum {
-  value = 0;
-  add(x: number): void {
-    this.value += x;
+/** The slots of `FloatSums` that `sumFloat` fills. */
+const SUM_A = 0;
+const SUM_B = 1;
+const SUM_L = 2;
+const SUM_NO_A = 3;
+const SUM_NO_B = 4;
+const SUM_PURE_A_ON_B = 5;
+const SUM_PURE_B_ON_A = 6;
+
+/**
+ * Running sums in reusable slots, of values given as they are (exact while every partial sum
+ * stays below 2^53) or by their log2 (the largest term m and Σ 2^(x − m), one power per term).
+ */
+class FloatSums {
+  private readonly m = new Float64Array(7);
+  private readonly s = new Float64Array(7);
+  constructor(readonly log: boolean) {}
+
+  clear(i: number): void {
+    this.m[i] = -Infinity;
+    this.s[i] = 0;
   }
-}
 
-/** log2 values: the largest term and Σ 2^(x − largest), one power per term. */
-class Log2Sum implements FloatSum {
-  private m = -Infinity;
-  private s = 0;
-  add(x: number): void {
+  add(i: number, x: number): void {
+    if (!this.log) {
+      this.s[i] = this.s[i]! + x;
+      return;
+    }
     if (x === -Infinity) return;
-    if (x > this.m) {
-      this.s = this.m === -Infinity ? 1 : this.s * 2 ** (this.m - x) + 1;
-      this.m = x;
-    } else this.s += 2 ** (x - this.m);
+    const m = this.m[i]!;
+    if (x > m) {
+      this.s[i] = m === -Infinity ? 1 : this.s[i]! * 2 ** (m - x) + 1;
+      this.m[i] = x;
+    } else this.s[i] = this.s[i]! + 2 ** (x - m);
   }
-  /** log2 of the sum; −∞ for an empty sum (zero). */
-  get value(): number {
-    return this.m === -Infinity ? -Infinity : this.m + Math.log2(this.s);
+
+  /** The sum (its log2, −∞ for an empty sum, when `log`). */
+  value(i: number): number {
+    if (!this.log) return this.s[i]!;
+    const m = this.m[i]!;
+    return m === -Infinity ? -Infinity : m + Math.log2(this.s[i]!);
   }
 }
 
-/** The rule of `sumRule` on doubles, for `propagateFloat`: [ρ_A, ρ_B, λ]. */
-function sumFloat(
-  v: number,
-  start: Int32Array,
-  childOf: Int32Array,
-  dep: Uint8Array,
-  termA: (t: number) => number,
-  termB: (t: number) => number,
-  termL: (t: number) => number,
-  D: number,
-  log: boolean,
-): [number, number, number, number, number, number] {
-  const sum = (): FloatSum => (log ? new Log2Sum() : new PlainSum());
+/** `termRank` on doubles. */
+function termFloat(plan: Plan, t: number, r: Float64Array, log: boolean): number {
+  const { childOf, mStart, members } = plan;
+  const node = childOf[t]!;
+  const from = mStart[t]!;
+  const to = mStart[t + 1]!;
+  if (from === to) return r[node]!;
+  let sum = r[members[from]!]!;
+  for (let i = from + 1; i < to; i++) {
+    const x = r[members[i]!]!;
+    sum = log ? Math.max(sum, x) + Math.log2(1 + 2 ** -Math.abs(sum - x)) : sum + x;
+  }
+  return Math.min(r[node]!, sum);
+}
+
+/**
+ * The rule of `sumRule` on doubles, for `propagateFloat`: leaves ρ_A, ρ_B, λ and λ without the
+ * side-A (side-B) group in the slots SUM_A, SUM_B, SUM_L, SUM_NO_A, SUM_NO_B of `sums`, and
+ * returns which pure groups there are (bit 1: side A, bit 2: side B).
+ */
+function sumFloat(v: number, plan: Plan, dep: Uint8Array, ra: Float64Array, rb: Float64Array, lam: Float64Array, D: number, sums: FloatSums): number {
+  const log = sums.log;
+  const { start, childOf } = plan;
   const one = log ? 0 : 1;
-  const a = sum();
-  const b = sum();
-  const l = sum();
-  const pureAonB = sum();
-  const pureBonA = sum();
+  for (let i = SUM_A; i <= SUM_PURE_B_ON_A; i++) sums.clear(i);
   let pureA = false;
   let pureB = false;
   let constant = false;
@@ -399,42 +425,40 @@ function sumFloat(
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB.add(termB(t));
+      sums.add(SUM_PURE_A_ON_B, termFloat(plan, t, rb, log));
     } else if (d === 2) {
       pureB = true;
-      pureBonA.add(termA(t));
+      sums.add(SUM_PURE_B_ON_A, termFloat(plan, t, ra, log));
     } else {
-      a.add(termA(t));
-      b.add(termB(t));
-      l.add(termL(t));
+      sums.add(SUM_A, termFloat(plan, t, ra, log));
+      sums.add(SUM_B, termFloat(plan, t, rb, log));
+      sums.add(SUM_L, termFloat(plan, t, lam, log));
     }
   }
 
   // λ without the side-A group (a constant joins that group when there is one) and without side B.
-  const mixed = l.value;
+  const mixed = sums.value(SUM_L);
   const loneConstant = constant && !pureA && !pureB;
-  const noA = sum();
-  noA.add(mixed);
-  const noB = sum();
-  noB.add(mixed);
-  if (pureB || loneConstant) noA.add(one);
-  if (pureA || loneConstant) noB.add(one);
+  sums.add(SUM_NO_A, mixed);
+  sums.add(SUM_NO_B, mixed);
+  if (pureB || loneConstant) sums.add(SUM_NO_A, one);
+  if (pureA || loneConstant) sums.add(SUM_NO_B, one);
   if (loneConstant) {
-    a.add(one);
-    b.add(one);
-    l.add(one);
+    sums.add(SUM_A, one);
+    sums.add(SUM_B, one);
+    sums.add(SUM_L, one);
   }
   if (pureA) {
-    a.add(one);
-    b.add(Math.min(D, pureAonB.value));
-    l.add(one);
+    sums.add(SUM_A, one);
+    sums.add(SUM_B, Math.min(D, sums.value(SUM_PURE_A_ON_B)));
+    sums.add(SUM_L, one);
   }
   if (pureB) {
-    a.add(Math.min(D, pureBonA.value));
-    b.add(one);
-    l.add(one);
+    sums.add(SUM_A, Math.min(D, sums.value(SUM_PURE_B_ON_A)));
+    sums.add(SUM_B, one);
+    sums.add(SUM_L, one);
   }
-  return [a.value, b.value, l.value, noA.value, noB.value, (pureA ? 1 : 0) | (pureB ? 2 : 0)];
+  return (pureA ? 1 : 0) | (pureB ? 2 : 0);
 }
 
 /**
@@ -626,11 +650,12 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       }
       l = ar.mul(D, k);
       lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
-      if (pf) {
-        const onA = dep[pf.pure] === 1;
-        const span = onA ? rb[pf.pure]! : ra[pf.pure]!;
-        const alt = ar.add(pureParts[pf.other]! & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[pf.other]! : lamNoB[pf.other]!));
+      const pure = pureFactor(start, childOf, times, dep, v);
+      if (pure >= 0) {
+        const other = otherFactor(start, childOf, v, pure);
+        const onA = dep[pure] === 1;
+        const span = onA ? rb[pure]! : ra[pure]!;
+        const alt = ar.add(pureParts[other]! & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[other]! : lamNoB[other]!));
         if (!ar.le(l, alt)) {
           l = alt;
           lWhy = FROM_PURE_FACTOR;
@@ -779,9 +804,9 @@ function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
     }
     if (why === FROM_PURE_FACTOR) {
       // The pure factor's span and the other factor's functionals.
-      const pf = pureFactor(plan.start, plan.childOf, plan.times, dep, v)!;
-      note(pf.pure);
-      stack.push([pf.other, L]);
+      const pure = pureFactor(plan.start, plan.childOf, plan.times, dep, v);
+      note(pure);
+      stack.push([otherFactor(plan.start, plan.childOf, v, pure), L]);
       continue;
     }
     if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {
