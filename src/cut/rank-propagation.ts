@@ -23,11 +23,13 @@
  * - any node: moving the output index across costs its dimension D: ρ_A ≤ D·ρ_B, ρ_A ≤ D·κ;
  *   λ ≤ min(ρ_A, ρ_B) and κ ≤ λ.
  * The separation rank of h = ⟨w, F_top⟩ is at most λ(top). Values are exact integers (numbers
- * while below 2^53, then bigints); a log2 pass first measures the sizes.
+ * while below 2^53, then bigints); a log2 pass first measures the sizes, and the exact pass runs
+ * on doubles, working out again in integers only the nodes whose values reach 2^53.
  */
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from '../network/circuit.js';
 import type { CutCounts } from './tree-min-cut.js';
 
+/** An exact integer: a number while below 2^53, then a bigint. */
 type Int = number | bigint;
 
 const SAFE = 2 ** 53;
@@ -36,73 +38,42 @@ function big(x: Int): bigint {
   return typeof x === 'bigint' ? x : BigInt(x);
 }
 
-/**
- * The arithmetic the rules run in: exact integers (numbers while below 2^53, then bigints), or
- * log2 values, which measure the sizes cheaply before the exact pass is attempted.
- */
-interface Arith<T> {
-  readonly one: T;
-  /** The empty sum. */
-  readonly zero: T;
-  /** A fresh array of n ones (typed for log2 values). */
-  ones(n: number): Slots<T>;
-  of(n: number): T;
-  mul(a: T, b: T): T;
-  add(a: T, b: T): T;
-  le(a: T, b: T): boolean;
-  /** C(x + a − 1, a): the dimension of the a-th symmetric power of an x-dimensional space. */
-  symPow(x: T, a: number): T;
+function mulInt(a: Int, b: Int): Int {
+  if (typeof a === 'number' && typeof b === 'number') {
+    const r = a * b;
+    if (r < SAFE) return r;
+  }
+  return big(a) * big(b);
 }
 
-/** Indexable storage of per-node values. */
-interface Slots<T> {
-  [i: number]: T;
+function addInt(a: Int, b: Int): Int {
+  if (typeof a === 'number' && typeof b === 'number') {
+    const r = a + b;
+    if (r < SAFE) return r;
+  }
+  return big(a) + big(b);
 }
 
-const EXACT: Arith<Int> = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Array<Int>(n).fill(1),
-  of: (n) => n,
-  mul: (a, b) => {
-    if (typeof a === 'number' && typeof b === 'number') {
-      const r = a * b;
-      if (r < SAFE) return r;
-    }
-    return big(a) * big(b);
-  },
-  add: (a, b) => {
-    if (typeof a === 'number' && typeof b === 'number') {
-      const r = a + b;
-      if (r < SAFE) return r;
-    }
-    return big(a) + big(b);
-  },
-  le: (a, b) => a <= b,
-  symPow: (x, a) => {
-    if (a === 1) return x;
-    const n = big(x) + BigInt(a - 1);
-    let r = 1n;
-    for (let i = 0; i < a; i++) r = (r * (n - BigInt(i))) / BigInt(i + 1);
-    return r < BigInt(SAFE) ? Number(r) : r;
-  },
-};
+function minInt(a: Int, b: Int): Int {
+  return a <= b ? a : b;
+}
 
-const LOG: Arith<number> = {
-  one: 0,
-  zero: -Infinity,
-  ones: (n) => new Float64Array(n),
-  of: (n) => Math.log2(n),
-  mul: (a, b) => a + b,
-  add: (a, b) => (a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b))),
-  le: (a, b) => a <= b,
-  symPow: (x, a) => {
-    let r = 0;
-    // log2 Π_{i<a} (2^x + i)/(i + 1), without forming 2^x when it is huge.
-    for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
-    return r;
-  },
-};
+/** C(x + a − 1, a): the dimension of the a-th symmetric power of an x-dimensional space. */
+function symPowInt(x: Int, a: number): Int {
+  if (a === 1) return x;
+  const n = big(x) + BigInt(a - 1);
+  let r = 1n;
+  for (let i = 0; i < a; i++) r = (r * (n - BigInt(i))) / BigInt(i + 1);
+  return r < BigInt(SAFE) ? Number(r) : r;
+}
+
+/** log2 C(2^x + a − 1, a), without forming 2^x when it is huge. */
+function symPowLog2(x: number, a: number): number {
+  let r = 0;
+  // log2 Π_{i<a} (2^x + i)/(i + 1)
+  for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
+  return r;
+}
 
 /** Why a node's value is what it is, for naming the layers whose widths enter the bound. */
 const FROM_CHILDREN = 0;
@@ -137,6 +108,7 @@ export function rankPropagation(c: Circuit, side: Uint8Array, whole: Circuit = c
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v]!, logs.rb[v]!);
   const tooLarge = (): boolean => {
     if (largest > MAX_BITS) return true;
+    // The margin covers the rounding of the ceiling and of the log pass.
     if (whole === c || ceilingOf(whole) * (1 + 1e-9) + 1 <= MAX_BITS) return false;
     // The ceiling cannot rule it out: the log pass over the whole circuit says.
     const all = propagateFloat(whole, planOf(whole), side, true);
@@ -144,12 +116,7 @@ export function rankPropagation(c: Circuit, side: Uint8Array, whole: Circuit = c
     for (let v = 0; v < whole.size; v++) most = Math.max(most, all.ra[v]!, all.rb[v]!);
     return most > MAX_BITS;
   };
-  const rank = (): bigint | undefined => {
-    if (tooLarge()) return undefined;
-    // Below 2^40 every value, and every step of a symmetric power, is an exact double.
-    if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]!);
-    return big(propagate(c, plan, side, EXACT).lam[c.top]!);
-  };
+  const rank = (): bigint | undefined => (tooLarge() ? undefined : exactTop(c, plan, side));
   let counts: CutCounts | undefined;
   return {
     log2: logs.lam[c.top]!,
@@ -196,12 +163,12 @@ function ceilingOf(c: Circuit): number {
 }
 
 /**
- * The rules of `propagate` on doubles, written out for speed (most circuits are large, and this
- * pass runs for every partition): in log2 (`log`) to measure sizes and name the widths, or on
- * the values themselves when all of them are known to be small integers. Nothing is allocated per
- * node: sums run in `FloatSums` slots.
+ * The rules on doubles, written out for speed (most circuits are large, and this pass runs for
+ * every partition): in log2 (`log`) to measure sizes and name the widths, or on the values
+ * themselves, which are exact while below 2^53 (see `exactTop`). Nothing is allocated per node:
+ * sums run in `FloatSums` slots.
  */
-function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean): Propagated<number> {
+function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean): Propagated {
   const n = c.size;
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
@@ -223,7 +190,8 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const of = (x: number): number => (log ? Math.log2(x) : x);
   const mul = (x: number, y: number): number => (log ? x + y : x * y);
   const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
-  const symPow = (x: number, a: number): number => (log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a)));
+  // A value at or above 2^53 only stands for one that large (see `exactTop`): its power is not formed.
+  const symPow = (x: number, a: number): number => (log ? symPowLog2(x, a) : x >= SAFE ? x : Number(symPowInt(x, a)));
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
@@ -289,7 +257,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       noA = l;
       noB = l;
     } else {
-      // A sum: the rule of sumRule, on doubles.
+      // A sum: the rule of sumExact, on doubles.
       pureParts[v] = sumFloat(v, plan, dep, ra, rb, lam, D, sums);
       a = sums.value(SUM_A);
       b = sums.value(SUM_B);
@@ -323,7 +291,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
     lamNoA[v] = Math.min(noA, l);
     lamNoB[v] = Math.min(noB, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
+  return { dep, pureParts, ra, rb, kap, lam, lamNoA, lamNoB, whyA, whyB, whyL };
 }
 
 /**
@@ -392,7 +360,7 @@ class FloatSums {
   }
 }
 
-/** `termRank` on doubles. */
+/** A term's rank (`termExact`) on doubles. */
 function termFloat(plan: Plan, t: number, r: Float64Array, log: boolean): number {
   const { childOf, mStart, members } = plan;
   const node = childOf[t]!;
@@ -408,7 +376,7 @@ function termFloat(plan: Plan, t: number, r: Float64Array, log: boolean): number
 }
 
 /**
- * The rule of `sumRule` on doubles, for `propagateFloat`: leaves ρ_A, ρ_B, λ and λ without the
+ * The rule of `sumExact` on doubles, for `propagateFloat`: leaves ρ_A, ρ_B, λ and λ without the
  * side-A (side-B) group in the slots SUM_A, SUM_B, SUM_L, SUM_NO_A, SUM_NO_B of `sums`, and
  * returns which pure groups there are (bit 1: side A, bit 2: side B).
  */
@@ -573,203 +541,216 @@ function maxChildren(c: Circuit): number {
   return most;
 }
 
-interface Propagated<T> {
+/** The values of the double pass, per node. */
+interface Propagated {
   readonly dep: Uint8Array;
-  readonly ra: Slots<T>;
-  readonly rb: Slots<T>;
-  readonly lam: Slots<T>;
+  /** Which pure groups a node's λ holds (bit 1: side A, bit 2: side B). */
+  readonly pureParts: Uint8Array;
+  readonly ra: Float64Array;
+  readonly rb: Float64Array;
+  readonly kap: Float64Array;
+  readonly lam: Float64Array;
+  readonly lamNoA: Float64Array;
+  readonly lamNoB: Float64Array;
   readonly whyA: Uint8Array;
   readonly whyB: Uint8Array;
   readonly whyL: Uint8Array;
 }
 
-function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): Propagated<T> {
-  const n = c.size;
+/**
+ * λ(top) exactly. The rules run on doubles first: each step (a sum, a product, a symmetric power,
+ * a minimum) is monotone on non-negative integers, and so is rounding to a double, so a value
+ * that comes out below 2^53 is exact, and one at or above 2^53 stands for a value at least that
+ * large, which never wins a minimum against an exact one. Only the nodes with a value at or above
+ * 2^53 are then worked out again, in order, in exact integers from their children's values.
+ */
+function exactTop(c: Circuit, plan: Plan, side: Uint8Array): bigint {
+  const small = propagateFloat(c, plan, side, false);
+  const { ra, rb, kap, lam, lamNoA, lamNoB } = small;
+  const large: number[] = [];
+  for (let v = 0; v < c.size; v++) {
+    if (ra[v]! >= SAFE || rb[v]! >= SAFE || kap[v]! >= SAFE || lam[v]! >= SAFE || lamNoA[v]! >= SAFE || lamNoB[v]! >= SAFE) large.push(v);
+  }
+  if (large.length === 0) return BigInt(lam[c.top]!);
+  return big(propagateExact(c, plan, small, large));
+}
+
+/** Exact values of some nodes; every other node has its (exact) doubles in a `Propagated`. */
+interface ExactValues {
+  /** slot[v]: where node v's values are, or −1 when they are the doubles. */
+  readonly slot: Int32Array;
+  readonly ra: Int[];
+  readonly rb: Int[];
+  readonly kap: Int[];
+  readonly lam: Int[];
+  readonly lamNoA: Int[];
+  readonly lamNoB: Int[];
+}
+
+/**
+ * The rules in exact integers for the nodes `large` (in order, each reading both sides), with
+ * every other node's values taken from the double pass `small`: returns λ(top).
+ */
+function propagateExact(c: Circuit, plan: Plan, small: Propagated, large: readonly number[]): Int {
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
-  const dep = new Uint8Array(n);
-  const ra = ar.ones(n);
-  const rb = ar.ones(n);
-  const kap = ar.ones(n);
-  const lam = ar.ones(n);
-  const whyA = new Uint8Array(n).fill(FROM_PURE);
-  const whyB = new Uint8Array(n).fill(FROM_PURE);
-  const whyL = new Uint8Array(n).fill(FROM_PURE);
-  const lamNoA = ar.ones(n);
-  const lamNoB = ar.ones(n);
-  const pureParts = new Uint8Array(n);
-  const min = (a: T, b: T): T => (ar.le(a, b) ? a : b);
-  for (let v = 0; v < n; v++) {
+  const { dep, pureParts } = small;
+  const slot = new Int32Array(c.size).fill(-1);
+  large.forEach((v, i) => (slot[v] = i));
+  const m = large.length;
+  const ex: ExactValues = {
+    slot,
+    ra: new Array<Int>(m),
+    rb: new Array<Int>(m),
+    kap: new Array<Int>(m),
+    lam: new Array<Int>(m),
+    lamNoA: new Array<Int>(m),
+    lamNoB: new Array<Int>(m),
+  };
+  const at = (doubles: Float64Array, exact: Int[], v: number): Int => valueAt(doubles, exact, slot, v);
+  const sum = { a: 0 as Int, b: 0 as Int, l: 0 as Int, noA: 0 as Int, noB: 0 as Int };
+  for (let i = 0; i < m; i++) {
+    const v = large[i]!;
     const kind = op[v];
-    if (kind === OP_INPUT) {
-      const onA = side[c.position[v]!] === 1;
-      dep[v] = onA ? 1 : 2;
-      if (onA) rb[v] = ar.of(dim[v]!);
-      else ra[v] = ar.of(dim[v]!);
-      continue;
-    }
-    if (kind === OP_CONST) continue;
-    let d = 0;
-    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
-    dep[v] = d;
-    // A node that reads one side only (or nothing) is a function of that side: ranks 1, except
-    // with its output index on the far side, where its dimension caps them.
-    if (d !== 3) {
-      const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
-      if (d === 1) rb[v] = own >= 0 ? min(rb[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
-      if (d === 2) ra[v] = own >= 0 ? min(ra[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
-      continue;
-    }
-    const D = ar.of(dim[v]!);
-    let a: T;
-    let b: T;
-    let k: T;
-    let l: T;
-    let lWhy = FROM_CHILDREN;
-    let noA: T;
-    let noB: T;
+    const D = dim[v]!;
+    let a: Int;
+    let b: Int;
+    let k: Int;
+    let l: Int;
+    let noA: Int;
+    let noB: Int;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]!]!;
-      a = ra[ch]!;
-      b = rb[ch]!;
-      l = lam[ch]!;
+      a = at(small.ra, ex.ra, ch);
+      b = at(small.rb, ex.rb, ch);
+      l = at(small.lam, ex.lam, ch);
       k = l;
-      noA = lamNoA[ch]!;
-      noB = lamNoB[ch]!;
-      pureParts[v] = pureParts[ch]!;
+      noA = at(small.lamNoA, ex.lamNoA, ch);
+      noB = at(small.lamNoB, ex.lamNoB, ch);
     } else if (kind === OP_PRODUCT) {
-      a = ar.one;
-      b = ar.one;
-      k = ar.one;
+      a = 1;
+      b = 1;
+      k = 1;
       for (let t = start[v]!; t < start[v + 1]!; t++) {
         const ch = childOf[t]!;
-        const m = times[t]!;
-        a = ar.mul(a, m === 1 ? ra[ch]! : ar.symPow(ra[ch]!, m));
-        b = ar.mul(b, m === 1 ? rb[ch]! : ar.symPow(rb[ch]!, m));
-        k = ar.mul(k, m === 1 ? kap[ch]! : ar.symPow(kap[ch]!, m));
+        const mult = times[t]!;
+        a = mulInt(a, symPowInt(at(small.ra, ex.ra, ch), mult));
+        b = mulInt(b, symPowInt(at(small.rb, ex.rb, ch), mult));
+        k = mulInt(k, symPowInt(at(small.kap, ex.kap, ch), mult));
       }
-      l = ar.mul(D, k);
-      lWhy = FROM_DIM_KAPPA;
+      l = mulInt(D, k);
       const pure = pureFactor(start, childOf, times, dep, v);
       if (pure >= 0) {
         const other = otherFactor(start, childOf, v, pure);
         const onA = dep[pure] === 1;
-        const span = onA ? rb[pure]! : ra[pure]!;
-        const alt = ar.add(pureParts[other]! & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[other]! : lamNoB[other]!));
-        if (!ar.le(l, alt)) {
-          l = alt;
-          lWhy = FROM_PURE_FACTOR;
-        }
+        const span = onA ? at(small.rb, ex.rb, pure) : at(small.ra, ex.ra, pure);
+        const alt = addInt(pureParts[other]! & (onA ? 1 : 2) ? 1 : 0, mulInt(span, onA ? at(small.lamNoA, ex.lamNoA, other) : at(small.lamNoB, ex.lamNoB, other)));
+        if (!(l <= alt)) l = alt;
       }
       noA = l;
       noB = l;
     } else if (kind === OP_SUM) {
-      let parts: number;
-      ({ a, b, l, noA, noB, parts } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
-      pureParts[v] = parts;
+      sumExact(plan, v, D, dep, small, ex, sum);
+      ({ a, b, l, noA, noB } = sum);
       k = l;
     } else {
-      throw new Error(`rank propagation: unknown node kind ${kind}`);
+      throw new Error(`rank propagation: node kind ${kind} with a value beyond 2^53`);
     }
-    whyA[v] = FROM_CHILDREN;
-    whyB[v] = FROM_CHILDREN;
-    whyL[v] = lWhy;
-    const viaB = ar.mul(D, b);
-    const viaA = ar.mul(D, a);
-    const viaK = ar.mul(D, k);
-    if (!ar.le(a, min(viaB, viaK))) {
-      whyA[v] = ar.le(viaB, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
-      a = min(viaB, viaK);
-    }
-    if (!ar.le(b, min(viaA, viaK))) {
-      whyB[v] = ar.le(viaA, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
-      b = min(viaA, viaK);
-    }
-    if (!ar.le(l, min(a, b))) {
-      whyL[v] = ar.le(a, b) ? FROM_SIDE_A : FROM_SIDE_B;
-      l = min(a, b);
-    }
-    ra[v] = a;
-    rb[v] = b;
-    lam[v] = l;
-    kap[v] = min(k, l);
-    lamNoA[v] = min(noA, l);
-    lamNoB[v] = min(noB, l);
+    const viaB = mulInt(D, b);
+    const viaA = mulInt(D, a);
+    const viaK = mulInt(D, k);
+    if (!(a <= minInt(viaB, viaK))) a = minInt(viaB, viaK);
+    if (!(b <= minInt(viaA, viaK))) b = minInt(viaA, viaK);
+    if (!(l <= minInt(a, b))) l = minInt(a, b);
+    ex.ra[i] = a;
+    ex.rb[i] = b;
+    ex.lam[i] = l;
+    ex.kap[i] = minInt(k, l);
+    ex.lamNoA[i] = minInt(noA, l);
+    ex.lamNoB[i] = minInt(noB, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
+  return at(small.lam, ex.lam, c.top);
+}
+
+/** Node v's value: its exact one when it has a slot, else its double. */
+function valueAt(doubles: Float64Array, exact: Int[], slot: Int32Array, v: number): Int {
+  const i = slot[v]!;
+  return i >= 0 ? exact[i]! : doubles[v]!;
 }
 
 /** A term's rank: its node's, or, for several linear images of one node, the smaller of that and their sum. */
-function termRank<T>(plan: Plan, t: number, r: Slots<T>, ar: Arith<T>): T {
+function termExact(plan: Plan, t: number, doubles: Float64Array, exact: Int[], slot: Int32Array): Int {
   const { childOf, mStart, members } = plan;
-  const node = childOf[t]!;
-  if (mStart[t + 1] === mStart[t]) return r[node]!;
-  let sum: T = r[members[mStart[t]!]!]!;
-  for (let i = mStart[t]! + 1; i < mStart[t + 1]!; i++) sum = ar.add(sum, r[members[i]!]!);
-  return ar.le(r[node]!, sum) ? r[node]! : sum;
+  const node = valueAt(doubles, exact, slot, childOf[t]!);
+  if (mStart[t + 1] === mStart[t]) return node;
+  let sum = valueAt(doubles, exact, slot, members[mStart[t]!]!);
+  for (let i = mStart[t]! + 1; i < mStart[t + 1]!; i++) sum = addInt(sum, valueAt(doubles, exact, slot, members[i]!));
+  return minInt(node, sum);
 }
 
-function sumRule<T>(
+/** The sum rule in exact integers: leaves ρ_A, ρ_B, λ and λ without the side-A (side-B) group in `out`. */
+function sumExact(
   plan: Plan,
   v: number,
-  D: T,
+  D: number,
   dep: Uint8Array,
-  ra: Slots<T>,
-  rb: Slots<T>,
-  lam: Slots<T>,
-  ar: Arith<T>,
-): { a: T; b: T; l: T; noA: T; noB: T; parts: number } {
-  const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
-  let a = ar.zero;
-  let b = ar.zero;
-  let l = ar.zero;
+  small: Propagated,
+  ex: ExactValues,
+  out: { a: Int; b: Int; l: Int; noA: Int; noB: Int },
+): void {
+  const slot = ex.slot;
+  let a: Int = 0;
+  let b: Int = 0;
+  let l: Int = 0;
   let pureA = false;
   let pureB = false;
   let constant = false;
-  let pureAonB = ar.zero;
-  let pureBonA = ar.zero;
+  let pureAonB: Int = 0;
+  let pureBonA: Int = 0;
   for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
     const d = dep[plan.childOf[t]!]!;
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB = ar.add(pureAonB, termRank(plan, t, rb, ar));
+      pureAonB = addInt(pureAonB, termExact(plan, t, small.rb, ex.rb, slot));
     } else if (d === 2) {
       pureB = true;
-      pureBonA = ar.add(pureBonA, termRank(plan, t, ra, ar));
+      pureBonA = addInt(pureBonA, termExact(plan, t, small.ra, ex.ra, slot));
     } else {
-      a = ar.add(a, termRank(plan, t, ra, ar));
-      b = ar.add(b, termRank(plan, t, rb, ar));
-      l = ar.add(l, termRank(plan, t, lam, ar));
+      a = addInt(a, termExact(plan, t, small.ra, ex.ra, slot));
+      b = addInt(b, termExact(plan, t, small.rb, ex.rb, slot));
+      l = addInt(l, termExact(plan, t, small.lam, ex.lam, slot));
     }
   }
   // λ without the side-A group (a constant joins that group when there is one) and without side B.
   const loneConstant = constant && !pureA && !pureB;
-  const noA = pureB || loneConstant ? ar.add(l, ar.one) : l;
-  const noB = pureA || loneConstant ? ar.add(l, ar.one) : l;
+  out.noA = pureB || loneConstant ? addInt(l, 1) : l;
+  out.noB = pureA || loneConstant ? addInt(l, 1) : l;
   if (loneConstant) {
-    a = ar.add(a, ar.one);
-    b = ar.add(b, ar.one);
-    l = ar.add(l, ar.one);
+    a = addInt(a, 1);
+    b = addInt(b, 1);
+    l = addInt(l, 1);
   }
   if (pureA) {
-    a = ar.add(a, ar.one);
-    b = ar.add(b, min(D, pureAonB));
-    l = ar.add(l, ar.one);
+    a = addInt(a, 1);
+    b = addInt(b, minInt(D, pureAonB));
+    l = addInt(l, 1);
   }
   if (pureB) {
-    a = ar.add(a, min(D, pureBonA));
-    b = ar.add(b, ar.one);
-    l = ar.add(l, ar.one);
+    a = addInt(a, minInt(D, pureBonA));
+    b = addInt(b, 1);
+    l = addInt(l, 1);
   }
-  return { a, b, l, noA, noB, parts: (pureA ? 1 : 0) | (pureB ? 2 : 0) };
+  out.a = a;
+  out.b = b;
+  out.l = l;
 }
 
 /**
  * The widths behind the bound: walks the choices from the head down and counts each node whose
  * dimension multiplied in. A bound that is a sum of terms names the widths of every term.
  */
-function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
+function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
   const { dep, whyA, whyB, whyL } = p;
   const counts: CutCounts = new Map();
   const seen = new Set<number>();
