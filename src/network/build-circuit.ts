@@ -95,7 +95,10 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
 
   const pointwise = readPointwise(model, shapes);
   const notes = new Notes(model, shapes, pointwise, options.surrogate);
-  const b = new CircuitBuilder(positionCount(model.input.shape), limit);
+  // Room for about one node per position of every layer that makes nodes, so the arrays seldom grow.
+  let capacity = positionCount(model.input.shape);
+  for (const l of model.layers) if (l.kind !== 'pointwise' && l.kind !== 'flatten') capacity += positionCount(shapes.layers[l.index]!.shape);
+  const b = new CircuitBuilder(positionCount(model.input.shape), limit, Math.min(capacity, limit));
   try {
     const inputTag = b.addTag({ label: 'input', line: model.input.span.line, span: model.input.span, layerIndex: -1 });
     const m = shapes.representation;
@@ -153,7 +156,7 @@ function productOf(b: CircuitBuilder, dim: number, tag: number, children: readon
 
 /** A node of dimension `dim` reading `children` through maps: a linear node for one child. */
 function sumOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
-  const live = children.filter((v) => v !== ZERO);
+  const live = children.includes(ZERO) ? children.filter((v) => v !== ZERO) : children;
   if (live.length === 0) return ZERO;
   return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
 }
@@ -306,44 +309,61 @@ function attention(b: CircuitBuilder, g: Grid, layer: AttentionLayer, a: number,
 }
 
 /**
- * Visits every output position of a window layer in row-major order with the input positions it
- * reads: the product set of per-axis lists, each list computed once per axis index (so a layer
- * costs one small array per output, not one per axis and output). `visit` returns a problem to stop.
+ * Visits every output position of a window layer in row-major order (`out` is its index there)
+ * with the input positions it reads: the product set of per-axis lists, each list computed once
+ * per axis index. The list is only valid during the call: one array per window size is reused,
+ * so a layer allocates nothing per output. `visit` returns a problem to stop.
  */
 function eachOutput(
   inShape: readonly number[],
   outShape: readonly number[],
   axisList: (axis: number, j: number) => readonly number[],
-  visit: (positions: readonly number[], at: readonly number[]) => Problem | undefined,
+  visit: (positions: readonly number[], out: number) => Problem | undefined,
 ): Problem | undefined {
   const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
   if (outShape.length === 1) {
     for (let j = 0; j < outShape[0]!; j++) {
-      const problem = visit(lists[0]![j]!, [j]);
+      const problem = visit(lists[0]![j]!, j);
       if (problem) return problem;
     }
     return undefined;
   }
   const width = inShape[1]!;
+  const buffers: number[][] = [];
   for (let i = 0; i < outShape[0]!; i++) {
     const rows = lists[0]![i]!;
     for (let j = 0; j < outShape[1]!; j++) {
       const cols = lists[1]![j]!;
-      const positions = new Array<number>(rows.length * cols.length);
+      const size = rows.length * cols.length;
+      const positions = (buffers[size] ??= new Array<number>(size));
       let k = 0;
       for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
-      const problem = visit(positions, [i, j]);
+      const problem = visit(positions, i * outShape[1]! + j);
       if (problem) return problem;
     }
   }
   return undefined;
 }
 
+/**
+ * Maps a list of positions to nodes in an array reused per length: the list is only valid until
+ * the next call, which is enough for the node constructors (the builder copies children).
+ */
+function picker(nodeAt: (p: number) => number): (positions: readonly number[]) => readonly number[] {
+  const buffers: number[][] = [];
+  return (positions) => {
+    const out = (buffers[positions.length] ??= new Array<number>(positions.length));
+    for (let i = 0; i < positions.length; i++) out[i] = nodeAt(positions[i]!);
+    return out;
+  };
+}
+
 function plans(g: Grid, k: readonly number[], s: readonly number[], d: readonly number[], layer: ConvLayer | PoolLayer): AxisPlan[] {
   return g.shape.map((n, a) => windowAxis(n, k[a]!, s[a]!, d[a]!, layer.padding, a) as AxisPlan);
 }
 
-function emptyWindow(layer: Layer, at: readonly number[]): Problem {
+function emptyWindow(layer: Layer, shape: readonly number[], out: number): Problem {
+  const at = shape.length === 1 ? [out] : [Math.floor(out / shape[1]!), out % shape[1]!];
   return {
     span: layer.fieldSpans['padding'] ?? layer.span,
     code: 'network/empty-window',
@@ -357,13 +377,14 @@ function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly numb
   }
   const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes: number[] = [];
+  const pick = picker((p) => g.nodes[p]!);
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left),
-    (positions, at) => {
-      if (positions.length === 0) return emptyWindow(layer, at);
-      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+    (positions, out) => {
+      if (positions.length === 0) return emptyWindow(layer, shape, out);
+      nodes.push(productOf(b, g.dim, tag, pick(positions)));
       return undefined;
     },
   );
@@ -372,6 +393,7 @@ function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly numb
 
 function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: readonly number[], tag: number): Grid {
   const nodes: number[] = [];
+  const pick = picker((p) => g.nodes[p]!);
   eachOutput(
     g.shape,
     shape,
@@ -382,7 +404,7 @@ function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: reado
       return src.num === 0 ? [src.i0] : [src.i0, src.i1];
     },
     (positions) => {
-      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p]!)));
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, g.dim, tag, pick(positions)));
       return undefined;
     },
   );
@@ -394,12 +416,13 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
   const causal = layer.padding.mode === 'causal';
   const nodes: number[] = [];
   if (surrogate === 'overlap') {
+    const pick = picker((p) => g.nodes[p]!);
     const problem = eachOutput(
       g.shape,
       shape,
       (a, j) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left),
       (positions) => {
-        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p]!)));
+        nodes.push(sumOf(b, width, tag, pick(positions)));
         return undefined;
       },
     );
@@ -411,13 +434,14 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
     if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p]! : linearOf(b, width, tag, g.nodes[p]!);
     return mapped[p]!;
   };
+  const pick = picker(mapOf);
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => treeConvPositions(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!, causal),
     (positions) => {
       // A window of padding only reads nothing: the zero vector, as in the real network.
-      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, pick(positions)));
       return undefined;
     },
   );
@@ -426,6 +450,7 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
 
 function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, shape: readonly number[], tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
   const nodes: number[] = [];
+  const pick = picker((p) => g.nodes[p]!);
   const problem = eachOutput(
     g.shape,
     shape,
@@ -434,7 +459,7 @@ function convTranspose(b: CircuitBuilder, g: Grid, layer: ConvTransposeLayer, sh
         ? transposeSources(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, layer.padding[a]!).map(([i]) => i)
         : [treeTransposeSource(j, g.shape[a]!, layer.stride[a]!)[0]],
     (positions) => {
-      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p]!)));
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]!]! : sumOf(b, layer.channels, tag, pick(positions)));
       return undefined;
     },
   );

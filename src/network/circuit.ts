@@ -66,13 +66,13 @@ export interface Circuit {
 
 /** Growable builder; nodes must be added children-first, so node order is topological. */
 export class CircuitBuilder {
-  private op = new Uint8Array(1024);
-  private dim = new Int32Array(1024);
-  private position = new Int32Array(1024);
-  private tag = new Int32Array(1024);
-  private childStart = new Int32Array(1025);
-  private childList = new Int32Array(4096);
-  private uses = new Uint8Array(1024);
+  private op: Uint8Array;
+  private dim: Int32Array;
+  private position: Int32Array;
+  private tag: Int32Array;
+  private childStart: Int32Array;
+  private childList: Int32Array;
+  private uses: Uint8Array;
   private n = 0;
   private m = 0;
   private reuse = false;
@@ -83,7 +83,18 @@ export class CircuitBuilder {
     readonly positions: number,
     /** Refuse to grow beyond this many nodes or child links. */
     readonly limit: number,
-  ) {}
+    /** Nodes to make room for at the start (the arrays grow beyond as needed). */
+    capacity = 1024,
+  ) {
+    const nodes = Math.max(1024, capacity);
+    this.op = new Uint8Array(nodes);
+    this.dim = new Int32Array(nodes);
+    this.position = new Int32Array(nodes);
+    this.tag = new Int32Array(nodes);
+    this.uses = new Uint8Array(nodes);
+    this.childStart = new Int32Array(nodes + 1);
+    this.childList = new Int32Array(4 * nodes);
+  }
 
   get size(): number {
     return this.n;
