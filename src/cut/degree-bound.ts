@@ -49,13 +49,11 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
   }
   let best: { step: number; mask: number; log: number } | null = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, dep, paths, mask, -1);
+    const found = sweep(c, dep, paths, mask);
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
-  const frontier = sweep(c, dep, paths, best.mask, best.step);
-  if (!frontier || !frontier.degrees) return null;
-  const degrees = frontier.degrees;
+  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
   const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d)));
   const counts = new Map<number, Map<number, number>>();
   for (const [v] of degrees) {
@@ -64,20 +62,16 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
     if (!byDim) counts.set(tag, (byDim = new Map()));
     byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + 1);
   }
-  return { log2: frontier.log, rank, counts };
+  return { log2: best.log, rank, counts };
 }
 
 interface SweepResult {
   step: number;
   log: number;
-  degrees?: Map<number, number>;
 }
 
-/**
- * Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound.
- * With stopAt < 0 returns the best step; with stopAt ≥ 0 returns the frontier after that step.
- */
-function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, stopAt: number): SweepResult | null {
+/** Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound: the best step. */
+function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number): SweepResult | null {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
   // The current log2 term of each frontier node, kept so that removing it costs no log-gamma.
@@ -102,14 +96,26 @@ function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, s
     d[v] = paths[v]!;
     total += term(v);
     if (op[v] === OP_INPUT) inputsLeft--;
-    if (stopAt === v) {
-      const degrees = new Map<number, number>();
-      for (let u = 0; u <= v; u++) if (d[u]! > 0) degrees.set(u, d[u]!);
-      return { step: v, log: total, degrees };
-    }
     if (inputsLeft === 0 && (!best || total < best.log - 1e-9)) best = { step: v, log: total };
   }
   return best;
+}
+
+/** The frontier of `sweep` after the given step: node → degree (the same steps, without the log2 terms). */
+function frontierAt(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, step: number): Map<number, number> {
+  const { childStart, childList } = c;
+  const d = new Float64Array(c.size);
+  for (let v = 0; v <= step; v++) {
+    if (dep[v] !== mask || paths[v] === 0) continue;
+    for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
+      const ch = childList[i]!;
+      if (d[ch]! > 0) d[ch] = d[ch]! - paths[v]!;
+    }
+    d[v] = paths[v]!;
+  }
+  const degrees = new Map<number, number>();
+  for (let u = 0; u <= step; u++) if (d[u]! > 0) degrees.set(u, d[u]!);
+  return degrees;
 }
 
 /** log2 C(n, k) through log-factorials; only used to choose a frontier, never as the reported value. */

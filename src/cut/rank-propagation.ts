@@ -753,7 +753,8 @@ function sumExact(
 function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
   const { dep, whyA, whyB, whyL } = p;
   const counts: CutCounts = new Map();
-  const seen = new Set<number>();
+  // Which (node, value) pairs were visited, keyed node · 4 + value; the stack holds such keys.
+  const seen = new Uint8Array(4 * c.size);
   const note = (v: number): void => {
     const tag = c.bondTag[v]!;
     let byDim = counts.get(tag);
@@ -765,12 +766,16 @@ function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
   const K = 2;
   const L = 3;
   const farSide = (v: number, which: number): boolean => (which === A && dep[v] === 2) || (which === B && dep[v] === 1);
-  const stack: [number, number][] = [[c.top, L]];
+  const stack: number[] = [c.top * 4 + L];
+  const push = (v: number, which: number): void => {
+    stack.push(v * 4 + which);
+  };
   while (stack.length > 0) {
-    const [v, which] = stack.pop()!;
-    const key = v * 4 + which;
-    if (seen.has(key)) continue;
-    seen.add(key);
+    const key = stack.pop()!;
+    if (seen[key] === 1) continue;
+    seen[key] = 1;
+    const v = key >>> 2;
+    const which = key & 3;
     const kind = c.op[v];
     if (kind === OP_CONST) continue;
     const why = which === A ? whyA[v]! : which === B ? whyB[v]! : which === L ? whyL[v]! : FROM_CHILDREN;
@@ -780,35 +785,35 @@ function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
       continue;
     }
     if (why === FROM_SIDE_A || why === FROM_SIDE_B) {
-      stack.push([v, why === FROM_SIDE_A ? A : B]);
+      push(v, why === FROM_SIDE_A ? A : B);
       continue;
     }
     if (why === FROM_PURE_FACTOR) {
       // The pure factor's span and the other factor's functionals.
       const pure = pureFactor(plan.start, plan.childOf, plan.times, dep, v);
       note(pure);
-      stack.push([otherFactor(plan.start, plan.childOf, v, pure), L]);
+      push(otherFactor(plan.start, plan.childOf, v, pure), L);
       continue;
     }
     if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {
       note(v);
-      stack.push([v, why === FROM_DIM_KAPPA ? K : which === A ? B : A]);
+      push(v, why === FROM_DIM_KAPPA ? K : which === A ? B : A);
       continue;
     }
     if (kind === OP_SUM) {
       const sub = which === K ? L : which;
       for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
         const node = plan.childOf[t]!;
-        if (dep[node] === 3) stack.push([node, sub]);
+        if (dep[node] === 3) push(node, sub);
         else if (farSide(node, sub)) note(v);
       }
       continue;
     }
     if (kind === OP_PRODUCT) {
-      for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) stack.push([plan.childOf[t]!, which]);
+      for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) push(plan.childOf[t]!, which);
       continue;
     }
-    stack.push([c.childList[c.childStart[v]!]!, which === K ? L : which]);
+    push(c.childList[c.childStart[v]!]!, which === K ? L : which);
   }
   return counts;
 }
