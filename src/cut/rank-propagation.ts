@@ -142,8 +142,15 @@ function ceilingOf(c: Circuit): number {
   const { op, dim, childStart, childList } = c;
   const w = new Float64Array(c.size);
   let most = 0;
+  // Neighbouring nodes mostly share a dimension (one layer makes them): its log2 is kept.
+  let lastDim = 1;
+  let lastLog = 0;
   for (let v = 0; v < c.size; v++) {
-    let x = Math.log2(dim[v]!);
+    if (dim[v] !== lastDim) {
+      lastDim = dim[v]!;
+      lastLog = Math.log2(lastDim);
+    }
+    let x = lastLog;
     const kind = op[v];
     if (kind === OP_LINEAR) x = Math.max(x, w[childList[childStart[v]!]!]!);
     else if (kind === OP_PRODUCT) {
