@@ -22,11 +22,16 @@
  *   (subadditivity), its λ to κ and λ.
  * - any node: moving the output index across costs its dimension D: ρ_A ≤ D·ρ_B, ρ_A ≤ D·κ;
  *   λ ≤ min(ρ_A, ρ_B) and κ ≤ λ.
+ * - additive parts (additive-parts.ts): F_v = P_A + P_B + R_v, parts that read one side only and
+ *   a rest whose functionals have separation rank ≤ μ; λ, κ ≤ [P_A ≠ 0] + [P_B ≠ 0] + μ. Sums add
+ *   the parts term by term, so a network without products keeps λ ≤ 2, and a product of
+ *   separable factors is expanded term by term.
  * The separation rank of h = ⟨w, F_top⟩ is at most λ(top). Values are exact integers (numbers
  * while below 2^53, then bigints); a log2 pass first measures the sizes.
  */
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from '../network/circuit.js';
 import type { CutCounts } from './tree-min-cut.js';
+import { AdditiveParts, PARTS_EXPANDED, PARTS_FOLDED, PARTS_TRIVIAL, pureFactorOf } from './additive-parts.js';
 
 type Int = number | bigint;
 
@@ -40,7 +45,7 @@ function big(x: Int): bigint {
  * The arithmetic the rules run in: exact integers (numbers while below 2^53, then bigints), or
  * log2 values, which measure the sizes cheaply before the exact pass is attempted.
  */
-interface Arith<T> {
+export interface Arith<T> {
   readonly one: T;
   /** The empty sum. */
   readonly zero: T;
@@ -55,7 +60,7 @@ interface Arith<T> {
 }
 
 /** Indexable storage of per-node values. */
-interface Slots<T> {
+export interface Slots<T> {
   [i: number]: T;
 }
 
@@ -88,6 +93,18 @@ const EXACT: Arith<Int> = {
   },
 };
 
+/** Plain doubles, for circuits whose every value is known to be a small integer. */
+const PLAIN: Arith<number> = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Float64Array(n).fill(1),
+  of: (n) => n,
+  mul: (a, b) => a * b,
+  add: (a, b) => a + b,
+  le: (a, b) => a <= b,
+  symPow: (x, a) => Number(EXACT.symPow(x, a)),
+};
+
 const LOG: Arith<number> = {
   one: 0,
   zero: -Infinity,
@@ -112,6 +129,7 @@ const FROM_PURE = 3;
 const FROM_SIDE_A = 4;
 const FROM_SIDE_B = 5;
 const FROM_PURE_FACTOR = 6;
+const FROM_ADDITIVE = 7;
 
 export interface RankPropagation {
   /** log2 of the bound (from the log pass; the exact value may differ in the last digits). */
@@ -173,6 +191,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const mul = (x: number, y: number): number => (log ? x + y : x * y);
   const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
   const symPow = (x: number, a: number): number => (log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a)));
+  const parts = new AdditiveParts<number>(n, log ? LOG : PLAIN);
   const term = (t: number, r: Float64Array): number => {
     const node = childOf[t]!;
     if (mStart[t + 1] === mStart[t]) return r[node]!;
@@ -187,9 +206,13 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       dep[v] = onA ? 1 : 2;
       if (onA) rb[v] = of(dim[v]!);
       else ra[v] = of(dim[v]!);
+      parts.pure(v, dep[v]!, onA ? rb[v]! : ra[v]!);
       continue;
     }
-    if (kind === OP_CONST) continue;
+    if (kind === OP_CONST) {
+      parts.pure(v, 0, one);
+      continue;
+    }
     let d = 0;
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
     dep[v] = d;
@@ -198,6 +221,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
       if (d === 1) rb[v] = own >= 0 ? Math.min(rb[own]!, D) : D;
       if (d === 2) ra[v] = own >= 0 ? Math.min(ra[own]!, D) : D;
+      parts.pure(v, d, d === 2 ? ra[v]! : rb[v]!);
       continue;
     }
     let a: number;
@@ -229,7 +253,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       }
       l = mul(D, k);
       lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
+      const pf = pureFactorOf(plan, dep, v);
       if (pf) {
         // c ⊙ (G_s + G'): the side-s part is one function of x_s; the rest is seen through the
         // span of c's coordinates (DEVELOPERS.md, rank propagation, rule 4).
@@ -245,10 +269,16 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       noB = l;
     } else {
       // A sum: the rule of sumRule, on doubles.
-      let parts: number;
-      [a, b, l, noA, noB, parts] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
-      pureParts[v] = parts;
+      let sides: number;
+      [a, b, l, noA, noB, sides] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
+      pureParts[v] = sides;
       k = l;
+    }
+    const additive = parts.mixed(c, plan, v, D);
+    if (additive < l) {
+      l = additive;
+      lWhy = FROM_ADDITIVE;
+      k = Math.min(k, l);
     }
     whyA[v] = FROM_CHILDREN;
     whyB[v] = FROM_CHILDREN;
@@ -274,22 +304,9 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
     kap[v] = Math.min(k, l);
     lamNoA[v] = Math.min(noA, l);
     lamNoB[v] = Math.min(noB, l);
+    parts.settle(v, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
-}
-
-/**
- * A product of exactly two distinct children, once each, of which one reads one side only and
- * the other both: the pure one and the other, else undefined.
- */
-function pureFactor(start: Int32Array, childOf: Int32Array, times: Int32Array, dep: Uint8Array, v: number): { pure: number; other: number } | undefined {
-  if (start[v + 1]! - start[v]! !== 2) return undefined;
-  const [x, y] = [childOf[start[v]!]!, childOf[start[v]! + 1]!];
-  if (times[start[v]!] !== 1 || times[start[v]! + 1] !== 1) return undefined;
-  const [dx, dy] = [dep[x]!, dep[y]!];
-  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
-  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
-  return undefined;
+  return { dep, ra, rb, lam, whyA, whyB, whyL, whyM: parts.why };
 }
 
 /** A running sum of values given as they are (`plain`) or by their log2. */
@@ -393,7 +410,7 @@ function sumFloat(
  * every node, the distinct children of each product with their multiplicities, and the terms of
  * each sum (children grouped by their linear source).
  */
-interface Plan {
+export interface Plan {
   readonly source: Int32Array;
   /** Product v: children childOf[start[v] .. start[v+1]) with multiplicity times[...]. */
   readonly start: Int32Array;
@@ -464,6 +481,8 @@ interface Propagated<T> {
   readonly whyA: Uint8Array;
   readonly whyB: Uint8Array;
   readonly whyL: Uint8Array;
+  /** How each node's additive parts were found (additive-parts.ts). */
+  readonly whyM: Uint8Array;
 }
 
 function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): Propagated<T> {
@@ -481,6 +500,7 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
   const lamNoA = ar.ones(n);
   const lamNoB = ar.ones(n);
   const pureParts = new Uint8Array(n);
+  const parts = new AdditiveParts<T>(n, ar);
   const min = (a: T, b: T): T => (ar.le(a, b) ? a : b);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
@@ -489,9 +509,13 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       dep[v] = onA ? 1 : 2;
       if (onA) rb[v] = ar.of(dim[v]!);
       else ra[v] = ar.of(dim[v]!);
+      parts.pure(v, dep[v]!, onA ? rb[v]! : ra[v]!);
       continue;
     }
-    if (kind === OP_CONST) continue;
+    if (kind === OP_CONST) {
+      parts.pure(v, 0, ar.one);
+      continue;
+    }
     let d = 0;
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
     dep[v] = d;
@@ -501,6 +525,7 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
       if (d === 1) rb[v] = own >= 0 ? min(rb[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
       if (d === 2) ra[v] = own >= 0 ? min(ra[own]!, ar.of(dim[v]!)) : ar.of(dim[v]!);
+      parts.pure(v, d, d === 2 ? ra[v]! : rb[v]!);
       continue;
     }
     const D = ar.of(dim[v]!);
@@ -533,7 +558,7 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       }
       l = ar.mul(D, k);
       lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
+      const pf = pureFactorOf(plan, dep, v);
       if (pf) {
         const onA = dep[pf.pure] === 1;
         const span = onA ? rb[pf.pure]! : ra[pf.pure]!;
@@ -546,12 +571,18 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
       noA = l;
       noB = l;
     } else if (kind === OP_SUM) {
-      let parts: number;
-      ({ a, b, l, noA, noB, parts } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
-      pureParts[v] = parts;
+      let sides: number;
+      ({ a, b, l, noA, noB, parts: sides } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
+      pureParts[v] = sides;
       k = l;
     } else {
       throw new Error(`rank propagation: unknown node kind ${kind}`);
+    }
+    const additive = parts.mixed(c, plan, v, D);
+    if (!ar.le(l, additive)) {
+      l = additive;
+      lWhy = FROM_ADDITIVE;
+      k = min(k, l);
     }
     whyA[v] = FROM_CHILDREN;
     whyB[v] = FROM_CHILDREN;
@@ -577,8 +608,9 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
     kap[v] = min(k, l);
     lamNoA[v] = min(noA, l);
     lamNoB[v] = min(noB, l);
+    parts.settle(v, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
+  return { dep, ra, rb, lam, whyA, whyB, whyL, whyM: parts.why };
 }
 
 /** A term's rank: its node's, or, for several linear images of one node, the smaller of that and their sum. */
@@ -652,7 +684,7 @@ function sumRule<T>(
  * dimension multiplied in. A bound that is a sum of terms names the widths of every term.
  */
 function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
-  const { dep, whyA, whyB, whyL } = p;
+  const { dep, whyA, whyB, whyL, whyM } = p;
   const counts: CutCounts = new Map();
   const seen = new Set<number>();
   const note = (v: number): void => {
@@ -665,19 +697,39 @@ function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
   const B = 1;
   const K = 2;
   const L = 3;
+  // μ, the functional rank of the rest after the pure parts (additive-parts.ts).
+  const MIX = 4;
   const farSide = (v: number, which: number): boolean => (which === A && dep[v] === 2) || (which === B && dep[v] === 1);
   const stack: [number, number][] = [[c.top, L]];
   while (stack.length > 0) {
     const [v, which] = stack.pop()!;
-    const key = v * 4 + which;
+    const key = v * 5 + which;
     if (seen.has(key)) continue;
     seen.add(key);
     const kind = c.op[v];
     if (kind === OP_CONST) continue;
+    if (which === MIX) {
+      if (dep[v] !== 3) continue;
+      const how = whyM[v];
+      if (how === PARTS_TRIVIAL) stack.push([v, L]);
+      else if (how === PARTS_EXPANDED) note(v);
+      else if (how === PARTS_FOLDED) {
+        // The spans of the factors' pure parts (widths) and the factors' rests.
+        note(v);
+        for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) if (dep[plan.childOf[t]!] === 3) stack.push([plan.childOf[t]!, MIX]);
+      } else if (kind === OP_SUM) {
+        for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) if (dep[plan.childOf[t]!] === 3) stack.push([plan.childOf[t]!, MIX]);
+      } else stack.push([c.childList[c.childStart[v]!]!, MIX]);
+      continue;
+    }
     const why = which === A ? whyA[v]! : which === B ? whyB[v]! : which === L ? whyL[v]! : FROM_CHILDREN;
     if (kind === OP_INPUT || dep[v] !== 3 || why === FROM_PURE) {
       // A one-sided value crosses only through its own index.
       if (farSide(v, which)) note(v);
+      continue;
+    }
+    if (why === FROM_ADDITIVE) {
+      stack.push([v, MIX]);
       continue;
     }
     if (why === FROM_SIDE_A || why === FROM_SIDE_B) {
@@ -686,7 +738,7 @@ function recordWidths<T>(c: Circuit, plan: Plan, p: Propagated<T>): CutCounts {
     }
     if (why === FROM_PURE_FACTOR) {
       // The pure factor's span and the other factor's functionals.
-      const pf = pureFactor(plan.start, plan.childOf, plan.times, dep, v)!;
+      const pf = pureFactorOf(plan, dep, v)!;
       note(pf.pure);
       stack.push([pf.other, L]);
       continue;

@@ -1,0 +1,212 @@
+/**
+ * Rule 6 of rank propagation (DEVELOPERS.md, "Rank propagation"; derived here): additive parts.
+ * Every node's vector function is written F_v = P_A + P_B + R_v, where P_A reads side A only and
+ * P_B side B only (flags say which of them may be nonzero; `span` bounds the dimension of the
+ * span of a pure part's coordinates), and μ(v) bounds the separation rank of every functional of
+ * the rest R_v. Then every functional of F_v has separation rank ≤ flags + μ(v).
+ *
+ * - A node that reads one side only (or nothing) is its own pure part: μ = 0.
+ * - A linear map applies to every part.
+ * - A sum adds the parts term by term: flags unite, spans and μ add.
+ * - A product of factors that are all separable (μ = 0), Π_i (P_A^i + P_B^i), expands into
+ *   Σ_S (Π_{i∈S} P_A^i) ⊙ (Π_{i∉S} P_B^i). The term S = all reads side A only, S = ∅ side B
+ *   only; every other term is a vector of A-functions times a vector of B-functions, whose
+ *   functionals have separation rank ≤ min(D, Π_{i∈S} span_A^i, Π_{i∉S} span_B^i) (a functional
+ *   Σ_o w_o X_o Y_o is a sum over a basis of either span). A term with a missing part is zero.
+ * - Any other product is folded factor by factor: (P_A + P_B + R) ⊙ (Q_A + Q_B + S) has pure parts
+ *   P_A ⊙ Q_A and P_B ⊙ Q_B, and a rest of nine terms: P_A ⊙ Q_B and P_B ⊙ Q_A (rank ≤ min(D, σ, σ')
+ *   as above), P_s ⊙ S and R ⊙ Q_s (a factor reading one side, whose coordinates span σ functions
+ *   g_k, times a rest: Σ_k g_k·⟨w_k, S⟩, rank ≤ σ·μ), and R ⊙ S (rank ≤ D·μ(R)·μ(S), a sum of D
+ *   coordinates, each a product of a coordinate of each).
+ * Whenever λ(v) < μ(v) the node takes that trivial decomposition (no flags, μ = λ) instead.
+ * Each step is an identity between functions, valid for every choice of weights.
+ */
+import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from '../network/circuit.js';
+import type { Arith, Plan, Slots } from './rank-propagation.js';
+
+/** How a node's decomposition was found, for naming the widths behind a bound. */
+export const PARTS_FROM_CHILDREN = 0;
+export const PARTS_TRIVIAL = 1;
+export const PARTS_FOLDED = 2;
+export const PARTS_EXPANDED = 3;
+
+/** Products with more factors (counted with multiplicity) are not expanded: 2^k terms. */
+const MAX_FACTORS = 12;
+
+const A = 1;
+const B = 2;
+
+export class AdditiveParts<T> {
+  readonly flags: Uint8Array;
+  readonly mu: Slots<T>;
+  readonly spanA: Slots<T>;
+  readonly spanB: Slots<T>;
+  readonly why: Uint8Array;
+
+  constructor(
+    n: number,
+    private readonly ar: Arith<T>,
+  ) {
+    this.flags = new Uint8Array(n);
+    this.mu = ar.ones(n);
+    this.spanA = ar.ones(n);
+    this.spanB = ar.ones(n);
+    this.why = new Uint8Array(n);
+  }
+
+  /**
+   * A node that reads side A only (dep 1; `span` = the rank of its coordinates as functions of
+   * x_A), side B only (dep 2), or nothing (dep 0, a constant: one function, counted with side A).
+   */
+  pure(v: number, dep: number, span: T): void {
+    const ar = this.ar;
+    this.flags[v] = dep === 2 ? B : A;
+    this.mu[v] = ar.zero;
+    this.spanA[v] = dep === 2 ? ar.zero : dep === 0 ? ar.one : span;
+    this.spanB[v] = dep === 2 ? span : ar.zero;
+    this.why[v] = PARTS_FROM_CHILDREN;
+  }
+
+  /**
+   * A node that reads both sides: its decomposition from its children's. Returns flags + μ, a
+   * bound on the separation rank of its functionals.
+   */
+  mixed(c: Circuit, plan: Plan, v: number, D: T): T {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
+    const kind = c.op[v];
+    if (kind === OP_LINEAR) {
+      const ch = c.childList[c.childStart[v]!]!;
+      this.set(v, flags[ch]!, mu[ch]!, min(D, spanA[ch]!), min(D, spanB[ch]!), PARTS_FROM_CHILDREN);
+    } else if (kind === OP_SUM) {
+      // Children that are linear images of one node enter as that node (plan terms).
+      let f = 0;
+      let m = ar.zero;
+      let sa = ar.zero;
+      let sb = ar.zero;
+      for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
+        const node = plan.childOf[t]!;
+        f |= flags[node]!;
+        m = ar.add(m, mu[node]!);
+        if (flags[node]! & A) sa = ar.add(sa, spanA[node]!);
+        if (flags[node]! & B) sb = ar.add(sb, spanB[node]!);
+      }
+      this.set(v, f, m, min(D, sa), min(D, sb), PARTS_FROM_CHILDREN);
+    } else if (kind === OP_PRODUCT) {
+      if (!this.expand(plan, v, D)) this.fold(plan, v, D);
+    } else if (kind === OP_INPUT || kind === OP_CONST) {
+      throw new Error('additive parts: an input or a constant reads one side only');
+    }
+    const n = (flags[v]! & A ? 1 : 0) + (flags[v]! & B ? 1 : 0);
+    return n === 0 ? mu[v]! : ar.add(ar.of(n), mu[v]!);
+  }
+
+  /** Once λ(v) is final: the trivial decomposition (μ = λ, no flags) when it is better. */
+  settle(v: number, lambda: T): void {
+    if (this.why[v] === PARTS_TRIVIAL || !this.ar.le(this.mu[v]!, lambda)) {
+      const zero = this.ar.zero;
+      this.set(v, 0, lambda, zero, zero, PARTS_TRIVIAL);
+    }
+  }
+
+  private set(v: number, f: number, m: T, sa: T, sb: T, why: number): void {
+    this.flags[v] = f;
+    this.mu[v] = m;
+    this.spanA[v] = sa;
+    this.spanB[v] = sb;
+    this.why[v] = why;
+  }
+
+  /** A product of separable factors (μ = 0 each), expanded over the subsets S. */
+  private expand(plan: Plan, v: number, D: T): boolean {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const factors: number[] = [];
+    for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
+      const ch = plan.childOf[t]!;
+      if (!ar.le(mu[ch]!, ar.zero) || flags[ch] === 0) return false;
+      for (let i = 0; i < plan.times[t]!; i++) factors.push(ch);
+      if (factors.length > MAX_FACTORS) return false;
+    }
+    const k = factors.length;
+    const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
+    let allA = true;
+    let allB = true;
+    let sa = ar.one;
+    let sb = ar.one;
+    for (const ch of factors) {
+      allA &&= (flags[ch]! & A) !== 0;
+      allB &&= (flags[ch]! & B) !== 0;
+      sa = ar.mul(sa, spanA[ch]!);
+      sb = ar.mul(sb, spanB[ch]!);
+    }
+    let rest = ar.zero;
+    for (let s = 1; s < (1 << k) - 1; s++) {
+      let pa = ar.one;
+      let pb = ar.one;
+      let zero = false;
+      for (let i = 0; i < k && !zero; i++) {
+        const ch = factors[i]!;
+        if (s & (1 << i)) {
+          if (flags[ch]! & A) pa = ar.mul(pa, spanA[ch]!);
+          else zero = true;
+        } else if (flags[ch]! & B) pb = ar.mul(pb, spanB[ch]!);
+        else zero = true;
+      }
+      if (!zero) rest = ar.add(rest, min(D, min(pa, pb)));
+    }
+    this.set(v, (allA ? A : 0) | (allB ? B : 0), rest, allA ? min(D, sa) : ar.zero, allB ? min(D, sb) : ar.zero, PARTS_EXPANDED);
+    return true;
+  }
+
+  /** Any product, folded factor by factor (each factor as often as it appears). */
+  private fold(plan: Plan, v: number, D: T): void {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
+    let f = -1;
+    let m = ar.zero;
+    let sa = ar.zero;
+    let sb = ar.zero;
+    for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
+      const ch = plan.childOf[t]!;
+      for (let i = 0; i < plan.times[t]!; i++) {
+        const [g, mg, ga, gb] = [flags[ch]!, mu[ch]!, spanA[ch]!, spanB[ch]!];
+        if (f < 0) {
+          [f, m, sa, sb] = [g, mg, ga, gb];
+          continue;
+        }
+        let rest = ar.mul(D, ar.mul(m, mg));
+        if (f & A && g & B) rest = ar.add(rest, min(D, min(sa, gb)));
+        if (f & B && g & A) rest = ar.add(rest, min(D, min(sb, ga)));
+        if (f & A) rest = ar.add(rest, ar.mul(sa, mg));
+        if (f & B) rest = ar.add(rest, ar.mul(sb, mg));
+        if (g & A) rest = ar.add(rest, ar.mul(ga, m));
+        if (g & B) rest = ar.add(rest, ar.mul(gb, m));
+        const both = f & g;
+        sa = both & A ? min(D, ar.mul(sa, ga)) : ar.zero;
+        sb = both & B ? min(D, ar.mul(sb, gb)) : ar.zero;
+        f = both;
+        m = rest;
+      }
+    }
+    this.set(v, Math.max(f, 0), m, sa, sb, PARTS_FOLDED);
+  }
+
+}
+
+/**
+ * A product of exactly two distinct children, once each, of which one reads one side only and
+ * the other both: the pure one and the other, else undefined.
+ */
+export function pureFactorOf(plan: Plan, dep: Uint8Array, v: number): { pure: number; other: number } | undefined {
+  const { start, childOf, times } = plan;
+  if (start[v + 1]! - start[v]! !== 2) return undefined;
+  const [x, y] = [childOf[start[v]!]!, childOf[start[v]! + 1]!];
+  if (times[start[v]!] !== 1 || times[start[v]! + 1] !== 1) return undefined;
+  const [dx, dy] = [dep[x]!, dep[y]!];
+  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
+  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
+  return undefined;
+}
