@@ -30,11 +30,20 @@ export const PARTS_TRIVIAL = 1;
 export const PARTS_FOLDED = 2;
 export const PARTS_EXPANDED = 3;
 
-/** Products with more factors (counted with multiplicity) are not expanded: 2^k terms. */
-const MAX_FACTORS = 12;
+/**
+ * Products with more factors (counted with multiplicity) are not expanded term by term: 2^k
+ * terms. When every factor's spans reach D, every term is D and only the count is needed
+ * (up to FULL_SPAN_FACTORS factors).
+ */
+const MAX_FACTORS = 8;
+const FULL_SPAN_FACTORS = 40;
 
 const A = 1;
 const B = 2;
+
+const EXPANDED = 0;
+const NOT_SEPARABLE = 1;
+const OVER = 2;
 
 export class AdditiveParts<T> {
   readonly flags: Uint8Array;
@@ -69,13 +78,19 @@ export class AdditiveParts<T> {
 
   /**
    * A node that reads both sides: its decomposition from its children's. Returns flags + μ, a
-   * bound on the separation rank of its functionals.
+   * bound on the separation rank of its functionals. `cap`: λ(v) as the other rules bound it; once
+   * μ passes it the node will take the trivial decomposition anyway (settle), so the work stops
+   * there and `cap` is returned.
    */
-  mixed(c: Circuit, plan: Plan, v: number, D: T): T {
+  mixed(c: Circuit, plan: Plan, v: number, D: T, cap: T): T {
     const ar = this.ar;
     const { flags, mu, spanA, spanB } = this;
     const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
     const kind = c.op[v];
+    // Children that all took the trivial decomposition leave nothing to gain: a sum of their μ = λ
+    // is what rule 5 adds up, a product of them what rule 4 multiplies (with κ ≤ λ), a linear map
+    // keeps λ.
+    if (kind === OP_LINEAR ? this.why[c.childList[c.childStart[v]!]!] === PARTS_TRIVIAL : this.allTrivial(plan, v)) return this.trivial(v, cap);
     if (kind === OP_LINEAR) {
       const ch = c.childList[c.childStart[v]!]!;
       this.set(v, flags[ch]!, mu[ch]!, min(D, spanA[ch]!), min(D, spanB[ch]!), PARTS_FROM_CHILDREN);
@@ -89,17 +104,30 @@ export class AdditiveParts<T> {
         const node = plan.childOf[t]!;
         f |= flags[node]!;
         m = ar.add(m, mu[node]!);
-        if (flags[node]! & A) sa = ar.add(sa, spanA[node]!);
-        if (flags[node]! & B) sb = ar.add(sb, spanB[node]!);
+        if (!ar.le(m, cap)) return this.trivial(v, cap);
+        // A span never exceeds D: stop adding once there.
+        if (flags[node]! & A && !ar.le(D, sa)) sa = ar.add(sa, spanA[node]!);
+        if (flags[node]! & B && !ar.le(D, sb)) sb = ar.add(sb, spanB[node]!);
       }
       this.set(v, f, m, min(D, sa), min(D, sb), PARTS_FROM_CHILDREN);
     } else if (kind === OP_PRODUCT) {
-      if (!this.expand(plan, v, D)) this.fold(plan, v, D);
+      const expanded = this.expand(plan, v, D, cap);
+      if (expanded === OVER || (expanded === NOT_SEPARABLE && !this.fold(plan, v, D, cap))) return this.trivial(v, cap);
     } else if (kind === OP_INPUT || kind === OP_CONST) {
       throw new Error('additive parts: an input or a constant reads one side only');
     }
     const n = (flags[v]! & A ? 1 : 0) + (flags[v]! & B ? 1 : 0);
     return n === 0 ? mu[v]! : ar.add(ar.of(n), mu[v]!);
+  }
+
+  private allTrivial(plan: Plan, v: number): boolean {
+    for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) if (this.why[plan.childOf[t]!] !== PARTS_TRIVIAL) return false;
+    return true;
+  }
+
+  private trivial(v: number, cap: T): T {
+    this.why[v] = PARTS_TRIVIAL;
+    return cap;
   }
 
   /** Once λ(v) is final: the trivial decomposition (μ = λ, no flags) when it is better. */
@@ -119,15 +147,15 @@ export class AdditiveParts<T> {
   }
 
   /** A product of separable factors (μ = 0 each), expanded over the subsets S. */
-  private expand(plan: Plan, v: number, D: T): boolean {
+  private expand(plan: Plan, v: number, D: T, cap: T): typeof EXPANDED | typeof NOT_SEPARABLE | typeof OVER {
     const ar = this.ar;
     const { flags, mu, spanA, spanB } = this;
     const factors: number[] = [];
     for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
       const ch = plan.childOf[t]!;
-      if (!ar.le(mu[ch]!, ar.zero) || flags[ch] === 0) return false;
+      if (!ar.le(mu[ch]!, ar.zero) || flags[ch] === 0) return NOT_SEPARABLE;
       for (let i = 0; i < plan.times[t]!; i++) factors.push(ch);
-      if (factors.length > MAX_FACTORS) return false;
+      if (factors.length > FULL_SPAN_FACTORS) return NOT_SEPARABLE;
     }
     const k = factors.length;
     const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
@@ -135,12 +163,31 @@ export class AdditiveParts<T> {
     let allB = true;
     let sa = ar.one;
     let sb = ar.one;
+    let fullSpans = true;
+    let onlyA = 0;
+    let onlyB = 0;
     for (const ch of factors) {
-      allA &&= (flags[ch]! & A) !== 0;
-      allB &&= (flags[ch]! & B) !== 0;
+      const f = flags[ch]!;
+      allA &&= (f & A) !== 0;
+      allB &&= (f & B) !== 0;
+      if (f === A) onlyA++;
+      if (f === B) onlyB++;
       sa = ar.mul(sa, spanA[ch]!);
       sb = ar.mul(sb, spanB[ch]!);
+      fullSpans &&= (!(f & A) || ar.le(D, spanA[ch]!)) && (!(f & B) || ar.le(D, spanB[ch]!));
     }
+    const flagsOut = (allA ? A : 0) | (allB ? B : 0);
+    const spansOut = [allA ? min(D, sa) : ar.zero, allB ? min(D, sb) : ar.zero] as const;
+    if (fullSpans) {
+      // Every term with both sides present is D: count them. The factors with both parts choose
+      // freely; those with one part are fixed; S = all and S = ∅ are the pure parts.
+      const terms = 2 ** (k - onlyA - onlyB) - (onlyB === 0 ? 1 : 0) - (onlyA === 0 ? 1 : 0);
+      const rest = terms > 0 ? ar.mul(D, ar.of(terms)) : ar.zero;
+      if (!ar.le(rest, cap)) return OVER;
+      this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+      return EXPANDED;
+    }
+    if (k > MAX_FACTORS) return NOT_SEPARABLE;
     let rest = ar.zero;
     for (let s = 1; s < (1 << k) - 1; s++) {
       let pa = ar.one;
@@ -155,13 +202,14 @@ export class AdditiveParts<T> {
         else zero = true;
       }
       if (!zero) rest = ar.add(rest, min(D, min(pa, pb)));
+      if (!ar.le(rest, cap)) return OVER;
     }
-    this.set(v, (allA ? A : 0) | (allB ? B : 0), rest, allA ? min(D, sa) : ar.zero, allB ? min(D, sb) : ar.zero, PARTS_EXPANDED);
-    return true;
+    this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+    return EXPANDED;
   }
 
-  /** Any product, folded factor by factor (each factor as often as it appears). */
-  private fold(plan: Plan, v: number, D: T): void {
+  /** Any product, folded factor by factor (each factor as often as it appears); false once μ passes `cap`. */
+  private fold(plan: Plan, v: number, D: T, cap: T): boolean {
     const ar = this.ar;
     const { flags, mu, spanA, spanB } = this;
     const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
@@ -189,9 +237,11 @@ export class AdditiveParts<T> {
         sb = both & B ? min(D, ar.mul(sb, gb)) : ar.zero;
         f = both;
         m = rest;
+        if (!ar.le(m, cap)) return false;
       }
     }
     this.set(v, Math.max(f, 0), m, sa, sb, PARTS_FOLDED);
+    return true;
   }
 
 }

@@ -274,7 +274,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       pureParts[v] = sides;
       k = l;
     }
-    const additive = parts.mixed(c, plan, v, D);
+    const additive = parts.mixed(c, plan, v, D, l);
     if (additive < l) {
       l = additive;
       lWhy = FROM_ADDITIVE;
@@ -578,7 +578,7 @@ function propagate<T>(c: Circuit, plan: Plan, side: Uint8Array, ar: Arith<T>): P
     } else {
       throw new Error(`rank propagation: unknown node kind ${kind}`);
     }
-    const additive = parts.mixed(c, plan, v, D);
+    const additive = parts.mixed(c, plan, v, D, l);
     if (!ar.le(l, additive)) {
       l = additive;
       lWhy = FROM_ADDITIVE;
