@@ -2,11 +2,11 @@
  * The squared singular values of the matricisation (1/n)·Φ_A W Φ_Bᵀ of the empirical data tensor,
  * from the two sides' Cholesky factors: they are the singular values of C = L_Aᵀ W L_B (up to the
  * factor 1/n, which normalisation removes), taken here as the eigenvalues of the symmetric
- * C Cᵀ or Cᵀ C, whichever is smaller, with ml-matrix's symmetric eigenvalue decomposition.
+ * C Cᵀ or Cᵀ C, whichever is smaller (eigenvalues only, `symmetric-eigenvalues.ts`).
  * Derivation in DEVELOPERS.md.
  */
-import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import type { CholeskyFactor } from './pivoted-cholesky.js';
+import { symmetricEigenvalues } from './symmetric-eigenvalues.js';
 
 /**
  * Eigenvalues (largest first, clipped at 0) of C Cᵀ, C = L_Aᵀ diag(w) L_B; `weights` undefined
@@ -31,17 +31,16 @@ export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weig
     }
   }
   // M = C Cᵀ (rs × rs), symmetric by construction.
-  const rows: number[][] = [];
-  for (let i = 0; i < rs; i++) rows.push(new Array<number>(rs).fill(0));
+  const m = new Float64Array(rs * rs);
   for (let i = 0; i < rs; i++) {
     for (let k = 0; k <= i; k++) {
       const sum = dot(c, i * rl, c, k * rl, rl);
-      rows[i]![k] = sum;
-      rows[k]![i] = sum;
+      m[i * rs + k] = sum;
+      m[k * rs + i] = sum;
     }
   }
-  const values = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true }).realEigenvalues;
-  const out = Float64Array.from(values, (v) => (v > 0 ? v : 0));
+  const out = symmetricEigenvalues(m, rs);
+  for (let i = 0; i < rs; i++) if (!(out[i]! > 0)) out[i] = 0;
   out.sort();
   out.reverse();
   return out;
