@@ -25,61 +25,145 @@ export function symmetricEigenvalues(a: Float64Array, n: number): Float64Array {
 
 /**
  * Householder reduction, last row first: on return d holds the diagonal and e[1 … n−1] the
- * subdiagonal of the tridiagonal matrix (e[0] = 0). Row j of `a` is read left to right in the
- * O(n³) loops.
+ * subdiagonal of the tridiagonal matrix (e[0] = 0). Step i reflects column i of the leading
+ * (i+1) × (i+1) block onto its last entry: with u the scaled column (d), p = A·u/h − hh·u, and
+ * A −= u·pᵀ + p·uᵀ on the upper triangle of the leading i × i block. The product A·u of step
+ * i − 1 is accumulated row by row while step i updates the same rows, so that each row is read
+ * once per step instead of twice; every sum is still taken in the same order.
  */
 function tridiagonalize(a: Float64Array, n: number, d: Float64Array, e: Float64Array): void {
+  const u = new Float64Array(n); // the Householder vector of the step being applied
+  let p = new Float64Array(n); // A·u of the current step, then p
+  let q = new Float64Array(n); // A·u of the next step, accumulated during the update
   for (let j = 0; j < n; j++) d[j] = a[j * n + n - 1]!;
+  let h = n > 1 ? reflect(d, e, n - 1) : 0;
+  let productReady = false;
   for (let i = n - 1; i > 0; i--) {
-    let scale = 0;
-    let h = 0;
-    for (let k = 0; k < i; k++) scale = scale + Math.abs(d[k]!);
-    if (scale === 0) {
-      e[i] = d[i - 1]!;
+    if (h === 0) {
+      // A zero column: nothing to reflect, A is unchanged.
       for (let j = 0; j < i; j++) d[j] = a[j * n + i - 1]!;
-    } else {
-      for (let k = 0; k < i; k++) {
-        d[k]! /= scale;
-        h += d[k]! * d[k]!;
-      }
-      let f = d[i - 1]!;
-      let g = Math.sqrt(h);
-      if (f > 0) g = -g;
-      e[i] = scale * g;
-      h = h - f * g;
-      d[i - 1] = f - g;
-      for (let j = 0; j < i; j++) e[j] = 0;
-      // e = A·u over the leading i × i block (u = d), from its upper triangle.
-      for (let j = 0; j < i; j++) {
-        const row = j * n;
-        f = d[j]!;
-        g = e[j]! + a[row + j]! * f;
-        for (let k = j + 1; k <= i - 1; k++) {
-          g += a[row + k]! * d[k]!;
-          e[k]! += a[row + k]! * f;
-        }
-        e[j] = g;
-      }
-      f = 0;
-      for (let j = 0; j < i; j++) {
-        e[j]! /= h;
-        f += e[j]! * d[j]!;
-      }
-      const hh = f / (h + h);
-      for (let j = 0; j < i; j++) e[j]! -= hh * d[j]!;
-      // The rank-two update A −= u·pᵀ + p·uᵀ, on the upper triangle.
-      for (let j = 0; j < i; j++) {
-        const row = j * n;
-        f = d[j]!;
-        g = e[j]!;
-        for (let k = j; k <= i - 1; k++) a[row + k]! -= f * e[k]! + g * d[k]!;
-        d[j] = a[row + i - 1]!;
-      }
+      d[i] = 0;
+      h = i > 1 ? reflect(d, e, i - 1) : 0;
+      productReady = false;
+      continue;
+    }
+    if (!productReady) {
+      p.fill(0, 0, i);
+      let j = 0;
+      for (; j + 2 <= i; j += 2) productOfRowPair(a, n, i, d, p, j);
+      if (j < i) productOfRow(a, n, i, d, p, j);
+    }
+    let f = 0;
+    for (let j = 0; j < i; j++) {
+      p[j]! /= h;
+      f += p[j]! * d[j]!;
+    }
+    const hh = f / (h + h);
+    for (let j = 0; j < i; j++) p[j]! -= hh * d[j]!;
+    u.set(d.subarray(0, i));
+    // Column i − 1 first: it is the next step's column.
+    const last = i - 1;
+    for (let j = 0; j < i; j++) {
+      a[j * n + last]! -= u[j]! * p[last]! + p[j]! * u[last]!;
+      d[j] = a[j * n + last]!;
     }
     d[i] = h;
+    h = i > 1 ? reflect(d, e, i - 1) : 0;
+    if (h !== 0) {
+      // The rest of the update, and the next step's A·u (over rows and columns < i − 1) from the
+      // updated rows.
+      q.fill(0, 0, last);
+      let j = 0;
+      for (; j + 2 <= last; j += 2) {
+        updateRow(a, n, last, u, p, j);
+        updateRow(a, n, last, u, p, j + 1);
+        productOfRowPair(a, n, last, d, q, j);
+      }
+      if (j < last) {
+        updateRow(a, n, last, u, p, j);
+        productOfRow(a, n, last, d, q, j);
+      }
+      [p, q] = [q, p];
+      productReady = true;
+    } else {
+      for (let j = 0; j < last; j++) updateRow(a, n, last, u, p, j);
+      productReady = false;
+    }
   }
   for (let j = 0; j < n; j++) d[j] = a[j * n + j]!;
   e[0] = 0;
+}
+
+/** Row j of the update A −= u·pᵀ + p·uᵀ, columns j … size − 1. */
+function updateRow(a: Float64Array, n: number, size: number, u: Float64Array, p: Float64Array, j: number): void {
+  const row = j * n;
+  const uj = u[j]!;
+  const pj = p[j]!;
+  for (let k = j; k < size; k++) a[row + k]! -= uj * p[k]! + pj * u[k]!;
+}
+
+/**
+ * Row j's part of out = A·v over the leading size × size block, from the upper triangle: out[j]
+ * (already holding the earlier rows' terms) gets the row's sum, out[k] for k > j its term.
+ */
+function productOfRow(a: Float64Array, n: number, size: number, v: Float64Array, out: Float64Array, j: number): void {
+  const row = j * n;
+  const f = v[j]!;
+  let g = out[j]! + a[row + j]! * f;
+  for (let k = j + 1; k < size; k++) {
+    g += a[row + k]! * v[k]!;
+    out[k]! += a[row + k]! * f;
+  }
+  out[j] = g;
+}
+
+/**
+ * Rows j and j + 1 (j + 1 < size) together, as productOfRow for j then for j + 1 would do, term
+ * by term in the same order: the two running sums overlap instead of waiting on each other.
+ */
+function productOfRowPair(a: Float64Array, n: number, size: number, v: Float64Array, out: Float64Array, j: number): void {
+  const row0 = j * n;
+  const row1 = row0 + n;
+  const f0 = v[j]!;
+  const f1 = v[j + 1]!;
+  let g0 = out[j]! + a[row0 + j]! * f0;
+  g0 += a[row0 + j + 1]! * v[j + 1]!;
+  out[j + 1]! += a[row0 + j + 1]! * f0;
+  let g1 = out[j + 1]! + a[row1 + j + 1]! * f1;
+  for (let k = j + 2; k < size; k++) {
+    const x0 = a[row0 + k]!;
+    const x1 = a[row1 + k]!;
+    g0 += x0 * v[k]!;
+    g1 += x1 * v[k]!;
+    out[k] = out[k]! + x0 * f0 + x1 * f1;
+  }
+  out[j] = g0;
+  out[j + 1] = g1;
+}
+
+/**
+ * The scaling and the reflector of step i, on the column in d[0 … i−1]: sets e[i] and returns h
+ * (0 when the column is zero, which leaves d as it is).
+ */
+function reflect(d: Float64Array, e: Float64Array, i: number): number {
+  let scale = 0;
+  for (let k = 0; k < i; k++) scale = scale + Math.abs(d[k]!);
+  if (scale === 0) {
+    e[i] = d[i - 1]!;
+    return 0;
+  }
+  let h = 0;
+  for (let k = 0; k < i; k++) {
+    d[k]! /= scale;
+    h += d[k]! * d[k]!;
+  }
+  const f = d[i - 1]!;
+  let g = Math.sqrt(h);
+  if (f > 0) g = -g;
+  e[i] = scale * g;
+  h = h - f * g;
+  d[i - 1] = f - g;
+  return h;
 }
 
 /** Implicit QL on the tridiagonal (d, e[1 …]): d becomes the eigenvalues. */

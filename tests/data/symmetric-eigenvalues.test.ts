@@ -14,10 +14,13 @@ function matrix(n: number, entry: (i: number, j: number) => number): Float64Arra
   return Float64Array.from({ length: n * n }, (_, k) => entry(Math.floor(k / n), k % n));
 }
 
-/** X Xᵀ for a random n × k matrix X with entries from `draw`: symmetric, positive semidefinite, rank ≤ k. */
-function gramOfRandom(n: number, k: number, seed: number, draw: (u: number) => number): Float64Array {
+/**
+ * X Xᵀ for a random n × k matrix X with entries from `draw`, rows for which `zero` holds left 0:
+ * symmetric, positive semidefinite, rank ≤ k.
+ */
+function gramOfRandom(n: number, k: number, seed: number, draw: (u: number) => number, zero: (row: number) => boolean = () => false): Float64Array {
   const random = seededRandom(seed);
-  const x = Float64Array.from({ length: n * k }, () => draw(random()));
+  const x = Float64Array.from({ length: n * k }, (_, i) => (zero(Math.floor(i / k)) ? 0 : draw(random())));
   const g = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     for (let j = 0; j <= i; j++) {
@@ -62,6 +65,17 @@ describe('the same eigenvalues, bit for bit, as the decomposition with eigenvect
     [128, 128, 'uniform'],
   ])('X Xᵀ, X of %d × %d, %s entries', (n, k, kind) => {
     const g = gramOfRandom(n, k, n * 1000 + k, kind === 'uniform' ? (u) => u - 0.5 : (u) => Math.floor(u * 5) - 2);
+    const rows = Array.from({ length: n }, (_, i) => Array.from(g.subarray(i * n, i * n + n)));
+    const reference = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true }).realEigenvalues;
+    expect(ascending(symmetricEigenvalues(g, n))).toEqual(ascending(reference));
+  });
+
+  test.each([
+    ['every fifth row and column zero', 41, (row: number) => row % 5 === 2],
+    ['the last rows and columns zero', 33, (row: number) => row >= 28],
+    ['the first rows and columns zero', 33, (row: number) => row < 6],
+  ])('X Xᵀ with %s (columns with nothing to reflect)', (_, n, zero) => {
+    const g = gramOfRandom(n, 12, n, (u) => u - 0.5, zero);
     const rows = Array.from({ length: n }, (_, i) => Array.from(g.subarray(i * n, i * n + n)));
     const reference = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true }).realEigenvalues;
     expect(ascending(symmetricEigenvalues(g, n))).toEqual(ascending(reference));
