@@ -41,115 +41,118 @@ export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weig
 
 /**
  * out[i·yRows + j] = Σ_k x[i·length + k]·y[j·length + k] (the products of the rows of x with the
- * rows of y); with `symmetric` (x = y), only j ≤ i is computed and mirrored. Each product has four
- * running sums (term k into sum k mod 4, added up at the end), so that the additions overlap; two
- * rows of x against two rows of y at a time, so that each value read serves two products.
+ * rows of y, all finite); with `symmetric` (x = y), only j ≤ i is computed and mirrored.
+ *
+ * Each sum is taken as a dot product with four running sums would take it — term k into sum
+ * k mod 4 (the terms past the last multiple of 4 into sum 0), the four added in order at the
+ * end — but without the terms whose x value is 0: such a term is ±0, and adding ±0 leaves a sum
+ * that started at +0 unchanged. A column of a pivoted Cholesky factor is zero on the rows pivoted
+ * before it, so half the terms of C go. Row i's other terms are listed once, by running sum, and
+ * serve eight rows of y at a time.
  */
 function rowProducts(x: Float64Array, xRows: number, y: Float64Array, yRows: number, length: number, out: Float64Array, symmetric: boolean): void {
   const end4 = length - (length % 4);
-  let i = 0;
-  for (; i + 2 <= xRows; i += 2) {
-    const x0 = i * length;
-    const x1 = x0 + length;
-    const jEnd = symmetric ? i + 2 : yRows;
-    let j = 0;
-    for (; j + 2 <= jEnd; j += 2) {
-      const y0 = j * length;
-      const y1 = y0 + length;
-      // Running sums: a for x row i · y row j, b for i · j + 1, c for i + 1 · j, d for i + 1 · j + 1.
-      let a0 = 0;
-      let a1 = 0;
-      let a2 = 0;
-      let a3 = 0;
-      let b0 = 0;
-      let b1 = 0;
-      let b2 = 0;
-      let b3 = 0;
-      let c0 = 0;
-      let c1 = 0;
-      let c2 = 0;
-      let c3 = 0;
-      let d0 = 0;
-      let d1 = 0;
-      let d2 = 0;
-      let d3 = 0;
-      let k = 0;
-      for (; k < end4; k += 4) {
-        let p = x[x0 + k]!;
-        let q = x[x1 + k]!;
-        let u = y[y0 + k]!;
-        let v = y[y1 + k]!;
-        a0 += p * u;
-        b0 += p * v;
-        c0 += q * u;
-        d0 += q * v;
-        p = x[x0 + k + 1]!;
-        q = x[x1 + k + 1]!;
-        u = y[y0 + k + 1]!;
-        v = y[y1 + k + 1]!;
-        a1 += p * u;
-        b1 += p * v;
-        c1 += q * u;
-        d1 += q * v;
-        p = x[x0 + k + 2]!;
-        q = x[x1 + k + 2]!;
-        u = y[y0 + k + 2]!;
-        v = y[y1 + k + 2]!;
-        a2 += p * u;
-        b2 += p * v;
-        c2 += q * u;
-        d2 += q * v;
-        p = x[x0 + k + 3]!;
-        q = x[x1 + k + 3]!;
-        u = y[y0 + k + 3]!;
-        v = y[y1 + k + 3]!;
-        a3 += p * u;
-        b3 += p * v;
-        c3 += q * u;
-        d3 += q * v;
+  const index = new Int32Array(length);
+  const value = new Float64Array(length);
+  const start = new Int32Array(5);
+  for (let i = 0; i < xRows; i++) {
+    const row = i * length;
+    let count = 0;
+    for (let b = 0; b < 4; b++) {
+      start[b] = count;
+      for (let k = b; k < end4; k += 4) {
+        const v = x[row + k]!;
+        if (v === 0) continue;
+        index[count] = k;
+        value[count++] = v;
       }
-      for (; k < length; k++) {
-        const p = x[x0 + k]!;
-        const q = x[x1 + k]!;
-        const u = y[y0 + k]!;
-        const v = y[y1 + k]!;
-        a0 += p * u;
-        b0 += p * v;
-        c0 += q * u;
-        d0 += q * v;
+      if (b > 0) continue;
+      for (let k = end4; k < length; k++) {
+        const v = x[row + k]!;
+        if (v === 0) continue;
+        index[count] = k;
+        value[count++] = v;
       }
-      out[i * yRows + j] = a0 + a1 + a2 + a3;
-      out[i * yRows + j + 1] = b0 + b1 + b2 + b3;
-      out[(i + 1) * yRows + j] = c0 + c1 + c2 + c3;
-      out[(i + 1) * yRows + j + 1] = d0 + d1 + d2 + d3;
     }
-    for (; j < jEnd; j++) {
-      out[i * yRows + j] = dot(x, x0, y, j * length, length);
-      out[(i + 1) * yRows + j] = dot(x, x1, y, j * length, length);
-    }
-  }
-  for (; i < xRows; i++) {
+    start[4] = count;
     const jEnd = symmetric ? i + 1 : yRows;
-    for (let j = 0; j < jEnd; j++) out[i * yRows + j] = dot(x, i * length, y, j * length, length);
+    let j = 0;
+    for (; j + 8 <= jEnd; j += 8) eightProducts(index, value, start, y, j * length, length, out, i * yRows + j);
+    for (; j < jEnd; j++) out[i * yRows + j] = oneProduct(index, value, start, y, j * length);
   }
   if (symmetric) {
     for (let r = 0; r < xRows; r++) for (let t = 0; t < r; t++) out[t * yRows + r] = out[r * yRows + t]!;
   }
 }
 
-/** Σ_i x[xi + i]·y[yi + i], with four running sums so that the additions overlap. */
-function dot(x: Float64Array, xi: number, y: Float64Array, yi: number, length: number): number {
-  let s0 = 0;
-  let s1 = 0;
-  let s2 = 0;
-  let s3 = 0;
-  let i = 0;
-  for (; i + 4 <= length; i += 4) {
-    s0 += x[xi + i]! * y[yi + i]!;
-    s1 += x[xi + i + 1]! * y[yi + i + 1]!;
-    s2 += x[xi + i + 2]! * y[yi + i + 2]!;
-    s3 += x[xi + i + 3]! * y[yi + i + 3]!;
+/** The listed terms against rows of y starting at y[from], y[from + length], … (eight of them), into out[at …]. */
+function eightProducts(index: Int32Array, value: Float64Array, start: Int32Array, y: Float64Array, from: number, length: number, out: Float64Array, at: number): void {
+  let r0 = 0;
+  let r1 = 0;
+  let r2 = 0;
+  let r3 = 0;
+  let r4 = 0;
+  let r5 = 0;
+  let r6 = 0;
+  let r7 = 0;
+  for (let b = 0; b < 4; b++) {
+    let t0 = 0;
+    let t1 = 0;
+    let t2 = 0;
+    let t3 = 0;
+    let t4 = 0;
+    let t5 = 0;
+    let t6 = 0;
+    let t7 = 0;
+    for (let q = start[b]!, end = start[b + 1]!; q < end; q++) {
+      const k = from + index[q]!;
+      const v = value[q]!;
+      t0 += v * y[k]!;
+      t1 += v * y[k + length]!;
+      t2 += v * y[k + 2 * length]!;
+      t3 += v * y[k + 3 * length]!;
+      t4 += v * y[k + 4 * length]!;
+      t5 += v * y[k + 5 * length]!;
+      t6 += v * y[k + 6 * length]!;
+      t7 += v * y[k + 7 * length]!;
+    }
+    if (b === 0) {
+      r0 = t0;
+      r1 = t1;
+      r2 = t2;
+      r3 = t3;
+      r4 = t4;
+      r5 = t5;
+      r6 = t6;
+      r7 = t7;
+    } else {
+      r0 += t0;
+      r1 += t1;
+      r2 += t2;
+      r3 += t3;
+      r4 += t4;
+      r5 += t5;
+      r6 += t6;
+      r7 += t7;
+    }
   }
-  for (; i < length; i++) s0 += x[xi + i]! * y[yi + i]!;
-  return s0 + s1 + s2 + s3;
+  out[at] = r0;
+  out[at + 1] = r1;
+  out[at + 2] = r2;
+  out[at + 3] = r3;
+  out[at + 4] = r4;
+  out[at + 5] = r5;
+  out[at + 6] = r6;
+  out[at + 7] = r7;
+}
+
+/** The listed terms against the row of y starting at y[from]. */
+function oneProduct(index: Int32Array, value: Float64Array, start: Int32Array, y: Float64Array, from: number): number {
+  let r = 0;
+  for (let b = 0; b < 4; b++) {
+    let t = 0;
+    for (let q = start[b]!, end = start[b + 1]!; q < end; q++) t += value[q]! * y[from + index[q]!]!;
+    r = b === 0 ? t : r + t;
+  }
+  return r;
 }
