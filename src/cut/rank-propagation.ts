@@ -22,12 +22,17 @@
  *   (subadditivity), its λ to κ and λ.
  * - any node: moving the output index across costs its dimension D: ρ_A ≤ D·ρ_B, ρ_A ≤ D·κ;
  *   λ ≤ min(ρ_A, ρ_B) and κ ≤ λ.
+ * - additive parts (additive-parts.ts): F_v = P_A + P_B + R_v, parts that read one side only and
+ *   a rest whose functionals have separation rank ≤ μ; λ, κ ≤ [P_A ≠ 0] + [P_B ≠ 0] + μ. Sums add
+ *   the parts term by term, so a network without products keeps λ ≤ 2, and a product of
+ *   separable factors is expanded term by term.
  * The separation rank of h = ⟨w, F_top⟩ is at most λ(top). Values are exact integers (numbers
  * while below 2^53, then bigints); a log2 pass first measures the sizes, and the exact pass runs
  * on doubles, working out again in integers only the nodes whose values reach 2^53.
  */
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from '../network/circuit.js';
 import type { CutCounts } from './tree-min-cut.js';
+import { AdditiveParts, DOUBLE_ARITH, LOG_ARITH, PARTS_EXPANDED, PARTS_FOLDED, PARTS_TRIVIAL, type Arith } from './additive-parts.js';
 
 /** An exact integer: a number while below 2^53, then a bigint. */
 type Int = number | bigint;
@@ -58,6 +63,17 @@ function minInt(a: Int, b: Int): Int {
   return a <= b ? a : b;
 }
 
+/** Exact integers, for the additive parts of the nodes the exact pass works out again. */
+const INT_ARITH: Arith<Int> = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Array<Int>(n).fill(1),
+  of: (n) => n,
+  mul: mulInt,
+  add: addInt,
+  le: (a, b) => a <= b,
+};
+
 /** C(x + a − 1, a): the dimension of the a-th symmetric power of an x-dimensional space. */
 function symPowInt(x: Int, a: number): Int {
   if (a === 1) return x;
@@ -83,6 +99,7 @@ const FROM_PURE = 3;
 const FROM_SIDE_A = 4;
 const FROM_SIDE_B = 5;
 const FROM_PURE_FACTOR = 6;
+const FROM_ADDITIVE = 7;
 
 export interface RankPropagation {
   /** log2 of the bound (from the log pass; the exact value may differ in the last digits). */
@@ -199,6 +216,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
   // A value at or above 2^53 only stands for one that large (see `exactTop`): its power is not formed.
   const symPow = (x: number, a: number): number => (log ? symPowLog2(x, a) : x >= SAFE ? x : Number(symPowInt(x, a)));
+  const parts = new AdditiveParts<number>(n, log ? LOG_ARITH : DOUBLE_ARITH);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
@@ -206,9 +224,13 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       dep[v] = onA ? 1 : 2;
       if (onA) rb[v] = of(dim[v]!);
       else ra[v] = of(dim[v]!);
+      parts.pure(v, dep[v]!, onA ? rb[v]! : ra[v]!);
       continue;
     }
-    if (kind === OP_CONST) continue;
+    if (kind === OP_CONST) {
+      parts.pure(v, 0, one);
+      continue;
+    }
     let d = 0;
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) d |= dep[childList[i]!]!;
     dep[v] = d;
@@ -217,6 +239,7 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       const own = kind === OP_LINEAR ? childList[childStart[v]!]! : -1;
       if (d === 1) rb[v] = own >= 0 ? Math.min(rb[own]!, D) : D;
       if (d === 2) ra[v] = own >= 0 ? Math.min(ra[own]!, D) : D;
+      parts.pure(v, d, d === 2 ? ra[v]! : rb[v]!);
       continue;
     }
     let a: number;
@@ -273,6 +296,12 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
       noB = sums.value(SUM_NO_B);
       k = l;
     }
+    const additive = parts.mixed(c, plan, v, D, l);
+    if (additive < l) {
+      l = additive;
+      lWhy = FROM_ADDITIVE;
+      k = Math.min(k, l);
+    }
     whyA[v] = FROM_CHILDREN;
     whyB[v] = FROM_CHILDREN;
     whyL[v] = lWhy;
@@ -297,8 +326,9 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
     kap[v] = Math.min(k, l);
     lamNoA[v] = Math.min(noA, l);
     lamNoB[v] = Math.min(noB, l);
+    parts.settle(v, l);
   }
-  return { dep, pureParts, ra, rb, kap, lam, lamNoA, lamNoB, whyA, whyB, whyL };
+  return { dep, pureParts, ra, rb, kap, lam, lamNoA, lamNoB, whyA, whyB, whyL, parts };
 }
 
 /**
@@ -441,7 +471,7 @@ function sumFloat(v: number, plan: Plan, dep: Uint8Array, ra: Float64Array, rb: 
  * every node, the distinct children of each product with their multiplicities, and the terms of
  * each sum (children grouped by their linear source).
  */
-interface Plan {
+export interface Plan {
   readonly source: Int32Array;
   /** Product v: children childOf[start[v] .. start[v+1]) with multiplicity times[...]. */
   readonly start: Int32Array;
@@ -562,6 +592,8 @@ interface Propagated {
   readonly whyA: Uint8Array;
   readonly whyB: Uint8Array;
   readonly whyL: Uint8Array;
+  /** The additive parts of every node (additive-parts.ts). */
+  readonly parts: AdditiveParts<number>;
 }
 
 /**
@@ -615,6 +647,7 @@ function propagateExact(c: Circuit, plan: Plan, small: Propagated, large: readon
     lamNoB: new Array<Int>(m),
   };
   const at = (doubles: Float64Array, exact: Int[], v: number): Int => valueAt(doubles, exact, slot, v);
+  const parts = new AdditiveParts<Int>(c.size, INT_ARITH, small.parts);
   const sum = { a: 0 as Int, b: 0 as Int, l: 0 as Int, noA: 0 as Int, noB: 0 as Int };
   for (let i = 0; i < m; i++) {
     const v = large[i]!;
@@ -663,6 +696,11 @@ function propagateExact(c: Circuit, plan: Plan, small: Propagated, large: readon
     } else {
       throw new Error(`rank propagation: node kind ${kind} with a value beyond 2^53`);
     }
+    const additive = parts.mixed(c, plan, v, D, l);
+    if (!(l <= additive)) {
+      l = additive;
+      k = minInt(k, l);
+    }
     const viaB = mulInt(D, b);
     const viaA = mulInt(D, a);
     const viaK = mulInt(D, k);
@@ -675,6 +713,7 @@ function propagateExact(c: Circuit, plan: Plan, small: Propagated, large: readon
     ex.kap[i] = minInt(k, l);
     ex.lamNoA[i] = minInt(noA, l);
     ex.lamNoB[i] = minInt(noB, l);
+    parts.settle(v, l);
   }
   return at(small.lam, ex.lam, c.top);
 }
@@ -759,9 +798,10 @@ function sumExact(
  */
 function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
   const { dep, whyA, whyB, whyL } = p;
+  const whyM = p.parts.why;
   const counts: CutCounts = new Map();
-  // Which (node, value) pairs were visited, keyed node · 4 + value; the stack holds such keys.
-  const seen = new Uint8Array(4 * c.size);
+  // Which (node, value) pairs were visited, keyed node · 8 + value; the stack holds such keys.
+  const seen = new Uint8Array(8 * c.size);
   const note = (v: number): void => {
     const tag = c.bondTag[v]!;
     let byDim = counts.get(tag);
@@ -772,23 +812,43 @@ function recordWidths(c: Circuit, plan: Plan, p: Propagated): CutCounts {
   const B = 1;
   const K = 2;
   const L = 3;
+  // μ, the functional rank of the rest after the pure parts (additive-parts.ts).
+  const MIX = 4;
   const farSide = (v: number, which: number): boolean => (which === A && dep[v] === 2) || (which === B && dep[v] === 1);
-  const stack: number[] = [c.top * 4 + L];
+  const stack: number[] = [c.top * 8 + L];
   const push = (v: number, which: number): void => {
-    stack.push(v * 4 + which);
+    stack.push(v * 8 + which);
   };
   while (stack.length > 0) {
     const key = stack.pop()!;
     if (seen[key] === 1) continue;
     seen[key] = 1;
-    const v = key >>> 2;
-    const which = key & 3;
+    const v = key >>> 3;
+    const which = key & 7;
     const kind = c.op[v];
     if (kind === OP_CONST) continue;
+    if (which === MIX) {
+      if (dep[v] !== 3) continue;
+      const how = whyM[v];
+      if (how === PARTS_TRIVIAL) push(v, L);
+      else if (how === PARTS_EXPANDED) note(v);
+      else if (how === PARTS_FOLDED) {
+        // The spans of the factors' pure parts (widths) and the factors' rests.
+        note(v);
+        for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) if (dep[plan.childOf[t]!] === 3) push(plan.childOf[t]!, MIX);
+      } else if (kind === OP_SUM) {
+        for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) if (dep[plan.childOf[t]!] === 3) push(plan.childOf[t]!, MIX);
+      } else push(c.childList[c.childStart[v]!]!, MIX);
+      continue;
+    }
     const why = which === A ? whyA[v]! : which === B ? whyB[v]! : which === L ? whyL[v]! : FROM_CHILDREN;
     if (kind === OP_INPUT || dep[v] !== 3 || why === FROM_PURE) {
       // A one-sided value crosses only through its own index.
       if (farSide(v, which)) note(v);
+      continue;
+    }
+    if (why === FROM_ADDITIVE) {
+      push(v, MIX);
       continue;
     }
     if (why === FROM_SIDE_A || why === FROM_SIDE_B) {

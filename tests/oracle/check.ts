@@ -34,6 +34,8 @@ export interface FamilyStats {
   /** Failures matched by a documented, reported product bug: id → count and first example. */
   readonly known: Map<string, { count: number; example: string }>;
   ms: number;
+  /** The largest log2(upper / oracle) among judged cases, and where. */
+  gap: { bits: number; where: string };
 }
 
 /**
@@ -63,6 +65,7 @@ export function newStats(family: string, knownBugs: readonly KnownBug[] = []): F
     known: new Map(),
     methods: new Map(),
     ms: 0,
+    gap: { bits: 0, where: '' },
     knownBugs,
   };
 }
@@ -127,6 +130,12 @@ function judge(
   count(`upper ${pb.upper.method}`, oracle === upper);
   if (pb.lower) count(`lower ${pb.lower.method}`, oracle === lower);
   if (oracle === upper) stats.upperTight++;
+  else {
+    // ORACLE_LOOSE=1 lists every upper bound above the oracle (for finding the next rule).
+    if (process.env['ORACLE_LOOSE']) console.log(`LOOSE ${where} partition=${pb.partition} oracle=${r} upper=${upper} [${pb.upper.method}] lower=${lower ?? '-'}`);
+    const bits = pb.upper.log2 - Math.log2(Math.max(1, r));
+    if (bits > stats.gap.bits) stats.gap = { bits, where: `${where} partition=${pb.partition} (oracle ${r}, upper ${upper})` };
+  }
   if (lower !== null) {
     stats.lowerPresent++;
     if (lower === oracle) stats.lowerTight++;
@@ -254,6 +263,12 @@ function pct(x: number, of: number): string {
 }
 
 /** A fixed-width tightness table. */
+/** The largest gap of an upper bound above the oracle over the given families. */
+export function largestGap(all: readonly FamilyStats[]): string {
+  const worst = all.reduce((a, b) => (b.gap.bits > a.gap.bits ? b : a), all[0]!);
+  return worst && worst.gap.bits > 0 ? `${worst.gap.bits.toFixed(2)} bits: ${worst.gap.where}` : 'none: every judged upper bound equals the oracle';
+}
+
 export function tightnessTable(all: readonly FamilyStats[]): string {
   const head = ['family', 'models', 'cases', 'skipped', 'upper=oracle', 'lower given', 'lower=oracle', 'without probe', 'exact', 'redraws', 'failures', 'known bug', 'seconds', 'oracle rank 1|2-3|4-15|16-63|64+'];
   const rows = [...all, ...totals(all)].map((s) => [
