@@ -7574,19 +7574,27 @@ var OP_LINEAR = 2;
 var OP_PRODUCT = 3;
 var OP_SUM = 4;
 var CircuitBuilder = class {
-  constructor(positions, limit) {
+  constructor(positions, limit, capacity = 1024) {
     this.positions = positions;
     this.limit = limit;
+    const nodes = Math.max(1024, capacity);
+    this.op = new Uint8Array(nodes);
+    this.dim = new Int32Array(nodes);
+    this.position = new Int32Array(nodes);
+    this.tag = new Int32Array(nodes);
+    this.uses = new Uint8Array(nodes);
+    this.childStart = new Int32Array(nodes + 1);
+    this.childList = new Int32Array(4 * nodes);
   }
   positions;
   limit;
-  op = new Uint8Array(1024);
-  dim = new Int32Array(1024);
-  position = new Int32Array(1024);
-  tag = new Int32Array(1024);
-  childStart = new Int32Array(1025);
-  childList = new Int32Array(4096);
-  uses = new Uint8Array(1024);
+  op;
+  dim;
+  position;
+  tag;
+  childStart;
+  childList;
+  uses;
   n = 0;
   m = 0;
   reuse = false;
@@ -8047,7 +8055,9 @@ function buildCircuit(model, options) {
   if (estimate > limit) return tooLarge2();
   const pointwise = readPointwise(model, shapes);
   const notes = new Notes(model, shapes, pointwise, options.surrogate);
-  const b = new CircuitBuilder(positionCount(model.input.shape), limit);
+  let capacity = positionCount(model.input.shape);
+  for (const l of model.layers) if (l.kind !== "pointwise" && l.kind !== "flatten") capacity += positionCount(shapes.layers[l.index].shape);
+  const b = new CircuitBuilder(positionCount(model.input.shape), limit, Math.min(capacity, limit));
   try {
     const inputTag = b.addTag({ label: "input", line: model.input.span.line, span: model.input.span, layerIndex: -1 });
     const m = shapes.representation;
@@ -8094,7 +8104,7 @@ function productOf(b, dim, tag, children) {
   return children.length === 1 ? children[0] : b.add(OP_PRODUCT, dim, tag, children);
 }
 function sumOf(b, dim, tag, children) {
-  const live = children.filter((v) => v !== ZERO);
+  const live = children.includes(ZERO) ? children.filter((v) => v !== ZERO) : children;
   if (live.length === 0) return ZERO;
   return b.add(live.length === 1 ? OP_LINEAR : OP_SUM, dim, tag, live);
 }
@@ -8215,29 +8225,40 @@ function eachOutput(inShape, outShape, axisList, visit3) {
   const lists = outShape.map((n, a) => Array.from({ length: n }, (_, j) => axisList(a, j)));
   if (outShape.length === 1) {
     for (let j = 0; j < outShape[0]; j++) {
-      const problem = visit3(lists[0][j], [j]);
+      const problem = visit3(lists[0][j], j);
       if (problem) return problem;
     }
     return void 0;
   }
   const width = inShape[1];
+  const buffers = [];
   for (let i = 0; i < outShape[0]; i++) {
     const rows = lists[0][i];
     for (let j = 0; j < outShape[1]; j++) {
       const cols = lists[1][j];
-      const positions = new Array(rows.length * cols.length);
+      const size = rows.length * cols.length;
+      const positions = buffers[size] ??= new Array(size);
       let k = 0;
       for (const r of rows) for (const c of cols) positions[k++] = r * width + c;
-      const problem = visit3(positions, [i, j]);
+      const problem = visit3(positions, i * outShape[1] + j);
       if (problem) return problem;
     }
   }
   return void 0;
 }
+function picker(nodeAt) {
+  const buffers = [];
+  return (positions) => {
+    const out = buffers[positions.length] ??= new Array(positions.length);
+    for (let i = 0; i < positions.length; i++) out[i] = nodeAt(positions[i]);
+    return out;
+  };
+}
 function plans(g, k, s, d, layer) {
   return g.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
 }
-function emptyWindow(layer, at) {
+function emptyWindow(layer, shape, out) {
+  const at = shape.length === 1 ? [out] : [Math.floor(out / shape[1]), out % shape[1]];
   return {
     span: layer.fieldSpans["padding"] ?? layer.span,
     code: "network/empty-window",
@@ -8250,13 +8271,14 @@ function pool(b, g, layer, shape, tag) {
   }
   const axisPlans2 = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes = [];
+  const pick = picker((p) => g.nodes[p]);
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans2[a].left),
-    (positions, at) => {
-      if (positions.length === 0) return emptyWindow(layer, at);
-      nodes.push(productOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+    (positions, out) => {
+      if (positions.length === 0) return emptyWindow(layer, shape, out);
+      nodes.push(productOf(b, g.dim, tag, pick(positions)));
       return void 0;
     }
   );
@@ -8264,6 +8286,7 @@ function pool(b, g, layer, shape, tag) {
 }
 function upsample(b, g, layer, shape, tag) {
   const nodes = [];
+  const pick = picker((p) => g.nodes[p]);
   eachOutput(
     g.shape,
     shape,
@@ -8274,7 +8297,7 @@ function upsample(b, g, layer, shape, tag) {
       return src.num === 0 ? [src.i0] : [src.i0, src.i1];
     },
     (positions) => {
-      nodes.push(positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, g.dim, tag, positions.map((p) => g.nodes[p])));
+      nodes.push(positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, g.dim, tag, pick(positions)));
       return void 0;
     }
   );
@@ -8285,12 +8308,13 @@ function conv(b, g, layer, shape, width, tag, surrogate, identity) {
   const causal = layer.padding.mode === "causal";
   const nodes = [];
   if (surrogate === "overlap") {
+    const pick2 = picker((p) => g.nodes[p]);
     const problem2 = eachOutput(
       g.shape,
       shape,
       (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans2[a].left),
       (positions) => {
-        nodes.push(sumOf(b, width, tag, positions.map((p) => g.nodes[p])));
+        nodes.push(sumOf(b, width, tag, pick2(positions)));
         return void 0;
       }
     );
@@ -8301,12 +8325,13 @@ function conv(b, g, layer, shape, width, tag, surrogate, identity) {
     if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p] : linearOf(b, width, tag, g.nodes[p]);
     return mapped[p];
   };
+  const pick = picker(mapOf);
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => treeConvPositions(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans2[a], causal),
     (positions) => {
-      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, positions.map(mapOf)));
+      nodes.push(positions.length === 0 ? ZERO : productOf(b, width, tag, pick(positions)));
       return void 0;
     }
   );
@@ -8314,12 +8339,13 @@ function conv(b, g, layer, shape, width, tag, surrogate, identity) {
 }
 function convTranspose(b, g, layer, shape, tag, surrogate, identity) {
   const nodes = [];
+  const pick = picker((p) => g.nodes[p]);
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => surrogate === "overlap" ? transposeSources(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]).map(([i]) => i) : [treeTransposeSource(j, g.shape[a], layer.stride[a])[0]],
     (positions) => {
-      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, layer.channels, tag, positions.map((p) => g.nodes[p])));
+      nodes.push(identity && positions.length === 1 ? g.nodes[positions[0]] : sumOf(b, layer.channels, tag, pick(positions)));
       return void 0;
     }
   );
@@ -8405,6 +8431,47 @@ function list(items) {
   return items.length <= max ? items.join(", ") : `${items.slice(0, max).join(", ")} and ${items.length - max} more`;
 }
 
+// src/network/head-cone.ts
+function headCone(c) {
+  const n = c.size;
+  const { childStart, childList } = c;
+  const reached = new Uint8Array(n);
+  reached[c.top] = 1;
+  let size = 0;
+  let links = 0;
+  for (let v = c.top; v >= 0; v--) {
+    if (reached[v] === 0) continue;
+    size++;
+    links += childStart[v + 1] - childStart[v];
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) reached[childList[i]] = 1;
+  }
+  if (size === n) return c;
+  const index = new Int32Array(c.top + 1);
+  const op = new Uint8Array(size);
+  const dim = new Int32Array(size);
+  const position = new Int32Array(size);
+  const tag = new Int32Array(size);
+  const bondTag = new Int32Array(size);
+  const start = new Int32Array(size + 1);
+  const list2 = new Int32Array(links);
+  let k = 0;
+  let m = 0;
+  for (let v = 0; v <= c.top; v++) {
+    if (reached[v] === 0) continue;
+    index[v] = k;
+    op[k] = c.op[v];
+    dim[k] = c.dim[v];
+    position[k] = c.position[v];
+    tag[k] = c.tag[v];
+    bondTag[k] = c.bondTag[v];
+    start[k] = m;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) list2[m++] = index[childList[i]];
+    k++;
+  }
+  start[size] = m;
+  return { ...c, size, op, dim, position, tag, bondTag, childStart: start, childList: list2, top: size - 1 };
+}
+
 // src/cut/degree-bound.ts
 var SAFE = 2 ** 52;
 function degreeBound(c, side) {
@@ -8432,13 +8499,11 @@ function degreeBound(c, side) {
   }
   let best = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, dep, paths, mask, -1);
+    const found = sweep(c, dep, paths, mask);
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
-  const frontier = sweep(c, dep, paths, best.mask, best.step);
-  if (!frontier || !frontier.degrees) return null;
-  const degrees = frontier.degrees;
+  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
   const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d)));
   const counts = /* @__PURE__ */ new Map();
   for (const [v] of degrees) {
@@ -8447,9 +8512,9 @@ function degreeBound(c, side) {
     if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
     byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
   }
-  return { log2: frontier.log, rank, counts };
+  return { log2: best.log, rank, counts };
 }
-function sweep(c, dep, paths, mask, stopAt) {
+function sweep(c, dep, paths, mask) {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
   const held = new Float64Array(c.size);
@@ -8473,14 +8538,24 @@ function sweep(c, dep, paths, mask, stopAt) {
     d[v] = paths[v];
     total += term(v);
     if (op[v] === OP_INPUT) inputsLeft--;
-    if (stopAt === v) {
-      const degrees = /* @__PURE__ */ new Map();
-      for (let u = 0; u <= v; u++) if (d[u] > 0) degrees.set(u, d[u]);
-      return { step: v, log: total, degrees };
-    }
     if (inputsLeft === 0 && (!best || total < best.log - 1e-9)) best = { step: v, log: total };
   }
   return best;
+}
+function frontierAt(c, dep, paths, mask, step) {
+  const { childStart, childList } = c;
+  const d = new Float64Array(c.size);
+  for (let v = 0; v <= step; v++) {
+    if (dep[v] !== mask || paths[v] === 0) continue;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) {
+      const ch = childList[i];
+      if (d[ch] > 0) d[ch] = d[ch] - paths[v];
+    }
+    d[v] = paths[v];
+  }
+  const degrees = /* @__PURE__ */ new Map();
+  for (let u = 0; u <= step; u++) if (d[u] > 0) degrees.set(u, d[u]);
+  return degrees;
 }
 function log2Binomial(n, k) {
   if (k <= 0 || k >= n) return 0;
@@ -9191,53 +9266,262 @@ function spans(c) {
   return s;
 }
 
-// src/cut/rank-propagation.ts
-var SAFE2 = 2 ** 53;
-function big(x) {
-  return typeof x === "bigint" ? x : BigInt(x);
-}
-var EXACT = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Array(n).fill(1),
-  of: (n) => n,
-  mul: (a, b) => {
-    if (typeof a === "number" && typeof b === "number") {
-      const r = a * b;
-      if (r < SAFE2) return r;
-    }
-    return big(a) * big(b);
-  },
-  add: (a, b) => {
-    if (typeof a === "number" && typeof b === "number") {
-      const r = a + b;
-      if (r < SAFE2) return r;
-    }
-    return big(a) + big(b);
-  },
-  le: (a, b) => a <= b,
-  symPow: (x, a) => {
-    if (a === 1) return x;
-    const n = big(x) + BigInt(a - 1);
-    let r = 1n;
-    for (let i = 0; i < a; i++) r = r * (n - BigInt(i)) / BigInt(i + 1);
-    return r < BigInt(SAFE2) ? Number(r) : r;
-  }
-};
-var LOG = {
+// src/cut/additive-parts.ts
+var LOG_ARITH = {
   one: 0,
   zero: -Infinity,
   ones: (n) => new Float64Array(n),
   of: (n) => Math.log2(n),
   mul: (a, b) => a + b,
   add: (a, b) => a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
-  le: (a, b) => a <= b,
-  symPow: (x, a) => {
-    let r = 0;
-    for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
-    return r;
+  le: (a, b) => a <= b
+};
+var DOUBLE_ARITH = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Float64Array(n).fill(1),
+  of: (n) => n,
+  mul: (a, b) => a * b,
+  add: (a, b) => a + b,
+  le: (a, b) => a <= b
+};
+var PARTS_FROM_CHILDREN = 0;
+var PARTS_TRIVIAL = 1;
+var PARTS_FOLDED = 2;
+var PARTS_EXPANDED = 3;
+var MAX_FACTORS = 8;
+var FULL_SPAN_FACTORS = 40;
+var A2 = 1;
+var B2 = 2;
+var EXPANDED = 0;
+var NOT_SEPARABLE = 1;
+var OVER = 2;
+var AdditiveParts = class {
+  constructor(n, ar, from) {
+    this.ar = ar;
+    this.flags = from ? Uint8Array.from(from.flags) : new Uint8Array(n);
+    this.mu = from ? Array.from(from.mu) : ar.ones(n);
+    this.spanA = from ? Array.from(from.spanA) : ar.ones(n);
+    this.spanB = from ? Array.from(from.spanB) : ar.ones(n);
+    this.why = from ? Uint8Array.from(from.why) : new Uint8Array(n);
+  }
+  ar;
+  flags;
+  mu;
+  spanA;
+  spanB;
+  why;
+  /**
+   * A node that reads side A only (dep 1; `span` = the rank of its coordinates as functions of
+   * x_A), side B only (dep 2), or nothing (dep 0, a constant: one function, counted with side A).
+   */
+  pure(v, dep, span) {
+    const ar = this.ar;
+    this.flags[v] = dep === 2 ? B2 : A2;
+    this.mu[v] = ar.zero;
+    this.spanA[v] = dep === 2 ? ar.zero : dep === 0 ? ar.one : span;
+    this.spanB[v] = dep === 2 ? span : ar.zero;
+    this.why[v] = PARTS_FROM_CHILDREN;
+  }
+  /**
+   * A node that reads both sides: its decomposition from its children's. Returns flags + μ, a
+   * bound on the separation rank of its functionals. `cap`: λ(v) as the other rules bound it; once
+   * μ passes it the node will take the trivial decomposition anyway (settle), so the work stops
+   * there and `cap` is returned.
+   */
+  mixed(c, plan, v, D, cap) {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const min = (x, y) => ar.le(x, y) ? x : y;
+    const kind = c.op[v];
+    if (kind === OP_LINEAR ? this.why[c.childList[c.childStart[v]]] === PARTS_TRIVIAL : this.allTrivial(plan, v)) return this.trivial(v, cap);
+    if (kind === OP_LINEAR) {
+      const ch = c.childList[c.childStart[v]];
+      this.set(v, flags[ch], mu[ch], min(D, spanA[ch]), min(D, spanB[ch]), PARTS_FROM_CHILDREN);
+    } else if (kind === OP_SUM) {
+      let f2 = 0;
+      let m = ar.zero;
+      let sa = ar.zero;
+      let sb = ar.zero;
+      for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
+        const node = plan.childOf[t];
+        f2 |= flags[node];
+        m = ar.add(m, mu[node]);
+        if (!ar.le(m, cap)) return this.trivial(v, cap);
+        if (flags[node] & A2 && !ar.le(D, sa)) sa = ar.add(sa, spanA[node]);
+        if (flags[node] & B2 && !ar.le(D, sb)) sb = ar.add(sb, spanB[node]);
+      }
+      this.set(v, f2, m, min(D, sa), min(D, sb), PARTS_FROM_CHILDREN);
+    } else if (kind === OP_PRODUCT) {
+      const expanded = this.expand(plan, v, D, cap);
+      if (expanded === OVER || expanded === NOT_SEPARABLE && !this.fold(plan, v, D, cap)) return this.trivial(v, cap);
+    } else if (kind === OP_INPUT || kind === OP_CONST) {
+      throw new Error("additive parts: an input or a constant reads one side only");
+    }
+    const n = (flags[v] & A2 ? 1 : 0) + (flags[v] & B2 ? 1 : 0);
+    return n === 0 ? mu[v] : ar.add(ar.of(n), mu[v]);
+  }
+  allTrivial(plan, v) {
+    for (let t = plan.start[v]; t < plan.start[v + 1]; t++) if (this.why[plan.childOf[t]] !== PARTS_TRIVIAL) return false;
+    return true;
+  }
+  trivial(v, cap) {
+    this.why[v] = PARTS_TRIVIAL;
+    return cap;
+  }
+  /** Once λ(v) is final: the trivial decomposition (μ = λ, no flags) when it is better. */
+  settle(v, lambda) {
+    if (this.why[v] === PARTS_TRIVIAL || !this.ar.le(this.mu[v], lambda)) {
+      const zero = this.ar.zero;
+      this.set(v, 0, lambda, zero, zero, PARTS_TRIVIAL);
+    }
+  }
+  set(v, f2, m, sa, sb, why) {
+    this.flags[v] = f2;
+    this.mu[v] = m;
+    this.spanA[v] = sa;
+    this.spanB[v] = sb;
+    this.why[v] = why;
+  }
+  /** A product of separable factors (μ = 0 each), expanded over the subsets S. */
+  expand(plan, v, D, cap) {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const factors = [];
+    for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
+      const ch = plan.childOf[t];
+      if (!ar.le(mu[ch], ar.zero) || flags[ch] === 0) return NOT_SEPARABLE;
+      for (let i = 0; i < plan.times[t]; i++) factors.push(ch);
+      if (factors.length > FULL_SPAN_FACTORS) return NOT_SEPARABLE;
+    }
+    const k = factors.length;
+    const min = (x, y) => ar.le(x, y) ? x : y;
+    let allA = true;
+    let allB = true;
+    let sa = ar.one;
+    let sb = ar.one;
+    let fullSpans = true;
+    let onlyA = 0;
+    let onlyB = 0;
+    for (const ch of factors) {
+      const f2 = flags[ch];
+      allA &&= (f2 & A2) !== 0;
+      allB &&= (f2 & B2) !== 0;
+      if (f2 === A2) onlyA++;
+      if (f2 === B2) onlyB++;
+      sa = ar.mul(sa, spanA[ch]);
+      sb = ar.mul(sb, spanB[ch]);
+      fullSpans &&= (!(f2 & A2) || ar.le(D, spanA[ch])) && (!(f2 & B2) || ar.le(D, spanB[ch]));
+    }
+    const flagsOut = (allA ? A2 : 0) | (allB ? B2 : 0);
+    const spansOut = [allA ? min(D, sa) : ar.zero, allB ? min(D, sb) : ar.zero];
+    if (fullSpans) {
+      const terms = 2 ** (k - onlyA - onlyB) - (onlyB === 0 ? 1 : 0) - (onlyA === 0 ? 1 : 0);
+      const rest2 = terms > 0 ? ar.mul(D, ar.of(terms)) : ar.zero;
+      if (!ar.le(rest2, cap)) return OVER;
+      this.set(v, flagsOut, rest2, spansOut[0], spansOut[1], PARTS_EXPANDED);
+      return EXPANDED;
+    }
+    if (k > MAX_FACTORS) return NOT_SEPARABLE;
+    let rest = ar.zero;
+    for (let s = 1; s < (1 << k) - 1; s++) {
+      let pa = ar.one;
+      let pb = ar.one;
+      let zero = false;
+      for (let i = 0; i < k && !zero; i++) {
+        const ch = factors[i];
+        if (s & 1 << i) {
+          if (flags[ch] & A2) pa = ar.mul(pa, spanA[ch]);
+          else zero = true;
+        } else if (flags[ch] & B2) pb = ar.mul(pb, spanB[ch]);
+        else zero = true;
+      }
+      if (!zero) rest = ar.add(rest, min(D, min(pa, pb)));
+      if (!ar.le(rest, cap)) return OVER;
+    }
+    this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+    return EXPANDED;
+  }
+  /** Any product, folded factor by factor (each factor as often as it appears); false once μ passes `cap`. */
+  fold(plan, v, D, cap) {
+    const ar = this.ar;
+    const { flags, mu, spanA, spanB } = this;
+    const min = (x, y) => ar.le(x, y) ? x : y;
+    let f2 = -1;
+    let m = ar.zero;
+    let sa = ar.zero;
+    let sb = ar.zero;
+    for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
+      const ch = plan.childOf[t];
+      for (let i = 0; i < plan.times[t]; i++) {
+        const [g, mg, ga, gb] = [flags[ch], mu[ch], spanA[ch], spanB[ch]];
+        if (f2 < 0) {
+          [f2, m, sa, sb] = [g, mg, ga, gb];
+          continue;
+        }
+        let rest = ar.mul(D, ar.mul(m, mg));
+        if (f2 & A2 && g & B2) rest = ar.add(rest, min(D, min(sa, gb)));
+        if (f2 & B2 && g & A2) rest = ar.add(rest, min(D, min(sb, ga)));
+        if (f2 & A2) rest = ar.add(rest, ar.mul(sa, mg));
+        if (f2 & B2) rest = ar.add(rest, ar.mul(sb, mg));
+        if (g & A2) rest = ar.add(rest, ar.mul(ga, m));
+        if (g & B2) rest = ar.add(rest, ar.mul(gb, m));
+        const both = f2 & g;
+        sa = both & A2 ? min(D, ar.mul(sa, ga)) : ar.zero;
+        sb = both & B2 ? min(D, ar.mul(sb, gb)) : ar.zero;
+        f2 = both;
+        m = rest;
+        if (!ar.le(m, cap)) return false;
+      }
+    }
+    this.set(v, Math.max(f2, 0), m, sa, sb, PARTS_FOLDED);
+    return true;
   }
 };
+
+// src/cut/rank-propagation.ts
+var SAFE2 = 2 ** 53;
+function big(x) {
+  return typeof x === "bigint" ? x : BigInt(x);
+}
+function mulInt(a, b) {
+  if (typeof a === "number" && typeof b === "number") {
+    const r = a * b;
+    if (r < SAFE2) return r;
+  }
+  return big(a) * big(b);
+}
+function addInt(a, b) {
+  if (typeof a === "number" && typeof b === "number") {
+    const r = a + b;
+    if (r < SAFE2) return r;
+  }
+  return big(a) + big(b);
+}
+function minInt(a, b) {
+  return a <= b ? a : b;
+}
+var INT_ARITH = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Array(n).fill(1),
+  of: (n) => n,
+  mul: mulInt,
+  add: addInt,
+  le: (a, b) => a <= b
+};
+function symPowInt(x, a) {
+  if (a === 1) return x;
+  const n = big(x) + BigInt(a - 1);
+  let r = 1n;
+  for (let i = 0; i < a; i++) r = r * (n - BigInt(i)) / BigInt(i + 1);
+  return r < BigInt(SAFE2) ? Number(r) : r;
+}
+function symPowLog2(x, a) {
+  let r = 0;
+  for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
+  return r;
+}
 var FROM_CHILDREN = 0;
 var FROM_DIM_OTHER = 1;
 var FROM_DIM_KAPPA = 2;
@@ -9245,17 +9529,22 @@ var FROM_PURE = 3;
 var FROM_SIDE_A = 4;
 var FROM_SIDE_B = 5;
 var FROM_PURE_FACTOR = 6;
+var FROM_ADDITIVE = 7;
 var MAX_BITS = 4e6;
-function rankPropagation(c, side) {
+function rankPropagation(c, side, whole = c) {
   const plan = planOf(c);
   const logs = propagateFloat(c, plan, side, true);
   let largest = 0;
   for (let v = 0; v < c.size; v++) largest = Math.max(largest, logs.ra[v], logs.rb[v]);
-  const rank = () => {
-    if (largest > MAX_BITS) return void 0;
-    if (largest < 40) return BigInt(propagateFloat(c, plan, side, false).lam[c.top]);
-    return big(propagate(c, plan, side, EXACT).lam[c.top]);
+  const tooLarge2 = () => {
+    if (largest > MAX_BITS) return true;
+    if (whole === c || ceilingOf(whole) * (1 + 1e-9) + 1 <= MAX_BITS) return false;
+    const all = propagateFloat(whole, planOf(whole), side, true);
+    let most = 0;
+    for (let v = 0; v < whole.size; v++) most = Math.max(most, all.ra[v], all.rb[v]);
+    return most > MAX_BITS;
   };
+  const rank = () => tooLarge2() ? void 0 : exactTop(c, plan, side);
   let counts;
   return {
     log2: logs.lam[c.top],
@@ -9265,10 +9554,42 @@ function rankPropagation(c, side) {
     }
   };
 }
+var ceilings = /* @__PURE__ */ new WeakMap();
+function ceilingOf(c) {
+  const hit = ceilings.get(c);
+  if (hit !== void 0) return hit;
+  const { op, dim, childStart, childList } = c;
+  const w = new Float64Array(c.size);
+  let most = 0;
+  let lastDim = 1;
+  let lastLog = 0;
+  for (let v = 0; v < c.size; v++) {
+    if (dim[v] !== lastDim) {
+      lastDim = dim[v];
+      lastLog = Math.log2(lastDim);
+    }
+    let x = lastLog;
+    const kind = op[v];
+    if (kind === OP_LINEAR) x = Math.max(x, w[childList[childStart[v]]]);
+    else if (kind === OP_PRODUCT) {
+      let s = 0;
+      for (let i = childStart[v]; i < childStart[v + 1]; i++) s += w[childList[i]];
+      x = Math.max(x, s);
+    } else if (kind === OP_SUM) {
+      let m = 0;
+      for (let i = childStart[v]; i < childStart[v + 1]; i++) m = Math.max(m, w[childList[i]]);
+      x = Math.max(x, m + Math.log2(childStart[v + 1] - childStart[v] + 2));
+    }
+    w[v] = x;
+    most = Math.max(most, x);
+  }
+  ceilings.set(c, most);
+  return most;
+}
 function propagateFloat(c, plan, side, log) {
   const n = c.size;
   const { op, dim, childStart, childList } = c;
-  const { start, childOf, times, mStart, members } = plan;
+  const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
   const one = log ? 0 : 1;
   const ra = new Float64Array(n).fill(one);
@@ -9282,17 +9603,12 @@ function propagateFloat(c, plan, side, log) {
   const lamNoB = new Float64Array(n).fill(one);
   const pureParts = new Uint8Array(n);
   const zero = log ? -Infinity : 0;
+  const sums = new FloatSums(log);
   const of = (x) => log ? Math.log2(x) : x;
   const mul2 = (x, y) => log ? x + y : x * y;
   const add2 = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
-  const symPow = (x, a) => log ? LOG.symPow(x, a) : Number(EXACT.symPow(x, a));
-  const term = (t, r) => {
-    const node = childOf[t];
-    if (mStart[t + 1] === mStart[t]) return r[node];
-    let sum = r[members[mStart[t]]];
-    for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = add2(sum, r[members[i]]);
-    return Math.min(r[node], sum);
-  };
+  const symPow = (x, a) => log ? symPowLog2(x, a) : x >= SAFE2 ? x : Number(symPowInt(x, a));
+  const parts = new AdditiveParts(n, log ? LOG_ARITH : DOUBLE_ARITH);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
@@ -9300,9 +9616,13 @@ function propagateFloat(c, plan, side, log) {
       dep[v] = onA ? 1 : 2;
       if (onA) rb[v] = of(dim[v]);
       else ra[v] = of(dim[v]);
+      parts.pure(v, dep[v], onA ? rb[v] : ra[v]);
       continue;
     }
-    if (kind === OP_CONST) continue;
+    if (kind === OP_CONST) {
+      parts.pure(v, 0, one);
+      continue;
+    }
     let d = 0;
     for (let i = childStart[v]; i < childStart[v + 1]; i++) d |= dep[childList[i]];
     dep[v] = d;
@@ -9311,6 +9631,7 @@ function propagateFloat(c, plan, side, log) {
       const own = kind === OP_LINEAR ? childList[childStart[v]] : -1;
       if (d === 1) rb[v] = own >= 0 ? Math.min(rb[own], D) : D;
       if (d === 2) ra[v] = own >= 0 ? Math.min(ra[own], D) : D;
+      parts.pure(v, d, d === 2 ? ra[v] : rb[v]);
       continue;
     }
     let a;
@@ -9342,11 +9663,12 @@ function propagateFloat(c, plan, side, log) {
       }
       l = mul2(D, k);
       lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
-      if (pf) {
-        const onA = dep[pf.pure] === 1;
-        const span = onA ? rb[pf.pure] : ra[pf.pure];
-        const alt = add2(pureParts[pf.other] & (onA ? 1 : 2) ? one : zero, mul2(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
+      const pure = pureFactor(start, childOf, times, dep, v);
+      if (pure >= 0) {
+        const other = otherFactor(start, childOf, v, pure);
+        const onA = dep[pure] === 1;
+        const span = onA ? rb[pure] : ra[pure];
+        const alt = add2(pureParts[other] & (onA ? 1 : 2) ? one : zero, mul2(span, onA ? lamNoA[other] : lamNoB[other]));
         if (alt < l) {
           l = alt;
           lWhy = FROM_PURE_FACTOR;
@@ -9355,10 +9677,19 @@ function propagateFloat(c, plan, side, log) {
       noA = l;
       noB = l;
     } else {
-      let parts;
-      [a, b, l, noA, noB, parts] = sumFloat(v, start, childOf, dep, (t) => term(t, ra), (t) => term(t, rb), (t) => term(t, lam), D, log);
-      pureParts[v] = parts;
+      pureParts[v] = sumFloat(v, plan, dep, ra, rb, lam, D, sums);
+      a = sums.value(SUM_A);
+      b = sums.value(SUM_B);
+      l = sums.value(SUM_L);
+      noA = sums.value(SUM_NO_A);
+      noB = sums.value(SUM_NO_B);
       k = l;
+    }
+    const additive = parts.mixed(c, plan, v, D, l);
+    if (additive < l) {
+      l = additive;
+      lWhy = FROM_ADDITIVE;
+      k = Math.min(k, l);
     }
     whyA[v] = FROM_CHILDREN;
     whyB[v] = FROM_CHILDREN;
@@ -9384,47 +9715,80 @@ function propagateFloat(c, plan, side, log) {
     kap[v] = Math.min(k, l);
     lamNoA[v] = Math.min(noA, l);
     lamNoB[v] = Math.min(noB, l);
+    parts.settle(v, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
+  return { dep, pureParts, ra, rb, kap, lam, lamNoA, lamNoB, whyA, whyB, whyL, parts };
 }
 function pureFactor(start, childOf, times, dep, v) {
-  if (start[v + 1] - start[v] !== 2) return void 0;
-  const [x, y] = [childOf[start[v]], childOf[start[v] + 1]];
-  if (times[start[v]] !== 1 || times[start[v] + 1] !== 1) return void 0;
-  const [dx, dy] = [dep[x], dep[y]];
-  if ((dx === 1 || dx === 2) && dy === 3) return { pure: x, other: y };
-  if ((dy === 1 || dy === 2) && dx === 3) return { pure: y, other: x };
-  return void 0;
+  const t = start[v];
+  if (start[v + 1] - t !== 2 || times[t] !== 1 || times[t + 1] !== 1) return -1;
+  const x = childOf[t];
+  const y = childOf[t + 1];
+  const dx = dep[x];
+  const dy = dep[y];
+  if ((dx === 1 || dx === 2) && dy === 3) return x;
+  if ((dy === 1 || dy === 2) && dx === 3) return y;
+  return -1;
 }
-var PlainSum = class {
-  value = 0;
-  add(x) {
-    this.value += x;
+function otherFactor(start, childOf, v, pure) {
+  const x = childOf[start[v]];
+  return x === pure ? childOf[start[v] + 1] : x;
+}
+var SUM_A = 0;
+var SUM_B = 1;
+var SUM_L = 2;
+var SUM_NO_A = 3;
+var SUM_NO_B = 4;
+var SUM_PURE_A_ON_B = 5;
+var SUM_PURE_B_ON_A = 6;
+var FloatSums = class {
+  constructor(log) {
+    this.log = log;
   }
-};
-var Log2Sum = class {
-  m = -Infinity;
-  s = 0;
-  add(x) {
+  log;
+  m = new Float64Array(7);
+  s = new Float64Array(7);
+  clear(i) {
+    this.m[i] = -Infinity;
+    this.s[i] = 0;
+  }
+  add(i, x) {
+    if (!this.log) {
+      this.s[i] = this.s[i] + x;
+      return;
+    }
     if (x === -Infinity) return;
-    if (x > this.m) {
-      this.s = this.m === -Infinity ? 1 : this.s * 2 ** (this.m - x) + 1;
-      this.m = x;
-    } else this.s += 2 ** (x - this.m);
+    const m = this.m[i];
+    if (x > m) {
+      this.s[i] = m === -Infinity ? 1 : this.s[i] * 2 ** (m - x) + 1;
+      this.m[i] = x;
+    } else this.s[i] = this.s[i] + 2 ** (x - m);
   }
-  /** log2 of the sum; −∞ for an empty sum (zero). */
-  get value() {
-    return this.m === -Infinity ? -Infinity : this.m + Math.log2(this.s);
+  /** The sum (its log2, −∞ for an empty sum, when `log`). */
+  value(i) {
+    if (!this.log) return this.s[i];
+    const m = this.m[i];
+    return m === -Infinity ? -Infinity : m + Math.log2(this.s[i]);
   }
 };
-function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
-  const sum = () => log ? new Log2Sum() : new PlainSum();
+function termFloat(plan, t, r, log) {
+  const { childOf, mStart, members } = plan;
+  const node = childOf[t];
+  const from = mStart[t];
+  const to = mStart[t + 1];
+  if (from === to) return r[node];
+  let sum = r[members[from]];
+  for (let i = from + 1; i < to; i++) {
+    const x = r[members[i]];
+    sum = log ? Math.max(sum, x) + Math.log2(1 + 2 ** -Math.abs(sum - x)) : sum + x;
+  }
+  return Math.min(r[node], sum);
+}
+function sumFloat(v, plan, dep, ra, rb, lam, D, sums) {
+  const log = sums.log;
+  const { start, childOf } = plan;
   const one = log ? 0 : 1;
-  const a = sum();
-  const b = sum();
-  const l = sum();
-  const pureAonB = sum();
-  const pureBonA = sum();
+  for (let i = SUM_A; i <= SUM_PURE_B_ON_A; i++) sums.clear(i);
   let pureA = false;
   let pureB = false;
   let constant = false;
@@ -9433,313 +9797,362 @@ function sumFloat(v, start, childOf, dep, termA, termB, termL, D, log) {
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB.add(termB(t));
+      sums.add(SUM_PURE_A_ON_B, termFloat(plan, t, rb, log));
     } else if (d === 2) {
       pureB = true;
-      pureBonA.add(termA(t));
+      sums.add(SUM_PURE_B_ON_A, termFloat(plan, t, ra, log));
     } else {
-      a.add(termA(t));
-      b.add(termB(t));
-      l.add(termL(t));
+      sums.add(SUM_A, termFloat(plan, t, ra, log));
+      sums.add(SUM_B, termFloat(plan, t, rb, log));
+      sums.add(SUM_L, termFloat(plan, t, lam, log));
     }
   }
-  const mixed = l.value;
+  const mixed = sums.value(SUM_L);
   const loneConstant = constant && !pureA && !pureB;
-  const noA = sum();
-  noA.add(mixed);
-  const noB = sum();
-  noB.add(mixed);
-  if (pureB || loneConstant) noA.add(one);
-  if (pureA || loneConstant) noB.add(one);
+  sums.add(SUM_NO_A, mixed);
+  sums.add(SUM_NO_B, mixed);
+  if (pureB || loneConstant) sums.add(SUM_NO_A, one);
+  if (pureA || loneConstant) sums.add(SUM_NO_B, one);
   if (loneConstant) {
-    a.add(one);
-    b.add(one);
-    l.add(one);
+    sums.add(SUM_A, one);
+    sums.add(SUM_B, one);
+    sums.add(SUM_L, one);
   }
   if (pureA) {
-    a.add(one);
-    b.add(Math.min(D, pureAonB.value));
-    l.add(one);
+    sums.add(SUM_A, one);
+    sums.add(SUM_B, Math.min(D, sums.value(SUM_PURE_A_ON_B)));
+    sums.add(SUM_L, one);
   }
   if (pureB) {
-    a.add(Math.min(D, pureBonA.value));
-    b.add(one);
-    l.add(one);
+    sums.add(SUM_A, Math.min(D, sums.value(SUM_PURE_B_ON_A)));
+    sums.add(SUM_B, one);
+    sums.add(SUM_L, one);
   }
-  return [a.value, b.value, l.value, noA.value, noB.value, (pureA ? 1 : 0) | (pureB ? 2 : 0)];
+  return (pureA ? 1 : 0) | (pureB ? 2 : 0);
 }
 var plans2 = /* @__PURE__ */ new WeakMap();
 function planOf(c) {
   const hit = plans2.get(c);
   if (hit) return hit;
+  const n = c.size;
   const { op, childStart, childList } = c;
-  const source = new Int32Array(c.size);
-  const start = new Int32Array(c.size + 1);
-  const childOf = [];
-  const times = [];
-  const mStart = [0];
-  const members = [];
-  for (let v = 0; v < c.size; v++) {
-    start[v] = childOf.length;
+  const source = new Int32Array(n);
+  const start = new Int32Array(n + 1);
+  const links = childList.length;
+  const childOf = new Int32Array(links);
+  const times = new Int32Array(links);
+  const mStart = new Int32Array(links + 1);
+  const members = new Int32Array(links);
+  const seen = new Int32Array(n);
+  const slot = new Int32Array(n);
+  const grouped = new Int32Array(n);
+  const size = new Int32Array(n);
+  const first = new Int32Array(n);
+  const place = new Int32Array(n);
+  const distinct = new Int32Array(n === 0 ? 0 : maxChildren(c));
+  const order = new Int32Array(distinct.length);
+  let terms = 0;
+  let used = 0;
+  for (let v = 0; v < n; v++) {
+    start[v] = terms;
     source[v] = op[v] === OP_LINEAR ? source[childList[childStart[v]]] : v;
     if (op[v] !== OP_PRODUCT && op[v] !== OP_SUM) continue;
-    const counts = /* @__PURE__ */ new Map();
-    for (let i = childStart[v]; i < childStart[v + 1]; i++) counts.set(childList[i], (counts.get(childList[i]) ?? 0) + 1);
-    if (op[v] === OP_PRODUCT) {
-      for (const [ch, k] of counts) {
-        childOf.push(ch);
-        times.push(k);
-        mStart.push(members.length);
+    const stamp = v + 1;
+    let k = 0;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) {
+      const ch = childList[i];
+      if (seen[ch] === stamp) {
+        if (op[v] === OP_PRODUCT) times[slot[ch]]++;
+        continue;
       }
-      continue;
+      seen[ch] = stamp;
+      if (op[v] === OP_PRODUCT) {
+        slot[ch] = terms;
+        childOf[terms] = ch;
+        times[terms] = 1;
+        mStart[++terms] = used;
+      } else distinct[k++] = ch;
     }
-    const bySource = /* @__PURE__ */ new Map();
-    for (const ch of counts.keys()) {
-      const g = bySource.get(source[ch]);
-      if (g) g.push(ch);
-      else bySource.set(source[ch], [ch]);
+    if (op[v] === OP_PRODUCT) continue;
+    let groups = 0;
+    for (let j = 0; j < k; j++) {
+      const ch = distinct[j];
+      const src = source[ch];
+      if (grouped[src] !== stamp) {
+        grouped[src] = stamp;
+        size[src] = 0;
+        first[src] = ch;
+        order[groups++] = src;
+      }
+      size[src]++;
     }
-    for (const [src, group] of bySource) {
-      childOf.push(group.length === 1 ? group[0] : src);
-      times.push(1);
-      if (group.length > 1) members.push(...group);
-      mStart.push(members.length);
+    for (let g = 0; g < groups; g++) {
+      const src = order[g];
+      const alone = size[src] === 1;
+      childOf[terms] = alone ? first[src] : src;
+      times[terms] = 1;
+      place[src] = used;
+      if (!alone) used += size[src];
+      mStart[++terms] = used;
+    }
+    for (let j = 0; j < k; j++) {
+      const src = source[distinct[j]];
+      if (size[src] > 1) members[place[src]++] = distinct[j];
     }
   }
-  start[c.size] = childOf.length;
+  start[n] = terms;
   const plan = {
     source,
     start,
-    childOf: Int32Array.from(childOf),
-    times: Int32Array.from(times),
-    mStart: Int32Array.from(mStart),
-    members: Int32Array.from(members)
+    childOf: childOf.slice(0, terms),
+    times: times.slice(0, terms),
+    mStart: mStart.slice(0, terms + 1),
+    members: members.slice(0, used)
   };
   plans2.set(c, plan);
   return plan;
 }
-function propagate(c, plan, side, ar) {
-  const n = c.size;
+function maxChildren(c) {
+  let most = 0;
+  for (let v = 0; v < c.size; v++) most = Math.max(most, c.childStart[v + 1] - c.childStart[v]);
+  return most;
+}
+function exactTop(c, plan, side) {
+  const small = propagateFloat(c, plan, side, false);
+  const { ra, rb, kap, lam, lamNoA, lamNoB } = small;
+  const large = [];
+  for (let v = 0; v < c.size; v++) {
+    if (ra[v] >= SAFE2 || rb[v] >= SAFE2 || kap[v] >= SAFE2 || lam[v] >= SAFE2 || lamNoA[v] >= SAFE2 || lamNoB[v] >= SAFE2) large.push(v);
+  }
+  if (large.length === 0) return BigInt(lam[c.top]);
+  return big(propagateExact(c, plan, small, large));
+}
+function propagateExact(c, plan, small, large) {
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
-  const dep = new Uint8Array(n);
-  const ra = ar.ones(n);
-  const rb = ar.ones(n);
-  const kap = ar.ones(n);
-  const lam = ar.ones(n);
-  const whyA = new Uint8Array(n).fill(FROM_PURE);
-  const whyB = new Uint8Array(n).fill(FROM_PURE);
-  const whyL = new Uint8Array(n).fill(FROM_PURE);
-  const lamNoA = ar.ones(n);
-  const lamNoB = ar.ones(n);
-  const pureParts = new Uint8Array(n);
-  const min = (a, b) => ar.le(a, b) ? a : b;
-  for (let v = 0; v < n; v++) {
+  const { dep, pureParts } = small;
+  const slot = new Int32Array(c.size).fill(-1);
+  large.forEach((v, i) => slot[v] = i);
+  const m = large.length;
+  const ex = {
+    slot,
+    ra: new Array(m),
+    rb: new Array(m),
+    kap: new Array(m),
+    lam: new Array(m),
+    lamNoA: new Array(m),
+    lamNoB: new Array(m)
+  };
+  const at = (doubles, exact2, v) => valueAt(doubles, exact2, slot, v);
+  const parts = new AdditiveParts(c.size, INT_ARITH, small.parts);
+  const sum = { a: 0, b: 0, l: 0, noA: 0, noB: 0 };
+  for (let i = 0; i < m; i++) {
+    const v = large[i];
     const kind = op[v];
-    if (kind === OP_INPUT) {
-      const onA = side[c.position[v]] === 1;
-      dep[v] = onA ? 1 : 2;
-      if (onA) rb[v] = ar.of(dim[v]);
-      else ra[v] = ar.of(dim[v]);
-      continue;
-    }
-    if (kind === OP_CONST) continue;
-    let d = 0;
-    for (let i = childStart[v]; i < childStart[v + 1]; i++) d |= dep[childList[i]];
-    dep[v] = d;
-    if (d !== 3) {
-      const own = kind === OP_LINEAR ? childList[childStart[v]] : -1;
-      if (d === 1) rb[v] = own >= 0 ? min(rb[own], ar.of(dim[v])) : ar.of(dim[v]);
-      if (d === 2) ra[v] = own >= 0 ? min(ra[own], ar.of(dim[v])) : ar.of(dim[v]);
-      continue;
-    }
-    const D = ar.of(dim[v]);
+    const D = dim[v];
     let a;
     let b;
     let k;
     let l;
-    let lWhy = FROM_CHILDREN;
     let noA;
     let noB;
     if (kind === OP_LINEAR) {
       const ch = childList[childStart[v]];
-      a = ra[ch];
-      b = rb[ch];
-      l = lam[ch];
+      a = at(small.ra, ex.ra, ch);
+      b = at(small.rb, ex.rb, ch);
+      l = at(small.lam, ex.lam, ch);
       k = l;
-      noA = lamNoA[ch];
-      noB = lamNoB[ch];
-      pureParts[v] = pureParts[ch];
+      noA = at(small.lamNoA, ex.lamNoA, ch);
+      noB = at(small.lamNoB, ex.lamNoB, ch);
     } else if (kind === OP_PRODUCT) {
-      a = ar.one;
-      b = ar.one;
-      k = ar.one;
+      a = 1;
+      b = 1;
+      k = 1;
       for (let t = start[v]; t < start[v + 1]; t++) {
         const ch = childOf[t];
-        const m = times[t];
-        a = ar.mul(a, m === 1 ? ra[ch] : ar.symPow(ra[ch], m));
-        b = ar.mul(b, m === 1 ? rb[ch] : ar.symPow(rb[ch], m));
-        k = ar.mul(k, m === 1 ? kap[ch] : ar.symPow(kap[ch], m));
+        const mult = times[t];
+        a = mulInt(a, symPowInt(at(small.ra, ex.ra, ch), mult));
+        b = mulInt(b, symPowInt(at(small.rb, ex.rb, ch), mult));
+        k = mulInt(k, symPowInt(at(small.kap, ex.kap, ch), mult));
       }
-      l = ar.mul(D, k);
-      lWhy = FROM_DIM_KAPPA;
-      const pf = pureFactor(start, childOf, times, dep, v);
-      if (pf) {
-        const onA = dep[pf.pure] === 1;
-        const span = onA ? rb[pf.pure] : ra[pf.pure];
-        const alt = ar.add(pureParts[pf.other] & (onA ? 1 : 2) ? ar.one : ar.zero, ar.mul(span, onA ? lamNoA[pf.other] : lamNoB[pf.other]));
-        if (!ar.le(l, alt)) {
-          l = alt;
-          lWhy = FROM_PURE_FACTOR;
-        }
+      l = mulInt(D, k);
+      const pure = pureFactor(start, childOf, times, dep, v);
+      if (pure >= 0) {
+        const other = otherFactor(start, childOf, v, pure);
+        const onA = dep[pure] === 1;
+        const span = onA ? at(small.rb, ex.rb, pure) : at(small.ra, ex.ra, pure);
+        const alt = addInt(pureParts[other] & (onA ? 1 : 2) ? 1 : 0, mulInt(span, onA ? at(small.lamNoA, ex.lamNoA, other) : at(small.lamNoB, ex.lamNoB, other)));
+        if (!(l <= alt)) l = alt;
       }
       noA = l;
       noB = l;
     } else if (kind === OP_SUM) {
-      let parts;
-      ({ a, b, l, noA, noB, parts } = sumRule(plan, v, D, dep, ra, rb, lam, ar));
-      pureParts[v] = parts;
+      sumExact(plan, v, D, dep, small, ex, sum);
+      ({ a, b, l, noA, noB } = sum);
       k = l;
     } else {
-      throw new Error(`rank propagation: unknown node kind ${kind}`);
+      throw new Error(`rank propagation: node kind ${kind} with a value beyond 2^53`);
     }
-    whyA[v] = FROM_CHILDREN;
-    whyB[v] = FROM_CHILDREN;
-    whyL[v] = lWhy;
-    const viaB = ar.mul(D, b);
-    const viaA = ar.mul(D, a);
-    const viaK = ar.mul(D, k);
-    if (!ar.le(a, min(viaB, viaK))) {
-      whyA[v] = ar.le(viaB, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
-      a = min(viaB, viaK);
+    const additive = parts.mixed(c, plan, v, D, l);
+    if (!(l <= additive)) {
+      l = additive;
+      k = minInt(k, l);
     }
-    if (!ar.le(b, min(viaA, viaK))) {
-      whyB[v] = ar.le(viaA, viaK) ? FROM_DIM_OTHER : FROM_DIM_KAPPA;
-      b = min(viaA, viaK);
-    }
-    if (!ar.le(l, min(a, b))) {
-      whyL[v] = ar.le(a, b) ? FROM_SIDE_A : FROM_SIDE_B;
-      l = min(a, b);
-    }
-    ra[v] = a;
-    rb[v] = b;
-    lam[v] = l;
-    kap[v] = min(k, l);
-    lamNoA[v] = min(noA, l);
-    lamNoB[v] = min(noB, l);
+    const viaB = mulInt(D, b);
+    const viaA = mulInt(D, a);
+    const viaK = mulInt(D, k);
+    if (!(a <= minInt(viaB, viaK))) a = minInt(viaB, viaK);
+    if (!(b <= minInt(viaA, viaK))) b = minInt(viaA, viaK);
+    if (!(l <= minInt(a, b))) l = minInt(a, b);
+    ex.ra[i] = a;
+    ex.rb[i] = b;
+    ex.lam[i] = l;
+    ex.kap[i] = minInt(k, l);
+    ex.lamNoA[i] = minInt(noA, l);
+    ex.lamNoB[i] = minInt(noB, l);
+    parts.settle(v, l);
   }
-  return { dep, ra, rb, lam, whyA, whyB, whyL };
+  return at(small.lam, ex.lam, c.top);
 }
-function termRank(plan, t, r, ar) {
+function valueAt(doubles, exact2, slot, v) {
+  const i = slot[v];
+  return i >= 0 ? exact2[i] : doubles[v];
+}
+function termExact(plan, t, doubles, exact2, slot) {
   const { childOf, mStart, members } = plan;
-  const node = childOf[t];
-  if (mStart[t + 1] === mStart[t]) return r[node];
-  let sum = r[members[mStart[t]]];
-  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = ar.add(sum, r[members[i]]);
-  return ar.le(r[node], sum) ? r[node] : sum;
+  const node = valueAt(doubles, exact2, slot, childOf[t]);
+  if (mStart[t + 1] === mStart[t]) return node;
+  let sum = valueAt(doubles, exact2, slot, members[mStart[t]]);
+  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum = addInt(sum, valueAt(doubles, exact2, slot, members[i]));
+  return minInt(node, sum);
 }
-function sumRule(plan, v, D, dep, ra, rb, lam, ar) {
-  const min = (x, y) => ar.le(x, y) ? x : y;
-  let a = ar.zero;
-  let b = ar.zero;
-  let l = ar.zero;
+function sumExact(plan, v, D, dep, small, ex, out) {
+  const slot = ex.slot;
+  let a = 0;
+  let b = 0;
+  let l = 0;
   let pureA = false;
   let pureB = false;
   let constant = false;
-  let pureAonB = ar.zero;
-  let pureBonA = ar.zero;
+  let pureAonB = 0;
+  let pureBonA = 0;
   for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
     const d = dep[plan.childOf[t]];
     if (d === 0) constant = true;
     else if (d === 1) {
       pureA = true;
-      pureAonB = ar.add(pureAonB, termRank(plan, t, rb, ar));
+      pureAonB = addInt(pureAonB, termExact(plan, t, small.rb, ex.rb, slot));
     } else if (d === 2) {
       pureB = true;
-      pureBonA = ar.add(pureBonA, termRank(plan, t, ra, ar));
+      pureBonA = addInt(pureBonA, termExact(plan, t, small.ra, ex.ra, slot));
     } else {
-      a = ar.add(a, termRank(plan, t, ra, ar));
-      b = ar.add(b, termRank(plan, t, rb, ar));
-      l = ar.add(l, termRank(plan, t, lam, ar));
+      a = addInt(a, termExact(plan, t, small.ra, ex.ra, slot));
+      b = addInt(b, termExact(plan, t, small.rb, ex.rb, slot));
+      l = addInt(l, termExact(plan, t, small.lam, ex.lam, slot));
     }
   }
   const loneConstant = constant && !pureA && !pureB;
-  const noA = pureB || loneConstant ? ar.add(l, ar.one) : l;
-  const noB = pureA || loneConstant ? ar.add(l, ar.one) : l;
+  out.noA = pureB || loneConstant ? addInt(l, 1) : l;
+  out.noB = pureA || loneConstant ? addInt(l, 1) : l;
   if (loneConstant) {
-    a = ar.add(a, ar.one);
-    b = ar.add(b, ar.one);
-    l = ar.add(l, ar.one);
+    a = addInt(a, 1);
+    b = addInt(b, 1);
+    l = addInt(l, 1);
   }
   if (pureA) {
-    a = ar.add(a, ar.one);
-    b = ar.add(b, min(D, pureAonB));
-    l = ar.add(l, ar.one);
+    a = addInt(a, 1);
+    b = addInt(b, minInt(D, pureAonB));
+    l = addInt(l, 1);
   }
   if (pureB) {
-    a = ar.add(a, min(D, pureBonA));
-    b = ar.add(b, ar.one);
-    l = ar.add(l, ar.one);
+    a = addInt(a, minInt(D, pureBonA));
+    b = addInt(b, 1);
+    l = addInt(l, 1);
   }
-  return { a, b, l, noA, noB, parts: (pureA ? 1 : 0) | (pureB ? 2 : 0) };
+  out.a = a;
+  out.b = b;
+  out.l = l;
 }
 function recordWidths(c, plan, p) {
   const { dep, whyA, whyB, whyL } = p;
+  const whyM = p.parts.why;
   const counts = /* @__PURE__ */ new Map();
-  const seen = /* @__PURE__ */ new Set();
+  const seen = new Uint8Array(8 * c.size);
   const note = (v) => {
     const tag = c.bondTag[v];
     let byDim = counts.get(tag);
     if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
     byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
   };
-  const A2 = 0;
-  const B2 = 1;
+  const A3 = 0;
+  const B3 = 1;
   const K = 2;
   const L = 3;
-  const farSide = (v, which) => which === A2 && dep[v] === 2 || which === B2 && dep[v] === 1;
-  const stack = [[c.top, L]];
+  const MIX = 4;
+  const farSide = (v, which) => which === A3 && dep[v] === 2 || which === B3 && dep[v] === 1;
+  const stack = [c.top * 8 + L];
+  const push = (v, which) => {
+    stack.push(v * 8 + which);
+  };
   while (stack.length > 0) {
-    const [v, which] = stack.pop();
-    const key = v * 4 + which;
-    if (seen.has(key)) continue;
-    seen.add(key);
+    const key = stack.pop();
+    if (seen[key] === 1) continue;
+    seen[key] = 1;
+    const v = key >>> 3;
+    const which = key & 7;
     const kind = c.op[v];
     if (kind === OP_CONST) continue;
-    const why = which === A2 ? whyA[v] : which === B2 ? whyB[v] : which === L ? whyL[v] : FROM_CHILDREN;
+    if (which === MIX) {
+      if (dep[v] !== 3) continue;
+      const how = whyM[v];
+      if (how === PARTS_TRIVIAL) push(v, L);
+      else if (how === PARTS_EXPANDED) note(v);
+      else if (how === PARTS_FOLDED) {
+        note(v);
+        for (let t = plan.start[v]; t < plan.start[v + 1]; t++) if (dep[plan.childOf[t]] === 3) push(plan.childOf[t], MIX);
+      } else if (kind === OP_SUM) {
+        for (let t = plan.start[v]; t < plan.start[v + 1]; t++) if (dep[plan.childOf[t]] === 3) push(plan.childOf[t], MIX);
+      } else push(c.childList[c.childStart[v]], MIX);
+      continue;
+    }
+    const why = which === A3 ? whyA[v] : which === B3 ? whyB[v] : which === L ? whyL[v] : FROM_CHILDREN;
     if (kind === OP_INPUT || dep[v] !== 3 || why === FROM_PURE) {
       if (farSide(v, which)) note(v);
       continue;
     }
+    if (why === FROM_ADDITIVE) {
+      push(v, MIX);
+      continue;
+    }
     if (why === FROM_SIDE_A || why === FROM_SIDE_B) {
-      stack.push([v, why === FROM_SIDE_A ? A2 : B2]);
+      push(v, why === FROM_SIDE_A ? A3 : B3);
       continue;
     }
     if (why === FROM_PURE_FACTOR) {
-      const pf = pureFactor(plan.start, plan.childOf, plan.times, dep, v);
-      note(pf.pure);
-      stack.push([pf.other, L]);
+      const pure = pureFactor(plan.start, plan.childOf, plan.times, dep, v);
+      note(pure);
+      push(otherFactor(plan.start, plan.childOf, v, pure), L);
       continue;
     }
     if (why === FROM_DIM_OTHER || why === FROM_DIM_KAPPA) {
       note(v);
-      stack.push([v, why === FROM_DIM_KAPPA ? K : which === A2 ? B2 : A2]);
+      push(v, why === FROM_DIM_KAPPA ? K : which === A3 ? B3 : A3);
       continue;
     }
     if (kind === OP_SUM) {
       const sub2 = which === K ? L : which;
       for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
         const node = plan.childOf[t];
-        if (dep[node] === 3) stack.push([node, sub2]);
+        if (dep[node] === 3) push(node, sub2);
         else if (farSide(node, sub2)) note(v);
       }
       continue;
     }
     if (kind === OP_PRODUCT) {
-      for (let t = plan.start[v]; t < plan.start[v + 1]; t++) stack.push([plan.childOf[t], which]);
+      for (let t = plan.start[v]; t < plan.start[v + 1]; t++) push(plan.childOf[t], which);
       continue;
     }
-    stack.push([c.childList[c.childStart[v]], which === K ? L : which]);
+    push(c.childList[c.childStart[v]], which === K ? L : which);
   }
   return counts;
 }
@@ -10512,7 +10925,7 @@ function computeBounds(model, partitions, options) {
 function analyseLayered(model, options) {
   const built = buildCircuit(model, options);
   if (!built.ok) return built;
-  const circuit = built.circuit;
+  const circuit = headCone(built.circuit);
   const notes = [...built.notes];
   if (circuit.sums) {
     notes.push("the network has sums (overlapping windows, merges, flatten + dense): a min-cut index carries one extra constant coordinate (dimension + 1), and rank propagation adds the ranks of summed terms");
@@ -10527,7 +10940,7 @@ function analyseLayered(model, options) {
   const bounds = (p, probeTarget) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
     const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
-    const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side) : null;
+    const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side, built.circuit) : null;
     const vocabulary = model.input.vocabulary;
     const tokenSide = vocabulary === void 0 ? 0 : Math.min(...sideSizes(p.side));
     const tokens = vocabulary === void 0 ? Infinity : tokenSide * Math.log2(vocabulary);
@@ -10590,9 +11003,9 @@ function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
     if (!built.ok || built.circuit.sums) continue;
     let top = built.circuit.top;
     while (built.circuit.op[top] === OP_LINEAR) top = built.circuit.childList[built.circuit.childStart[top]];
-    const c = { ...built.circuit, top };
+    const c = headCone({ ...built.circuit, top });
     const suffix = sc.how ? ` (${sc.how})` : "";
-    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c) : void 0;
+    const rounding = !model.weightSharing && !hasRecurrent && !c.reuse ? roundingPlan(c, built.circuit.dim) : void 0;
     const topWindow = model.weightSharing && !hasRecurrent && !c.reuse;
     out.push({
       lower: (side) => {
@@ -10646,8 +11059,8 @@ function cutEntries(c, counts, augment) {
   }
   return entries2.sort((a, b) => a.line - b.line || a.dim - b.dim || String(a.layer).localeCompare(String(b.layer)));
 }
-function roundingPlan(c) {
-  const qs = powerCandidates(c.dim);
+function roundingPlan(c, dims) {
+  const qs = powerCandidates(dims);
   return {
     candidates: qs.map((q) => {
       const exponent = /* @__PURE__ */ new Map();
