@@ -67,9 +67,19 @@ function determinant(m: Float64Array, k: number): number {
 /** The certificate's minor, re-evaluated: [its rank, its determinant]. */
 function recheck(model: LayeredModel, surrogate: SurrogateKind, side: Uint8Array, c: ProbeCertificate): [number, number] {
   const ev = compile(model, surrogate, new DrawnWeights(c.seed));
+  const tokens = model.input.vocabulary !== undefined;
   const inputs = (which: 'a' | 'b', index: number): Float64Array => {
     const parts: number[] = [];
-    for (let p = 0; p < ev.positions; p++) if ((side[p] === 1) === (which === 'a')) parts.push(...draw(c.seed, `${which}${index}@${p}`, ev.features));
+    for (let p = 0; p < ev.positions; p++) {
+      if ((side[p] === 1) !== (which === 'a')) continue;
+      if (!tokens) parts.push(...draw(c.seed, `${which}${index}@${p}`, ev.features));
+      else {
+        // A token input: the indicator of token value(seed, name, 0) mod V.
+        const x = new Array<number>(ev.features).fill(0);
+        x[draw(c.seed, `${which}${index}@${p}`, 1)[0]! % ev.features] = 1;
+        parts.push(...x);
+      }
+    }
     return Float64Array.from(parts);
   };
   const minor = ev.probeMatrix(

@@ -149,7 +149,16 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
   /** Sets the inputs of one side, runs that side's steps and returns the values mixed steps read. */
   const sideValues = (which: number, index: number): Float64Array => {
     const name = which === SIDE_A ? 'a' : 'b';
-    for (const p of which === SIDE_A ? positionsA : positionsB) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p]!.offset);
+    for (const p of which === SIDE_A ? positionsA : positionsB) {
+      const at = steps[p]!.offset;
+      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
+      if (!program.tokens) buf.set(drawn, at);
+      else {
+        // A token input takes only indicator vectors: the token drawn, modulo V = M.
+        buf.fill(0, at, at + m);
+        buf[at + (drawn[0]! % m)] = 1;
+      }
+    }
     runAll(lists[which]!);
     const saved = new Float64Array(which === SIDE_A ? frontierA : frontierB);
     const at = spans[which]!;
@@ -248,6 +257,9 @@ export function estimateCost(model: LayeredModel, shapes: ModelShapes, surrogate
         break;
       case 'merge':
         c = pout * r * layer.inputs.length;
+        break;
+      case 'embedding':
+        c = pout * r * d;
         break;
       case 'recurrent':
         c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));

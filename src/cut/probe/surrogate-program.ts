@@ -54,6 +54,11 @@ export interface SurrogateProgram {
   readonly positions: number;
   /** M: the length of each input vector. */
   readonly m: number;
+  /**
+   * A token input: its positions take only the M = V indicator vectors (a probe input is the
+   * indicator of a drawn token); false for a continuous input (a probe input is M drawn numbers).
+   */
+  readonly tokens: boolean;
   /** The step holding h (length 1). */
   readonly output: number;
 }
@@ -212,9 +217,6 @@ function product2<T>(lists: readonly (readonly T[])[]): T[][] {
  * kind added later gets no probe until its function is written here).
  */
 export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, reading: PointwiseReading, surrogate: Surrogate, seed: number): SurrogateProgram | undefined {
-  // A token input takes only the V indicator vectors at each position; the program draws general
-  // vectors, whose rank exceeds the function's on tokens wherever an input is reused.
-  if (model.input.vocabulary !== undefined) return undefined;
   const b = new ProgramBuilder(seed);
   const m = shapes.representation;
   const n = positionCount(model.input.shape);
@@ -243,6 +245,12 @@ export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, readi
           const whole = b.concat(src.steps);
           grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
         }
+        break;
+      }
+      case 'embedding': {
+        // v ← E v at every position, E ∈ R^{d×D} shared (on a token input, column u is token u's row).
+        const steps = src.steps.map((s) => b.mapSum([{ map: b.map(`L${i}`, layer.dim, src.width, 1), src: s }], layer.dim));
+        grid = { shape: out.shape, width: layer.dim, steps };
         break;
       }
       case 'merge': {
@@ -290,7 +298,7 @@ export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, readi
     for (let k = 0; k < width; k++) acc = mulAddMod(head[k]!, buf[to + k]!, acc);
     buf[oo] = acc;
   });
-  return { steps: b.steps, bufferSize: b.size, positions: n, m, output };
+  return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== undefined, output };
 }
 
 /** h^l_t = (W_H^l h^l_{t−1}) ⊙ (W_I^l h^{l−1}_t), h^l_0 learned; the grid becomes h^L_T. */
