@@ -41705,7 +41705,6 @@ function product2(lists) {
   return out;
 }
 function surrogateProgram(model, shapes, reading, surrogate, seed) {
-  if (model.input.vocabulary !== void 0) return void 0;
   const b = new ProgramBuilder(seed);
   const m = shapes.representation;
   const n = positionCount(model.input.shape);
@@ -41734,6 +41733,11 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
           const whole = b.concat(src.steps);
           grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
         }
+        break;
+      }
+      case "embedding": {
+        const steps = src.steps.map((s) => b.mapSum([{ map: b.map(`L${i}`, layer.dim, src.width, 1), src: s }], layer.dim));
+        grid = { shape: out.shape, width: layer.dim, steps };
         break;
       }
       case "merge": {
@@ -41778,7 +41782,7 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
     for (let k = 0; k < width; k++) acc = mulAddMod2(head[k], buf[to + k], acc);
     buf[oo] = acc;
   });
-  return { steps: b.steps, bufferSize: b.size, positions: n, m, output };
+  return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== void 0, output };
 }
 function recurrent2(b, src, i, hidden, depth) {
   let below2 = src.steps;
@@ -41986,7 +41990,15 @@ function probeRank(program, side, lower, most, budget) {
   const positionsB = sideOf(SIDE_B);
   const sideValues = (which2, index) => {
     const name = which2 === SIDE_A ? "a" : "b";
-    for (const p of which2 === SIDE_A ? positionsA : positionsB) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p].offset);
+    for (const p of which2 === SIDE_A ? positionsA : positionsB) {
+      const at3 = steps[p].offset;
+      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
+      if (!program.tokens) buf.set(drawn, at3);
+      else {
+        buf.fill(0, at3, at3 + m);
+        buf[at3 + drawn[0] % m] = 1;
+      }
+    }
     runAll(lists[which2]);
     const saved = new Float64Array(which2 === SIDE_A ? frontierA : frontierB);
     const at2 = spans2[which2];
@@ -42075,6 +42087,9 @@ function estimateCost(model, shapes, surrogate) {
         break;
       case "merge":
         c = pout * r * layer.inputs.length;
+        break;
+      case "embedding":
+        c = pout * r * d;
         break;
       case "recurrent":
         c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));

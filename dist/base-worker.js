@@ -10510,7 +10510,6 @@ function product2(lists) {
   return out;
 }
 function surrogateProgram(model, shapes, reading, surrogate, seed) {
-  if (model.input.vocabulary !== void 0) return void 0;
   const b = new ProgramBuilder(seed);
   const m = shapes.representation;
   const n = positionCount(model.input.shape);
@@ -10539,6 +10538,11 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
           const whole = b.concat(src.steps);
           grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
         }
+        break;
+      }
+      case "embedding": {
+        const steps = src.steps.map((s) => b.mapSum([{ map: b.map(`L${i}`, layer.dim, src.width, 1), src: s }], layer.dim));
+        grid = { shape: out.shape, width: layer.dim, steps };
         break;
       }
       case "merge": {
@@ -10583,7 +10587,7 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
     for (let k = 0; k < width; k++) acc = mulAddMod2(head[k], buf[to + k], acc);
     buf[oo] = acc;
   });
-  return { steps: b.steps, bufferSize: b.size, positions: n, m, output };
+  return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== void 0, output };
 }
 function recurrent2(b, src, i, hidden, depth) {
   let below = src.steps;
@@ -10791,7 +10795,15 @@ function probeRank(program, side, lower, most, budget) {
   const positionsB = sideOf(SIDE_B);
   const sideValues = (which, index) => {
     const name = which === SIDE_A ? "a" : "b";
-    for (const p of which === SIDE_A ? positionsA : positionsB) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p].offset);
+    for (const p of which === SIDE_A ? positionsA : positionsB) {
+      const at2 = steps[p].offset;
+      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
+      if (!program.tokens) buf.set(drawn, at2);
+      else {
+        buf.fill(0, at2, at2 + m);
+        buf[at2 + drawn[0] % m] = 1;
+      }
+    }
     runAll(lists[which]);
     const saved = new Float64Array(which === SIDE_A ? frontierA : frontierB);
     const at = spans2[which];
@@ -10880,6 +10892,9 @@ function estimateCost(model, shapes, surrogate) {
         break;
       case "merge":
         c = pout * r * layer.inputs.length;
+        break;
+      case "embedding":
+        c = pout * r * d;
         break;
       case "recurrent":
         c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));
