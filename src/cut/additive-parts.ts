@@ -8,11 +8,13 @@
  * - A node that reads one side only (or nothing) is its own pure part: μ = 0.
  * - A linear map applies to every part.
  * - A sum adds the parts term by term: flags unite, spans and μ add.
- * - A product of factors that are all separable (μ = 0), Π_i (P_A^i + P_B^i), expands into
- *   Σ_S (Π_{i∈S} P_A^i) ⊙ (Π_{i∉S} P_B^i). The term S = all reads side A only, S = ∅ side B
- *   only; every other term is a vector of A-functions times a vector of B-functions, whose
- *   functionals have separation rank ≤ min(D, Π_{i∈S} span_A^i, Π_{i∉S} span_B^i) (a functional
- *   Σ_o w_o X_o Y_o is a sum over a basis of either span). A term with a missing part is zero.
+ * - A product of factors that are all separable (μ = 0), factor i appearing a_i times,
+ *   Π_i (P_A^i + P_B^i)^{a_i}, expands into Σ_j c_j·(Π_i (P_A^i)^{j_i}) ⊙ (Π_i (P_B^i)^{a_i − j_i})
+ *   (elementwise products commute). The term j = a reads side A only, j = 0 side B only; every
+ *   other term is a vector of A-functions times a vector of B-functions, whose functionals have
+ *   separation rank ≤ min(D, Π_i C(σ_A^i + j_i − 1, j_i), Π_i C(σ_B^i + a_i − j_i − 1, a_i − j_i))
+ *   (a functional Σ_o w_o X_o Y_o is a sum over a basis of either span; a power's coordinates lie
+ *   in a symmetric power). A term that needs a missing part is zero.
  * - Any other product is folded factor by factor: (P_A + P_B + R) ⊙ (Q_A + Q_B + S) has pure parts
  *   P_A ⊙ Q_A and P_B ⊙ Q_B, and a rest of nine terms: P_A ⊙ Q_B and P_B ⊙ Q_A (rank ≤ min(D, σ, σ')
  *   as above), P_s ⊙ S and R ⊙ Q_s (a factor reading one side, whose coordinates span σ functions
@@ -39,32 +41,14 @@ export interface Arith<T> {
   mul(a: T, b: T): T;
   add(a: T, b: T): T;
   le(a: T, b: T): boolean;
+  /** C(x + a − 1, a): the dimension of the a-th symmetric power of an x-dimensional space. */
+  symPow(x: T, a: number): T;
 }
 
 /** Indexable storage of per-node values. */
 export interface Slots<T> {
   [i: number]: T;
 }
-
-export const LOG_ARITH: Arith<number> = {
-  one: 0,
-  zero: -Infinity,
-  ones: (n) => new Float64Array(n),
-  of: (n) => Math.log2(n),
-  mul: (a, b) => a + b,
-  add: (a, b) => (a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b))),
-  le: (a, b) => a <= b,
-};
-
-export const DOUBLE_ARITH: Arith<number> = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Float64Array(n).fill(1),
-  of: (n) => n,
-  mul: (a, b) => a * b,
-  add: (a, b) => a + b,
-  le: (a, b) => a <= b,
-};
 
 /** How a node's decomposition was found, for naming the widths behind a bound. */
 export const PARTS_FROM_CHILDREN = 0;
@@ -73,12 +57,13 @@ export const PARTS_FOLDED = 2;
 export const PARTS_EXPANDED = 3;
 
 /**
- * Products with more factors (counted with multiplicity) are not expanded term by term: 2^k
- * terms. When every factor's spans reach D, every term is D and only the count is needed
- * (up to FULL_SPAN_FACTORS factors).
+ * A product of separable factors is expanded while its terms (a choice of how many copies of
+ * each distinct factor take the side-A part) number at most MAX_TERMS; when every factor's spans
+ * reach D every term is D and only the count is needed, else the terms are listed, at most
+ * MAX_LISTED_TERMS of them.
  */
-const MAX_FACTORS = 8;
-const FULL_SPAN_FACTORS = 40;
+const MAX_TERMS = 2 ** 40;
+const MAX_LISTED_TERMS = 4096;
 
 const A = 1;
 const B = 2;
@@ -191,65 +176,90 @@ export class AdditiveParts<T> {
     this.why[v] = why;
   }
 
-  /** A product of separable factors (μ = 0 each), expanded over the subsets S. */
+  /**
+   * A product of separable factors (μ = 0 each), expanded: factor i, appearing a_i times, gives
+   * (P_A^i + P_B^i)^{a_i} = Σ_j C(a_i, j)·(P_A^i)^j ⊙ (P_B^i)^{a_i − j} (elementwise products
+   * commute), so a term is a choice of j_i per distinct factor, and the coordinates of (P_A^i)^j
+   * span at most C(σ + j − 1, j) functions (a symmetric power).
+   */
   private expand(plan: Plan, v: number, D: T, cap: T): typeof EXPANDED | typeof NOT_SEPARABLE | typeof OVER {
     const ar = this.ar;
     const { flags, mu, spanA, spanB } = this;
-    const factors: number[] = [];
-    for (let t = plan.start[v]!; t < plan.start[v + 1]!; t++) {
-      const ch = plan.childOf[t]!;
-      if (!ar.le(mu[ch]!, ar.zero) || flags[ch] === 0) return NOT_SEPARABLE;
-      for (let i = 0; i < plan.times[t]!; i++) factors.push(ch);
-      if (factors.length > FULL_SPAN_FACTORS) return NOT_SEPARABLE;
-    }
-    const k = factors.length;
     const min = (x: T, y: T): T => (ar.le(x, y) ? x : y);
+    const from = plan.start[v]!;
+    const to = plan.start[v + 1]!;
     let allA = true;
     let allB = true;
     let sa = ar.one;
     let sb = ar.one;
     let fullSpans = true;
-    let onlyA = 0;
-    let onlyB = 0;
-    for (const ch of factors) {
+    // Terms: the choices of j per distinct factor (a + 1 with both parts, 1 with one).
+    let choices = 1;
+    for (let t = from; t < to; t++) {
+      const ch = plan.childOf[t]!;
       const f = flags[ch]!;
+      if (!ar.le(mu[ch]!, ar.zero) || f === 0) return NOT_SEPARABLE;
+      const a = plan.times[t]!;
       allA &&= (f & A) !== 0;
       allB &&= (f & B) !== 0;
-      if (f === A) onlyA++;
-      if (f === B) onlyB++;
-      sa = ar.mul(sa, spanA[ch]!);
-      sb = ar.mul(sb, spanB[ch]!);
+      if (f & A) sa = ar.mul(sa, ar.symPow(spanA[ch]!, a));
+      if (f & B) sb = ar.mul(sb, ar.symPow(spanB[ch]!, a));
       fullSpans &&= (!(f & A) || ar.le(D, spanA[ch]!)) && (!(f & B) || ar.le(D, spanB[ch]!));
+      if (f === (A | B)) choices *= a + 1;
+      if (choices > MAX_TERMS) return NOT_SEPARABLE;
     }
     const flagsOut = (allA ? A : 0) | (allB ? B : 0);
-    const spansOut = [allA ? min(D, sa) : ar.zero, allB ? min(D, sb) : ar.zero] as const;
+    const spanOutA = allA ? min(D, sa) : ar.zero;
+    const spanOutB = allB ? min(D, sb) : ar.zero;
+    // The all-A and all-B choices are the pure parts (when every factor has that part).
+    const mixedTerms = choices - (allA ? 1 : 0) - (allB ? 1 : 0);
     if (fullSpans) {
-      // Every term with both sides present is D: count them. The factors with both parts choose
-      // freely; those with one part are fixed; S = all and S = ∅ are the pure parts.
-      const terms = 2 ** (k - onlyA - onlyB) - (onlyB === 0 ? 1 : 0) - (onlyA === 0 ? 1 : 0);
-      const rest = terms > 0 ? ar.mul(D, ar.of(terms)) : ar.zero;
+      // Every term with both sides present is D (each power's span is at least its base's).
+      const rest = mixedTerms > 0 ? ar.mul(D, ar.of(mixedTerms)) : ar.zero;
       if (!ar.le(rest, cap)) return OVER;
-      this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+      this.set(v, flagsOut, rest, spanOutA, spanOutB, PARTS_EXPANDED);
       return EXPANDED;
     }
-    if (k > MAX_FACTORS) return NOT_SEPARABLE;
+    if (mixedTerms > MAX_LISTED_TERMS) return NOT_SEPARABLE;
+    // Walk the choices as a mixed-radix counter over the distinct factors.
+    const n = to - from;
+    const j = new Int32Array(n);
+    const lo = new Int32Array(n);
+    const hi = new Int32Array(n);
+    for (let x = 0; x < n; x++) {
+      const ch = plan.childOf[from + x]!;
+      const a = plan.times[from + x]!;
+      lo[x] = flags[ch]! & B ? 0 : a;
+      hi[x] = flags[ch]! & A ? a : 0;
+      j[x] = lo[x]!;
+    }
     let rest = ar.zero;
-    for (let s = 1; s < (1 << k) - 1; s++) {
+    for (;;) {
       let pa = ar.one;
       let pb = ar.one;
-      let zero = false;
-      for (let i = 0; i < k && !zero; i++) {
-        const ch = factors[i]!;
-        if (s & (1 << i)) {
-          if (flags[ch]! & A) pa = ar.mul(pa, spanA[ch]!);
-          else zero = true;
-        } else if (flags[ch]! & B) pb = ar.mul(pb, spanB[ch]!);
-        else zero = true;
+      let atA = true;
+      let atB = true;
+      for (let x = 0; x < n; x++) {
+        const ch = plan.childOf[from + x]!;
+        const a = plan.times[from + x]!;
+        if (j[x]! > 0) pa = ar.mul(pa, ar.symPow(spanA[ch]!, j[x]!));
+        if (j[x]! < a) pb = ar.mul(pb, ar.symPow(spanB[ch]!, a - j[x]!));
+        atA &&= j[x] === a;
+        atB &&= j[x] === 0;
       }
-      if (!zero) rest = ar.add(rest, min(D, min(pa, pb)));
-      if (!ar.le(rest, cap)) return OVER;
+      if (!atA && !atB) {
+        rest = ar.add(rest, min(D, min(pa, pb)));
+        if (!ar.le(rest, cap)) return OVER;
+      }
+      let x = 0;
+      while (x < n && j[x] === hi[x]) {
+        j[x] = lo[x]!;
+        x++;
+      }
+      if (x === n) break;
+      j[x]!++;
     }
-    this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+    this.set(v, flagsOut, rest, spanOutA, spanOutB, PARTS_EXPANDED);
     return EXPANDED;
   }
 

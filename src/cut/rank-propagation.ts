@@ -32,7 +32,7 @@
  */
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, OP_SUM, type Circuit } from '../network/circuit.js';
 import type { CutCounts } from './tree-min-cut.js';
-import { AdditiveParts, DOUBLE_ARITH, LOG_ARITH, PARTS_EXPANDED, PARTS_FOLDED, PARTS_TRIVIAL, type Arith } from './additive-parts.js';
+import { AdditiveParts, PARTS_EXPANDED, PARTS_FOLDED, PARTS_TRIVIAL, type Arith } from './additive-parts.js';
 
 /** An exact integer: a number while below 2^53, then a bigint. */
 type Int = number | bigint;
@@ -63,16 +63,7 @@ function minInt(a: Int, b: Int): Int {
   return a <= b ? a : b;
 }
 
-/** Exact integers, for the additive parts of the nodes the exact pass works out again. */
-const INT_ARITH: Arith<Int> = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Array<Int>(n).fill(1),
-  of: (n) => n,
-  mul: mulInt,
-  add: addInt,
-  le: (a, b) => a <= b,
-};
+
 
 /** C(x + a − 1, a): the dimension of the a-th symmetric power of an x-dimensional space. */
 function symPowInt(x: Int, a: number): Int {
@@ -90,6 +81,42 @@ function symPowLog2(x: number, a: number): number {
   for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
   return r;
 }
+
+/** The additive parts' arithmetic (additive-parts.ts): log2 values, for the log pass. */
+const LOG_ARITH: Arith<number> = {
+  one: 0,
+  zero: -Infinity,
+  ones: (n) => new Float64Array(n),
+  of: (n) => Math.log2(n),
+  mul: (a, b) => a + b,
+  add: (a, b) => (a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b))),
+  le: (a, b) => a <= b,
+  symPow: symPowLog2,
+};
+
+/** Doubles, for the double pass: exact below 2^53, and a value at or above it stands for one at least that large. */
+const DOUBLE_ARITH: Arith<number> = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Float64Array(n).fill(1),
+  of: (n) => n,
+  mul: (a, b) => a * b,
+  add: (a, b) => a + b,
+  le: (a, b) => a <= b,
+  symPow: (x, a) => (x >= SAFE ? x : Number(symPowInt(x, a))),
+};
+
+/** Exact integers, for the nodes the exact pass works out again. */
+const INT_ARITH: Arith<Int> = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Array<Int>(n).fill(1),
+  of: (n) => n,
+  mul: mulInt,
+  add: addInt,
+  le: (a, b) => a <= b,
+  symPow: symPowInt,
+};
 
 /** Why a node's value is what it is, for naming the layers whose widths enter the bound. */
 const FROM_CHILDREN = 0;

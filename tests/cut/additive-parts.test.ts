@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import type { LayeredModel } from '../../src/config/model.js';
 import { computeBounds } from '../../src/cut/bounds.js';
 import { Rng } from '../oracle/field.js';
-import { branches, conv, globalPool, layered, partition, pool, residual } from '../oracle/models.js';
+import { act, branches, conv, dense, globalPool, layered, partition, pool, residual, upsample } from '../oracle/models.js';
 import { probeRank } from '../oracle/surrogate.js';
 
 function upper(model: LayeredModel, spec: string): { rank: bigint; method: string } {
@@ -60,5 +60,30 @@ describe('a product of separable factors, expanded term by term', () => {
     expect(upper(model, 'interleaved').rank).toBe(8n);
     expect(oracle(model, 'start-end', 16)).toBe(4);
     expect(upper(model, 'start-end').rank).toBe(4n);
+  });
+});
+
+describe('copies of one separable factor count how many go to each side', () => {
+  it('a fully connected layer, its activation read as the square, a dense head: 4', () => {
+    // Derived here: the first dense layer reads the whole 2×2 input, y_k = a_k + b_k (two units,
+    // a_k reading the left column, b_k the right); the square rule gives y ⊙ y, and the head
+    // h = Σ_k w_k (a_k + b_k)² = Σ w_k a_k² + Σ w_k b_k² + 2 Σ_k w_k a_k b_k: one function of each
+    // side and a sum of two rank-1 terms, 4. Counting the two copies of y as different factors
+    // gave 1 + 1 + 2·2 = 6. The oracle reads 4.
+    const model = layered([2, 2], 2, false, [dense(2), act(), dense(2)]);
+    for (const spec of ['left-right', 'checkerboard']) {
+      expect(oracle(model, spec, 16), spec).toBe(4);
+      expect(upper(model, spec).rank, spec).toBe(4n);
+    }
+  });
+
+  it('nearest upsampling then a global pool: each vector appears twice', () => {
+    // Derived here: two positions, y_0 = a + b (its kernel reads x_0 and x_1), y_1 reading x_1 only;
+    // upsampling by 2 and the global product give h = Σ_c w_c y_0c² y_1c². The choices of how many
+    // copies of y_0 take the A part: 2 (a² ⊙ y_1², rank ≤ 2 channels), 1 (2 a ⊙ b ⊙ y_1², ≤ 2) and
+    // 0 (side B only, 1): 5. The oracle reads 5; the subsets of four factors gave 6.
+    const model = layered([2], 2, true, [conv(2, { kernel: [2] }), upsample([2]), globalPool()]);
+    expect(oracle(model, 'interleaved', 16)).toBe(5);
+    expect(upper(model, 'interleaved').rank).toBe(5n);
   });
 });
