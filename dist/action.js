@@ -40462,30 +40462,12 @@ function spans(c) {
 }
 
 // src/cut/additive-parts.ts
-var LOG_ARITH = {
-  one: 0,
-  zero: -Infinity,
-  ones: (n) => new Float64Array(n),
-  of: (n) => Math.log2(n),
-  mul: (a, b) => a + b,
-  add: (a, b) => a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
-  le: (a, b) => a <= b
-};
-var DOUBLE_ARITH = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Float64Array(n).fill(1),
-  of: (n) => n,
-  mul: (a, b) => a * b,
-  add: (a, b) => a + b,
-  le: (a, b) => a <= b
-};
 var PARTS_FROM_CHILDREN = 0;
 var PARTS_TRIVIAL = 1;
 var PARTS_FOLDED = 2;
 var PARTS_EXPANDED = 3;
-var MAX_FACTORS = 8;
-var FULL_SPAN_FACTORS = 40;
+var MAX_TERMS = 2 ** 40;
+var MAX_LISTED_TERMS = 4096;
 var A2 = 1;
 var B2 = 2;
 var EXPANDED = 0;
@@ -40578,63 +40560,86 @@ var AdditiveParts = class {
     this.spanB[v] = sb;
     this.why[v] = why;
   }
-  /** A product of separable factors (μ = 0 each), expanded over the subsets S. */
+  /**
+   * A product of separable factors (μ = 0 each), expanded: factor i, appearing a_i times, gives
+   * (P_A^i + P_B^i)^{a_i} = Σ_j C(a_i, j)·(P_A^i)^j ⊙ (P_B^i)^{a_i − j} (elementwise products
+   * commute), so a term is a choice of j_i per distinct factor, and the coordinates of (P_A^i)^j
+   * span at most C(σ + j − 1, j) functions (a symmetric power).
+   */
   expand(plan, v, D2, cap) {
     const ar2 = this.ar;
     const { flags, mu, spanA, spanB } = this;
-    const factors = [];
-    for (let t = plan.start[v]; t < plan.start[v + 1]; t++) {
-      const ch = plan.childOf[t];
-      if (!ar2.le(mu[ch], ar2.zero) || flags[ch] === 0) return NOT_SEPARABLE;
-      for (let i = 0; i < plan.times[t]; i++) factors.push(ch);
-      if (factors.length > FULL_SPAN_FACTORS) return NOT_SEPARABLE;
-    }
-    const k = factors.length;
     const min = (x, y) => ar2.le(x, y) ? x : y;
+    const from = plan.start[v];
+    const to = plan.start[v + 1];
     let allA = true;
     let allB = true;
     let sa = ar2.one;
     let sb = ar2.one;
     let fullSpans = true;
-    let onlyA = 0;
-    let onlyB = 0;
-    for (const ch of factors) {
+    let choices = 1;
+    for (let t = from; t < to; t++) {
+      const ch = plan.childOf[t];
       const f2 = flags[ch];
+      if (!ar2.le(mu[ch], ar2.zero) || f2 === 0) return NOT_SEPARABLE;
+      const a = plan.times[t];
       allA &&= (f2 & A2) !== 0;
       allB &&= (f2 & B2) !== 0;
-      if (f2 === A2) onlyA++;
-      if (f2 === B2) onlyB++;
-      sa = ar2.mul(sa, spanA[ch]);
-      sb = ar2.mul(sb, spanB[ch]);
+      if (f2 & A2) sa = ar2.mul(sa, ar2.symPow(spanA[ch], a));
+      if (f2 & B2) sb = ar2.mul(sb, ar2.symPow(spanB[ch], a));
       fullSpans &&= (!(f2 & A2) || ar2.le(D2, spanA[ch])) && (!(f2 & B2) || ar2.le(D2, spanB[ch]));
+      if (f2 === (A2 | B2)) choices *= a + 1;
+      if (choices > MAX_TERMS) return NOT_SEPARABLE;
     }
     const flagsOut = (allA ? A2 : 0) | (allB ? B2 : 0);
-    const spansOut = [allA ? min(D2, sa) : ar2.zero, allB ? min(D2, sb) : ar2.zero];
+    const spanOutA = allA ? min(D2, sa) : ar2.zero;
+    const spanOutB = allB ? min(D2, sb) : ar2.zero;
+    const mixedTerms = choices - (allA ? 1 : 0) - (allB ? 1 : 0);
     if (fullSpans) {
-      const terms = 2 ** (k - onlyA - onlyB) - (onlyB === 0 ? 1 : 0) - (onlyA === 0 ? 1 : 0);
-      const rest2 = terms > 0 ? ar2.mul(D2, ar2.of(terms)) : ar2.zero;
+      const rest2 = mixedTerms > 0 ? ar2.mul(D2, ar2.of(mixedTerms)) : ar2.zero;
       if (!ar2.le(rest2, cap)) return OVER;
-      this.set(v, flagsOut, rest2, spansOut[0], spansOut[1], PARTS_EXPANDED);
+      this.set(v, flagsOut, rest2, spanOutA, spanOutB, PARTS_EXPANDED);
       return EXPANDED;
     }
-    if (k > MAX_FACTORS) return NOT_SEPARABLE;
+    if (mixedTerms > MAX_LISTED_TERMS) return NOT_SEPARABLE;
+    const n = to - from;
+    const j = new Int32Array(n);
+    const lo = new Int32Array(n);
+    const hi = new Int32Array(n);
+    for (let x = 0; x < n; x++) {
+      const ch = plan.childOf[from + x];
+      const a = plan.times[from + x];
+      lo[x] = flags[ch] & B2 ? 0 : a;
+      hi[x] = flags[ch] & A2 ? a : 0;
+      j[x] = lo[x];
+    }
     let rest = ar2.zero;
-    for (let s = 1; s < (1 << k) - 1; s++) {
+    for (; ; ) {
       let pa = ar2.one;
       let pb = ar2.one;
-      let zero = false;
-      for (let i = 0; i < k && !zero; i++) {
-        const ch = factors[i];
-        if (s & 1 << i) {
-          if (flags[ch] & A2) pa = ar2.mul(pa, spanA[ch]);
-          else zero = true;
-        } else if (flags[ch] & B2) pb = ar2.mul(pb, spanB[ch]);
-        else zero = true;
+      let atA = true;
+      let atB = true;
+      for (let x2 = 0; x2 < n; x2++) {
+        const ch = plan.childOf[from + x2];
+        const a = plan.times[from + x2];
+        if (j[x2] > 0) pa = ar2.mul(pa, ar2.symPow(spanA[ch], j[x2]));
+        if (j[x2] < a) pb = ar2.mul(pb, ar2.symPow(spanB[ch], a - j[x2]));
+        atA &&= j[x2] === a;
+        atB &&= j[x2] === 0;
       }
-      if (!zero) rest = ar2.add(rest, min(D2, min(pa, pb)));
-      if (!ar2.le(rest, cap)) return OVER;
+      if (!atA && !atB) {
+        rest = ar2.add(rest, min(D2, min(pa, pb)));
+        if (!ar2.le(rest, cap)) return OVER;
+      }
+      let x = 0;
+      while (x < n && j[x] === hi[x]) {
+        j[x] = lo[x];
+        x++;
+      }
+      if (x === n) break;
+      j[x]++;
     }
-    this.set(v, flagsOut, rest, spansOut[0], spansOut[1], PARTS_EXPANDED);
+    this.set(v, flagsOut, rest, spanOutA, spanOutB, PARTS_EXPANDED);
     return EXPANDED;
   }
   /** Any product, folded factor by factor (each factor as often as it appears); false once μ passes `cap`. */
@@ -40696,15 +40701,6 @@ function addInt(a, b) {
 function minInt(a, b) {
   return a <= b ? a : b;
 }
-var INT_ARITH = {
-  one: 1,
-  zero: 0,
-  ones: (n) => new Array(n).fill(1),
-  of: (n) => n,
-  mul: mulInt,
-  add: addInt,
-  le: (a, b) => a <= b
-};
 function symPowInt(x, a) {
   if (a === 1) return x;
   const n = big(x) + BigInt(a - 1);
@@ -40717,6 +40713,36 @@ function symPowLog2(x, a) {
   for (let i = 0; i < a; i++) r += (x > 50 ? x : Math.log2(2 ** x + i)) - Math.log2(i + 1);
   return r;
 }
+var LOG_ARITH = {
+  one: 0,
+  zero: -Infinity,
+  ones: (n) => new Float64Array(n),
+  of: (n) => Math.log2(n),
+  mul: (a, b) => a + b,
+  add: (a, b) => a === -Infinity ? b : b === -Infinity ? a : Math.max(a, b) + Math.log2(1 + 2 ** -Math.abs(a - b)),
+  le: (a, b) => a <= b,
+  symPow: symPowLog2
+};
+var DOUBLE_ARITH = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Float64Array(n).fill(1),
+  of: (n) => n,
+  mul: (a, b) => a * b,
+  add: (a, b) => a + b,
+  le: (a, b) => a <= b,
+  symPow: (x, a) => x >= SAFE2 ? x : Number(symPowInt(x, a))
+};
+var INT_ARITH = {
+  one: 1,
+  zero: 0,
+  ones: (n) => new Array(n).fill(1),
+  of: (n) => n,
+  mul: mulInt,
+  add: addInt,
+  le: (a, b) => a <= b,
+  symPow: symPowInt
+};
 var FROM_CHILDREN = 0;
 var FROM_DIM_OTHER = 1;
 var FROM_DIM_KAPPA = 2;
