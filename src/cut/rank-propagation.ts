@@ -224,7 +224,10 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
-  const one = log ? 0 : 1;
+  // The same arithmetic as the additive parts': log2 values, or doubles (a value at or above 2^53
+  // only stands for one that large, see `exactTop`, and its power is not formed).
+  const ar = log ? LOG_ARITH : DOUBLE_ARITH;
+  const { one, zero, of, mul, add, symPow } = ar;
   const ra = new Float64Array(n).fill(one);
   const rb = new Float64Array(n).fill(one);
   const kap = new Float64Array(n).fill(one);
@@ -236,14 +239,8 @@ function propagateFloat(c: Circuit, plan: Plan, side: Uint8Array, log: boolean):
   const lamNoA = new Float64Array(n).fill(one);
   const lamNoB = new Float64Array(n).fill(one);
   const pureParts = new Uint8Array(n);
-  const zero = log ? -Infinity : 0;
   const sums = new FloatSums(log);
-  const of = (x: number): number => (log ? Math.log2(x) : x);
-  const mul = (x: number, y: number): number => (log ? x + y : x * y);
-  const add = (x: number, y: number): number => (log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y);
-  // A value at or above 2^53 only stands for one that large (see `exactTop`): its power is not formed.
-  const symPow = (x: number, a: number): number => (log ? symPowLog2(x, a) : x >= SAFE ? x : Number(symPowInt(x, a)));
-  const parts = new AdditiveParts<number>(n, log ? LOG_ARITH : DOUBLE_ARITH);
+  const parts = new AdditiveParts<number>(n, ar);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
