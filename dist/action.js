@@ -40812,7 +40812,8 @@ function propagateFloat(c, plan, side, log) {
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
-  const one = log ? 0 : 1;
+  const ar2 = log ? LOG_ARITH : DOUBLE_ARITH;
+  const { one, zero, of, mul: mul2, add: add2, symPow } = ar2;
   const ra = new Float64Array(n).fill(one);
   const rb = new Float64Array(n).fill(one);
   const kap = new Float64Array(n).fill(one);
@@ -40823,13 +40824,8 @@ function propagateFloat(c, plan, side, log) {
   const lamNoA = new Float64Array(n).fill(one);
   const lamNoB = new Float64Array(n).fill(one);
   const pureParts = new Uint8Array(n);
-  const zero = log ? -Infinity : 0;
   const sums = new FloatSums(log);
-  const of = (x) => log ? Math.log2(x) : x;
-  const mul2 = (x, y) => log ? x + y : x * y;
-  const add2 = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
-  const symPow = (x, a) => log ? symPowLog2(x, a) : x >= SAFE2 ? x : Number(symPowInt(x, a));
-  const parts = new AdditiveParts(n, log ? LOG_ARITH : DOUBLE_ARITH);
+  const parts = new AdditiveParts(n, ar2);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {

@@ -9617,7 +9617,8 @@ function propagateFloat(c, plan, side, log) {
   const { op, dim, childStart, childList } = c;
   const { start, childOf, times } = plan;
   const dep = new Uint8Array(n);
-  const one = log ? 0 : 1;
+  const ar = log ? LOG_ARITH : DOUBLE_ARITH;
+  const { one, zero, of, mul: mul2, add: add2, symPow } = ar;
   const ra = new Float64Array(n).fill(one);
   const rb = new Float64Array(n).fill(one);
   const kap = new Float64Array(n).fill(one);
@@ -9628,13 +9629,8 @@ function propagateFloat(c, plan, side, log) {
   const lamNoA = new Float64Array(n).fill(one);
   const lamNoB = new Float64Array(n).fill(one);
   const pureParts = new Uint8Array(n);
-  const zero = log ? -Infinity : 0;
   const sums = new FloatSums(log);
-  const of = (x) => log ? Math.log2(x) : x;
-  const mul2 = (x, y) => log ? x + y : x * y;
-  const add2 = (x, y) => log ? Math.max(x, y) + Math.log2(1 + 2 ** -Math.abs(x - y)) : x + y;
-  const symPow = (x, a) => log ? symPowLog2(x, a) : x >= SAFE2 ? x : Number(symPowInt(x, a));
-  const parts = new AdditiveParts(n, log ? LOG_ARITH : DOUBLE_ARITH);
+  const parts = new AdditiveParts(n, ar);
   for (let v = 0; v < n; v++) {
     const kind = op[v];
     if (kind === OP_INPUT) {
