@@ -17,6 +17,7 @@ import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
 import { rankPropagation } from './rank-propagation.js';
 import { specialCases } from './special-cases.js';
+import { attentionLower, attentionOnInput } from './attention-lower.js';
 import { certifiedProbe } from './probe/certified-probe.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
@@ -128,6 +129,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     }
     return finish(p.label, { upper: upper!, lower: bestLower(p, upper!, probeTarget) });
   };
+  const attentionModel = attentionOnInput(model, built.shapes);
   const bestLower = (p: Partition, upper: Bound, probeTarget: bigint | null | undefined): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
@@ -136,6 +138,8 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     if (published) lowers.push(published);
     const shallow = recurrent && shallowRecurrentLower(recurrent, p);
     if (shallow) lowers.push(shallow);
+    const attention = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
+    if (attention) lowers.push(attention);
     let lower: Bound | null = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
     // The probe runs last, from just above what the rules proved, and only while it can improve:
@@ -311,11 +315,13 @@ function diagonalLower(c: Circuit, side: Uint8Array): Bound {
 /**
  * Depth-2 recurrent arithmetic circuit over the raw inputs, start-end partition of an even length
  * T: separation rank ≥ C(min(M, R) + T/2 − 1, T/2) (Levine, Sharir, Ziv, Shashua, "Benefits of
- * depth for long-term memory of recurrent networks").
+ * depth for long-term memory of recurrent networks"). At depth L ≥ 3 the same bound holds for the
+ * top two levels once levels 1 … L−2 pass their input through (derived here; DEVELOPERS.md,
+ * "Deep recurrences: passing the lower levels through").
  */
 function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: Partition): Bound | undefined {
   const first = on.layer;
-  if (first.depth !== 2) return undefined;
+  if (first.depth < 2) return undefined;
   if (model.input.shape.length !== 1) return undefined;
   const t = model.input.shape[0]!;
   if (t % 2 !== 0) return undefined;
@@ -323,7 +329,8 @@ function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: P
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return undefined;
   const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
-  return { rank, log2: log2Big(rank), method: 'published depth-2 recurrent', cut: [] };
+  const method = first.depth === 2 ? 'published depth-2 recurrent' : 'published depth-2 recurrent, lower levels passed through';
+  return { rank, log2: log2Big(rank), method, cut: [] };
 }
 
 /**
@@ -332,23 +339,27 @@ function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: P
  * L·diag(c)·Rᵀ with L[x_A, r] = Π_{t∈A} ⟨a_r, x_t⟩ = ⟨a_r^{⊗|A|}, ⊗_t x_t⟩: for generic rows these
  * span min(R, C(M + |A| − 1, |A|)) dimensions (the Veronese variety spans the symmetric power), so
  * by Sylvester's inequality rank ≥ ρ_A + ρ_B − R. One weight choice suffices for a lower bound.
+ * At depth L ≥ 2 the top level is such a layer once levels 1 … L−1 pass their input through, on
+ * inputs spanning min(M, R) dimensions (DEVELOPERS.md, "Deep recurrences: passing the lower levels
+ * through").
  */
 function shallowRecurrentLower(on: RecurrentOnInput, p: Partition): Bound | undefined {
   const first = on.layer;
-  if (first.depth !== 1) return undefined;
+  if (first.depth < 1) return undefined;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
-  const m = on.m;
+  const m = first.depth === 1 ? on.m : Math.min(on.m, first.hidden);
   const span = (count: number): bigint => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
   };
   const bound = span(a) + span(b) - r;
   if (bound <= 1n) return undefined;
-  return { rank: bound, log2: log2Big(bound), method: 'shallow recurrent span', cut: [] };
+  const method = first.depth === 1 ? 'shallow recurrent span' : 'recurrent span, lower levels passed through';
+  return { rank: bound, log2: log2Big(bound), method, cut: [] };
 }
 
 interface RecurrentOnInput {

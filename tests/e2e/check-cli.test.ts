@@ -47,11 +47,14 @@ describe('rankfloor check over examples/ and policies/', () => {
       { layer: 8, field: 'channels', line: 17, column: 24, from: 16, to: 64, added_parameters: '7104', verdict: 'pass', rule: 'top-window span' },
     ]);
     const gait = doc.results.find((x: { file: string }) => x.file === 'examples/gait-sequence.yaml');
-    expect(gait.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['unproven', 'pass']);
-    // the linearised-attention model has no proven lower bound (unproven, a warning under org-base);
-    // the LSTM classifier proves both floors
+    // the depth-3 recurrence proves its start-end floor (the depth-2 bound, lowest level passed
+    // through), the linearised-attention model both floors (its first attention layer), and the
+    // LSTM classifier both floors
+    expect(gait.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['pass', 'pass']);
+    expect(gait.requirements[0].lower.rank).toBe('865397898472749309383031225'); // C(24 + 128 − 1, 128)
     const lm = doc.results.find((x: { file: string }) => x.file === 'examples/architectures/causal-lm-release-notes.yaml');
-    expect(lm.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['unproven', 'unproven']);
+    expect(lm.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['pass', 'pass']);
+    expect(lm.requirements.map((q: { lower: { rank: string } }) => q.lower.rank)).toEqual(['257', '257']);
     const router = doc.results.find((x: { file: string }) => x.file === 'examples/architectures/lstm-ticket-router.yaml');
     expect(router.requirements.map((q: { verdict: string }) => q.verdict)).toEqual(['pass', 'pass']);
   });
