@@ -1,16 +1,15 @@
 /**
  * The squared singular values of the matricisation (1/n)·Φ_A W Φ_Bᵀ of the empirical data tensor,
  * from the two sides' Cholesky factors: they are the singular values of C = L_Aᵀ W L_B (up to the
- * factor 1/n, which normalisation removes), taken here as the eigenvalues of the symmetric
- * C Cᵀ or Cᵀ C, whichever is smaller (eigenvalues only, `symmetric-eigenvalues.ts`).
- * Derivation in DEVELOPERS.md.
+ * factor 1/n, which normalisation removes), taken from ml-matrix's singular value decomposition of
+ * C without its singular vectors. Derivation in DEVELOPERS.md.
  */
 import type { CholeskyFactor } from './pivoted-cholesky.js';
-import { symmetricEigenvalues } from './symmetric-eigenvalues.js';
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 
 /**
- * Eigenvalues (largest first, clipped at 0) of C Cᵀ, C = L_Aᵀ diag(w) L_B; `weights` undefined
- * means all 1.
+ * Squared singular values (largest first) of C = L_Aᵀ diag(w) L_B, i.e. the eigenvalues of C Cᵀ;
+ * `weights` undefined means all 1.
  */
 export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weights?: Float64Array): Float64Array {
   const n = a.n;
@@ -28,12 +27,11 @@ export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weig
     }
   }
   const c = new Float64Array(rs * rl);
-  rowProducts(weighted, rs, large.columns, rl, n, c, false);
-  // M = C Cᵀ (rs × rs), symmetric by construction.
-  const m = new Float64Array(rs * rs);
-  rowProducts(c, rs, c, rs, rl, m, true);
-  const out = symmetricEigenvalues(m, rs);
-  for (let i = 0; i < rs; i++) if (!(out[i]! > 0)) out[i] = 0;
+  rowProducts(weighted, rs, large.columns, rl, n, c);
+  const svd = new SingularValueDecomposition(Matrix.from1DArray(rs, rl, c), { computeLeftSingularVectors: false, computeRightSingularVectors: false, autoTranspose: true });
+  const sv = svd.diagonal;
+  const out = new Float64Array(rs);
+  for (let i = 0; i < rs; i++) out[i] = sv[i]! * sv[i]!;
   out.sort();
   out.reverse();
   return out;
@@ -41,7 +39,7 @@ export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weig
 
 /**
  * out[i·yRows + j] = Σ_k x[i·length + k]·y[j·length + k] (the products of the rows of x with the
- * rows of y, all finite); with `symmetric` (x = y), only j ≤ i is computed and mirrored.
+ * rows of y, all finite).
  *
  * Each sum is taken as a dot product with four running sums would take it — term k into sum
  * k mod 4 (the terms past the last multiple of 4 into sum 0), the four added in order at the
@@ -50,7 +48,7 @@ export function matricizationSpectrum(a: CholeskyFactor, b: CholeskyFactor, weig
  * before it, so half the terms of C go. Row i's other terms are listed once, by running sum, and
  * serve eight rows of y at a time.
  */
-function rowProducts(x: Float64Array, xRows: number, y: Float64Array, yRows: number, length: number, out: Float64Array, symmetric: boolean): void {
+function rowProducts(x: Float64Array, xRows: number, y: Float64Array, yRows: number, length: number, out: Float64Array): void {
   const end4 = length - (length % 4);
   const index = new Int32Array(length);
   const value = new Float64Array(length);
@@ -75,13 +73,10 @@ function rowProducts(x: Float64Array, xRows: number, y: Float64Array, yRows: num
       }
     }
     start[4] = count;
-    const jEnd = symmetric ? i + 1 : yRows;
+    const jEnd = yRows;
     let j = 0;
     for (; j + 8 <= jEnd; j += 8) eightProducts(index, value, start, y, j * length, length, out, i * yRows + j);
     for (; j < jEnd; j++) out[i * yRows + j] = oneProduct(index, value, start, y, j * length);
-  }
-  if (symmetric) {
-    for (let r = 0; r < xRows; r++) for (let t = 0; t < r; t++) out[t * yRows + r] = out[r * yRows + t]!;
   }
 }
 
