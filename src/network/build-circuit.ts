@@ -105,9 +105,10 @@ export function buildCircuit(model: LayeredModel, options: BuildOptions): BuildR
     const input: Grid = { shape: model.input.shape, nodes: Array.from({ length: positionCount(model.input.shape) }, (_, p) => b.add(OP_INPUT, m, inputTag, [], p)), dim: m, flat: false };
     const grids: Grid[] = [];
     const gridOf = (i: number): Grid => (i === INPUT ? input : grids[i]!);
+    const shared = new SharedMaps(b);
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise, model.weightSharing ? shared : undefined);
       if ('code' in built) return fail(built.span, built.code, built.message);
       grids.push(built);
     }
@@ -149,6 +150,48 @@ function linearOf(b: CircuitBuilder, dim: number, tag: number, v: number): numbe
   return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
 }
 
+/**
+ * The per-position maps of one layer whose matrix is shared across positions: a node that the
+ * layer meets at several positions (after nearest upsampling) is mapped once, so that its copies
+ * are one node, one function (identical weights applied to the identical vector), and a product
+ * of them is a power of one factor. Only for maps that are one matrix per layer: not the offsets
+ * of a transposed conv, nor the taps of a window, nor two maps of one node in attention.
+ */
+class SharedMaps {
+  private stamp = new Int32Array(0);
+  private value = new Int32Array(0);
+  private layer = 0;
+
+  constructor(private readonly b: CircuitBuilder) {}
+
+  /** The mapping for a new layer's matrix. */
+  of(dim: number, tag: number): (v: number) => number {
+    const layer = ++this.layer;
+    return (v) => {
+      if (v === ZERO) return ZERO;
+      if (v >= this.stamp.length) {
+        const size = Math.max(1024, 2 * this.stamp.length, v + 1);
+        const stamp = new Int32Array(size);
+        stamp.set(this.stamp);
+        const value = new Int32Array(size);
+        value.set(this.value);
+        this.stamp = stamp;
+        this.value = value;
+      }
+      if (this.stamp[v] !== layer) {
+        this.stamp[v] = layer;
+        this.value[v] = this.b.add(OP_LINEAR, dim, tag, [v]);
+      }
+      return this.value[v]!;
+    };
+  }
+}
+
+/** Per-position maps of one layer: shared (one node per distinct child) or one matrix per position. */
+function perPositionMaps(b: CircuitBuilder, dim: number, tag: number, shared: SharedMaps | undefined): (v: number) => number {
+  return shared ? shared.of(dim, tag) : (v) => linearOf(b, dim, tag, v);
+}
+
 function productOf(b: CircuitBuilder, dim: number, tag: number, children: readonly number[]): number {
   if (children.includes(ZERO)) return ZERO;
   return children.length === 1 ? children[0]! : b.add(OP_PRODUCT, dim, tag, children);
@@ -175,6 +218,8 @@ function buildLayer(
   options: BuildOptions,
   shapes: ModelShapes,
   pointwise: PointwiseReading,
+  /** Present when the model shares its weights across positions. */
+  shared: SharedMaps | undefined,
 ): Grid | Problem {
   const out = shapes.layers[layer.index]!;
   const first = inputs[0]!;
@@ -196,7 +241,7 @@ function buildLayer(
     case 'dense': {
       const reading = shapes.denseReading[layer.index];
       if (first.flat || reading === 'input') return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
-      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map(perPositionMaps(b, layer.units, tag, shared)), dim: layer.units, flat: false };
     }
     case 'merge': {
       const grids = inputs.map((g) => materialise(b, g, tag));
@@ -207,7 +252,8 @@ function buildLayer(
       return recurrent(b, materialise(b, first, tag), layer, tag);
     case 'embedding': {
       const g = materialise(b, first, tag);
-      return { shape: out.shape, nodes: g.nodes.map((v) => linearOf(b, layer.dim, tag, v)), dim: layer.dim, flat: false };
+      // An embedding is one matrix at every position, whatever `weight_sharing` says.
+      return { shape: out.shape, nodes: g.nodes.map(perPositionMaps(b, layer.dim, tag, shared ?? new SharedMaps(b))), dim: layer.dim, flat: false };
     }
     case 'position': {
       // v_t + p_t: a sum with a learned vector of its own per position.
@@ -225,7 +271,7 @@ function buildLayer(
     case 'upsample':
       return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
     case 'conv':
-      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped, shared);
     case 'conv-transpose':
       return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
@@ -371,6 +417,15 @@ function emptyWindow(layer: Layer, shape: readonly number[], out: number): Probl
   };
 }
 
+const productsByWindow = new WeakMap<CircuitBuilder, Map<string, number>>();
+
+/** The products of overlapping pool windows made so far, by their children. */
+function windowProducts(b: CircuitBuilder): Map<string, number> {
+  let m = productsByWindow.get(b);
+  if (!m) productsByWindow.set(b, (m = new Map()));
+  return m;
+}
+
 function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly number[], tag: number): Grid | Problem {
   if (layer.global) {
     return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
@@ -378,13 +433,22 @@ function pool(b: CircuitBuilder, g: Grid, layer: PoolLayer, shape: readonly numb
   const axisPlans = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes: number[] = [];
   const pick = picker((p) => g.nodes[p]!);
+  // Overlapping windows clipped by the grid's edges can hold the same positions (a 3×3 window
+  // with stride 1 on a 2×2 grid holds all four everywhere): a product has no weights, so such
+  // windows are one node, one function.
+  // Across layers too: two pools of one grid with such windows are one function.
+  const same = layer.window.some((w, a) => layer.stride[a]! < w) ? windowProducts(b) : undefined;
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => windowTaps(j, g.shape[a]!, layer.window[a]!, layer.stride[a]!, 1, axisPlans[a]!.left),
     (positions, out) => {
       if (positions.length === 0) return emptyWindow(layer, shape, out);
-      nodes.push(productOf(b, g.dim, tag, pick(positions)));
+      const key = same && pick(positions).join(',');
+      const known = key === undefined ? undefined : same!.get(key);
+      const node = known ?? productOf(b, g.dim, tag, pick(positions));
+      if (key !== undefined && known === undefined) same!.set(key, node);
+      nodes.push(node);
       return undefined;
     },
   );
@@ -411,18 +475,21 @@ function upsample(b: CircuitBuilder, g: Grid, layer: UpsampleLayer, shape: reado
   return { shape, nodes, dim: g.dim, flat: false };
 }
 
-function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate, identity: boolean): Grid | Problem {
+function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly number[], width: number, tag: number, surrogate: Surrogate, identity: boolean, shared: SharedMaps | undefined): Grid | Problem {
   const axisPlans = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === 'causal';
   const nodes: number[] = [];
   if (surrogate === 'overlap') {
     const pick = picker((p) => g.nodes[p]!);
+    // A kernel of one tap is one shared matrix per layer (not so for wider kernels: a window cut
+    // by the padding keeps one tap, and which one differs between positions).
+    const pointMap = shared && !identity && layer.kernel.every((k) => k === 1) ? shared.of(width, tag) : undefined;
     const problem = eachOutput(
       g.shape,
       shape,
       (a, j) => windowTaps(j, g.shape[a]!, layer.kernel[a]!, layer.stride[a]!, layer.dilation[a]!, axisPlans[a]!.left),
       (positions) => {
-        nodes.push(sumOf(b, width, tag, pick(positions)));
+        nodes.push(pointMap && positions.length === 1 ? pointMap(g.nodes[positions[0]!]!) : sumOf(b, width, tag, pick(positions)));
         return undefined;
       },
     );
@@ -430,8 +497,9 @@ function conv(b: CircuitBuilder, g: Grid, layer: ConvLayer, shape: readonly numb
   }
   // Each input position is mapped once (it lies in at most one window, since min(k, s) ≤ s).
   const mapped = new Int32Array(g.nodes.length).fill(-1);
+  const map = identity ? (v: number) => v : perPositionMaps(b, width, tag, shared);
   const mapOf = (p: number): number => {
-    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p]! : linearOf(b, width, tag, g.nodes[p]!);
+    if (mapped[p] === -1) mapped[p] = map(g.nodes[p]!);
     return mapped[p]!;
   };
   const pick = picker(mapOf);
