@@ -8064,9 +8064,10 @@ function buildCircuit(model, options) {
     const input = { shape: model.input.shape, nodes: Array.from({ length: positionCount(model.input.shape) }, (_, p) => b.add(OP_INPUT, m, inputTag, [], p)), dim: m, flat: false };
     const grids = [];
     const gridOf = (i) => i === INPUT ? input : grids[i];
+    const shared = new SharedMaps(b);
     for (const layer of model.layers) {
       const tag = b.addTag({ label: layerLabel(layer), line: layer.span.line, span: layer.span, layerIndex: layer.index });
-      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise);
+      const built = buildLayer(b, layer, layer.inputs.map(gridOf), tag, options, shapes, pointwise, model.weightSharing ? shared : void 0);
       if ("code" in built) return fail2(built.span, built.code, built.message);
       grids.push(built);
     }
@@ -8099,6 +8100,39 @@ var ZERO = -2;
 function linearOf(b, dim, tag, v) {
   return v === ZERO ? ZERO : b.add(OP_LINEAR, dim, tag, [v]);
 }
+var SharedMaps = class {
+  constructor(b) {
+    this.b = b;
+  }
+  b;
+  stamp = new Int32Array(0);
+  value = new Int32Array(0);
+  layer = 0;
+  /** The mapping for a new layer's matrix. */
+  of(dim, tag) {
+    const layer = ++this.layer;
+    return (v) => {
+      if (v === ZERO) return ZERO;
+      if (v >= this.stamp.length) {
+        const size = Math.max(1024, 2 * this.stamp.length, v + 1);
+        const stamp = new Int32Array(size);
+        stamp.set(this.stamp);
+        const value = new Int32Array(size);
+        value.set(this.value);
+        this.stamp = stamp;
+        this.value = value;
+      }
+      if (this.stamp[v] !== layer) {
+        this.stamp[v] = layer;
+        this.value[v] = this.b.add(OP_LINEAR, dim, tag, [v]);
+      }
+      return this.value[v];
+    };
+  }
+};
+function perPositionMaps(b, dim, tag, shared) {
+  return shared ? shared.of(dim, tag) : (v) => linearOf(b, dim, tag, v);
+}
 function productOf(b, dim, tag, children) {
   if (children.includes(ZERO)) return ZERO;
   return children.length === 1 ? children[0] : b.add(OP_PRODUCT, dim, tag, children);
@@ -8112,7 +8146,7 @@ function materialise(b, g, tag) {
   if (!g.flat) return g;
   return { shape: g.shape, nodes: [sumOf(b, g.dim * g.nodes.length, tag, g.nodes)], dim: g.dim * g.nodes.length, flat: false };
 }
-function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
+function buildLayer(b, layer, inputs, tag, options, shapes, pointwise, shared) {
   const out = shapes.layers[layer.index];
   const first = inputs[0];
   const surrogate = options.surrogate;
@@ -8131,7 +8165,7 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
     case "dense": {
       const reading = shapes.denseReading[layer.index];
       if (first.flat || reading === "input") return { shape: out.shape, nodes: [sumOf(b, layer.units, tag, first.nodes)], dim: layer.units, flat: false };
-      return { shape: out.shape, nodes: first.nodes.map((v) => linearOf(b, layer.units, tag, v)), dim: layer.units, flat: false };
+      return { shape: out.shape, nodes: first.nodes.map(perPositionMaps(b, layer.units, tag, shared)), dim: layer.units, flat: false };
     }
     case "merge": {
       const grids = inputs.map((g) => materialise(b, g, tag));
@@ -8142,7 +8176,7 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
       return recurrent(b, materialise(b, first, tag), layer, tag);
     case "embedding": {
       const g = materialise(b, first, tag);
-      return { shape: out.shape, nodes: g.nodes.map((v) => linearOf(b, layer.dim, tag, v)), dim: layer.dim, flat: false };
+      return { shape: out.shape, nodes: g.nodes.map(perPositionMaps(b, layer.dim, tag, shared ?? new SharedMaps(b))), dim: layer.dim, flat: false };
     }
     case "position": {
       const g = materialise(b, first, tag);
@@ -8159,7 +8193,7 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise) {
     case "upsample":
       return upsample(b, materialise(b, first, tag), layer, out.shape, tag);
     case "conv":
-      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped);
+      return conv(b, materialise(b, first, tag), layer, out.shape, out.width, tag, surrogate, grouped, shared);
     case "conv-transpose":
       return convTranspose(b, materialise(b, first, tag), layer, out.shape, tag, surrogate, grouped);
   }
@@ -8265,6 +8299,12 @@ function emptyWindow(layer, shape, out) {
     message: `layer ${layerLabel(layer)} (line ${layer.span.line}): output position [${at.join(", ")}] reads only padding; reduce the padding or the stride`
   };
 }
+var productsByWindow = /* @__PURE__ */ new WeakMap();
+function windowProducts(b) {
+  let m = productsByWindow.get(b);
+  if (!m) productsByWindow.set(b, m = /* @__PURE__ */ new Map());
+  return m;
+}
 function pool(b, g, layer, shape, tag) {
   if (layer.global) {
     return { shape, nodes: [productOf(b, g.dim, tag, g.nodes)], dim: g.dim, flat: false };
@@ -8272,13 +8312,18 @@ function pool(b, g, layer, shape, tag) {
   const axisPlans2 = plans(g, layer.window, layer.stride, layer.window.map(() => 1), layer);
   const nodes = [];
   const pick = picker((p) => g.nodes[p]);
+  const same3 = layer.window.some((w, a) => layer.stride[a] < w) ? windowProducts(b) : void 0;
   const problem = eachOutput(
     g.shape,
     shape,
     (a, j) => windowTaps(j, g.shape[a], layer.window[a], layer.stride[a], 1, axisPlans2[a].left),
     (positions, out) => {
       if (positions.length === 0) return emptyWindow(layer, shape, out);
-      nodes.push(productOf(b, g.dim, tag, pick(positions)));
+      const key = same3 && pick(positions).join(",");
+      const known = key === void 0 ? void 0 : same3.get(key);
+      const node = known ?? productOf(b, g.dim, tag, pick(positions));
+      if (key !== void 0 && known === void 0) same3.set(key, node);
+      nodes.push(node);
       return void 0;
     }
   );
@@ -8303,26 +8348,28 @@ function upsample(b, g, layer, shape, tag) {
   );
   return { shape, nodes, dim: g.dim, flat: false };
 }
-function conv(b, g, layer, shape, width, tag, surrogate, identity) {
+function conv(b, g, layer, shape, width, tag, surrogate, identity, shared) {
   const axisPlans2 = plans(g, layer.kernel, layer.stride, layer.dilation, layer);
   const causal = layer.padding.mode === "causal";
   const nodes = [];
   if (surrogate === "overlap") {
     const pick2 = picker((p) => g.nodes[p]);
+    const pointMap = shared && !identity && layer.kernel.every((k) => k === 1) ? shared.of(width, tag) : void 0;
     const problem2 = eachOutput(
       g.shape,
       shape,
       (a, j) => windowTaps(j, g.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], axisPlans2[a].left),
       (positions) => {
-        nodes.push(sumOf(b, width, tag, pick2(positions)));
+        nodes.push(pointMap && positions.length === 1 ? pointMap(g.nodes[positions[0]]) : sumOf(b, width, tag, pick2(positions)));
         return void 0;
       }
     );
     return problem2 ?? { shape, nodes, dim: width, flat: false };
   }
   const mapped = new Int32Array(g.nodes.length).fill(-1);
+  const map = identity ? (v) => v : perPositionMaps(b, width, tag, shared);
   const mapOf = (p) => {
-    if (mapped[p] === -1) mapped[p] = identity ? g.nodes[p] : linearOf(b, width, tag, g.nodes[p]);
+    if (mapped[p] === -1) mapped[p] = map(g.nodes[p]);
     return mapped[p];
   };
   const pick = picker(mapOf);
@@ -10334,6 +10381,73 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
   return true;
 }
 
+// src/cut/attention-lower.ts
+var ZERO2 = 0;
+var BEFORE = 1;
+var MIXED = 2;
+function attentionOnInput(model, shapes) {
+  const state = [];
+  let m = shapes.representation;
+  let found;
+  const inputState = (i) => i < 0 ? BEFORE : state[i];
+  for (const l of model.layers) {
+    const ins = l.inputs.map(inputState);
+    if (l.kind === "merge") {
+      if (!found) return void 0;
+      state.push(Math.max(...ins));
+      continue;
+    }
+    if (ins.length !== 1) return void 0;
+    const s = ins[0];
+    if (l.kind === "attention") {
+      if (found) {
+        state.push(ZERO2);
+        continue;
+      }
+      if (s !== BEFORE) return void 0;
+      const d = l.inputs[0] < 0 ? shapes.representation : shapes.layers[l.inputs[0]].width;
+      const s2 = l.heads * shapes.headDims[l.index];
+      found = { k: Math.min(s2, d, m), causal: l.causal, window: l.window };
+      state.push(MIXED);
+      continue;
+    }
+    if (l.kind === "pointwise" || l.kind === "position") {
+      state.push(s);
+      continue;
+    }
+    const perPosition = l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] === "per-position" || l.kind === "conv" && shapes.groups[l.index] === 1 && l.kernel.every((k) => k === 1) && l.stride.every((st) => st === 1);
+    if (!perPosition) return void 0;
+    if (!found) m = Math.min(m, shapes.layers[l.index].width);
+    state.push(s);
+  }
+  if (!found || state[state.length - 1] !== MIXED) return void 0;
+  const last = shapes.layers[shapes.layers.length - 1].shape;
+  if (last.length !== model.input.shape.length || last.some((n, i) => n !== model.input.shape[i])) return void 0;
+  let output = 0;
+  for (let axis = 0; axis < last.length; axis++) output = output * last[axis] + shapes.output.position[axis];
+  return { ...found, output, vocabulary: model.input.vocabulary };
+}
+function attentionLower(on, p, oneDimensional) {
+  const o = on.output;
+  const near = p.side[o];
+  const attends = (j) => !(on.causal && j > o) && !(on.window !== void 0 && oneDimensional && Math.abs(o - j) > on.window);
+  let far = false;
+  let nearOther = false;
+  for (let j = 0; j < p.side.length; j++) {
+    if (!attends(j)) continue;
+    if (p.side[j] !== near) far = true;
+    else if (j !== o) nearOther = true;
+  }
+  if (!far) return void 0;
+  const k = BigInt(on.k);
+  let rank;
+  if (on.vocabulary === void 0) rank = k + 1n;
+  else if (on.k < on.vocabulary) rank = nearOther ? k + 1n : k;
+  else rank = k - 1n;
+  if (rank <= 1n) return void 0;
+  return { rank, log2: log2Big(rank), method: "one attention layer, the rest passed through", cut: [] };
+}
+
 // src/cut/probe/modular.ts
 var PROBE_PRIME = 67108859;
 var INVERSE = 1 / PROBE_PRIME;
@@ -10766,7 +10880,7 @@ function probeInputName(side, index, position) {
 var CONSTANT = 0;
 var SIDE_A = 1;
 var SIDE_B = 2;
-var MIXED = 3;
+var MIXED2 = 3;
 function probeRank(program, side, lower, most, budget) {
   let limit = most;
   const { steps, positions, m } = program;
@@ -10779,7 +10893,7 @@ function probeRank(program, side, lower, most, budget) {
       cls[s] = c;
     }
   }
-  if (cls[program.output] !== MIXED) return void 0;
+  if (cls[program.output] !== MIXED2) return void 0;
   const lists = [[], [], [], []];
   const cost = [0, 0, 0, 0];
   for (let s = positions; s < steps.length; s++) {
@@ -10788,9 +10902,9 @@ function probeRank(program, side, lower, most, budget) {
   }
   const frontier = [[], [], [], []];
   const seen = new Uint8Array(steps.length);
-  for (const s of lists[MIXED]) {
+  for (const s of lists[MIXED2]) {
     for (const r of steps[s].reads) {
-      if (cls[r] !== MIXED && cls[r] !== CONSTANT && !seen[r]) {
+      if (cls[r] !== MIXED2 && cls[r] !== CONSTANT && !seen[r]) {
         seen[r] = 1;
         frontier[cls[r]].push(r);
       }
@@ -10802,7 +10916,7 @@ function probeRank(program, side, lower, most, budget) {
   const frontierB = width(SIDE_B);
   const rowCost = cost[SIDE_A] + frontierA + m * positions;
   const colCost = cost[SIDE_B] + frontierB + m * positions;
-  const entryCost = cost[MIXED] + frontierB;
+  const entryCost = cost[MIXED2] + frontierB;
   const buf = new Float64Array(program.bufferSize);
   const runAll = (list2) => {
     for (const s of list2) steps[s].run(buf);
@@ -10836,7 +10950,7 @@ function probeRank(program, side, lower, most, budget) {
     const at = spans2[which];
     for (let x = 0, o = 0; x < at.length; x += 2) for (let k2 = 0; k2 < at[x + 1]; k2++) buf[at[x] + k2] = saved[o++];
   };
-  const mixed = lists[MIXED];
+  const mixed = lists[MIXED2];
   const out = steps[program.output].offset;
   const rows = [];
   const cols = [];
@@ -11015,6 +11129,7 @@ function analyseLayered(model, options) {
     }
     return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
   };
+  const attentionModel = attentionOnInput(model, built.shapes);
   const bestLower = (p, upper, probeTarget) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
@@ -11023,6 +11138,8 @@ function analyseLayered(model, options) {
     if (published) lowers.push(published);
     const shallow = recurrent3 && shallowRecurrentLower(recurrent3, p);
     if (shallow) lowers.push(shallow);
+    const attention2 = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
+    if (attention2) lowers.push(attention2);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
     if (!probe || probeTarget === null) return lower;
@@ -11151,7 +11268,7 @@ function diagonalLower(c, side) {
 }
 function publishedRecurrentLower(model, on, p) {
   const first = on.layer;
-  if (first.depth !== 2) return void 0;
+  if (first.depth < 2) return void 0;
   if (model.input.shape.length !== 1) return void 0;
   const t = model.input.shape[0];
   if (t % 2 !== 0) return void 0;
@@ -11159,24 +11276,26 @@ function publishedRecurrentLower(model, on, p) {
   if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return void 0;
   const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
-  return { rank, log2: log2Big(rank), method: "published depth-2 recurrent", cut: [] };
+  const method = first.depth === 2 ? "published depth-2 recurrent" : "published depth-2 recurrent, lower levels passed through";
+  return { rank, log2: log2Big(rank), method, cut: [] };
 }
 function shallowRecurrentLower(on, p) {
   const first = on.layer;
-  if (first.depth !== 1) return void 0;
+  if (first.depth < 1) return void 0;
   let a = 0;
   for (const x of p.side) a += x;
   const b = p.side.length - a;
   if (a === 0 || b === 0) return void 0;
   const r = BigInt(first.hidden);
-  const m = on.m;
+  const m = first.depth === 1 ? on.m : Math.min(on.m, first.hidden);
   const span = (count) => {
     const sym = binomial(m + count - 1, count);
     return sym < r ? sym : r;
   };
   const bound = span(a) + span(b) - r;
   if (bound <= 1n) return void 0;
-  return { rank: bound, log2: log2Big(bound), method: "shallow recurrent span", cut: [] };
+  const method = first.depth === 1 ? "shallow recurrent span" : "recurrent span, lower levels passed through";
+  return { rank: bound, log2: log2Big(bound), method, cut: [] };
 }
 function recurrentOnInput(model, shapes) {
   let m = shapes.representation;
@@ -11237,7 +11356,7 @@ function show(x) {
   const text = x.d === 1n ? x.n.toString() : `${x.n}/${x.d}`;
   return text.length > 40 ? `a number of ${text.length} digits` : text;
 }
-var ZERO2 = { n: 0n, d: 1n };
+var ZERO3 = { n: 0n, d: 1n };
 function add(a, b) {
   return exact(a.n * b.d + b.n * a.d, a.d * b.d);
 }
@@ -11285,7 +11404,7 @@ function parseDecimal(text) {
   const digits = `${m[2] ?? ""}${m[3] ?? ""}`.replace(/^0+(?=[0-9])/, "") || "0";
   const exponent = Number(m[4] ?? "0") - (m[3] ?? "").length;
   if (!Number.isSafeInteger(exponent) || Math.abs(exponent) > 400 || digits.length > 400) {
-    if (/^0*$/.test(digits)) return ZERO2;
+    if (/^0*$/.test(digits)) return ZERO3;
     throw new OverflowError(`${text} is beyond 2^63`);
   }
   const n = BigInt(digits) * (m[1] === "-" ? -1n : 1n);
