@@ -10,6 +10,7 @@
  * spanned by monomials, so the separation rank is at most Π_v C(D_v + d_v, d_v), or
  * Π_v C(D_v + d_v − 1, d_v) when the function is homogeneous in each v (no sums). The frontier is
  * swept over every down-closed prefix of the pure nodes in topological order; the best is kept.
+ * `graded-degree.ts` grades the same frontiers by total degree.
  */
 import { OP_CONST, OP_INPUT, type Circuit } from '../network/circuit.js';
 
@@ -24,7 +25,28 @@ export interface DegreeBound {
 
 const SAFE = 2 ** 52;
 
-export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
+export function degreeBound(c: Circuit, side: Uint8Array, reach: SideReach | null = sideReach(c, side)): DegreeBound | null {
+  if (!reach) return null;
+  const { dep, paths } = reach;
+  let best: { step: number; mask: number; log: number } | null = null;
+  for (const mask of [1, 2]) {
+    const found = sweep(c, dep, paths, mask);
+    if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
+  }
+  if (!best) return null;
+  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
+  const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d)));
+  return { log2: best.log, rank, counts: frontierCounts(c, degrees) };
+}
+
+/** Per node: which sides its value reads (1 = A, 2 = B, 3 = both), and its number of paths to the output. */
+export interface SideReach {
+  readonly dep: Uint8Array;
+  readonly paths: Float64Array;
+}
+
+/** null when some path count is too large to hold exactly. */
+export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
   const n = c.size;
   const dep = new Uint8Array(n);
   const { op, childStart, childList } = c;
@@ -47,14 +69,22 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
       paths[ch] = paths[ch]! + p;
     }
   }
-  let best: { step: number; mask: number; log: number } | null = null;
-  for (const mask of [1, 2]) {
-    const found = sweep(c, dep, paths, mask);
-    if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
-  }
-  if (!best) return null;
-  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
-  const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d)));
+  return { dep, paths };
+}
+
+/**
+ * Frontiers of one side (mask 1 = A, 2 = B), node → its degree d_v: the `count` with the smallest
+ * ungraded bounds among the sweep's steps, best first; empty when the side reaches nothing.
+ */
+export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
+  const steps: SweepResult[] = [];
+  sweep(c, reach.dep, reach.paths, mask, steps);
+  steps.sort((x, y) => x.log - y.log);
+  return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+}
+
+/** The frontier as cut entries: tag → node dim → number of frontier nodes. */
+export function frontierCounts(c: Circuit, degrees: Map<number, number>): Map<number, Map<number, number>> {
   const counts = new Map<number, Map<number, number>>();
   for (const [v] of degrees) {
     const tag = c.bondTag[v]!;
@@ -62,7 +92,7 @@ export function degreeBound(c: Circuit, side: Uint8Array): DegreeBound | null {
     if (!byDim) counts.set(tag, (byDim = new Map()));
     byDim.set(c.dim[v]!, (byDim.get(c.dim[v]!) ?? 0) + 1);
   }
-  return { log2: best.log, rank, counts };
+  return counts;
 }
 
 interface SweepResult {
@@ -71,7 +101,7 @@ interface SweepResult {
 }
 
 /** Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound: the best step. */
-function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number): SweepResult | null {
+function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, all?: SweepResult[]): SweepResult | null {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
   // The current log2 term of each frontier node, kept so that removing it costs no log-gamma.
@@ -96,6 +126,7 @@ function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number): 
     d[v] = paths[v]!;
     total += term(v);
     if (op[v] === OP_INPUT) inputsLeft--;
+    if (inputsLeft === 0) all?.push({ step: v, log: total });
     if (inputsLeft === 0 && (!best || total < best.log - 1e-9)) best = { step: v, log: total };
   }
   return best;
