@@ -14,8 +14,8 @@
  * The reduced model pins M and the analysed output position of the original, and is used only if
  * every layer it keeps is read the same way (pointwise readings, dense readings).
  */
-import { INPUT, WEIGHTED_KINDS, type Layer, type LayeredModel } from '../config/model.js';
-import { extent } from '../config/grid-geometry.js';
+import { INPUT, WEIGHTED_KINDS, type ConvLayer, type Layer, type LayeredModel } from '../config/model.js';
+import { extent, windowAxis } from '../config/grid-geometry.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import { inferShapes } from '../config/model-shapes.js';
 import { readPointwise, type PointwiseReading } from '../network/square-rule.js';
@@ -31,13 +31,16 @@ export interface SpecialCase {
 
 const ZERO_PRESERVING: ReadonlySet<Layer['kind']> = new Set<Layer['kind']>(['pointwise', 'pool', 'upsample', 'flatten']);
 
-export function specialCases(model: LayeredModel, surrogate: Surrogate, shapes: ModelShapes, reading: PointwiseReading): SpecialCase[] {
+export function specialCases(original: LayeredModel, surrogate: Surrogate, shapes: ModelShapes, reading: PointwiseReading): SpecialCase[] {
+  let model = original;
   let under: Surrogate = surrogate;
   const steps: string[] = [];
   if (surrogate === 'overlap') {
-    if (!treeIsSpecialCase(model, shapes)) return [];
+    const tapped = treeSpecialCase(model, shapes);
+    if (!tapped) return [];
     under = 'tree';
-    steps.push('off-centre taps zeroed');
+    steps.push(tapped === model ? 'off-centre taps zeroed' : 'all taps but one zeroed');
+    model = tapped;
   }
   // Position vectors: learned ones can be zero (the layer is then the identity); fixed ones cannot.
   if (model.layers.some((l) => l.kind === 'position' && l.mode === 'fixed')) return [];
@@ -104,31 +107,84 @@ function bypass(model: LayeredModel, drop: (l: Layer) => boolean): Reduction {
   };
 }
 
-/** Whether zeroing taps turns every overlapping window of the model into its tree counterpart. */
-function treeIsSpecialCase(model: LayeredModel, shapes: ModelShapes): boolean {
+/**
+ * The tree-surrogate model that zeroing taps turns the model into, or undefined when zeroing taps
+ * does not make every overlapping window its tree counterpart. A stride-1 conv keeps its centre
+ * tap, the tree's own conv. A strided conv keeps one tap t per strided axis: output j then reads
+ * the single position j·s − left + t·d, which is the tree's conv with kernel 1 and stride s when
+ * that conv reads the same position and has the same output length (the returned model has such
+ * a layer in its place).
+ */
+function treeSpecialCase(model: LayeredModel, shapes: ModelShapes): LayeredModel | undefined {
+  let changed = false;
+  const layers: Layer[] = [];
   for (const l of model.layers) {
+    const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]!]?.shape;
     if (l.kind === 'conv') {
-      if (l.stride.some((s) => s !== 1)) return false;
-      if (l.padding.mode === 'causal') continue;
+      if (l.stride.some((s) => s !== 1)) {
+        const one = before && keepOneTap(l, before);
+        if (!one) return undefined;
+        layers.push(one);
+        changed = true;
+        continue;
+      }
       // The tree's position j − left + ⌊(e−1)/2⌋ must be a tap j − left + t·d.
-      if (l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]!) - 1) / 2) % l.dilation[a]! !== 0)) return false;
+      if (l.padding.mode !== 'causal' && l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]!) - 1) / 2) % l.dilation[a]! !== 0)) return undefined;
     } else if (l.kind === 'conv-transpose') {
-      const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]!]!.shape;
       const after = shapes.layers[l.index]!.shape;
       for (let a = 0; a < after.length; a++) {
         const s = l.stride[a]!;
         const d = l.dilation[a]!;
         const p = l.padding[a]!;
-        if (after[a]! > before[a]! * s) return false;
+        if (after[a]! > before![a]! * s) return undefined;
         for (let u = 0; u < Math.min(s, after[a]!); u++) {
-          if ((u + p) % d !== 0 || (u + p) / d >= l.kernel[a]!) return false;
+          if ((u + p) % d !== 0 || (u + p) / d >= l.kernel[a]!) return undefined;
         }
       }
     } else if (l.kind === 'upsample' && l.mode === 'linear') {
-      return false;
+      return undefined;
     }
+    layers.push(l);
   }
-  return true;
+  return changed ? { ...model, layers } : model;
+}
+
+/**
+ * A strided conv with all taps but one zeroed on each strided axis, as the tree's conv of kernel
+ * 1 there (stride-1 axes keep their kernel and centre tap): the kept tap t reads j·s − left + t·d,
+ * the kernel-1 conv reads j·s − left′; they agree when t·d = left − left′ with 0 ≤ t < k, and the
+ * output lengths must agree too. Padding: `same` (left′ = 0), `causal` (t = k − 1), `valid`
+ * (t = 0, when the lengths agree), `explicit` (a smaller amount left′ = left − t·d per strided axis).
+ */
+function keepOneTap(l: ConvLayer, before: readonly number[]): ConvLayer | undefined {
+  const kernel = [...l.kernel];
+  const dilation = [...l.dilation];
+  const amount = l.padding.mode === 'explicit' ? [...l.padding.amount] : [];
+  for (let a = 0; a < kernel.length; a++) {
+    const s = l.stride[a]!;
+    const n = before[a]!;
+    const k = l.kernel[a]!;
+    const d = l.dilation[a]!;
+    if (s === 1) {
+      if (l.padding.mode !== 'causal' && Math.floor((extent(k, d) - 1) / 2) % d !== 0) return undefined;
+      continue;
+    }
+    const wide = windowAxis(n, k, s, d, l.padding, a);
+    if (typeof wide === 'string') return undefined;
+    let found = false;
+    for (let t = 0; t < k && !found; t++) {
+      const padding = l.padding.mode === 'explicit' ? { mode: 'explicit' as const, amount: amount.map((x, i) => (i === a ? wide.left - t * d : x)) } : l.padding;
+      if (l.padding.mode === 'explicit' && wide.left - t * d < 0) continue;
+      const one = windowAxis(n, 1, s, 1, padding, a);
+      if (typeof one === 'string' || one.out !== wide.out || one.left !== wide.left - t * d) continue;
+      if (l.padding.mode === 'explicit') amount[a] = wide.left - t * d;
+      found = true;
+    }
+    if (!found) return undefined;
+    kernel[a] = 1;
+    dilation[a] = 1;
+  }
+  return { ...l, kernel, dilation, ...(l.padding.mode === 'explicit' ? { padding: { mode: 'explicit', amount } } : {}) };
 }
 
 /** The model with every merge replaced by one of its inputs, or undefined when that is not a special case. */
