@@ -16,6 +16,7 @@ import { gradedDegreeBound, totalDegrees } from './graded-degree.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds } from './explicit-bounds.js';
 import { topWindowLower } from './top-window-lower.js';
+import { splitWindowLower } from './window-product-lower.js';
 import { rankPropagation } from './rank-propagation.js';
 import { specialCases } from './special-cases.js';
 import { attentionLower, attentionOnInput } from './attention-lower.js';
@@ -195,6 +196,8 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
         if (topWindow) {
           const top = topWindowLower(c, side);
           if (top !== undefined) found.push(tag({ rank: top, log2: log2Big(top), method: 'top-window span', cut: [] }));
+          const split = splitWindowLower(c, side);
+          if (split !== undefined && split > 1n) found.push(tag({ rank: split, log2: log2Big(split), method: 'split windows', cut: [] }));
         }
         return found;
       },

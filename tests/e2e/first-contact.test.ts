@@ -79,14 +79,14 @@ describe('check', () => {
 
   test('an unproven requirement counted as failing says what would prove it, never that it is short', () => {
     const dir = scratch({
-      // the kidney-pair net's checkerboard: proven 2^5 (shared weights, every window split), ceiling
-      // far above 2^20, and no single change proves more
-      'policy.yaml': 'id: renal\ndescription: Test.\napplies_to: ["*.yaml"]\nunproven: fail\nrequire:\n  - {partition: checkerboard, min_rank: 2^20}\n',
-      'renal.yaml': readFileSync(join(REPO, 'examples/renal-pair-net.yaml'), 'utf8'),
+      // the fully connected classifier's left/right halves: ceiling 2^20.17, no rule proves a lower
+      // bound through flatten + dense, and no single change makes one
+      'policy.yaml': 'id: mlp\ndescription: Test.\napplies_to: ["*.yaml"]\nunproven: fail\nrequire:\n  - {partition: left-right, min_rank: 2^10}\n',
+      'mlp.yaml': readFileSync(join(REPO, 'examples/architectures/mlp-fashion.yaml'), 'utf8'),
     });
-    const r = runCli(['check', '--policy', join(dir, 'policy.yaml'), join(dir, 'renal.yaml')], dir);
+    const r = runCli(['check', '--policy', join(dir, 'policy.yaml'), join(dir, 'mlp.yaml')], dir);
     expect(r.code).toBe(1);
-    expect(r.stdout).toContain('UNPROVEN  checkerboard');
+    expect(r.stdout).toContain('UNPROVEN  left-right');
     expect(r.stdout).toContain('not disproven');
     expect(r.stdout).toContain('to prove it: a proven lower bound of at least');
     expect(r.stdout).not.toContain('needs a larger change');
