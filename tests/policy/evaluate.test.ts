@@ -70,16 +70,17 @@ describe('verdicts', () => {
   });
 
   test('unproven counts as the policy says', () => {
-    // Shared weights, checkerboard: upper 2^32 from the first layer's bonds, lower only the
-    // diagonal construction (rank 2), so 2^10 is neither proven nor refuted.
+    // Shared weights, checkerboard: upper 3^16 (symmetric groups of the first windows), lower 2^16
+    // (split windows: each 2×2 window's sum of 4 products has rank ≥ 3 + 3 − 4), so 2^20 is
+    // neither proven nor refuted.
     const m = pyramid(4, 8, 16, true);
     const b = rank(m, 'checkerboard');
-    expect(b.upper > 1024n && (b.lower ?? 0n) < 1024n).toBe(true);
-    const warn = evaluate(m, policy([req('checkerboard', 1024n, 'warn')]));
+    expect([b.upper, b.lower]).toEqual([3n ** 16n, 2n ** 16n]);
+    const warn = evaluate(m, policy([req('checkerboard', 2n ** 20n, 'warn')]));
     expect(warn.requirements[0]!.verdict).toBe('unproven');
     expect(warn.requirements[0]!.failing).toBe(false);
     expect(warn.verdict).toBe('pass');
-    const fail = evaluate(m, policy([req('checkerboard', 1024n, 'fail')]));
+    const fail = evaluate(m, policy([req('checkerboard', 2n ** 20n, 'fail')]));
     expect(fail.requirements[0]!.failing).toBe(true);
     expect(fail.verdict).toBe('fail');
   });
