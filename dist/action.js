@@ -39730,7 +39730,20 @@ function headCone(c) {
 
 // src/cut/degree-bound.ts
 var SAFE = 2 ** 52;
-function degreeBound(c, side) {
+function degreeBound(c, side, reach = sideReach(c, side)) {
+  if (!reach) return null;
+  const { dep, paths } = reach;
+  let best = null;
+  for (const mask of [1, 2]) {
+    const found2 = sweep(c, dep, paths, mask);
+    if (found2 && (!best || found2.log < best.log)) best = { step: found2.step, mask, log: found2.log };
+  }
+  if (!best) return null;
+  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
+  const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d)));
+  return { log2: best.log, rank, counts: frontierCounts(c, degrees) };
+}
+function sideReach(c, side) {
   const n = c.size;
   const dep = new Uint8Array(n);
   const { op, childStart, childList } = c;
@@ -39753,14 +39766,15 @@ function degreeBound(c, side) {
       paths[ch] = paths[ch] + p;
     }
   }
-  let best = null;
-  for (const mask of [1, 2]) {
-    const found2 = sweep(c, dep, paths, mask);
-    if (found2 && (!best || found2.log < best.log)) best = { step: found2.step, mask, log: found2.log };
-  }
-  if (!best) return null;
-  const degrees = frontierAt(c, dep, paths, best.mask, best.step);
-  const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d)));
+  return { dep, paths };
+}
+function sideFrontiers(c, reach, mask, count) {
+  const steps = [];
+  sweep(c, reach.dep, reach.paths, mask, steps);
+  steps.sort((x, y) => x.log - y.log);
+  return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+}
+function frontierCounts(c, degrees) {
   const counts = /* @__PURE__ */ new Map();
   for (const [v] of degrees) {
     const tag = c.bondTag[v];
@@ -39768,9 +39782,9 @@ function degreeBound(c, side) {
     if (!byDim) counts.set(tag, byDim = /* @__PURE__ */ new Map());
     byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
   }
-  return { log2: best.log, rank, counts };
+  return counts;
 }
-function sweep(c, dep, paths, mask) {
+function sweep(c, dep, paths, mask, all) {
   const { op, childStart, childList, dim } = c;
   const d = new Float64Array(c.size);
   const held = new Float64Array(c.size);
@@ -39794,6 +39808,7 @@ function sweep(c, dep, paths, mask) {
     d[v] = paths[v];
     total += term(v);
     if (op[v] === OP_INPUT) inputsLeft--;
+    if (inputsLeft === 0) all?.push({ step: v, log: total });
     if (inputsLeft === 0 && (!best || total < best.log - 1e-9)) best = { step: v, log: total };
   }
   return best;
@@ -40067,6 +40082,87 @@ function recoverCut(c, weight, fa, fb, free, headSide, sym) {
   }
   return counts;
 }
+
+// src/cut/graded-degree.ts
+var MAX_DEGREE = 4096;
+var MAX_WORK = 3e5;
+function totalDegrees(c) {
+  const { op, childStart, childList } = c;
+  const deg = new Int32Array(c.size);
+  for (let v = 0; v < c.size; v++) {
+    const kind = op[v];
+    if (kind === OP_INPUT) deg[v] = 1;
+    else if (kind === OP_CONST) deg[v] = 0;
+    else {
+      let d = kind === OP_PRODUCT ? 0 : -2;
+      for (let i = childStart[v]; i < childStart[v + 1] && d !== -1; i++) {
+        const g = deg[childList[i]];
+        if (g < 0) d = -1;
+        else if (kind === OP_PRODUCT) d = Math.min(d + g, MAX_DEGREE + 1);
+        else if (kind === OP_LINEAR || d === -2) d = g;
+        else if (d !== g) d = -1;
+      }
+      deg[v] = d === -2 ? 0 : d;
+    }
+  }
+  return deg;
+}
+function gradedDegreeBound(c, reach, deg) {
+  const n = deg[c.top];
+  if (n < 0 || n > MAX_DEGREE) return null;
+  const [fa] = sideFrontiers(c, reach, 1, 1);
+  const a = fa && gradeCounts(c, fa, deg, n);
+  const [fb] = a ? sideFrontiers(c, reach, 2, 1) : [];
+  const b = fb && gradeCounts(c, fb, deg, n);
+  if (!a || !b) return null;
+  let rank = 0n;
+  for (let e = 0; e <= n; e++) rank += a[e] < b[n - e] ? a[e] : b[n - e];
+  return rank === 0n ? null : { rank, counts: frontierCounts(c, fa) };
+}
+function gradeCounts(c, frontier, deg, n) {
+  let counts = new Float64Array(n + 1);
+  let next = new Float64Array(n + 1);
+  counts[0] = 1;
+  let top = 0;
+  let work = 0;
+  const monomials = [];
+  for (const [v, d] of frontier) {
+    const g = deg[v];
+    if (g <= 0) return null;
+    const dim = c.dim[v];
+    const lo = c.homogeneous ? d : 0;
+    const hi = Math.min(d, Math.floor(n / g));
+    if (lo > hi) return null;
+    monomials.length = 0;
+    monomials.push(1);
+    for (let e = 1; e <= hi; e++) {
+      const product = monomials[e - 1] * (dim + e - 1);
+      if (product >= EXACT) return null;
+      monomials.push(product / e);
+    }
+    work += (top + 1) * (hi - lo + 1);
+    if (work > MAX_WORK) return null;
+    next.fill(0, 0, Math.min(n, top + hi * g) + 1);
+    let nextTop = 0;
+    for (let x = 0; x <= top; x++) {
+      const cx = counts[x];
+      if (cx === 0) continue;
+      for (let e = lo; e <= hi; e++) {
+        const y = x + e * g;
+        if (y > n) break;
+        const sum2 = next[y] + cx * monomials[e];
+        if (sum2 >= EXACT) return null;
+        next[y] = sum2;
+        if (y > nextTop) nextTop = y;
+      }
+    }
+    [counts, next] = [next, counts];
+    top = nextTop;
+  }
+  counts.fill(0, top + 1);
+  return Array.from(counts, (x) => BigInt(x));
+}
+var EXACT = 2 ** 53;
 
 // src/cut/power-rounding.ts
 var MAX_CANDIDATES = 64;
@@ -40506,6 +40602,88 @@ function spans(c) {
     }
   }
   return s;
+}
+
+// src/cut/window-product-lower.ts
+var LEAF = 1;
+var WINDOW = 2;
+var CARRIER = 3;
+function splitWindowLower(c, side) {
+  const n = c.size;
+  const kind = new Uint8Array(n);
+  const span = new Int32Array(n);
+  const inA = new Int32Array(n);
+  const inB = new Int32Array(n);
+  const rank = new Array(n);
+  const windowRank = (v) => {
+    const r = BigInt(c.dim[v]);
+    const a = inA[v];
+    const b = inB[v];
+    if (a === 0 || b === 0) return 1n;
+    const rho = (count) => {
+      const sym = binomial(span[v] + count - 1, count);
+      return sym < r ? sym : r;
+    };
+    const bound = rho(a) + rho(b) - r;
+    return bound > 1n ? bound : 1n;
+  };
+  for (let v = 0; v < n; v++) {
+    const from = c.childStart[v];
+    const to = c.childStart[v + 1];
+    switch (c.op[v]) {
+      case OP_INPUT:
+        kind[v] = LEAF;
+        span[v] = c.dim[v];
+        if (side[c.position[v]] === 1) inA[v] = 1;
+        else inB[v] = 1;
+        break;
+      case OP_LINEAR: {
+        const ch = c.childList[from];
+        if (kind[ch] === LEAF) {
+          kind[v] = LEAF;
+          span[v] = Math.min(span[ch], c.dim[v]);
+          inA[v] = inA[ch];
+          inB[v] = inB[ch];
+        } else if (kind[ch] === WINDOW) {
+          kind[v] = CARRIER;
+          rank[v] = windowRank(ch);
+        } else if (kind[ch] === CARRIER) {
+          kind[v] = CARRIER;
+          rank[v] = rank[ch];
+        } else return void 0;
+        break;
+      }
+      case OP_PRODUCT: {
+        const first = c.childList[from];
+        const k = kind[first];
+        if (k === CARRIER) {
+          let r = 1n;
+          for (let i = from; i < to; i++) {
+            const ch = c.childList[i];
+            if (kind[ch] !== CARRIER) return void 0;
+            r *= rank[ch];
+          }
+          kind[v] = CARRIER;
+          rank[v] = r;
+        } else if (k === LEAF || k === WINDOW) {
+          kind[v] = WINDOW;
+          span[v] = span[first];
+          for (let i = from; i < to; i++) {
+            const ch = c.childList[i];
+            if (kind[ch] !== LEAF && kind[ch] !== WINDOW || c.tag[ch] !== c.tag[first] || c.dim[ch] !== c.dim[first] || span[ch] !== span[first]) return void 0;
+            inA[v] = inA[v] + inA[ch];
+            inB[v] = inB[v] + inB[ch];
+          }
+        } else return void 0;
+        break;
+      }
+      default:
+        return void 0;
+    }
+  }
+  const top = c.top;
+  if (kind[top] === WINDOW) return windowRank(top);
+  return kind[top] === CARRIER ? rank[top] : void 0;
 }
 
 // src/cut/additive-parts.ts
@@ -41423,13 +41601,16 @@ function recordWidths(c, plan, p) {
 
 // src/cut/special-cases.ts
 var ZERO_PRESERVING = /* @__PURE__ */ new Set(["pointwise", "pool", "upsample", "flatten"]);
-function specialCases(model, surrogate, shapes, reading) {
+function specialCases(original, surrogate, shapes, reading) {
+  let model = original;
   let under = surrogate;
   const steps = [];
   if (surrogate === "overlap") {
-    if (!treeIsSpecialCase(model, shapes)) return [];
+    const tapped = treeSpecialCase(model, shapes);
+    if (!tapped) return [];
     under = "tree";
-    steps.push("off-centre taps zeroed");
+    steps.push(tapped === model ? "off-centre taps zeroed" : "all taps but one zeroed");
+    model = tapped;
   }
   if (model.layers.some((l) => l.kind === "position" && l.mode === "fixed")) return [];
   const pinned = {
@@ -41484,29 +41665,67 @@ function bypass(model, drop) {
     from: kept.map((l) => l.index)
   };
 }
-function treeIsSpecialCase(model, shapes) {
+function treeSpecialCase(model, shapes) {
+  let changed = false;
+  const layers = [];
   for (const l of model.layers) {
+    const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]]?.shape;
     if (l.kind === "conv") {
-      if (l.stride.some((s) => s !== 1)) return false;
-      if (l.padding.mode === "causal") continue;
-      if (l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]) - 1) / 2) % l.dilation[a] !== 0)) return false;
+      if (l.stride.some((s) => s !== 1)) {
+        const one = before && keepOneTap(l, before);
+        if (!one) return void 0;
+        layers.push(one);
+        changed = true;
+        continue;
+      }
+      if (l.padding.mode !== "causal" && l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]) - 1) / 2) % l.dilation[a] !== 0)) return void 0;
     } else if (l.kind === "conv-transpose") {
-      const before = l.inputs[0] === INPUT ? model.input.shape : shapes.layers[l.inputs[0]].shape;
       const after = shapes.layers[l.index].shape;
       for (let a = 0; a < after.length; a++) {
         const s = l.stride[a];
         const d = l.dilation[a];
         const p = l.padding[a];
-        if (after[a] > before[a] * s) return false;
+        if (after[a] > before[a] * s) return void 0;
         for (let u = 0; u < Math.min(s, after[a]); u++) {
-          if ((u + p) % d !== 0 || (u + p) / d >= l.kernel[a]) return false;
+          if ((u + p) % d !== 0 || (u + p) / d >= l.kernel[a]) return void 0;
         }
       }
     } else if (l.kind === "upsample" && l.mode === "linear") {
-      return false;
+      return void 0;
     }
+    layers.push(l);
   }
-  return true;
+  return changed ? { ...model, layers } : model;
+}
+function keepOneTap(l, before) {
+  const kernel = [...l.kernel];
+  const dilation = [...l.dilation];
+  const amount = l.padding.mode === "explicit" ? [...l.padding.amount] : [];
+  for (let a = 0; a < kernel.length; a++) {
+    const s = l.stride[a];
+    const n = before[a];
+    const k = l.kernel[a];
+    const d = l.dilation[a];
+    if (s === 1) {
+      if (l.padding.mode !== "causal" && Math.floor((extent(k, d) - 1) / 2) % d !== 0) return void 0;
+      continue;
+    }
+    const wide = windowAxis(n, k, s, d, l.padding, a);
+    if (typeof wide === "string") return void 0;
+    let found2 = false;
+    for (let t = 0; t < k && !found2; t++) {
+      const padding = l.padding.mode === "explicit" ? { mode: "explicit", amount: amount.map((x, i) => i === a ? wide.left - t * d : x) } : l.padding;
+      if (l.padding.mode === "explicit" && wide.left - t * d < 0) continue;
+      const one = windowAxis(n, 1, s, 1, padding, a);
+      if (typeof one === "string" || one.out !== wide.out || one.left !== wide.left - t * d) continue;
+      if (l.padding.mode === "explicit") amount[a] = wide.left - t * d;
+      found2 = true;
+    }
+    if (!found2) return void 0;
+    kernel[a] = 1;
+    dilation[a] = 1;
+  }
+  return { ...l, kernel, dilation, ...l.padding.mode === "explicit" ? { padding: { mode: "explicit", amount } } : {} };
 }
 function keepOneInput(model, pick) {
   const layers = model.layers;
@@ -42283,17 +42502,21 @@ function analyseLayered(model, options) {
   const symmetric = model.weightSharing && !hasRecurrent && !circuit.sums;
   const lowerNetworks = lowerCircuits(model, options, built.shapes, built.pointwise, hasRecurrent);
   const probe = certifiedProbe(model, built.shapes, built.pointwise, options.surrogate, options.probeBudget);
+  let degrees;
   const bounds = (p, probeTarget) => {
     const cut2 = treeMinCut(circuit, p.side, upperWeights, { symmetric });
-    const deg = circuit.reuse && cut2.value > 0 ? degreeBound(circuit, p.side) : null;
+    const reach = circuit.reuse && cut2.value > 0 ? sideReach(circuit, p.side) : null;
+    const deg = reach && degreeBound(circuit, p.side, reach);
+    const graded = reach && gradedDegreeBound(circuit, reach, degrees ??= totalDegrees(circuit));
+    const gradedLog2 = graded ? log2Big(graded.rank) : Infinity;
     const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side, built.circuit) : null;
     const vocabulary = model.input.vocabulary;
     const tokenSide = vocabulary === void 0 ? 0 : Math.min(...sideSizes(p.side));
     const tokens = vocabulary === void 0 ? Infinity : tokenSide * Math.log2(vocabulary);
-    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
+    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, gradedLog2, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
-      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : "token count";
-      const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : /* @__PURE__ */ new Map();
+      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : best === gradedLog2 ? "graded degree" : "token count";
+      const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : method === "graded degree" ? graded.counts : /* @__PURE__ */ new Map();
       const upper2 = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === "min-cut" ? augment : 0) };
       return finish(p.label, { upper: upper2, lower: bestLower(p, upper2, probeTarget) });
     }
@@ -42301,6 +42524,7 @@ function analyseLayered(model, options) {
       { log2: cut2.value, make: () => makeBound(productOf2(cut2.counts, augment), "min-cut", circuit, cut2.counts, augment) }
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
+    if (graded) candidates2.push({ log2: gradedLog2, make: () => makeBound(graded.rank, "graded degree", circuit, graded.counts, 0) });
     if (vocabulary !== void 0) {
       candidates2.push({
         log2: tokens,
@@ -42365,6 +42589,8 @@ function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
         if (topWindow) {
           const top2 = topWindowLower(c, side);
           if (top2 !== void 0) found2.push(tag({ rank: top2, log2: log2Big(top2), method: "top-window span", cut: [] }));
+          const split = splitWindowLower(c, side);
+          if (split !== void 0 && split > 1n) found2.push(tag({ rank: split, log2: log2Big(split), method: "split windows", cut: [] }));
         }
         return found2;
       }
@@ -44070,7 +44296,7 @@ var HEADS = f("heads", "attention heads (required)", ["num_heads", "n_head", "n_
 var HEAD_DIM = f("head_dim", "width of each head's queries, keys and values (default: the width / heads)", ["key_dim", "head_size", "d_head", "kv_channels"]);
 var CAUSAL = f("causal", "true: position i attends only to positions j ≤ i (default false)", ["is_causal", "masked", "autoregressive"]);
 var MASK = f("mask", "`causal` (also `lower_triangular`), or `none` (`full`, `bidirectional`)", ["attn_mask", "attention_mask", "mask_type"]);
-var WINDOW = f("window", "local attention (1D): position i attends only to j with |i − j| ≤ window", ["local_window", "attention_window", "window_size", "sliding_window"]);
+var WINDOW2 = f("window", "local attention (1D): position i attends only to j with |i − j| ≤ window", ["local_window", "attention_window", "window_size", "sliding_window"]);
 var KV_HEADS = f("num_kv_heads", "only equal to heads is read (grouped keys and values are not modelled)", ["n_kv_heads", "num_key_value_heads", "n_kv_head"]);
 var ROTARY = f("rotary", "only false is read: rotary position schemes act inside attention", ["use_rotary", "rope", "use_rope"]);
 var ATTENTION_DROPOUT = ignored("dropout", "accepted, ignored (the identity at inference)", ["attn_dropout", "attention_dropout", "attn_pdrop", "attention_probs_dropout_prob"]);
@@ -44080,7 +44306,7 @@ var ATTENTION_FIELDS = [
   WIDTH,
   CAUSAL,
   MASK,
-  WINDOW,
+  WINDOW2,
   KV_HEADS,
   ROTARY,
   f("kdim", "only the input width is read (keys from another sequence are cross-attention)"),
@@ -44113,7 +44339,7 @@ var TRANSFORMER_FIELDS = [
   f("norm_type", "`layer` (default) or `rms`", ["norm_layer"]),
   CAUSAL,
   MASK,
-  WINDOW,
+  WINDOW2,
   KV_HEADS,
   ROTARY,
   f("depth", "blocks in a stack (default 1); copies are labelled name[1], name[2], …", ["num_layers", "n_layers", "n_layer"]),
