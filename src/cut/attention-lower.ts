@@ -9,6 +9,7 @@
  */
 import type { LayeredModel } from '../config/model.js';
 import type { ModelShapes } from '../config/model-shapes.js';
+import type { PointwiseReading } from '../network/square-rule.js';
 import type { Partition } from '../partition/partition.js';
 import type { Bound } from './types.js';
 import { log2Big } from './types.js';
@@ -30,7 +31,7 @@ export interface AttentionOnInput {
 }
 
 /** The model's shape for the rule, or undefined when it does not apply. */
-export function attentionOnInput(model: LayeredModel, shapes: ModelShapes): AttentionOnInput | undefined {
+export function attentionOnInput(model: LayeredModel, shapes: ModelShapes, reading: PointwiseReading): AttentionOnInput | undefined {
   const state: number[] = [];
   let m = shapes.representation;
   let found: { k: number; causal: boolean; window: number | undefined } | undefined;
@@ -58,6 +59,8 @@ export function attentionOnInput(model: LayeredModel, shapes: ModelShapes): Atte
       state.push(MIXED);
       continue;
     }
+    // A pointwise layer read as the square v ⊙ v (inside a fully connected stack) is not linear.
+    if (l.kind === 'pointwise' && reading.squared.has(l.index)) return undefined;
     if (l.kind === 'pointwise' || l.kind === 'position') {
       state.push(s);
       continue;

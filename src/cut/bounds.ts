@@ -137,7 +137,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     }
     return finish(p.label, { upper: upper!, lower: bestLower(p, upper!, probeTarget) });
   };
-  const attentionModel = attentionOnInput(model, built.shapes);
+  const attentionModel = attentionOnInput(model, built.shapes, built.pointwise);
   const bestLower = (p: Partition, upper: Bound, probeTarget: bigint | null | undefined): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
