@@ -41799,7 +41799,7 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
 var ZERO2 = 0;
 var BEFORE = 1;
 var MIXED = 2;
-function attentionOnInput(model, shapes) {
+function attentionOnInput(model, shapes, reading) {
   const state = [];
   let m = shapes.representation;
   let found2;
@@ -41825,6 +41825,7 @@ function attentionOnInput(model, shapes) {
       state.push(MIXED);
       continue;
     }
+    if (l.kind === "pointwise" && reading.squared.has(l.index)) return void 0;
     if (l.kind === "pointwise" || l.kind === "position") {
       state.push(s);
       continue;
@@ -42548,7 +42549,7 @@ function analyseLayered(model, options) {
     }
     return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
   };
-  const attentionModel = attentionOnInput(model, built.shapes);
+  const attentionModel = attentionOnInput(model, built.shapes, built.pointwise);
   const bestLower = (p, upper, probeTarget) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));

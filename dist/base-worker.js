@@ -10604,7 +10604,7 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
 var ZERO2 = 0;
 var BEFORE = 1;
 var MIXED = 2;
-function attentionOnInput(model, shapes) {
+function attentionOnInput(model, shapes, reading) {
   const state = [];
   let m = shapes.representation;
   let found;
@@ -10630,6 +10630,7 @@ function attentionOnInput(model, shapes) {
       state.push(MIXED);
       continue;
     }
+    if (l.kind === "pointwise" && reading.squared.has(l.index)) return void 0;
     if (l.kind === "pointwise" || l.kind === "position") {
       state.push(s);
       continue;
@@ -11353,7 +11354,7 @@ function analyseLayered(model, options) {
     }
     return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
   };
-  const attentionModel = attentionOnInput(model, built.shapes);
+  const attentionModel = attentionOnInput(model, built.shapes, built.pointwise);
   const bestLower = (p, upper, probeTarget) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
