@@ -8,11 +8,12 @@
  * coefficients depending on x_B), of degree at most d_v in node v, where d_v counts the paths from
  * v to the output that leave the pure region at once. The functions of x_A that can appear are
  * spanned by monomials, so the separation rank is at most Π_v C(D_v + d_v, d_v), or
- * Π_v C(D_v + d_v − 1, d_v) when the function is homogeneous in each v (no sums). The frontier is
+ * Π_v C(D_v + d_v − 1, d_v) when the function is homogeneous in each v (no sum on a path from v to
+ * the output; per node). The frontier is
  * swept over every down-closed prefix of the pure nodes in topological order; the best is kept.
  * `graded-degree.ts` grades the same frontiers by total degree.
  */
-import { OP_CONST, OP_INPUT, type Circuit } from '../network/circuit.js';
+import { OP_CONST, OP_INPUT, OP_SUM, type Circuit } from '../network/circuit.js';
 
 export interface DegreeBound {
   /** log2 of the bound, approximate (log-gamma): for choosing between bounds before writing one out. */
@@ -30,19 +31,25 @@ export function degreeBound(c: Circuit, side: Uint8Array, reach: SideReach | nul
   const { dep, paths } = reach;
   let best: { step: number; mask: number; log: number } | null = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, dep, paths, mask);
+    const found = sweep(c, reach, mask);
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
   const degrees = frontierAt(c, dep, paths, best.mask, best.step);
-  const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - (c.homogeneous ? 1 : 0), d)));
+  const rank = (): bigint => productTree([...degrees].map(([v, d]) => binomial(c.dim[v]! + d - reach.exact[v]!, d)));
   return { log2: best.log, rank, counts: frontierCounts(c, degrees) };
 }
 
-/** Per node: which sides its value reads (1 = A, 2 = B, 3 = both), and its number of paths to the output. */
+/**
+ * Per node: which sides its value reads (1 = A, 2 = B, 3 = both), its number of paths to the
+ * output, and whether every such path is free of sums (`exact`: the output is then homogeneous of
+ * degree exactly d_v in the node's value, since a product adds its children's degrees and a linear
+ * map keeps them; only a sum can join terms of different degrees).
+ */
 export interface SideReach {
   readonly dep: Uint8Array;
   readonly paths: Float64Array;
+  readonly exact: Uint8Array;
 }
 
 /** null when some path count is too large to hold exactly. */
@@ -59,17 +66,22 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
     }
   }
   const paths = new Float64Array(n);
+  const sumAbove = new Uint8Array(n);
   paths[c.top] = 1;
   for (let v = n - 1; v >= 0; v--) {
     const p = paths[v]!;
     if (p === 0) continue;
     if (p > SAFE) return null;
+    const below = sumAbove[v]! | (op[v] === OP_SUM ? 1 : 0);
     for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
       const ch = childList[i]!;
       paths[ch] = paths[ch]! + p;
+      sumAbove[ch] = sumAbove[ch]! | below;
     }
   }
-  return { dep, paths };
+  const exact = new Uint8Array(n);
+  for (let v = 0; v < n; v++) exact[v] = paths[v]! > 0 && sumAbove[v] === 0 ? 1 : 0;
+  return { dep, paths, exact };
 }
 
 /**
@@ -78,7 +90,7 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
  */
 export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
   const steps: SweepResult[] = [];
-  sweep(c, reach.dep, reach.paths, mask, steps);
+  sweep(c, reach, mask, steps);
   steps.sort((x, y) => x.log - y.log);
   return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
 }
@@ -101,13 +113,13 @@ interface SweepResult {
 }
 
 /** Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound: the best step. */
-function sweep(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, all?: SweepResult[]): SweepResult | null {
+function sweep(c: Circuit, reach: SideReach, mask: number, all?: SweepResult[]): SweepResult | null {
   const { op, childStart, childList, dim } = c;
+  const { dep, paths, exact } = reach;
   const d = new Float64Array(c.size);
   // The current log2 term of each frontier node, kept so that removing it costs no log-gamma.
   const held = new Float64Array(c.size);
-  const h = c.homogeneous ? 1 : 0;
-  const term = (v: number): number => (held[v] = log2Binomial(dim[v]! + d[v]! - h, d[v]!));
+  const term = (v: number): number => (held[v] = log2Binomial(dim[v]! + d[v]! - exact[v]!, d[v]!));
   let inputsLeft = 0;
   for (let v = 0; v < c.size; v++) if (op[v] === OP_INPUT && dep[v] === mask && paths[v]! > 0) inputsLeft++;
   if (inputsLeft === 0) return null;

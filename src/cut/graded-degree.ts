@@ -49,9 +49,9 @@ export function gradedDegreeBound(c: Circuit, reach: SideReach, deg: Int32Array)
   const n = deg[c.top]!;
   if (n < 0 || n > MAX_DEGREE) return null;
   const [fa] = sideFrontiers(c, reach, 1, 1);
-  const a = fa && gradeCounts(c, fa, deg, n);
+  const a = fa && gradeCounts(c, fa, deg, n, reach.exact);
   const [fb] = a ? sideFrontiers(c, reach, 2, 1) : [];
-  const b = fb && gradeCounts(c, fb, deg, n);
+  const b = fb && gradeCounts(c, fb, deg, n, reach.exact);
   if (!a || !b) return null;
   let rank = 0n;
   for (let e = 0; e <= n; e++) rank += a[e]! < b[n - e]! ? a[e]! : b[n - e]!;
@@ -60,12 +60,12 @@ export function gradedDegreeBound(c: Circuit, reach: SideReach, deg: Int32Array)
 
 /**
  * The coefficients up to t^N of Π_v Σ_{e_v} C(D_v + e_v − 1, e_v)·t^{e_v·g_v}, e_v from 0 (exactly
- * d_v when the network has no sums) to d_v: the number of frontier monomials per degree in the
+ * d_v when no sum lies above v) to d_v: the number of frontier monomials per degree in the
  * side's inputs. Counted in doubles, exact while every count stays below 2^53; null when one does
  * not (the rule is for networks whose ranks are small enough to matter by a few units), when a
  * frontier node is not homogeneous, or when the work would be too large.
  */
-function gradeCounts(c: Circuit, frontier: Map<number, number>, deg: Int32Array, n: number): bigint[] | null {
+function gradeCounts(c: Circuit, frontier: Map<number, number>, deg: Int32Array, n: number, exact: Uint8Array): bigint[] | null {
   let counts = new Float64Array(n + 1);
   let next = new Float64Array(n + 1);
   counts[0] = 1;
@@ -76,7 +76,7 @@ function gradeCounts(c: Circuit, frontier: Map<number, number>, deg: Int32Array,
     const g = deg[v]!;
     if (g <= 0) return null;
     const dim = c.dim[v]!;
-    const lo = c.homogeneous ? d : 0;
+    const lo = exact[v] ? d : 0;
     const hi = Math.min(d, Math.floor(n / g));
     if (lo > hi) return null;
     // The number of monomials of degree e in dim variables, e = 0 … hi (each step's product is
