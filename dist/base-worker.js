@@ -8526,12 +8526,12 @@ function degreeBound(c, side, reach = sideReach(c, side)) {
   const { dep, paths } = reach;
   let best = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, dep, paths, mask);
+    const found = sweep(c, reach, mask);
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
   const degrees = frontierAt(c, dep, paths, best.mask, best.step);
-  const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - (c.homogeneous ? 1 : 0), d)));
+  const rank = () => productTree([...degrees].map(([v, d]) => binomial(c.dim[v] + d - reach.exact[v], d)));
   return { log2: best.log, rank, counts: frontierCounts(c, degrees) };
 }
 function sideReach(c, side) {
@@ -8547,21 +8547,26 @@ function sideReach(c, side) {
     }
   }
   const paths = new Float64Array(n);
+  const sumAbove = new Uint8Array(n);
   paths[c.top] = 1;
   for (let v = n - 1; v >= 0; v--) {
     const p = paths[v];
     if (p === 0) continue;
     if (p > SAFE) return null;
+    const below = sumAbove[v] | (op[v] === OP_SUM ? 1 : 0);
     for (let i = childStart[v]; i < childStart[v + 1]; i++) {
       const ch = childList[i];
       paths[ch] = paths[ch] + p;
+      sumAbove[ch] = sumAbove[ch] | below;
     }
   }
-  return { dep, paths };
+  const exact2 = new Uint8Array(n);
+  for (let v = 0; v < n; v++) exact2[v] = paths[v] > 0 && sumAbove[v] === 0 ? 1 : 0;
+  return { dep, paths, exact: exact2 };
 }
 function sideFrontiers(c, reach, mask, count) {
   const steps = [];
-  sweep(c, reach.dep, reach.paths, mask, steps);
+  sweep(c, reach, mask, steps);
   steps.sort((x, y) => x.log - y.log);
   return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
 }
@@ -8575,12 +8580,12 @@ function frontierCounts(c, degrees) {
   }
   return counts;
 }
-function sweep(c, dep, paths, mask, all) {
+function sweep(c, reach, mask, all) {
   const { op, childStart, childList, dim } = c;
+  const { dep, paths, exact: exact2 } = reach;
   const d = new Float64Array(c.size);
   const held = new Float64Array(c.size);
-  const h = c.homogeneous ? 1 : 0;
-  const term = (v) => held[v] = log2Binomial(dim[v] + d[v] - h, d[v]);
+  const term = (v) => held[v] = log2Binomial(dim[v] + d[v] - exact2[v], d[v]);
   let inputsLeft = 0;
   for (let v = 0; v < c.size; v++) if (op[v] === OP_INPUT && dep[v] === mask && paths[v] > 0) inputsLeft++;
   if (inputsLeft === 0) return null;
@@ -8902,15 +8907,15 @@ function gradedDegreeBound(c, reach, deg) {
   const n = deg[c.top];
   if (n < 0 || n > MAX_DEGREE) return null;
   const [fa] = sideFrontiers(c, reach, 1, 1);
-  const a = fa && gradeCounts(c, fa, deg, n);
+  const a = fa && gradeCounts(c, fa, deg, n, reach.exact);
   const [fb] = a ? sideFrontiers(c, reach, 2, 1) : [];
-  const b = fb && gradeCounts(c, fb, deg, n);
+  const b = fb && gradeCounts(c, fb, deg, n, reach.exact);
   if (!a || !b) return null;
   let rank = 0n;
   for (let e = 0; e <= n; e++) rank += a[e] < b[n - e] ? a[e] : b[n - e];
   return rank === 0n ? null : { rank, counts: frontierCounts(c, fa) };
 }
-function gradeCounts(c, frontier, deg, n) {
+function gradeCounts(c, frontier, deg, n, exact2) {
   let counts = new Float64Array(n + 1);
   let next = new Float64Array(n + 1);
   counts[0] = 1;
@@ -8921,7 +8926,7 @@ function gradeCounts(c, frontier, deg, n) {
     const g = deg[v];
     if (g <= 0) return null;
     const dim = c.dim[v];
-    const lo = c.homogeneous ? d : 0;
+    const lo = exact2[v] ? d : 0;
     const hi = Math.min(d, Math.floor(n / g));
     if (lo > hi) return null;
     monomials.length = 0;
