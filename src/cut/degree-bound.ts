@@ -86,13 +86,16 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
 
 /**
  * Frontiers of one side (mask 1 = A, 2 = B), node → its degree d_v: the `count` with the smallest
- * ungraded bounds among the sweep's steps, best first; empty when the side reaches nothing.
+ * ungraded bounds among the sweep's steps, best first, then the earliest one (the side's inputs,
+ * which come first in topological order) and the latest one (the side's whole pure region) when
+ * they are not among them; empty when the side reaches nothing.
  */
 export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
   const steps: SweepResult[] = [];
   sweep(c, reach, mask, steps);
-  steps.sort((x, y) => x.log - y.log);
-  return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+  const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
+  for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
+  return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
 }
 
 /** The frontier as cut entries: tag → node dim → number of frontier nodes. */

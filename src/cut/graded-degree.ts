@@ -45,17 +45,33 @@ export function totalDegrees(c: Circuit): Int32Array {
   return deg;
 }
 
+/** Frontiers counted per side (the best by the ungraded bound, then the side's inputs). */
+const FRONTIERS = 4;
+
 export function gradedDegreeBound(c: Circuit, reach: SideReach, deg: Int32Array): GradedBound | null {
   const n = deg[c.top]!;
   if (n < 0 || n > MAX_DEGREE) return null;
-  const [fa] = sideFrontiers(c, reach, 1, 1);
-  const a = fa && gradeCounts(c, fa, deg, n, reach.exact);
-  const [fb] = a ? sideFrontiers(c, reach, 2, 1) : [];
-  const b = fb && gradeCounts(c, fb, deg, n, reach.exact);
+  const fa = sideFrontiers(c, reach, 1, FRONTIERS);
+  const a = perDegreeMin(fa.map((f) => gradeCounts(c, f, deg, n, reach.exact)));
+  const b = a && perDegreeMin(sideFrontiers(c, reach, 2, FRONTIERS).map((f) => gradeCounts(c, f, deg, n, reach.exact)));
   if (!a || !b) return null;
   let rank = 0n;
   for (let e = 0; e <= n; e++) rank += a[e]! < b[n - e]! ? a[e]! : b[n - e]!;
-  return rank === 0n ? null : { rank, counts: frontierCounts(c, fa) };
+  return rank === 0n ? null : { rank, counts: frontierCounts(c, fa[0]!) };
+}
+
+/**
+ * Per degree, the smallest count over the frontiers: h_e is a combination of each frontier's
+ * monomials of degree e, so of the fewest of them. null when no frontier could be counted.
+ */
+function perDegreeMin(all: (bigint[] | null)[]): bigint[] | null {
+  let out: bigint[] | null = null;
+  for (const counts of all) {
+    if (!counts) continue;
+    if (!out) out = [...counts];
+    else for (let e = 0; e < out.length; e++) if (counts[e]! < out[e]!) out[e] = counts[e]!;
+  }
+  return out;
 }
 
 /**
