@@ -39776,8 +39776,9 @@ function sideReach(c, side) {
 function sideFrontiers(c, reach, mask, count) {
   const steps = [];
   sweep(c, reach, mask, steps);
-  steps.sort((x, y) => x.log - y.log);
-  return steps.slice(0, count).map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+  const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
+  for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
+  return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
 }
 function frontierCounts(c, degrees) {
   const counts = /* @__PURE__ */ new Map();
@@ -40112,17 +40113,26 @@ function totalDegrees(c) {
   }
   return deg;
 }
+var FRONTIERS = 4;
 function gradedDegreeBound(c, reach, deg) {
   const n = deg[c.top];
   if (n < 0 || n > MAX_DEGREE) return null;
-  const [fa] = sideFrontiers(c, reach, 1, 1);
-  const a = fa && gradeCounts(c, fa, deg, n, reach.exact);
-  const [fb] = a ? sideFrontiers(c, reach, 2, 1) : [];
-  const b = fb && gradeCounts(c, fb, deg, n, reach.exact);
+  const fa = sideFrontiers(c, reach, 1, FRONTIERS);
+  const a = perDegreeMin(fa.map((f2) => gradeCounts(c, f2, deg, n, reach.exact)));
+  const b = a && perDegreeMin(sideFrontiers(c, reach, 2, FRONTIERS).map((f2) => gradeCounts(c, f2, deg, n, reach.exact)));
   if (!a || !b) return null;
   let rank = 0n;
   for (let e = 0; e <= n; e++) rank += a[e] < b[n - e] ? a[e] : b[n - e];
-  return rank === 0n ? null : { rank, counts: frontierCounts(c, fa) };
+  return rank === 0n ? null : { rank, counts: frontierCounts(c, fa[0]) };
+}
+function perDegreeMin(all) {
+  let out = null;
+  for (const counts of all) {
+    if (!counts) continue;
+    if (!out) out = [...counts];
+    else for (let e = 0; e < out.length; e++) if (counts[e] < out[e]) out[e] = counts[e];
+  }
+  return out;
 }
 function gradeCounts(c, frontier, deg, n, exact2) {
   let counts = new Float64Array(n + 1);
