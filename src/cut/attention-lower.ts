@@ -7,7 +7,7 @@
  * k − 1 (k = min(H·a, D, m): H heads of width a, input width D, m the dimension the maps before it
  * pass; which of the three, by the input kind and the partition, is argued in DEVELOPERS.md).
  */
-import type { LayeredModel } from '../config/model.js';
+import type { Layer, LayeredModel } from '../config/model.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
 import type { Partition } from '../partition/partition.js';
@@ -28,6 +28,19 @@ export interface AttentionOnInput {
   readonly output: number;
   readonly causal: boolean;
   readonly window: number | undefined;
+}
+
+/**
+ * A weighted layer that maps each position's vector by one matrix, reading no other position: an
+ * embedding, a dense layer that does not read the whole input, a 1×1 conv of stride 1 without
+ * groups. The rules that pass such maps through choose them as partial identities.
+ */
+export function perPositionMap(l: Layer, shapes: ModelShapes): boolean {
+  return (
+    l.kind === 'embedding' ||
+    (l.kind === 'dense' && shapes.denseReading[l.index] !== 'input') ||
+    (l.kind === 'conv' && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1))
+  );
 }
 
 /** The model's shape for the rule, or undefined when it does not apply. */
@@ -65,11 +78,7 @@ export function attentionOnInput(model: LayeredModel, shapes: ModelShapes, readi
       state.push(s);
       continue;
     }
-    const perPosition =
-      l.kind === 'embedding' ||
-      (l.kind === 'dense' && shapes.denseReading[l.index] === 'per-position') ||
-      (l.kind === 'conv' && shapes.groups[l.index] === 1 && l.kernel.every((k) => k === 1) && l.stride.every((st) => st === 1));
-    if (!perPosition) return undefined;
+    if (!perPositionMap(l, shapes)) return undefined;
     if (!found) m = Math.min(m, shapes.layers[l.index]!.width);
     state.push(s);
   }

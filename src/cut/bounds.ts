@@ -11,7 +11,7 @@ import { OP_INPUT, OP_LINEAR, type Circuit } from '../network/circuit.js';
 import { buildCircuit } from '../network/build-circuit.js';
 import { headCone } from '../network/head-cone.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
-import { degreeBound, binomial, sideReach } from './degree-bound.js';
+import { degreeBound, binomial, sideReach, sylvesterPowerSpan } from './degree-bound.js';
 import { gradedDegreeBound, totalDegrees } from './graded-degree.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds } from './explicit-bounds.js';
@@ -19,7 +19,7 @@ import { topWindowLower } from './top-window-lower.js';
 import { splitWindowLower } from './window-product-lower.js';
 import { rankPropagation } from './rank-propagation.js';
 import { specialCases } from './special-cases.js';
-import { attentionLower, attentionOnInput } from './attention-lower.js';
+import { attentionLower, attentionOnInput, perPositionMap } from './attention-lower.js';
 import { certifiedProbe } from './probe/certified-probe.js';
 import type { ModelShapes } from '../config/model-shapes.js';
 import type { PointwiseReading } from '../network/square-rule.js';
@@ -362,11 +362,7 @@ function shallowRecurrentLower(on: RecurrentOnInput, p: Partition): Bound | unde
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
   const m = first.depth === 1 ? on.m : Math.min(on.m, first.hidden);
-  const span = (count: number): bigint => {
-    const sym = binomial(m + count - 1, count);
-    return sym < r ? sym : r;
-  };
-  const bound = span(a) + span(b) - r;
+  const bound = sylvesterPowerSpan(m, a, b, r);
   if (bound <= 1n) return undefined;
   const method = first.depth === 1 ? 'shallow recurrent span' : 'recurrent span, lower levels passed through';
   return { rank: bound, log2: log2Big(bound), method, cut: [] };
@@ -398,11 +394,7 @@ function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOn
         continue;
       }
       if (l.kind === 'position' && l.mode === 'learned') continue;
-      const perPosition =
-        l.kind === 'embedding' ||
-        (l.kind === 'dense' && shapes.denseReading[l.index] !== 'input') ||
-        (l.kind === 'conv' && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1));
-      if (!perPosition) return undefined;
+      if (!perPositionMap(l, shapes)) return undefined;
       m = Math.min(m, shapes.layers[l.index]!.width);
       continue;
     }

@@ -31,7 +31,7 @@ export function degreeBound(c: Circuit, side: Uint8Array, reach: SideReach | nul
   const { dep, paths } = reach;
   let best: { step: number; mask: number; log: number } | null = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, reach, mask);
+    const found = sweepOf(c, reach, mask).best;
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
@@ -91,8 +91,7 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
  * they are not among them; empty when the side reaches nothing.
  */
 export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
-  const steps: SweepResult[] = [];
-  sweep(c, reach, mask, steps);
+  const steps = sweepOf(c, reach, mask).steps;
   const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
   for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
   return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
@@ -113,6 +112,20 @@ export function frontierCounts(c: Circuit, degrees: Map<number, number>): Map<nu
 interface SweepResult {
   step: number;
   log: number;
+}
+
+/** The sweep of one side, made once per partition (the degree and graded rules both read it). */
+const sweeps = new WeakMap<SideReach, { best: SweepResult | null; steps: SweepResult[] }[]>();
+
+function sweepOf(c: Circuit, reach: SideReach, mask: number): { best: SweepResult | null; steps: SweepResult[] } {
+  let bySide = sweeps.get(reach);
+  if (!bySide) sweeps.set(reach, (bySide = []));
+  let done = bySide[mask];
+  if (!done) {
+    const steps: SweepResult[] = [];
+    done = bySide[mask] = { best: sweep(c, reach, mask, steps), steps };
+  }
+  return done;
 }
 
 /** Adds the pure nodes of one side in topological order, keeping the frontier and its log2 bound: the best step. */
@@ -194,6 +207,24 @@ export function productTree(xs: bigint[]): bigint {
     level = next;
   }
   return level[0]!;
+}
+
+/**
+ * min(cap, C(k + count − 1, count)): the dimension of the span of the count-th tensor powers of
+ * `cap` generic points of a k-dimensional space (the Veronese variety spans the symmetric power).
+ */
+export function powerSpan(k: number, count: number, cap: bigint): bigint {
+  const sym = binomial(k + count - 1, count);
+  return sym < cap ? sym : cap;
+}
+
+/**
+ * Sylvester's inequality for Σ_{c<r} f_c(x_A)·g_c(x_B) whose f_c are products of a factors
+ * ⟨w_c, x_p⟩ and g_c of b, with r generic rows w_c in a k-dimensional space: the rank is at least
+ * powerSpan(a) + powerSpan(b) − r (may be ≤ 1: nothing proven).
+ */
+export function sylvesterPowerSpan(k: number, a: number, b: number, r: bigint): bigint {
+  return powerSpan(k, a, r) + powerSpan(k, b, r) - r;
 }
 
 /** Exact C(n, k) for non-negative integers. */

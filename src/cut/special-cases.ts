@@ -128,8 +128,7 @@ function treeSpecialCase(model: LayeredModel, shapes: ModelShapes): LayeredModel
         changed = true;
         continue;
       }
-      // The tree's position j − left + ⌊(e−1)/2⌋ must be a tap j − left + t·d.
-      if (l.padding.mode !== 'causal' && l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]!) - 1) / 2) % l.dilation[a]! !== 0)) return undefined;
+      if (l.padding.mode !== 'causal' && l.kernel.some((k, a) => !centreIsTap(k, l.dilation[a]!))) return undefined;
     } else if (l.kind === 'conv-transpose') {
       const after = shapes.layers[l.index]!.shape;
       for (let a = 0; a < after.length; a++) {
@@ -149,6 +148,11 @@ function treeSpecialCase(model: LayeredModel, shapes: ModelShapes): LayeredModel
   return changed ? { ...model, layers } : model;
 }
 
+/** The tree's position j − left + ⌊(e−1)/2⌋ is a tap j − left + t·d of a stride-1 conv. */
+function centreIsTap(k: number, d: number): boolean {
+  return Math.floor((extent(k, d) - 1) / 2) % d === 0;
+}
+
 /**
  * A strided conv with all taps but one zeroed on each strided axis, as the tree's conv of kernel
  * 1 there (stride-1 axes keep their kernel and centre tap): the kept tap t reads j·s − left + t·d,
@@ -166,7 +170,7 @@ function keepOneTap(l: ConvLayer, before: readonly number[]): ConvLayer | undefi
     const k = l.kernel[a]!;
     const d = l.dilation[a]!;
     if (s === 1) {
-      if (l.padding.mode !== 'causal' && Math.floor((extent(k, d) - 1) / 2) % d !== 0) return undefined;
+      if (l.padding.mode !== 'causal' && !centreIsTap(k, d)) return undefined;
       continue;
     }
     const wide = windowAxis(n, k, s, d, l.padding, a);

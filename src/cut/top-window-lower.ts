@@ -15,7 +15,7 @@
  * weights, so generic weights satisfy all of them at once.
  */
 import { OP_CONST, OP_INPUT, OP_LINEAR, OP_PRODUCT, type Circuit } from '../network/circuit.js';
-import { binomial } from './degree-bound.js';
+import { powerSpan as veronese } from './degree-bound.js';
 
 /** Lower bound from the top window, or undefined when one side holds none of its children whole. */
 export function topWindowLower(c: Circuit, side: Uint8Array): bigint | undefined {
@@ -48,8 +48,7 @@ export function topWindowLower(c: Circuit, side: Uint8Array): bigint | undefined
 function powerSpan(c: Circuit, child: number, s: number, count: number): bigint {
   const d = BigInt(c.dim[child]!);
   if (c.op[child] !== OP_LINEAR) return BigInt(s) < d ? BigInt(s) : d;
-  const sym = binomial(s + count - 1, count);
-  return sym < d ? sym : d;
+  return veronese(s, count, d);
 }
 
 /** Children built by one layer at the same dimension compute the same function (shared weights). */
@@ -87,8 +86,7 @@ function spans(c: Circuit): Float64Array {
         const kids = Array.from(c.childList.subarray(c.childStart[v]!, c.childStart[v + 1]!));
         const w = kids.length;
         if (w > 1 && sameKind(c, kids) && c.op[first] === OP_LINEAR) {
-          const sym = binomial(s[first]! + w - 1, w);
-          s[v] = sym < BigInt(c.dim[v]!) ? Number(sym) : c.dim[v]!;
+          s[v] = Number(veronese(s[first]!, w, BigInt(c.dim[v]!)));
         } else {
           s[v] = Math.min(c.dim[v]!, Math.max(...kids.map((k) => s[k]!)));
         }

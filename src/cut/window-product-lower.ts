@@ -14,7 +14,7 @@
  * ρ_Y = min(r, C(k + |S∩Y| − 1, |S∩Y|)) (the Veronese variety spans the symmetric power).
  */
 import { OP_INPUT, OP_LINEAR, OP_PRODUCT, type Circuit } from '../network/circuit.js';
-import { binomial } from './degree-bound.js';
+import { sylvesterPowerSpan } from './degree-bound.js';
 
 const LEAF = 1; // per-position maps of one input: ⟨w_c, x_p⟩
 const WINDOW = 2; // products of leaves: Π_{p∈S} ⟨w_c, x_p⟩
@@ -37,11 +37,7 @@ export function splitWindowLower(c: Circuit, side: Uint8Array): bigint | undefin
     const a = inA[v]!;
     const b = inB[v]!;
     if (a === 0 || b === 0) return 1n;
-    const rho = (count: number): bigint => {
-      const sym = binomial(span[v]! + count - 1, count);
-      return sym < r ? sym : r;
-    };
-    const bound = rho(a) + rho(b) - r;
+    const bound = sylvesterPowerSpan(span[v]!, a, b, r);
     return bound > 1n ? bound : 1n;
   };
   for (let v = 0; v < n; v++) {
