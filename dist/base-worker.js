@@ -8526,7 +8526,7 @@ function degreeBound(c, side, reach = sideReach(c, side)) {
   const { dep, paths } = reach;
   let best = null;
   for (const mask of [1, 2]) {
-    const found = sweep(c, reach, mask);
+    const found = sweepOf(c, reach, mask).best;
     if (found && (!best || found.log < best.log)) best = { step: found.step, mask, log: found.log };
   }
   if (!best) return null;
@@ -8565,8 +8565,7 @@ function sideReach(c, side) {
   return { dep, paths, exact: exact2 };
 }
 function sideFrontiers(c, reach, mask, count) {
-  const steps = [];
-  sweep(c, reach, mask, steps);
+  const steps = sweepOf(c, reach, mask).steps;
   const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
   for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
   return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
@@ -8580,6 +8579,17 @@ function frontierCounts(c, degrees) {
     byDim.set(c.dim[v], (byDim.get(c.dim[v]) ?? 0) + 1);
   }
   return counts;
+}
+var sweeps = /* @__PURE__ */ new WeakMap();
+function sweepOf(c, reach, mask) {
+  let bySide = sweeps.get(reach);
+  if (!bySide) sweeps.set(reach, bySide = []);
+  let done = bySide[mask];
+  if (!done) {
+    const steps = [];
+    done = bySide[mask] = { best: sweep(c, reach, mask, steps), steps };
+  }
+  return done;
 }
 function sweep(c, reach, mask, all) {
   const { op, childStart, childList, dim } = c;
@@ -8649,6 +8659,13 @@ function productTree(xs) {
     level = next;
   }
   return level[0];
+}
+function powerSpan(k, count, cap) {
+  const sym = binomial(k + count - 1, count);
+  return sym < cap ? sym : cap;
+}
+function sylvesterPowerSpan(k, a, b, r) {
+  return powerSpan(k, a, r) + powerSpan(k, b, r) - r;
 }
 function binomial(n, k) {
   if (k < 0 || k > n) return 0n;
@@ -9370,15 +9387,14 @@ function topWindowLower(c, side) {
   const span = spans(c);
   const child = children[0];
   const d = BigInt(c.dim[top]);
-  const rho = (count) => powerSpan(c, child, span[child], count);
+  const rho = (count) => powerSpan2(c, child, span[child], count);
   const bound = rho(a) + rho(b) - d;
   return bound > 1n ? bound : 1n;
 }
-function powerSpan(c, child, s, count) {
+function powerSpan2(c, child, s, count) {
   const d = BigInt(c.dim[child]);
   if (c.op[child] !== OP_LINEAR) return BigInt(s) < d ? BigInt(s) : d;
-  const sym = binomial(s + count - 1, count);
-  return sym < d ? sym : d;
+  return powerSpan(s, count, d);
 }
 function sameKind(c, nodes) {
   const first = nodes[0];
@@ -9410,8 +9426,7 @@ function spans(c) {
         const kids = Array.from(c.childList.subarray(c.childStart[v], c.childStart[v + 1]));
         const w = kids.length;
         if (w > 1 && sameKind(c, kids) && c.op[first] === OP_LINEAR) {
-          const sym = binomial(s[first] + w - 1, w);
-          s[v] = sym < BigInt(c.dim[v]) ? Number(sym) : c.dim[v];
+          s[v] = Number(powerSpan(s[first], w, BigInt(c.dim[v])));
         } else {
           s[v] = Math.min(c.dim[v], Math.max(...kids.map((k) => s[k])));
         }
@@ -9440,11 +9455,7 @@ function splitWindowLower(c, side) {
     const a = inA[v];
     const b = inB[v];
     if (a === 0 || b === 0) return 1n;
-    const rho = (count) => {
-      const sym = binomial(span[v] + count - 1, count);
-      return sym < r ? sym : r;
-    };
-    const bound = rho(a) + rho(b) - r;
+    const bound = sylvesterPowerSpan(span[v], a, b, r);
     return bound > 1n ? bound : 1n;
   };
   for (let v = 0; v < n; v++) {
@@ -10498,7 +10509,7 @@ function treeSpecialCase(model, shapes) {
         changed = true;
         continue;
       }
-      if (l.padding.mode !== "causal" && l.kernel.some((k, a) => Math.floor((extent(k, l.dilation[a]) - 1) / 2) % l.dilation[a] !== 0)) return void 0;
+      if (l.padding.mode !== "causal" && l.kernel.some((k, a) => !centreIsTap(k, l.dilation[a]))) return void 0;
     } else if (l.kind === "conv-transpose") {
       const after = shapes.layers[l.index].shape;
       for (let a = 0; a < after.length; a++) {
@@ -10517,6 +10528,9 @@ function treeSpecialCase(model, shapes) {
   }
   return changed ? { ...model, layers } : model;
 }
+function centreIsTap(k, d) {
+  return Math.floor((extent(k, d) - 1) / 2) % d === 0;
+}
 function keepOneTap(l, before) {
   const kernel = [...l.kernel];
   const dilation = [...l.dilation];
@@ -10527,7 +10541,7 @@ function keepOneTap(l, before) {
     const k = l.kernel[a];
     const d = l.dilation[a];
     if (s === 1) {
-      if (l.padding.mode !== "causal" && Math.floor((extent(k, d) - 1) / 2) % d !== 0) return void 0;
+      if (l.padding.mode !== "causal" && !centreIsTap(k, d)) return void 0;
       continue;
     }
     const wide = windowAxis(n, k, s, d, l.padding, a);
@@ -10619,6 +10633,9 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
 var ZERO2 = 0;
 var BEFORE = 1;
 var MIXED = 2;
+function perPositionMap(l, shapes) {
+  return l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] !== "input" || l.kind === "conv" && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1);
+}
 function attentionOnInput(model, shapes, reading) {
   const state = [];
   let m = shapes.representation;
@@ -10650,8 +10667,7 @@ function attentionOnInput(model, shapes, reading) {
       state.push(s);
       continue;
     }
-    const perPosition = l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] === "per-position" || l.kind === "conv" && shapes.groups[l.index] === 1 && l.kernel.every((k) => k === 1) && l.stride.every((st) => st === 1);
-    if (!perPosition) return void 0;
+    if (!perPositionMap(l, shapes)) return void 0;
     if (!found) m = Math.min(m, shapes.layers[l.index].width);
     state.push(s);
   }
@@ -11530,11 +11546,7 @@ function shallowRecurrentLower(on, p) {
   if (a === 0 || b === 0) return void 0;
   const r = BigInt(first.hidden);
   const m = first.depth === 1 ? on.m : Math.min(on.m, first.hidden);
-  const span = (count) => {
-    const sym = binomial(m + count - 1, count);
-    return sym < r ? sym : r;
-  };
-  const bound = span(a) + span(b) - r;
+  const bound = sylvesterPowerSpan(m, a, b, r);
   if (bound <= 1n) return void 0;
   const method = first.depth === 1 ? "shallow recurrent span" : "recurrent span, lower levels passed through";
   return { rank: bound, log2: log2Big(bound), method, cut: [] };
@@ -11552,8 +11564,7 @@ function recurrentOnInput(model, shapes) {
         continue;
       }
       if (l.kind === "position" && l.mode === "learned") continue;
-      const perPosition = l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] !== "input" || l.kind === "conv" && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1);
-      if (!perPosition) return void 0;
+      if (!perPositionMap(l, shapes)) return void 0;
       m = Math.min(m, shapes.layers[l.index].width);
       continue;
     }
