@@ -12,7 +12,7 @@ import { inferShapes } from '../../src/config/model-shapes.js';
 import { readPointwise } from '../../src/network/square-rule.js';
 import type { LayeredModel } from '../../src/config/model.js';
 import type { Surrogate } from '../../src/cut/types.js';
-import { conv, layered, partition, pool, recurrent } from '../oracle/models.js';
+import { attention, conv, layered, partition, pool, positions, recurrent } from '../oracle/models.js';
 
 /** Determinant of an integer matrix by cofactor expansion (BigInt), reduced mod p. */
 function bigDeterminant(m: readonly (readonly bigint[])[]): bigint {
@@ -23,6 +23,12 @@ function bigDeterminant(m: readonly (readonly bigint[])[]): bigint {
     det += (j % 2 === 0 ? 1n : -1n) * x * bigDeterminant(sub);
   });
   return det;
+}
+
+function shapesOf(model: LayeredModel) {
+  const shaped = inferShapes(model);
+  if (!shaped.ok) throw new Error('shapes');
+  return shaped.shapes;
 }
 
 function lowerOf(model: LayeredModel, spec: string, surrogate: Surrogate, probeBudget?: number) {
@@ -94,6 +100,25 @@ describe('generic ranks measured in the design notes, proven by the probe', () =
     const read = (m: number, t: number) => lowerOf(layered([t], m, true, [recurrent(m, 2)]), 'start-end', 'tree').lower!.rank;
     expect([4, 6, 8].map((t) => read(2, t))).toEqual([6n, 8n, 10n]);
     expect([4, 6].map((t) => read(3, t))).toEqual([18n, 30n]);
+  });
+
+  it('linearised attention, M = 2, start-end: two heads of width 2 → 3, 18, 232 at depth 1, 2, 3; scalar heads → 2, 8, 50 (DESIGN §9)', () => {
+    // Depth 1 is also proven by the one-layer rule; the probe alone is asked here (budget raised
+    // so that depth 3 fits: 232 needs a 256-sided probe).
+    const read = (heads: number, width: number, depth: number) => {
+      const m = layered([4], 2, true, Array.from({ length: depth }, () => attention(heads, { headDim: width })));
+      const probe = certifiedProbe(m, shapesOf(m), readPointwise(m, shapesOf(m)), 'tree', 100_000_000)!;
+      return probe(partition('start-end', m.input.shape).side, 0n, 4096n)!.rank;
+    };
+    expect([1, 2, 3].map((d) => read(2, 2, d))).toEqual([3n, 18n, 232n]);
+    expect([1, 2, 3].map((d) => read(1, 1, d))).toEqual([2n, 8n, 50n]);
+  });
+
+  it('a fixed position encoding gets no probe; learned position vectors do', () => {
+    const m = (mode: 'learned' | 'fixed') => layered([4], 2, true, [positions(mode), attention(1, { headDim: 1 }), attention(1, { headDim: 1 })]);
+    expect(certifiedProbe(m('learned'), shapesOf(m('learned')), readPointwise(m('learned'), shapesOf(m('learned'))), 'tree')).toBeDefined();
+    const fixed = certifiedProbe(m('fixed'), shapesOf(m('fixed')), readPointwise(m('fixed'), shapesOf(m('fixed'))), 'tree')!;
+    expect(fixed(partition('start-end', [4]).side, 0n, 64n)).toBeUndefined();
   });
 
   it('the output is deterministic: the same certificate twice', () => {

@@ -261,9 +261,27 @@ export function estimateCost(model: LayeredModel, shapes: ModelShapes, surrogate
       case 'embedding':
         c = pout * r * d;
         break;
-      case 'recurrent':
-        c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));
+      case 'recurrent': {
+        const dirs = layer.bidirectional ? 2 : 1;
+        c = pin * layer.depth * dirs * (layer.hidden * (layer.hidden + Math.max(d, dirs * layer.hidden) + 2));
         break;
+      }
+      case 'position':
+        c = pout * r;
+        break;
+      case 'class-token':
+        c = r;
+        break;
+      case 'attention': {
+        // Projections, the segment tree's sums (≤ 2n blocks, fields of ≤ ⌈log2 n⌉ + 2 blocks)
+        // and the outputs; per block H·a² numbers.
+        const a = shapes.headDims[layer.index]!;
+        const blockWidth = layer.heads * a * a;
+        const sums = pin * (Math.ceil(Math.log2(Math.max(pin, 2))) + 4) * blockWidth;
+        c = pin * layer.heads * (3 * a * d + a * a) + sums + pout * layer.heads * (a * a + r * a);
+        buffer += pin * layer.heads * a + sums;
+        break;
+      }
       case 'pool':
         c = layer.global ? pin * d : pout * taps(layer.window) * d;
         break;
@@ -281,7 +299,7 @@ export function estimateCost(model: LayeredModel, shapes: ModelShapes, surrogate
     }
     cost += c;
     // Every output position holds a vector, and the recurrence holds one per step and level.
-    buffer += layer.kind === 'recurrent' ? pin * layer.depth * layer.hidden * 3 : (pout + pin) * r;
+    buffer += layer.kind === 'recurrent' ? pin * layer.depth * (layer.bidirectional ? 2 : 1) * layer.hidden * 4 : (pout + pin) * r;
   }
   return { cost, buffer };
 }

@@ -13,9 +13,21 @@
  * Weight names (see draw.ts) are `L{i}` / `L{i}@{p}` (a layer's map, shared / at position p),
  * `L{i}t{t}` / `L{i}@{o}t{t}` (tap t of a window over the kernel, row-major), `L{i}o{u}` (a tree
  * transposed conv's map for output offset u), `L{i}:H{l}`, `L{i}:I{l}`, `L{i}:h0_{l}` (recurrent
- * level l ≥ 1) and `head`; a grouped r×D map stores its r×(D/g) block entries row by row.
+ * level l ≥ 1; the backward chain `L{i}:UH{l}`, `L{i}:UI{l}`, `L{i}:b0_{l}`), `L{i}@{p}` (a
+ * position vector), `L{i}` (a class token), `L{i}:Q{h}`, `L{i}:K{h}`, `L{i}:V{h}`, `L{i}:O{h}`
+ * (attention head h) and `head`; a grouped r×D map stores its r×(D/g) block entries row by row.
  */
-import { INPUT, positionCount, type ConvLayer, type ConvTransposeLayer, type LayeredModel, type PoolLayer, type UpsampleLayer } from '../../config/model.js';
+import {
+  INPUT,
+  positionCount,
+  type AttentionLayer,
+  type ConvLayer,
+  type ConvTransposeLayer,
+  type LayeredModel,
+  type PoolLayer,
+  type RecurrentLayer,
+  type UpsampleLayer,
+} from '../../config/model.js';
 import type { ModelShapes } from '../../config/model-shapes.js';
 import {
   linearSources,
@@ -263,10 +275,31 @@ export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, readi
         break;
       }
       case 'recurrent':
-        // Written for one direction and the final state only: a bidirectional layer or per-step
-        // outputs are another function, and a reading of it would prove nothing.
-        if (layer.bidirectional || layer.sequence) return undefined;
-        grid = recurrent(b, src, i, layer.hidden, layer.depth);
+        grid = recurrent(b, src, layer);
+        break;
+      case 'position': {
+        // A fixed encoding is read as learned vectors, which can only raise an upper bound: no
+        // lower bound is claimed through it.
+        if (layer.mode !== 'learned') return undefined;
+        const w = src.width;
+        const steps = src.steps.map((s, p) => {
+          const pv = b.weight(`L${i}@${p}`, w);
+          const so = b.off(s);
+          return b.add(w, [s], w, (oo) => (buf) => {
+            for (let k = 0; k < w; k++) buf[oo + k] = (buf[so + k]! + pv[k]!) % PROBE_PRIME;
+          });
+        });
+        grid = { shape: out.shape, width: w, steps };
+        break;
+      }
+      case 'class-token': {
+        const cv = b.weight(`L${i}`, src.width);
+        const token = b.add(src.width, [], 0, (oo) => (buf) => buf.set(cv, oo));
+        grid = { shape: out.shape, width: src.width, steps: [token, ...src.steps] };
+        break;
+      }
+      case 'attention':
+        grid = attention(b, src, layer, shapes.headDims[i]!);
         break;
       case 'pool':
         grid = pool(b, src, layer, out.shape);
@@ -301,24 +334,166 @@ export function surrogateProgram(model: LayeredModel, shapes: ModelShapes, readi
   return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== undefined, output };
 }
 
-/** h^l_t = (W_H^l h^l_{t−1}) ⊙ (W_I^l h^{l−1}_t), h^l_0 learned; the grid becomes h^L_T. */
-function recurrent(b: ProgramBuilder, src: Grid, i: number, hidden: number, depth: number): Grid {
+/**
+ * One chain of a recurrent level over the steps in `order` (forward 0..T−1, backward T−1..0):
+ * s_t = (W_H s_prev) ⊙ (W_I x_t) from a learned start vector; the state of every step, by step.
+ */
+function chain(b: ProgramBuilder, names: { h: string; i: string; h0: string }, hidden: number, xs: readonly number[], width: number, order: readonly number[]): number[] {
+  const wh = b.map(names.h, hidden, hidden, 1);
+  const wi = b.map(names.i, hidden, width, 1);
+  const h0 = b.weight(names.h0, hidden);
+  let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
+  const states = new Array<number>(xs.length);
+  for (const t of order) {
+    state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: xs[t]! }], hidden)], hidden);
+    states[t] = state;
+  }
+  return states;
+}
+
+/**
+ * h^l_t = (W_H^l h^l_{t−1}) ⊙ (W_I^l z^{l−1}_t), h^l_0 learned, z^0_t = v_t. Bidirectional: a
+ * backward chain b^l_t = (U_H^l b^l_{t+1}) ⊙ (U_I^l z^{l−1}_t) from a learned b^l_{T+1}, and
+ * z^l_t = [f^l_t ; b^l_t] (or f^l_t + b^l_t). The grid keeps z^L_t at every step (`sequence`) or
+ * becomes h^L_T (bidirectional: [f^L_T ; b^L_1], or their sum).
+ */
+function recurrent(b: ProgramBuilder, src: Grid, layer: RecurrentLayer): Grid {
+  const { index: i, hidden, depth } = layer;
+  const T = src.steps.length;
+  const forward = Array.from({ length: T }, (_, t) => t);
+  const backward = forward.slice().reverse();
+  const join = (f: number, g: number): number => (layer.merge === 'concat' ? b.concat([f, g]) : b.combination([f, g], [1, 1], hidden));
   let below = src.steps;
   let width = src.width;
+  let last: number[] = [];
   for (let l = 1; l <= depth; l++) {
-    const wh = b.map(`L${i}:H${l}`, hidden, hidden, 1);
-    const wi = b.map(`L${i}:I${l}`, hidden, width, 1);
-    const h0 = b.weight(`L${i}:h0_${l}`, hidden);
-    let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
-    const states: number[] = [];
-    for (const x of below) {
-      state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: x }], hidden)], hidden);
-      states.push(state);
+    const f = chain(b, { h: `L${i}:H${l}`, i: `L${i}:I${l}`, h0: `L${i}:h0_${l}` }, hidden, below, width, forward);
+    if (!layer.bidirectional) {
+      below = f;
+      width = hidden;
+      last = [f[T - 1]!];
+      continue;
     }
-    below = states;
-    width = hidden;
+    const g = chain(b, { h: `L${i}:UH${l}`, i: `L${i}:UI${l}`, h0: `L${i}:b0_${l}` }, hidden, below, width, backward);
+    below = f.map((ft, t) => join(ft, g[t]!));
+    width = layer.merge === 'concat' ? 2 * hidden : hidden;
+    last = [f[T - 1]!, g[0]!];
   }
-  return { shape: [1], width, steps: [below[below.length - 1]!] };
+  if (layer.sequence) return { shape: src.shape, width, steps: below };
+  return { shape: [1], width, steps: [last.length === 1 ? last[0]! : join(last[0]!, last[1]!)] };
+}
+
+/**
+ * Linearised self-attention, y_i = Σ_h Σ_{j∈N(i)} ⟨Q_h v_i, K_h v_j⟩ · O_h V_h v_j, evaluated as
+ * y_i = Σ_h O_h S_h(N(i)) Q_h v_i with S_h(J) = Σ_{j∈J} (V_h v_j)(K_h v_j)ᵀ (the same polynomial,
+ * reordered). Every field N(i) is an interval of positions (row-major); its S is the sum of the
+ * canonical blocks of a segment tree over the positions, each block built once from its halves,
+ * so that a block that reads one side only is computed once per probe row or column.
+ */
+function attention(b: ProgramBuilder, src: Grid, layer: AttentionLayer, a: number): Grid | undefined {
+  const n = src.steps.length;
+  const D = src.width;
+  const H = layer.heads;
+  if (a <= 0 || (layer.window !== undefined && src.shape.length !== 1)) return undefined;
+  const i = layer.index;
+  const heads = Array.from({ length: H }, (_, h) => ({
+    q: b.weight(`L${i}:Q${h}`, a * D),
+    k: b.weight(`L${i}:K${h}`, a * D),
+    v: b.weight(`L${i}:V${h}`, a * D),
+    o: b.weight(`L${i}:O${h}`, D * a),
+  }));
+  const block = a * a;
+  const kvWidth = H * block;
+  /** Row r of an a×D matrix applied to the vector at vo. */
+  const rowDot = (w: Float64Array, r: number, buf: Float64Array, vo: number): number => {
+    let acc = 0;
+    for (let c = 0; c < D; c++) acc = mulAddMod(w[r * D + c]!, buf[vo + c]!, acc);
+    return acc;
+  };
+  // Per position: every head's query (H·a), and its (V v)(K v)ᵀ blocks (H·a·a, row-major).
+  const queries = src.steps.map((s) => {
+    const vo = b.off(s);
+    return b.add(H * a, [s], H * a * D, (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) buf[oo + h * a + r] = rowDot(hd.q, r, buf, vo);
+      });
+    });
+  });
+  const blocks = src.steps.map((s) => {
+    const vo = b.off(s);
+    const kk = new Float64Array(a);
+    const vv = new Float64Array(a);
+    return b.add(kvWidth, [s], H * (2 * a * D + block), (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          kk[r] = rowDot(hd.k, r, buf, vo);
+          vv[r] = rowDot(hd.v, r, buf, vo);
+        }
+        for (let r = 0; r < a; r++) for (let c = 0; c < a; c++) buf[oo + h * block + r * a + c] = mulAddMod(vv[r]!, kk[c]!, 0);
+      });
+    });
+  });
+  // Segment tree over [0, n): node (lo, hi) is the sum of its halves' blocks.
+  const nodes = new Map<string, number>();
+  const node = (lo: number, hi: number): number => {
+    if (hi - lo === 1) return blocks[lo]!;
+    const key = `${lo}:${hi}`;
+    let s = nodes.get(key);
+    if (s === undefined) {
+      const mid = (lo + hi) >> 1;
+      s = b.combination([node(lo, mid), node(mid, hi)], [1, 1], kvWidth);
+      nodes.set(key, s);
+    }
+    return s;
+  };
+  /** The canonical blocks covering [from, to) within node (lo, hi). */
+  const cover = (from: number, to: number, lo: number, hi: number, into: number[]): void => {
+    if (to <= lo || hi <= from) return;
+    if (from <= lo && hi <= to) {
+      into.push(node(lo, hi));
+      return;
+    }
+    const mid = (lo + hi) >> 1;
+    cover(from, to, lo, mid, into);
+    cover(from, to, mid, hi, into);
+  };
+  const fields = new Map<string, number>();
+  const steps = src.steps.map((_, t) => {
+    let lo = 0;
+    let hi = n - 1;
+    if (layer.causal) hi = t;
+    if (layer.window !== undefined) {
+      lo = Math.max(lo, t - layer.window);
+      hi = Math.min(hi, t + layer.window);
+    }
+    const key = `${lo}:${hi}`;
+    let field = fields.get(key);
+    if (field === undefined) {
+      const parts: number[] = [];
+      cover(lo, hi + 1, 0, n, parts);
+      field = b.combination(parts, parts.map(() => 1), kvWidth);
+      fields.set(key, field);
+    }
+    const so = b.off(field);
+    const qo = b.off(queries[t]!);
+    const sq = new Float64Array(a);
+    return b.add(D, [field, queries[t]!], H * (block + D * a), (oo) => (buf) => {
+      buf.fill(0, oo, oo + D);
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          let acc = 0;
+          for (let c = 0; c < a; c++) acc = mulAddMod(buf[so + h * block + r * a + c]!, buf[qo + h * a + c]!, acc);
+          sq[r] = acc;
+        }
+        for (let k = 0; k < D; k++) {
+          let acc = buf[oo + k]!;
+          for (let r = 0; r < a; r++) acc = mulAddMod(hd.o[k * a + r]!, sq[r]!, acc);
+          buf[oo + k] = acc;
+        }
+      });
+    });
+  });
+  return { shape: src.shape, width: D, steps };
 }
 
 function axisPlans(src: Grid, k: readonly number[], s: readonly number[], d: readonly number[], layer: ConvLayer | PoolLayer): AxisPlan[] | undefined {
