@@ -8200,7 +8200,7 @@ function buildLayer(b, layer, inputs, tag, options, shapes, pointwise, shared) {
 }
 function recurrent(b, g, layer, tag) {
   const R = layer.hidden;
-  const chain = (inputs, backward2) => {
+  const chain2 = (inputs, backward2) => {
     const states = new Array(inputs.length);
     let prev = b.add(OP_CONST, R, tag, []);
     for (let k = 0; k < inputs.length; k++) {
@@ -8216,9 +8216,9 @@ function recurrent(b, g, layer, tag) {
   let forward = [];
   let backward = [];
   for (let l = 0; l < layer.depth; l++) {
-    forward = chain(below, false);
+    forward = chain2(below, false);
     if (layer.bidirectional) {
-      backward = chain(below, true);
+      backward = chain2(below, true);
       below = forward.map((f2, t) => join3(f2, backward[t]));
     } else below = forward;
   }
@@ -10942,8 +10942,29 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
         break;
       }
       case "recurrent":
-        if (layer.bidirectional || layer.sequence) return void 0;
-        grid = recurrent2(b, src, i, layer.hidden, layer.depth);
+        grid = recurrent2(b, src, layer);
+        break;
+      case "position": {
+        if (layer.mode !== "learned") return void 0;
+        const w = src.width;
+        const steps = src.steps.map((s, p) => {
+          const pv = b.weight(`L${i}@${p}`, w);
+          const so = b.off(s);
+          return b.add(w, [s], w, (oo) => (buf) => {
+            for (let k = 0; k < w; k++) buf[oo + k] = (buf[so + k] + pv[k]) % PROBE_PRIME;
+          });
+        });
+        grid = { shape: out.shape, width: w, steps };
+        break;
+      }
+      case "class-token": {
+        const cv = b.weight(`L${i}`, src.width);
+        const token = b.add(src.width, [], 0, (oo) => (buf) => buf.set(cv, oo));
+        grid = { shape: out.shape, width: src.width, steps: [token, ...src.steps] };
+        break;
+      }
+      case "attention":
+        grid = attention2(b, src, layer, shapes.headDims[i]);
         break;
       case "pool":
         grid = pool2(b, src, layer, out.shape);
@@ -10976,23 +10997,143 @@ function surrogateProgram(model, shapes, reading, surrogate, seed) {
   });
   return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== void 0, output };
 }
-function recurrent2(b, src, i, hidden, depth) {
+function chain(b, names, hidden, xs, width, order) {
+  const wh = b.map(names.h, hidden, hidden, 1);
+  const wi = b.map(names.i, hidden, width, 1);
+  const h0 = b.weight(names.h0, hidden);
+  let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
+  const states = new Array(xs.length);
+  for (const t of order) {
+    state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: xs[t] }], hidden)], hidden);
+    states[t] = state;
+  }
+  return states;
+}
+function recurrent2(b, src, layer) {
+  const { index: i, hidden, depth } = layer;
+  const T = src.steps.length;
+  const forward = Array.from({ length: T }, (_, t) => t);
+  const backward = forward.slice().reverse();
+  const join3 = (f2, g) => layer.merge === "concat" ? b.concat([f2, g]) : b.combination([f2, g], [1, 1], hidden);
   let below = src.steps;
   let width = src.width;
+  let last = [];
   for (let l = 1; l <= depth; l++) {
-    const wh = b.map(`L${i}:H${l}`, hidden, hidden, 1);
-    const wi = b.map(`L${i}:I${l}`, hidden, width, 1);
-    const h0 = b.weight(`L${i}:h0_${l}`, hidden);
-    let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
-    const states = [];
-    for (const x of below) {
-      state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: x }], hidden)], hidden);
-      states.push(state);
+    const f2 = chain(b, { h: `L${i}:H${l}`, i: `L${i}:I${l}`, h0: `L${i}:h0_${l}` }, hidden, below, width, forward);
+    if (!layer.bidirectional) {
+      below = f2;
+      width = hidden;
+      last = [f2[T - 1]];
+      continue;
     }
-    below = states;
-    width = hidden;
+    const g = chain(b, { h: `L${i}:UH${l}`, i: `L${i}:UI${l}`, h0: `L${i}:b0_${l}` }, hidden, below, width, backward);
+    below = f2.map((ft, t) => join3(ft, g[t]));
+    width = layer.merge === "concat" ? 2 * hidden : hidden;
+    last = [f2[T - 1], g[0]];
   }
-  return { shape: [1], width, steps: [below[below.length - 1]] };
+  if (layer.sequence) return { shape: src.shape, width, steps: below };
+  return { shape: [1], width, steps: [last.length === 1 ? last[0] : join3(last[0], last[1])] };
+}
+function attention2(b, src, layer, a) {
+  const n = src.steps.length;
+  const D = src.width;
+  const H = layer.heads;
+  if (a <= 0 || layer.window !== void 0 && src.shape.length !== 1) return void 0;
+  const i = layer.index;
+  const heads = Array.from({ length: H }, (_, h) => ({
+    q: b.weight(`L${i}:Q${h}`, a * D),
+    k: b.weight(`L${i}:K${h}`, a * D),
+    v: b.weight(`L${i}:V${h}`, a * D),
+    o: b.weight(`L${i}:O${h}`, D * a)
+  }));
+  const block2 = a * a;
+  const kvWidth = H * block2;
+  const rowDot = (w, r, buf, vo) => {
+    let acc = 0;
+    for (let c = 0; c < D; c++) acc = mulAddMod2(w[r * D + c], buf[vo + c], acc);
+    return acc;
+  };
+  const queries = src.steps.map((s) => {
+    const vo = b.off(s);
+    return b.add(H * a, [s], H * a * D, (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) buf[oo + h * a + r] = rowDot(hd.q, r, buf, vo);
+      });
+    });
+  });
+  const blocks = src.steps.map((s) => {
+    const vo = b.off(s);
+    const kk = new Float64Array(a);
+    const vv = new Float64Array(a);
+    return b.add(kvWidth, [s], H * (2 * a * D + block2), (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          kk[r] = rowDot(hd.k, r, buf, vo);
+          vv[r] = rowDot(hd.v, r, buf, vo);
+        }
+        for (let r = 0; r < a; r++) for (let c = 0; c < a; c++) buf[oo + h * block2 + r * a + c] = mulAddMod2(vv[r], kk[c], 0);
+      });
+    });
+  });
+  const nodes = /* @__PURE__ */ new Map();
+  const node = (lo, hi) => {
+    if (hi - lo === 1) return blocks[lo];
+    const key = `${lo}:${hi}`;
+    let s = nodes.get(key);
+    if (s === void 0) {
+      const mid = lo + hi >> 1;
+      s = b.combination([node(lo, mid), node(mid, hi)], [1, 1], kvWidth);
+      nodes.set(key, s);
+    }
+    return s;
+  };
+  const cover = (from, to, lo, hi, into) => {
+    if (to <= lo || hi <= from) return;
+    if (from <= lo && hi <= to) {
+      into.push(node(lo, hi));
+      return;
+    }
+    const mid = lo + hi >> 1;
+    cover(from, to, lo, mid, into);
+    cover(from, to, mid, hi, into);
+  };
+  const fields = /* @__PURE__ */ new Map();
+  const steps = src.steps.map((_, t) => {
+    let lo = 0;
+    let hi = n - 1;
+    if (layer.causal) hi = t;
+    if (layer.window !== void 0) {
+      lo = Math.max(lo, t - layer.window);
+      hi = Math.min(hi, t + layer.window);
+    }
+    const key = `${lo}:${hi}`;
+    let field = fields.get(key);
+    if (field === void 0) {
+      const parts = [];
+      cover(lo, hi + 1, 0, n, parts);
+      field = b.combination(parts, parts.map(() => 1), kvWidth);
+      fields.set(key, field);
+    }
+    const so = b.off(field);
+    const qo = b.off(queries[t]);
+    const sq = new Float64Array(a);
+    return b.add(D, [field, queries[t]], H * (block2 + D * a), (oo) => (buf) => {
+      buf.fill(0, oo, oo + D);
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          let acc = 0;
+          for (let c = 0; c < a; c++) acc = mulAddMod2(buf[so + h * block2 + r * a + c], buf[qo + h * a + c], acc);
+          sq[r] = acc;
+        }
+        for (let k = 0; k < D; k++) {
+          let acc = buf[oo + k];
+          for (let r = 0; r < a; r++) acc = mulAddMod2(hd.o[k * a + r], sq[r], acc);
+          buf[oo + k] = acc;
+        }
+      });
+    });
+  });
+  return { shape: src.shape, width: D, steps };
 }
 function axisPlans(src, k, s, d, layer) {
   const plans3 = src.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
@@ -11283,9 +11424,25 @@ function estimateCost(model, shapes, surrogate) {
       case "embedding":
         c = pout * r * d;
         break;
-      case "recurrent":
-        c = pin * layer.depth * (layer.hidden * (layer.hidden + Math.max(d, layer.hidden) + 1));
+      case "recurrent": {
+        const dirs = layer.bidirectional ? 2 : 1;
+        c = pin * layer.depth * dirs * (layer.hidden * (layer.hidden + Math.max(d, dirs * layer.hidden) + 2));
         break;
+      }
+      case "position":
+        c = pout * r;
+        break;
+      case "class-token":
+        c = r;
+        break;
+      case "attention": {
+        const a = shapes.headDims[layer.index];
+        const blockWidth = layer.heads * a * a;
+        const sums = pin * (Math.ceil(Math.log2(Math.max(pin, 2))) + 4) * blockWidth;
+        c = pin * layer.heads * (3 * a * d + a * a) + sums + pout * layer.heads * (a * a + r * a);
+        buffer += pin * layer.heads * a + sums;
+        break;
+      }
       case "pool":
         c = layer.global ? pin * d : pout * taps(layer.window) * d;
         break;
@@ -11302,7 +11459,7 @@ function estimateCost(model, shapes, surrogate) {
         return { cost: Infinity, buffer: Infinity };
     }
     cost += c;
-    buffer += layer.kind === "recurrent" ? pin * layer.depth * layer.hidden * 3 : (pout + pin) * r;
+    buffer += layer.kind === "recurrent" ? pin * layer.depth * (layer.bidirectional ? 2 : 1) * layer.hidden * 4 : (pout + pin) * r;
   }
   return { cost, buffer };
 }
@@ -11394,8 +11551,8 @@ function analyseLayered(model, options) {
     if (published) lowers.push(published);
     const shallow = recurrent3 && shallowRecurrentLower(recurrent3, p);
     if (shallow) lowers.push(shallow);
-    const attention2 = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
-    if (attention2) lowers.push(attention2);
+    const attention3 = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
+    if (attention3) lowers.push(attention3);
     let lower = null;
     for (const l of lowers) if (!lower || l.rank > lower.rank) lower = l;
     if (!probe || probeTarget === null) return lower;
@@ -14007,7 +14164,7 @@ function readMlp(r, ctx, width) {
   return { units };
 }
 function readTransformerBlock(r, ctx) {
-  const attention2 = readAttentionFields(r, ctx);
+  const attention3 = readAttentionFields(r, ctx);
   const widthNode = r.fields.get("width");
   const width = widthNode?.kind === "scalar" && typeof widthNode.value === "number" && Number.isSafeInteger(widthNode.value) && widthNode.value >= 1 ? widthNode.value : void 0;
   const mlp = readMlp(r, ctx, width);
@@ -14018,7 +14175,7 @@ function readTransformerBlock(r, ctx) {
   const act = actNode ? readActivation(actNode, ctx) : pointwiseOpOf("gelu");
   const depth = optionalPositive(r, "depth", ctx);
   const bias = readBias(r, ctx);
-  if (!attention2 || !mlp || !placement || !normWord || act === void 0 || depth === false || !bias) return void 0;
+  if (!attention3 || !mlp || !placement || !normWord || act === void 0 || depth === false || !bias) return void 0;
   const at = (part, fields = []) => ({ path: `${r.site.path}/${part}`, span: r.site.span, fieldSpans: r.fields.spans(fields) });
   const made = (part, body, fields = [], more = {}) => ({ body, site: at(part, fields), ...more });
   const norm = (part) => {
@@ -14027,13 +14184,13 @@ function readTransformerBlock(r, ctx) {
   };
   const activation = (op) => made("mlp/activation", { kind: "pointwise", family: op.family, op: op.op }, ["activation"]);
   const sum = (part) => made(part, { kind: "merge", mode: "sum", origin: "residual" });
-  const attn = made("attention", attention2.body, ["heads", "head_dim", "width", "causal", "mask", "window"], attention2.declared.length > 0 ? { declared: attention2.declared } : {});
+  const attn = made("attention", attention3.body, ["heads", "head_dim", "width", "causal", "mask", "window"], attention3.declared.length > 0 ? { declared: attention3.declared } : {});
   const mlpIn = "units" in mlp ? made("mlp/in", { kind: "dense", units: mlp.units, ...bias }, r.fields.has("mlp") ? ["mlp"] : []) : made("mlp/in", { kind: "dense", units: 0, ...bias }, [], { unitsPerWidth: { ...mlp.ratio, offset: 0 } });
   const back = { value: 1, span: r.entry.kindSpan, where: `the output of ${displayPath(r.entry.body)}`, offset: act ? -2 : -1 };
   const mlpOut = width !== void 0 ? made("mlp/out", { kind: "dense", units: width, ...bias }, ["width"]) : made("mlp/out", { kind: "dense", units: 0, ...bias }, [], { unitsPerWidth: back });
   const mlpPath = [mlpIn, ...act ? [activation(act)] : [], mlpOut];
-  const chain = (layers) => ({ t: "chain", layers });
-  const residual = (main, merge, after) => ({ t: "merge", paths: [[chain(main)], []], refs: [], merge, after });
+  const chain2 = (layers) => ({ t: "chain", layers });
+  const residual = (main, merge, after) => ({ t: "merge", paths: [[chain2(main)], []], refs: [], merge, after });
   const blocks = placement === "pre" ? [residual([norm("attention/norm"), attn], sum("attention/sum"), []), residual([norm("mlp/norm"), ...mlpPath], sum("mlp/sum"), [])] : [residual([attn], sum("attention/sum"), [norm("attention/norm")]), residual(mlpPath, sum("mlp/sum"), [norm("mlp/norm")])];
   const one = { t: "sequence", body: blocks, ...r.name ? { name: r.name } : {} };
   const depthNode = r.fields.get("depth");
@@ -14227,7 +14384,7 @@ function checkNames(templates, sink) {
   const defs = /* @__PURE__ */ new Map();
   const out = /* @__PURE__ */ new Map();
   let ok = true;
-  const define = (name, chain) => {
+  const define = (name, chain2) => {
     if (!name) return;
     const earlier = defs.get(name.text);
     if (earlier) {
@@ -14239,9 +14396,9 @@ function checkNames(templates, sink) {
       ok = false;
       return;
     }
-    defs.set(name.text, { span: name.span, chain });
+    defs.set(name.text, { span: name.span, chain: chain2 });
   };
-  const check2 = (ref, chain) => {
+  const check2 = (ref, chain2) => {
     if (ref.base === "input") {
       if (ref.copies.length > 0) {
         sink.error("config/invalid-copy", `${ref.where}: 'input' is the model input, which has no copies; write 'input'`, ref.span);
@@ -14262,7 +14419,7 @@ function checkNames(templates, sink) {
       return;
     }
     let shared = 0;
-    while (shared < def.chain.length && shared < chain.length && def.chain[shared] === chain[shared]) shared++;
+    while (shared < def.chain.length && shared < chain2.length && def.chain[shared] === chain2[shared]) shared++;
     const outside = def.chain.slice(shared);
     if (ref.copies.length === 0 && outside.length > 0) {
       const example = `${ref.base}${outside.map((f2) => `[${f2.times}]`).join("")}`;
@@ -14289,23 +14446,23 @@ function checkNames(templates, sink) {
     }
     out.set(ref, { input: false, shared });
   };
-  const walk2 = (list2, chain) => {
+  const walk2 = (list2, chain2) => {
     for (const t of list2) {
       switch (t.t) {
         case "chain":
           break;
         case "repeat":
-          walk2(t.body, [...chain, { times: t.times, span: t.timesSpan }]);
+          walk2(t.body, [...chain2, { times: t.times, span: t.timesSpan }]);
           break;
         case "sequence":
-          walk2(t.body, chain);
+          walk2(t.body, chain2);
           break;
         case "merge":
-          for (const p of t.paths) walk2(p, chain);
-          for (const r of t.refs) check2(r, chain);
+          for (const p of t.paths) walk2(p, chain2);
+          for (const r of t.refs) check2(r, chain2);
           break;
       }
-      define(t.name, chain);
+      define(t.name, chain2);
     }
   };
   walk2(templates, []);
