@@ -134,6 +134,40 @@ time('1,000 small configs in one process (tree surrogate, with the probe)', () =
   for (const text of small) analyse(text, 'tree');
 }, 1);
 
+// 300 small sequence models the rules leave far apart (attention stacks, bidirectional and
+// per-step recurrences), with the probe towards every upper bound; how many bounds it closes.
+const smallSequences = [];
+for (let i = 0; i < 300; i++) {
+  const n = 6 + rand(7);
+  if (i % 3 === 0) {
+    const width = [4, 8][rand(2)];
+    smallSequences.push(`model:\n  input: {shape: [${n}], representation: ${2 + rand(3)}}\n  layers:\n    - embedding: {dim: ${width}}\n    - position: {mode: learned}\n    - repeat:\n        times: ${2 + rand(2)}\n        layers:\n          - attention: {heads: ${1 + rand(2)}, head_dim: ${1 + rand(2)}, causal: ${rand(2) === 0}}\n`);
+  } else if (i % 3 === 1) {
+    smallSequences.push(`model:\n  input: {shape: [${n}], representation: ${1 + rand(3)}}\n  layers:\n    - recurrent: {hidden: ${1 + rand(4)}, depth: ${1 + rand(2)}, bidirectional: true, sequence: false}\n`);
+  } else {
+    smallSequences.push(`model:\n  input: {shape: [${n}], vocabulary: ${3 + rand(4)}}\n  layers:\n    - embedding: {dim: ${2 + rand(3)}}\n    - recurrent: {hidden: ${2 + rand(3)}, depth: 2}\n    - recurrent: {hidden: ${2 + rand(3)}, depth: 1}\n`);
+  }
+}
+let closed = [0, 0];
+time('300 small attention / bidirectional / per-step sequence models (probe)', () => {
+  closed = [0, 0];
+  for (const text of smallSequences) {
+    for (const p of analyse(text, 'tree').partitions) {
+      closed[1]++;
+      if (p.status === 'exact') closed[0]++;
+    }
+  }
+}, 1);
+console.log(`    exact (lower = upper): ${closed[0]} of ${closed[1]} partitions`);
+const closedRules = [0, 0];
+for (const text of smallSequences) {
+  for (const p of analyse(text, 'tree', undefined, undefined, rulesOnly).partitions) {
+    closedRules[1]++;
+    if (p.status === 'exact') closedRules[0]++;
+  }
+}
+console.log(`    exact with the rules alone: ${closedRules[0]} of ${closedRules[1]} partitions`);
+
 // `check --base` against the same check without it, through the built CLI in a scratch git
 // repository: 1,000 configs, every one changed by the head (the last width halved). A comparison
 // starts a fixed number of git processes, so what it adds is reading and evaluating the base
