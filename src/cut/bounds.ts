@@ -340,7 +340,7 @@ function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: P
   const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   const method = first.depth === 2 ? 'published depth-2 recurrent' : 'published depth-2 recurrent, lower levels passed through';
-  return { rank, log2: log2Big(rank), method, cut: [] };
+  return { rank, log2: log2Big(rank), method: withBackwardZeroed(method, first), cut: [] };
 }
 
 /**
@@ -365,7 +365,12 @@ function shallowRecurrentLower(on: RecurrentOnInput, p: Partition): Bound | unde
   const bound = sylvesterPowerSpan(m, a, b, r);
   if (bound <= 1n) return undefined;
   const method = first.depth === 1 ? 'shallow recurrent span' : 'recurrent span, lower levels passed through';
-  return { rank: bound, log2: log2Big(bound), method, cut: [] };
+  return { rank: bound, log2: log2Big(bound), method: withBackwardZeroed(method, first), cut: [] };
+}
+
+/** A recurrent rule's name, saying so when it holds for a bidirectional layer's forward chains. */
+function withBackwardZeroed(method: string, layer: RecurrentLayer): string {
+  return layer.bidirectional ? `${method}, backward chains zeroed` : method;
 }
 
 interface RecurrentOnInput {
@@ -375,9 +380,10 @@ interface RecurrentOnInput {
 }
 
 /**
- * A model that is one unidirectional recurrent layer reading the input through per-position
- * linear maps (embeddings, per-position dense layers, 1×1 convs; learned position vectors, which
- * may be zero), followed only by a head (dense and pointwise layers), analysed at the last step.
+ * A model that is one recurrent layer reading the input through per-position linear maps
+ * (embeddings, per-position dense layers, 1×1 convs; learned position vectors, which may be
+ * zero), followed only by a head (dense and pointwise layers), analysed at the last step. A
+ * bidirectional layer is read with its backward chains zeroed: the unidirectional layer.
  * The maps before it can be partial identities (a special case), so the recurrent rules hold with
  * M replaced by the narrowest of M and their widths.
  */
@@ -389,7 +395,8 @@ function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOn
     if (l.kind === 'pointwise') continue;
     if (!recurrent) {
       if (l.kind === 'recurrent') {
-        if (l.bidirectional) return undefined;
+        // A bidirectional layer with its backward chains zeroed (U_I^l = 0, so every b^l_t = 0)
+        // is the unidirectional layer: its levels read [f; 0] (or f + 0), and the head reads f^L_T.
         recurrent = l;
         continue;
       }

@@ -4,7 +4,8 @@
  * depth-2 start-end bound of Levine, Sharir, Ziv & Shashua, "Benefits of depth for long-term
  * memory of recurrent networks"). Each rule's value, with the certified probe off, is checked
  * against the oracle's exact generic rank (rank mod P of a probe matrix at random weights, the
- * independent evaluator of tests/oracle) on random small models, continuous and token inputs.
+ * independent evaluator of tests/oracle) on random small models, continuous and token inputs,
+ * a third of them bidirectional.
  */
 import { describe, expect, it } from 'vitest';
 import { computeBounds } from '../../src/cut/bounds.js';
@@ -40,7 +41,9 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
       const m = token ? undefined : rng.int(1, 2);
       const depth = rng.int(2, 4);
       const r = rng.int(2, 4);
-      const items = [...(rng.chance(0.3) ? [embedding(rng.int(2, 3))] : []), recurrent(r, depth), ...(rng.chance(0.3) ? [dense(rng.int(1, 3))] : [])];
+      // A third of the layers bidirectional (the rules then hold with the backward chains zeroed).
+      const both = rng.chance(0.33) ? { bidirectional: true, merge: rng.chance(0.5) ? ('sum' as const) : ('concat' as const) } : {};
+      const items = [...(rng.chance(0.3) ? [embedding(rng.int(2, 3))] : []), recurrent(r, depth, both), ...(rng.chance(0.3) ? [dense(rng.int(1, 3))] : [])];
       const model = layered([t], m, true, items, vocabulary !== undefined ? { vocabulary } : {});
       const side = new Uint8Array(t);
       for (let p = 0; p < t; p++) side[p] = rng.chance(0.5) ? 1 : 0;
@@ -53,7 +56,7 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
         if (!lower || !/passed through/.test(lower.method)) return;
         // A probe of K columns reads min(rank, K) at most: K just above the claim decides it.
         const truth = oracleRank(model, partitions[j]!.side, Number(lower.rank) + 4, 1000 + i);
-        const where = `T=${t} ${token ? `V=${vocabulary}` : `M=${m}`} depth=${depth} R=${r} ${items.map((x) => x.kind).join('+')} ${pb.partition}`;
+        const where = `T=${t} ${token ? `V=${vocabulary}` : `M=${m}`} depth=${depth} R=${r}${'merge' in both ? ` bidirectional ${both.merge}` : ''} ${items.map((x) => x.kind).join('+')} ${pb.partition}`;
         expect(Number(lower.rank), `${where}: ${lower.method} ${lower.rank} above the oracle's ${truth}`).toBeLessThanOrEqual(truth);
         const u = used.get(lower.method) ?? { applied: 0 };
         u.applied++;
@@ -64,6 +67,7 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
     // Both rules must have been the best lower bound somewhere, or this test checked nothing.
     expect(used.get('recurrent span, lower levels passed through')?.applied ?? 0).toBeGreaterThan(3);
     expect(used.get('published depth-2 recurrent, lower levels passed through')?.applied ?? 0).toBeGreaterThan(3);
+    expect(used.get('recurrent span, lower levels passed through, backward chains zeroed')?.applied ?? 0).toBeGreaterThan(0);
   });
 
   it('depth 3 and 4 across start-end: C(min(M, R) + T/2 − 1, T/2), as at depth 2', () => {
