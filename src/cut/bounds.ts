@@ -4,7 +4,7 @@
  * here is sound on its own; when none proves a lower bound, the partition is `upper-only`.
  */
 import type { Diagnostic } from '../diagnostic.js';
-import { INPUT, representationOf, type LayeredModel, type Model, type RecurrentLayer } from '../config/model.js';
+import { INPUT, representationOf, type ExplicitModel, type LayeredModel, type Model, type RecurrentLayer } from '../config/model.js';
 import type { Partition } from '../partition/partition.js';
 import { resolvePartition } from '../partition/partition.js';
 import { OP_INPUT, OP_LINEAR, type Circuit } from '../network/circuit.js';
@@ -14,7 +14,8 @@ import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial, sideReach, sylvesterPowerSpan } from './degree-bound.js';
 import { gradedDegreeBound, totalDegrees } from './graded-degree.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
-import { explicitBounds } from './explicit-bounds.js';
+import { explicitBounds, type ExplicitBounds } from './explicit-bounds.js';
+import { explicitProbe } from './probe/explicit-probe.js';
 import { topWindowLower } from './top-window-lower.js';
 import { splitWindowLower } from './window-product-lower.js';
 import { rankPropagation } from './rank-propagation.js';
@@ -44,9 +45,23 @@ export type BoundsOutcome = { ok: true; result: BoundsResult } | { ok: false; di
 
 export { MAX_RANK_BITS } from './types.js';
 
+/**
+ * An explicit network's bounds with the certified probe's lower bound where the rules leave a gap
+ * (and, with a target, only while the target is unproven and within reach).
+ */
+function withExplicitProbe(model: ExplicitModel, p: Partition, found: ExplicitBounds, options: BoundsOptions, target: bigint | null | undefined): ExplicitBounds {
+  const known = found.lower?.rank ?? 0n;
+  if (target === null || known >= found.upper.rank) return found;
+  if (target !== undefined && (known >= target || target > found.upper.rank)) return found;
+  const probed = explicitProbe(model, p.side, known, options.probeBudget);
+  if (!probed) return found;
+  if (probed.rank > found.upper.rank) throw new Error(`explicit bounds: probe ${probed.rank} exceeds upper ${found.upper.rank} (bug)`);
+  return { upper: found.upper, lower: probed };
+}
+
 export function computeBounds(model: Model, partitions: readonly Partition[], options: BoundsOptions): BoundsOutcome {
   if (model.kind === 'explicit') {
-    const results = partitions.map((p) => finish(p.label, explicitBounds(model, p)));
+    const results = partitions.map((p, i) => finish(p.label, withExplicitProbe(model, p, explicitBounds(model, p), options, options.probeTargets?.[i])));
     const notes = ['an explicit tensor network is analysed as given: the surrogate setting does not apply to it'];
     return { ok: true, result: { file: model.file, surrogate: options.surrogate, notes, partitions: results } };
   }

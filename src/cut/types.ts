@@ -42,16 +42,18 @@ export interface Bound {
 /**
  * A non-singular minor of a probe matrix modulo a prime. With the weights and probe inputs named
  * by `seed` (DEVELOPERS.md gives the names and the function that draws them), the matrix is
- * F[i][j] = h(side-A inputs i, side-B inputs j) for i, j < `probes`; the minor on `rows` × `cols`
- * has the determinant `determinant` ≠ 0 mod `prime`, so some real weights reach rank rows.length.
+ * F[i][j] = h(side-A inputs i, side-B inputs j) for i, j < `probes` (a layered model), or the
+ * whole matricisation of an explicit network at its drawn tensors (`matricisation`: its rows ×
+ * columns); the minor on `rows` × `cols` has the determinant `determinant` ≠ 0 mod `prime`, so
+ * some real weights reach rank rows.length.
  */
-export interface ProbeCertificate {
+export type ProbeCertificate = CertificateBase & ({ readonly probes: number } | { readonly matricisation: readonly [number, number] });
+
+interface CertificateBase {
   /** Version of the naming and drawing scheme. */
   readonly scheme: number;
   readonly prime: number;
   readonly seed: number;
-  /** Probe inputs per side: the probe matrix is probes × probes. */
-  readonly probes: number;
   /** Side-A probe inputs (matrix rows) of the minor, ascending. */
   readonly rows: readonly number[];
   /** Side-B probe inputs (matrix columns) of the minor, ascending. */

@@ -24,7 +24,10 @@ export interface CertificateJson {
   scheme: number;
   prime: number;
   seed: number;
-  probes: number;
+  /** A layered model: probe inputs per side (the probe matrix is probes × probes). */
+  probes?: number;
+  /** An explicit network: the whole matricisation at the drawn tensors, rows × columns. */
+  matricisation?: [number, number];
   rows: string;
   cols: string;
   determinant: number;
@@ -40,7 +43,8 @@ export function boundJson(b: Bound): BoundJson {
 }
 
 function certificateJson(c: ProbeCertificate): CertificateJson {
-  return { scheme: c.scheme, prime: c.prime, seed: c.seed, probes: c.probes, rows: indexRanges(c.rows), cols: indexRanges(c.cols), determinant: c.determinant };
+  const size = 'probes' in c ? { probes: c.probes } : { matricisation: [c.matricisation[0], c.matricisation[1]] as [number, number] };
+  return { scheme: c.scheme, prime: c.prime, seed: c.seed, ...size, rows: indexRanges(c.rows), cols: indexRanges(c.cols), determinant: c.determinant };
 }
 
 /** Ascending indices as comma-separated inclusive ranges: [0, 1, 2, 5] → "0-2,5". */

@@ -10,6 +10,8 @@ import type { ExplicitBond, ExplicitModel, ExplicitTensor } from '../../src/conf
 import type { Partition } from '../../src/partition/partition.js';
 import { NO_SPAN, type Span } from '../../src/diagnostic.js';
 import { explicitBounds } from '../../src/cut/explicit-bounds.js';
+import { explicitProbe } from '../../src/cut/probe/explicit-probe.js';
+import { computeBounds } from '../../src/cut/bounds.js';
 import { mulberry32 } from '../helpers/models.js';
 
 const rng = mulberry32;
@@ -183,6 +185,20 @@ describe('explicitBounds: the star network', () => {
     expect(b.lower!.rank <= 7n).toBe(true);
     // The generic rank itself, measured: 7 < 8, so max-flow ≠ min-cut here.
     expect(networkRankModP(m, part, rng(1))).toBe(7);
+  });
+
+  it('big legs of dim 3: the certified probe proves the generic rank 7 (DESIGN §8, measured)', () => {
+    const m = star(3);
+    const probed = explicitProbe(m, part.side, 4n);
+    expect(probed?.rank).toBe(7n);
+    expect(probed?.certificate).toMatchObject({ matricisation: [8, 9] });
+    // Through computeBounds: the probe's 7 replaces power rounding's 4.
+    const out = computeBounds(m, [part], { surrogate: 'tree' });
+    if (!out.ok) throw new Error('refused');
+    expect(out.result.partitions[0]!.lower).toMatchObject({ rank: 7n, method: 'certified probe' });
+    // Budget 0 turns it off; it never claims what the rules proved already.
+    expect(explicitProbe(m, part.side, 4n, 0)).toBeUndefined();
+    expect(explicitProbe(m, part.side, 7n)).toBeUndefined();
   });
 
   it('big legs of dim 4: every dimension a power of 2, lower = upper = 8', () => {

@@ -134,11 +134,11 @@ export function explicitOpenSize(model: ExplicitModel): number {
 }
 
 /**
- * Rank mod P of an explicit network with random tensors: every tensor gets one index per open leg
- * and one per bond it belongs to; a bond of three or more tensors is a single shared index (a
- * copy tensor).
+ * The factor network of an explicit model: every tensor gets one index per open leg and one per
+ * bond it belongs to (legs first, then bonds in the model's order); a bond of three or more
+ * tensors is a single shared index (a copy tensor). `entries` gives each tensor's numbers.
  */
-export function explicitRank(model: ExplicitModel, side: Uint8Array, rng: Rng): number {
+export function explicitNetwork(model: ExplicitModel, side: Uint8Array, entries: (tensor: string, size: number) => Float64Array): { net: FactorNetwork; rows: number[]; cols: number[] } {
   const dims: number[] = [];
   const rows: number[] = [];
   const cols: number[] = [];
@@ -161,9 +161,15 @@ export function explicitRank(model: ExplicitModel, side: Uint8Array, rng: Rng): 
       if (times === 1) vars.push(bondVar[i] as number);
     });
     const size = vars.reduce((a, v) => a * (dims[v] as number), 1);
-    factors.push({ vars, data: randomVector(rng, size) });
+    factors.push({ vars, data: entries(t.name, size) });
   }
-  return matricisedRank({ dims, factors }, rows, cols);
+  return { net: { dims, factors }, rows, cols };
+}
+
+/** Rank mod P of an explicit network with random tensors. */
+export function explicitRank(model: ExplicitModel, side: Uint8Array, rng: Rng): number {
+  const { net, rows, cols } = explicitNetwork(model, side, (_, size) => randomVector(rng, size));
+  return matricisedRank(net, rows, cols);
 }
 
 /** Thrown by `treeNetwork` for a model whose function is not a tensor network of this kind. */

@@ -8,10 +8,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { computeBounds } from '../../src/cut/bounds.js';
-import type { LayeredModel } from '../../src/config/model.js';
+import type { ExplicitModel, LayeredModel } from '../../src/config/model.js';
 import type { ProbeCertificate } from '../../src/cut/types.js';
 import { P, Rng, add, inv, mul, rank } from './field.js';
-import { LAYERED_GENERATORS } from './families.js';
+import { LAYERED_GENERATORS, explicitCase } from './families.js';
+import { contract, explicitNetwork } from './contract.js';
 import { compile, WeightStore, type SurrogateKind } from './surrogate.js';
 import { conv, layered, partition, pool } from './models.js';
 
@@ -91,7 +92,45 @@ function recheck(model: LayeredModel, surrogate: SurrogateKind, side: Uint8Array
   return [rank(minor, k, k), determinant(minor, k)];
 }
 
+/**
+ * An explicit network's certificate, re-evaluated: every tensor drawn as `tensor:{name}` (DEVELOPERS.md),
+ * the network contracted by the oracle into its matricisation, and the minor on the certificate's
+ * rows and columns (indices of that matrix): [its rank, its determinant].
+ */
+function recheckExplicit(model: ExplicitModel, side: Uint8Array, c: ProbeCertificate): [number, number] {
+  if (!('matricisation' in c)) throw new Error('not an explicit certificate');
+  const { net, rows, cols } = explicitNetwork(model, side, (name, size) => draw(c.seed, `tensor:${name}`, size));
+  const width = cols.reduce((a, v) => a * net.dims[v]!, 1);
+  expect([rows.reduce((a, v) => a * net.dims[v]!, 1), width]).toEqual([...c.matricisation]);
+  const whole = contract(net, [...rows, ...cols]);
+  const k = c.rows.length;
+  const minor = new Float64Array(k * k);
+  c.rows.forEach((i, a) => c.cols.forEach((j, b) => (minor[a * k + b] = whole[i * width + j]!)));
+  return [rank(Float64Array.from(minor), k, k), determinant(minor, k)];
+}
+
 describe('certified probe certificates, re-checked by the oracle', () => {
+  it('every certificate of an explicit network re-checks on its contracted matricisation', () => {
+    const master = new Rng(4343);
+    let checked = 0;
+    for (let n = 0; n < 60; n++) {
+      const seed = master.fork();
+      const c = explicitCase(new Rng(seed));
+      const out = computeBounds(c.model, c.partitions, { surrogate: 'tree' });
+      if (!out.ok) continue;
+      out.result.partitions.forEach((pb, i) => {
+        const cert = pb.lower?.certificate;
+        if (!cert) return;
+        const [r, det] = recheckExplicit(c.model, c.partitions[i]!.side, cert);
+        expect(r, `explicit seed=${seed} ${pb.partition}`).toBe(cert.rows.length);
+        expect(det, `explicit seed=${seed} ${pb.partition}`).toBe(cert.determinant);
+        checked++;
+      });
+    }
+    console.log(`explicit certificates re-checked: ${checked}`);
+    expect(checked).toBeGreaterThan(20);
+  });
+
   it('a shared 4×4 net, checkerboard: the probe proves 81, the generic rank measured in the design notes', () => {
     // DESIGN §4 (measured): 4×4 grid, 2×2 pooling, M = 2, channels (4, ·), shared, checkerboard: 81.
     const m = layered([4, 4], 2, true, [conv(4, { dims: 2 }), pool([2, 2]), conv(4, { dims: 2 }), pool([2, 2])]);
