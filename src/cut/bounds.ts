@@ -157,10 +157,13 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const recurrent = recurrentOnInput(model, built.shapes);
-    const published = recurrent && publishedRecurrentLower(model, recurrent, p);
-    if (published) lowers.push(published);
-    const shallow = recurrent && shallowRecurrentLower(recurrent, p);
-    if (shallow) lowers.push(shallow);
+    for (const chain of recurrent?.chains ?? []) {
+      const side = chainSide(p.side, chain);
+      const published = publishedRecurrentLower(recurrent!, chain, side);
+      if (published) lowers.push(published);
+      const shallow = shallowRecurrentLower(recurrent!, chain, side);
+      if (shallow) lowers.push(shallow);
+    }
     const attention = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
     if (attention) lowers.push(attention);
     let lower: Bound | null = null;
@@ -342,20 +345,20 @@ function diagonalLower(c: Circuit, side: Uint8Array): Bound {
  * T: separation rank ≥ C(min(M, R) + T/2 − 1, T/2) (Levine, Sharir, Ziv, Shashua, "Benefits of
  * depth for long-term memory of recurrent networks"). At depth L ≥ 3 the same bound holds for the
  * top two levels once levels 1 … L−2 pass their input through (derived here; DEVELOPERS.md,
- * "Deep recurrences: passing the lower levels through").
+ * "Deep recurrences: passing the lower levels through"). `side` is the partition on the steps
+ * the chain reads, in the chain's order.
  */
-function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: Partition): Bound | undefined {
+function publishedRecurrentLower(on: RecurrentOnInput, chain: RecurrentChain, side: Uint8Array): Bound | undefined {
   const first = on.layer;
   if (first.depth < 2) return undefined;
-  if (model.input.shape.length !== 1) return undefined;
-  const t = model.input.shape[0]!;
+  const t = side.length;
   if (t % 2 !== 0) return undefined;
-  const startEnd = resolvePartition('start-end', model.input.shape);
-  if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return undefined;
+  const startEnd = resolvePartition('start-end', [t]);
+  if (!startEnd.ok || !sameMask(startEnd.partition.side, side)) return undefined;
   const m = Math.min(on.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   const method = first.depth === 2 ? 'published depth-2 recurrent' : 'published depth-2 recurrent, lower levels passed through';
-  return { rank, log2: log2Big(rank), method: withBackwardZeroed(method, first), cut: [] };
+  return { rank, log2: log2Big(rank), method: chainMethod(method, on, chain), cut: [] };
 }
 
 /**
@@ -368,39 +371,67 @@ function publishedRecurrentLower(model: LayeredModel, on: RecurrentOnInput, p: P
  * inputs spanning min(M, R) dimensions (DEVELOPERS.md, "Deep recurrences: passing the lower levels
  * through").
  */
-function shallowRecurrentLower(on: RecurrentOnInput, p: Partition): Bound | undefined {
+function shallowRecurrentLower(on: RecurrentOnInput, chain: RecurrentChain, side: Uint8Array): Bound | undefined {
   const first = on.layer;
   if (first.depth < 1) return undefined;
-  let a = 0;
-  for (const x of p.side) a += x;
-  const b = p.side.length - a;
+  const [a, b] = sideSizes(side);
   if (a === 0 || b === 0) return undefined;
   const r = BigInt(first.hidden);
   const m = first.depth === 1 ? on.m : Math.min(on.m, first.hidden);
   const bound = sylvesterPowerSpan(m, a, b, r);
   if (bound <= 1n) return undefined;
   const method = first.depth === 1 ? 'shallow recurrent span' : 'recurrent span, lower levels passed through';
-  return { rank: bound, log2: log2Big(bound), method: withBackwardZeroed(method, first), cut: [] };
+  return { rank: bound, log2: log2Big(bound), method: chainMethod(method, on, chain), cut: [] };
 }
 
-/** A recurrent rule's name, saying so when it holds for a bidirectional layer's forward chains. */
-function withBackwardZeroed(method: string, layer: RecurrentLayer): string {
-  return layer.bidirectional ? `${method}, backward chains zeroed` : method;
+/** A recurrent rule's name, saying which chain of a bidirectional layer it keeps, and on which steps. */
+function chainMethod(method: string, on: RecurrentOnInput, chain: RecurrentChain): string {
+  const steps = chain.from === 0 && chain.to === on.steps - 1 ? '' : `, steps ${chain.from}-${chain.to}`;
+  if (!on.layer.bidirectional) return `${method}${steps}`;
+  return `${method}, ${chain.backward ? 'forward' : 'backward'} chains zeroed${steps}`;
+}
+
+/**
+ * The steps one chain of the analysed output reads: the forward chain reads steps from … to in
+ * order, the backward chain (of a bidirectional layer) reads them from `to` down to `from`.
+ */
+interface RecurrentChain {
+  readonly from: number;
+  readonly to: number;
+  readonly backward: boolean;
+}
+
+/** The partition restricted to a chain's steps, in the chain's order. */
+function chainSide(side: Uint8Array, chain: RecurrentChain): Uint8Array {
+  const out = side.slice(chain.from, chain.to + 1);
+  return chain.backward ? out.reverse() : out;
 }
 
 interface RecurrentOnInput {
   readonly layer: RecurrentLayer;
   /** The dimension the recurrent layer's inputs span: M, cut by the per-position maps before it. */
   readonly m: number;
+  /** T, the layer's steps. */
+  readonly steps: number;
+  /**
+   * The chains whose rules hold: the forward chain up to the analysed step, and for a bidirectional
+   * layer the backward chain from it (each with the other direction zeroed).
+   */
+  readonly chains: readonly RecurrentChain[];
 }
 
 /**
  * A model that is one recurrent layer reading the input through per-position linear maps
  * (embeddings, per-position dense layers, 1×1 convs; learned position vectors, which may be
- * zero), followed only by a head (dense and pointwise layers), analysed at the last step. A
- * bidirectional layer is read with its backward chains zeroed: the unidirectional layer.
- * The maps before it can be partial identities (a special case), so the recurrent rules hold with
- * M replaced by the narrowest of M and their widths.
+ * zero), followed only by a head (dense and pointwise layers). The maps before it can be partial
+ * identities (a special case), so the recurrent rules hold with M replaced by the narrowest of M
+ * and their widths. The output the head reads is the final state, or with per-step outputs the
+ * state at the analysed step o: that is the final state of the same layer over steps 0 … o, and
+ * the steps after o do not enter it (their side does not change the rank). A bidirectional layer
+ * is read with one direction zeroed (DEVELOPERS.md, "Bidirectional layers"): with its backward
+ * chains zeroed it is the unidirectional layer over steps 0 … o (final state: all steps); with
+ * its forward chains zeroed, the unidirectional layer over steps T−1 down to o (final state b_1:
+ * all steps, reversed).
  */
 function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOnInput | undefined {
   let m = shapes.representation;
@@ -410,8 +441,6 @@ function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOn
     if (l.kind === 'pointwise') continue;
     if (!recurrent) {
       if (l.kind === 'recurrent') {
-        // A bidirectional layer with its backward chains zeroed (U_I^l = 0, so every b^l_t = 0)
-        // is the unidirectional layer: its levels read [f; 0] (or f + 0), and the head reads f^L_T.
         recurrent = l;
         continue;
       }
@@ -422,10 +451,14 @@ function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOn
     }
     if (l.kind !== 'dense') return undefined;
   }
-  if (!recurrent) return undefined;
-  const last = shapes.layers[shapes.layers.length - 1]!.shape;
-  if (recurrent.sequence && shapes.output.position[0] !== last[0]! - 1) return undefined;
-  return { layer: recurrent, m };
+  if (!recurrent || model.input.shape.length !== 1) return undefined;
+  // The maps before the layer keep the positions: it runs over the input's T steps.
+  const steps = model.input.shape[0]!;
+  if (recurrent.sequence && shapes.layers[shapes.layers.length - 1]!.shape[0] !== steps) return undefined;
+  const o = recurrent.sequence ? shapes.output.position[0]! : steps - 1;
+  const chains: RecurrentChain[] = [{ from: 0, to: o, backward: false }];
+  if (recurrent.bidirectional) chains.push({ from: recurrent.sequence ? o : 0, to: steps - 1, backward: true });
+  return { layer: recurrent, m, steps, chains };
 }
 
 /** Positions on side A and on side B. */

@@ -5,14 +5,14 @@
  * memory of recurrent networks"). Each rule's value, with the certified probe off, is checked
  * against the oracle's exact generic rank (rank mod P of a probe matrix at random weights, the
  * independent evaluator of tests/oracle) on random small models, continuous and token inputs,
- * a third of them bidirectional.
+ * a third of them bidirectional and a third with per-step outputs analysed at a random step.
  */
 import { describe, expect, it } from 'vitest';
 import { computeBounds } from '../../src/cut/bounds.js';
 import type { LayeredModel } from '../../src/config/model.js';
 import type { Partition } from '../../src/partition/partition.js';
 import { Rng } from '../oracle/field.js';
-import { dense, embedding, layered, maskPartition, partition, recurrent } from '../oracle/models.js';
+import { dense, embedding, layered, maskPartition, partition, recurrent, withOutput } from '../oracle/models.js';
 import { compile, probeRankWith, WeightStore } from '../oracle/surrogate.js';
 
 function oracleRank(model: LayeredModel, side: Uint8Array, k: number, seed: number): number {
@@ -43,8 +43,11 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
       const r = rng.int(2, 4);
       // A third of the layers bidirectional (the rules then hold with the backward chains zeroed).
       const both = rng.chance(0.33) ? { bidirectional: true, merge: rng.chance(0.5) ? ('sum' as const) : ('concat' as const) } : {};
-      const items = [...(rng.chance(0.3) ? [embedding(rng.int(2, 3))] : []), recurrent(r, depth, both), ...(rng.chance(0.3) ? [dense(rng.int(1, 3))] : [])];
-      const model = layered([t], m, true, items, vocabulary !== undefined ? { vocabulary } : {});
+      // A third with per-step outputs, analysed at a random step.
+      const sequence = rng.chance(0.33);
+      const items = [...(rng.chance(0.3) ? [embedding(rng.int(2, 3))] : []), recurrent(r, depth, { ...both, sequence }), ...(rng.chance(0.3) ? [dense(rng.int(1, 3))] : [])];
+      const plain = layered([t], m, true, items, vocabulary !== undefined ? { vocabulary } : {});
+      const model = sequence ? withOutput(plain, [rng.int(0, t - 1)]) : plain;
       const side = new Uint8Array(t);
       for (let p = 0; p < t; p++) side[p] = rng.chance(0.5) ? 1 : 0;
       if (side.every((x) => x === side[0])) side[0] = 1 - side[0]!;
@@ -56,7 +59,7 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
         if (!lower || !/passed through/.test(lower.method)) return;
         // A probe of K columns reads min(rank, K) at most: K just above the claim decides it.
         const truth = oracleRank(model, partitions[j]!.side, Number(lower.rank) + 4, 1000 + i);
-        const where = `T=${t} ${token ? `V=${vocabulary}` : `M=${m}`} depth=${depth} R=${r}${'merge' in both ? ` bidirectional ${both.merge}` : ''} ${items.map((x) => x.kind).join('+')} ${pb.partition}`;
+        const where = `T=${t} ${token ? `V=${vocabulary}` : `M=${m}`} depth=${depth} R=${r}${'merge' in both ? ` bidirectional ${both.merge}` : ''}${sequence ? ` output ${model.output?.position}` : ''} ${items.map((x) => x.kind).join('+')} ${pb.partition}`;
         expect(Number(lower.rank), `${where}: ${lower.method} ${lower.rank} above the oracle's ${truth}`).toBeLessThanOrEqual(truth);
         const u = used.get(lower.method) ?? { applied: 0 };
         u.applied++;
@@ -68,6 +71,9 @@ describe('recurrent layers of depth ≥ 2: lower levels passed through', () => {
     expect(used.get('recurrent span, lower levels passed through')?.applied ?? 0).toBeGreaterThan(3);
     expect(used.get('published depth-2 recurrent, lower levels passed through')?.applied ?? 0).toBeGreaterThan(3);
     expect(used.get('recurrent span, lower levels passed through, backward chains zeroed')?.applied ?? 0).toBeGreaterThan(0);
+    // Per-step outputs before the last step, and the backward chain kept, were checked too.
+    expect([...used.keys()].some((k) => /steps \d+-\d+/.test(k))).toBe(true);
+    expect([...used.keys()].some((k) => /forward chains zeroed/.test(k))).toBe(true);
   });
 
   it('depth 3 and 4 across start-end: C(min(M, R) + T/2 − 1, T/2), as at depth 2', () => {
