@@ -40564,6 +40564,908 @@ function entries(cutEdges) {
   );
 }
 
+// src/cut/probe/modular.ts
+var PROBE_PRIME = 67108859;
+var INVERSE = 1 / PROBE_PRIME;
+function mulAddMod(a, b, c) {
+  const x = a * b + c;
+  const r = x - Math.floor(x * INVERSE) * PROBE_PRIME;
+  return r < 0 ? r + PROBE_PRIME : r >= PROBE_PRIME ? r - PROBE_PRIME : r;
+}
+function inverseMod(a) {
+  if (a === 0) throw new RangeError("0 has no inverse modulo the probe prime");
+  let result2 = 1;
+  let base = a;
+  for (let e = PROBE_PRIME - 2; e > 0; e = Math.floor(e / 2)) {
+    if (e % 2 === 1) result2 = mulAddMod(result2, base, 0);
+    base = mulAddMod(base, base, 0);
+  }
+  return result2;
+}
+function certifyingMinor(m, rows, cols) {
+  const origin = Array.from({ length: rows }, (_, i) => i);
+  const pivotRows = [];
+  const pivotCols = [];
+  let det = 1;
+  let rank = 0;
+  for (let c = 0; c < cols && rank < rows; c++) {
+    let pivot = rank;
+    while (pivot < rows && m[pivot * cols + c] === 0) pivot++;
+    if (pivot === rows) continue;
+    if (pivot !== rank) {
+      for (let k = c; k < cols; k++) {
+        const t = m[pivot * cols + k];
+        m[pivot * cols + k] = m[rank * cols + k];
+        m[rank * cols + k] = t;
+      }
+      const o = origin[pivot];
+      origin[pivot] = origin[rank];
+      origin[rank] = o;
+    }
+    const head = m[rank * cols + c];
+    det = mulAddMod(det, head, 0);
+    const scale = inverseMod(head);
+    for (let r = rank + 1; r < rows; r++) {
+      const f2 = m[r * cols + c];
+      if (f2 === 0) continue;
+      const factor = PROBE_PRIME - mulAddMod(f2, scale, 0);
+      const ro = r * cols;
+      const po = rank * cols;
+      for (let k = c; k < cols; k++) {
+        const x = factor * m[po + k] + m[ro + k];
+        const y = x - Math.floor(x * INVERSE) * PROBE_PRIME;
+        m[ro + k] = y < 0 ? y + PROBE_PRIME : y >= PROBE_PRIME ? y - PROBE_PRIME : y;
+      }
+    }
+    pivotRows.push(origin[rank]);
+    pivotCols.push(c);
+    rank++;
+  }
+  let inversions = 0;
+  for (let i = 0; i < pivotRows.length; i++) for (let j = i + 1; j < pivotRows.length; j++) if (pivotRows[i] > pivotRows[j]) inversions++;
+  if (inversions % 2 === 1 && det !== 0) det = PROBE_PRIME - det;
+  return { rows: [...pivotRows].sort((a, b) => a - b), cols: pivotCols, determinant: det };
+}
+
+// src/cut/probe/draw.ts
+function fnv1a(name) {
+  let h = 2166136261;
+  for (let i = 0; i < name.length; i++) h = Math.imul(h ^ name.charCodeAt(i), 16777619) >>> 0;
+  return h;
+}
+function mix(x) {
+  x = Math.imul(x ^ x >>> 16, 2246822507) >>> 0;
+  x = Math.imul(x ^ x >>> 13, 3266489909) >>> 0;
+  return (x ^ x >>> 16) >>> 0;
+}
+function drawValues(seed, name, length) {
+  const base = mix((seed ^ fnv1a(name)) >>> 0);
+  const out = new Float64Array(length);
+  for (let i = 0; i < length; i++) out[i] = mix(base + Math.imul(i + 1, 2654435769) >>> 0) % PROBE_PRIME;
+  return out;
+}
+
+// src/cut/probe/surrogate-program.ts
+var mulAddMod2 = mulAddMod;
+function applyMap(map, buf, vo, oo, accumulate) {
+  const { w, r, d, g } = map;
+  const dg = d / g;
+  const rg = r / g;
+  for (let k = 0; k < r; k++) {
+    let acc = accumulate ? buf[oo + k] : 0;
+    const from = vo + Math.floor(k / rg) * dg;
+    const row3 = k * dg;
+    for (let c = 0; c < dg; c++) acc = mulAddMod2(w[row3 + c], buf[from + c], acc);
+    buf[oo + k] = acc;
+  }
+}
+var ProgramBuilder = class {
+  constructor(seed) {
+    this.seed = seed;
+  }
+  seed;
+  steps = [];
+  size = 0;
+  weights = /* @__PURE__ */ new Map();
+  zeros = /* @__PURE__ */ new Map();
+  add(length, reads, cost, make) {
+    const offset = this.size;
+    this.steps.push({ offset, length, reads, cost, run: make ? make(offset) : null });
+    this.size += length;
+    return this.steps.length - 1;
+  }
+  off(s) {
+    return this.steps[s].offset;
+  }
+  len(s) {
+    return this.steps[s].length;
+  }
+  weight(name, length) {
+    let w = this.weights.get(name);
+    if (!w) {
+      w = drawValues(this.seed, name, length);
+      this.weights.set(name, w);
+    }
+    return w;
+  }
+  map(name, r, d, g) {
+    return { w: this.weight(name, r * (d / g)), r, d, g };
+  }
+  /** A vector that is zero for every weight (a window of padding only). */
+  zeroVector(width) {
+    let z2 = this.zeros.get(width);
+    if (z2 === void 0) {
+      z2 = this.add(width, [], 0, (oo) => (buf) => buf.fill(0, oo, oo + width));
+      this.zeros.set(width, z2);
+    }
+    return z2;
+  }
+  /** Σ_i W_i v_i over (map, step) terms; the zero vector without terms. */
+  mapSum(terms, r) {
+    if (terms.length === 0) return this.zeroVector(r);
+    const parts = terms.map((t) => ({ map: t.map, vo: this.off(t.src) }));
+    const cost = terms.reduce((a, t) => a + t.map.r * (t.map.d / t.map.g), 0);
+    return this.add(r, [...new Set(terms.map((t) => t.src))], cost, (oo) => (buf) => {
+      parts.forEach((p, i) => applyMap(p.map, buf, p.vo, oo, i > 0));
+    });
+  }
+  /** The elementwise product of the vectors (one vector: itself). */
+  product(srcs, width) {
+    if (srcs.length === 1) return srcs[0];
+    const offs = srcs.map((s) => this.off(s));
+    return this.add(width, [...new Set(srcs)], width * (srcs.length - 1), (oo) => (buf) => {
+      for (let k = 0; k < width; k++) {
+        let acc = buf[offs[0] + k];
+        for (let i = 1; i < offs.length; i++) acc = mulAddMod2(acc, buf[offs[i] + k], 0);
+        buf[oo + k] = acc;
+      }
+    });
+  }
+  /** Σ_i c_i v_i with fixed coefficients (residues). */
+  combination(srcs, coefficients, width) {
+    if (srcs.length === 1 && coefficients[0] === 1) return srcs[0];
+    const offs = srcs.map((s) => this.off(s));
+    return this.add(width, [...new Set(srcs)], width * srcs.length, (oo) => (buf) => {
+      for (let k = 0; k < width; k++) {
+        let acc = 0;
+        for (let i = 0; i < offs.length; i++) acc = mulAddMod2(coefficients[i], buf[offs[i] + k], acc);
+        buf[oo + k] = acc;
+      }
+    });
+  }
+  concat(srcs) {
+    if (srcs.length === 1) return srcs[0];
+    const parts = srcs.map((s) => ({ off: this.off(s), len: this.len(s) }));
+    const total = parts.reduce((a, p) => a + p.len, 0);
+    return this.add(total, [...new Set(srcs)], total, (oo) => (buf) => {
+      let o = oo;
+      for (const p of parts) {
+        buf.copyWithin(o, p.off, p.off + p.len);
+        o += p.len;
+      }
+    });
+  }
+};
+function flat(at2, shape) {
+  return shape.length === 1 ? at2[0] : at2[0] * shape[1] + at2[1];
+}
+function eachIndex(shape) {
+  if (shape.length === 1) return Array.from({ length: shape[0] }, (_, j) => [j]);
+  const out = [];
+  for (let i = 0; i < shape[0]; i++) for (let j = 0; j < shape[1]; j++) out.push([i, j]);
+  return out;
+}
+function product2(lists) {
+  if (lists.length === 1) return lists[0].map((x) => [x]);
+  const out = [];
+  for (const a of lists[0]) for (const b of lists[1]) out.push([a, b]);
+  return out;
+}
+function surrogateProgram(model, shapes, reading, surrogate, seed) {
+  const b = new ProgramBuilder(seed);
+  const m = shapes.representation;
+  const n = positionCount(model.input.shape);
+  const input = { shape: model.input.shape, width: m, steps: Array.from({ length: n }, () => b.add(m, [], 0, null)) };
+  const grids = [];
+  const gridOf = (i) => i === INPUT ? input : grids[i];
+  for (const layer of model.layers) {
+    const src = gridOf(layer.inputs[0]);
+    const out = shapes.layers[layer.index];
+    const groups = shapes.groups[layer.index];
+    const i = layer.index;
+    let grid;
+    switch (layer.kind) {
+      case "pointwise":
+        grid = reading.squared.has(i) ? { ...src, steps: src.steps.map((s) => b.product([s, s], src.width)) } : src;
+        break;
+      case "flatten":
+        grid = { shape: out.shape, width: src.width * src.steps.length, steps: [b.concat(src.steps)] };
+        break;
+      case "dense": {
+        const u = layer.units;
+        if (shapes.denseReading[i] === "per-position") {
+          const steps = src.steps.map((s, p) => b.mapSum([{ map: b.map(model.weightSharing ? `L${i}` : `L${i}@${p}`, u, src.width, 1), src: s }], u));
+          grid = { shape: out.shape, width: u, steps };
+        } else {
+          const whole = b.concat(src.steps);
+          grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
+        }
+        break;
+      }
+      case "embedding": {
+        const steps = src.steps.map((s) => b.mapSum([{ map: b.map(`L${i}`, layer.dim, src.width, 1), src: s }], layer.dim));
+        grid = { shape: out.shape, width: layer.dim, steps };
+        break;
+      }
+      case "merge": {
+        const ins = layer.inputs.map(gridOf);
+        const steps = src.steps.map((_, p) => {
+          const at2 = ins.map((g) => g.steps[p]);
+          return layer.mode === "sum" ? b.combination(at2, at2.map(() => 1), out.width) : b.concat(at2);
+        });
+        grid = { shape: out.shape, width: out.width, steps };
+        break;
+      }
+      case "recurrent":
+        grid = recurrent2(b, src, layer);
+        break;
+      case "position": {
+        if (layer.mode !== "learned") return void 0;
+        const w = src.width;
+        const steps = src.steps.map((s, p) => {
+          const pv = b.weight(`L${i}@${p}`, w);
+          const so = b.off(s);
+          return b.add(w, [s], w, (oo) => (buf) => {
+            for (let k = 0; k < w; k++) buf[oo + k] = (buf[so + k] + pv[k]) % PROBE_PRIME;
+          });
+        });
+        grid = { shape: out.shape, width: w, steps };
+        break;
+      }
+      case "class-token": {
+        const cv = b.weight(`L${i}`, src.width);
+        const token = b.add(src.width, [], 0, (oo) => (buf) => buf.set(cv, oo));
+        grid = { shape: out.shape, width: src.width, steps: [token, ...src.steps] };
+        break;
+      }
+      case "attention":
+        grid = attention2(b, src, layer, shapes.headDims[i]);
+        break;
+      case "pool":
+        grid = pool2(b, src, layer, out.shape);
+        break;
+      case "upsample":
+        if (layer.mode === "linear" && layer.factor.some((f2) => 2 * f2 % PROBE_PRIME === 0)) return void 0;
+        grid = upsample2(b, src, layer, out.shape);
+        break;
+      case "conv":
+        grid = surrogate === "tree" ? treeConv(b, src, layer, out.shape, out.width, groups, model.weightSharing) : overlapConv(b, src, layer, out.shape, out.width, groups, model.weightSharing);
+        break;
+      case "conv-transpose":
+        grid = convTranspose2(b, src, layer, out.shape, groups, model.weightSharing, surrogate);
+        break;
+      default:
+        return void 0;
+    }
+    if (!grid || grid.steps.length !== positionCount(out.shape) || grid.width !== out.width) return void 0;
+    grids.push(grid);
+  }
+  const last = grids[grids.length - 1];
+  const top = last.steps[flat(shapes.output.position, last.shape)];
+  const head = b.weight("head", last.width);
+  const to = b.off(top);
+  const width = last.width;
+  const output = b.add(1, [top], width, (oo) => (buf) => {
+    let acc = 0;
+    for (let k = 0; k < width; k++) acc = mulAddMod2(head[k], buf[to + k], acc);
+    buf[oo] = acc;
+  });
+  return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== void 0, output };
+}
+function chain(b, names, hidden, xs, width, order) {
+  const wh = b.map(names.h, hidden, hidden, 1);
+  const wi = b.map(names.i, hidden, width, 1);
+  const h0 = b.weight(names.h0, hidden);
+  let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
+  const states = new Array(xs.length);
+  for (const t of order) {
+    state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: xs[t] }], hidden)], hidden);
+    states[t] = state;
+  }
+  return states;
+}
+function recurrent2(b, src, layer) {
+  const { index: i, hidden, depth } = layer;
+  const T2 = src.steps.length;
+  const forward = Array.from({ length: T2 }, (_, t) => t);
+  const backward = forward.slice().reverse();
+  const join11 = (f2, g) => layer.merge === "concat" ? b.concat([f2, g]) : b.combination([f2, g], [1, 1], hidden);
+  let below2 = src.steps;
+  let width = src.width;
+  let last = [];
+  for (let l = 1; l <= depth; l++) {
+    const f2 = chain(b, { h: `L${i}:H${l}`, i: `L${i}:I${l}`, h0: `L${i}:h0_${l}` }, hidden, below2, width, forward);
+    if (!layer.bidirectional) {
+      below2 = f2;
+      width = hidden;
+      last = [f2[T2 - 1]];
+      continue;
+    }
+    const g = chain(b, { h: `L${i}:UH${l}`, i: `L${i}:UI${l}`, h0: `L${i}:b0_${l}` }, hidden, below2, width, backward);
+    below2 = f2.map((ft2, t) => join11(ft2, g[t]));
+    width = layer.merge === "concat" ? 2 * hidden : hidden;
+    last = [f2[T2 - 1], g[0]];
+  }
+  if (layer.sequence) return { shape: src.shape, width, steps: below2 };
+  return { shape: [1], width, steps: [last.length === 1 ? last[0] : join11(last[0], last[1])] };
+}
+function attention2(b, src, layer, a) {
+  const n = src.steps.length;
+  const D2 = src.width;
+  const H2 = layer.heads;
+  if (a <= 0 || layer.window !== void 0 && src.shape.length !== 1) return void 0;
+  const i = layer.index;
+  const heads = Array.from({ length: H2 }, (_, h) => ({
+    q: b.weight(`L${i}:Q${h}`, a * D2),
+    k: b.weight(`L${i}:K${h}`, a * D2),
+    v: b.weight(`L${i}:V${h}`, a * D2),
+    o: b.weight(`L${i}:O${h}`, D2 * a)
+  }));
+  const block2 = a * a;
+  const kvWidth = H2 * block2;
+  const rowDot = (w, r, buf, vo) => {
+    let acc = 0;
+    for (let c = 0; c < D2; c++) acc = mulAddMod2(w[r * D2 + c], buf[vo + c], acc);
+    return acc;
+  };
+  const queries = src.steps.map((s) => {
+    const vo = b.off(s);
+    return b.add(H2 * a, [s], H2 * a * D2, (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) buf[oo + h * a + r] = rowDot(hd.q, r, buf, vo);
+      });
+    });
+  });
+  const blocks = src.steps.map((s) => {
+    const vo = b.off(s);
+    const kk = new Float64Array(a);
+    const vv = new Float64Array(a);
+    return b.add(kvWidth, [s], H2 * (2 * a * D2 + block2), (oo) => (buf) => {
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          kk[r] = rowDot(hd.k, r, buf, vo);
+          vv[r] = rowDot(hd.v, r, buf, vo);
+        }
+        for (let r = 0; r < a; r++) for (let c = 0; c < a; c++) buf[oo + h * block2 + r * a + c] = mulAddMod2(vv[r], kk[c], 0);
+      });
+    });
+  });
+  const nodes = /* @__PURE__ */ new Map();
+  const node = (lo, hi) => {
+    if (hi - lo === 1) return blocks[lo];
+    const key = `${lo}:${hi}`;
+    let s = nodes.get(key);
+    if (s === void 0) {
+      const mid = lo + hi >> 1;
+      s = b.combination([node(lo, mid), node(mid, hi)], [1, 1], kvWidth);
+      nodes.set(key, s);
+    }
+    return s;
+  };
+  const cover = (from, to, lo, hi, into) => {
+    if (to <= lo || hi <= from) return;
+    if (from <= lo && hi <= to) {
+      into.push(node(lo, hi));
+      return;
+    }
+    const mid = lo + hi >> 1;
+    cover(from, to, lo, mid, into);
+    cover(from, to, mid, hi, into);
+  };
+  const fields = /* @__PURE__ */ new Map();
+  const steps = src.steps.map((_, t) => {
+    let lo = 0;
+    let hi = n - 1;
+    if (layer.causal) hi = t;
+    if (layer.window !== void 0) {
+      lo = Math.max(lo, t - layer.window);
+      hi = Math.min(hi, t + layer.window);
+    }
+    const key = `${lo}:${hi}`;
+    let field2 = fields.get(key);
+    if (field2 === void 0) {
+      const parts = [];
+      cover(lo, hi + 1, 0, n, parts);
+      field2 = b.combination(parts, parts.map(() => 1), kvWidth);
+      fields.set(key, field2);
+    }
+    const so = b.off(field2);
+    const qo = b.off(queries[t]);
+    const sq = new Float64Array(a);
+    return b.add(D2, [field2, queries[t]], H2 * (block2 + D2 * a), (oo) => (buf) => {
+      buf.fill(0, oo, oo + D2);
+      heads.forEach((hd, h) => {
+        for (let r = 0; r < a; r++) {
+          let acc = 0;
+          for (let c = 0; c < a; c++) acc = mulAddMod2(buf[so + h * block2 + r * a + c], buf[qo + h * a + c], acc);
+          sq[r] = acc;
+        }
+        for (let k = 0; k < D2; k++) {
+          let acc = buf[oo + k];
+          for (let r = 0; r < a; r++) acc = mulAddMod2(hd.o[k * a + r], sq[r], acc);
+          buf[oo + k] = acc;
+        }
+      });
+    });
+  });
+  return { shape: src.shape, width: D2, steps };
+}
+function axisPlans(src, k, s, d, layer) {
+  const plans3 = src.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
+  return plans3.every((p) => typeof p !== "string") ? plans3 : void 0;
+}
+function pool2(b, src, layer, shape) {
+  if (layer.global) return { shape, width: src.width, steps: [b.product(src.steps, src.width)] };
+  const plans3 = axisPlans(src, layer.window, layer.stride, layer.window.map(() => 1), layer);
+  if (!plans3) return void 0;
+  const steps = [];
+  for (const j of eachIndex(shape)) {
+    const lists = j.map((jj, a) => windowTaps(jj, src.shape[a], layer.window[a], layer.stride[a], 1, plans3[a].left));
+    const at2 = product2(lists).map((p) => src.steps[flat(p, src.shape)]);
+    if (at2.length === 0) return void 0;
+    steps.push(b.product(at2, src.width));
+  }
+  return { shape, width: src.width, steps };
+}
+function upsample2(b, src, layer, shape) {
+  const steps = eachIndex(shape).map((j) => {
+    if (layer.mode === "nearest") return src.steps[flat(j.map((jj, a) => Math.floor(jj / layer.factor[a])), src.shape)];
+    const perAxis2 = j.map((jj, a) => {
+      const s = linearSources(jj, src.shape[a], layer.factor[a]);
+      const lambda = mulAddMod2(s.num, inverseMod(s.den), 0);
+      return [
+        { i: s.i0, w: (1 - lambda + PROBE_PRIME) % PROBE_PRIME },
+        { i: s.i1, w: lambda }
+      ];
+    });
+    const bySource = /* @__PURE__ */ new Map();
+    for (const combo of product2(perAxis2)) {
+      const step = src.steps[flat(combo.map((t) => t.i), src.shape)];
+      const w = combo.reduce((acc, t) => mulAddMod2(acc, t.w, 0), 1);
+      bySource.set(step, ((bySource.get(step) ?? 0) + w) % PROBE_PRIME);
+    }
+    const terms = [...bySource].filter(([, w]) => w !== 0);
+    return b.combination(terms.map(([s]) => s), terms.map(([, w]) => w), src.width);
+  });
+  return { shape, width: src.width, steps };
+}
+function treeConv(b, src, layer, shape, r, g, shared) {
+  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
+  if (!plans3) return void 0;
+  const causal = layer.padding.mode === "causal";
+  const mapped = /* @__PURE__ */ new Map();
+  const mapAt = (p) => {
+    let s = mapped.get(p);
+    if (s === void 0) {
+      s = b.mapSum([{ map: b.map(shared ? `L${layer.index}` : `L${layer.index}@${p}`, r, src.width, g), src: src.steps[p] }], r);
+      mapped.set(p, s);
+    }
+    return s;
+  };
+  const steps = eachIndex(shape).map((j) => {
+    const lists = j.map((jj, a) => treeConvPositions(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a], causal));
+    const at2 = product2(lists).map((p) => flat(p, src.shape));
+    return at2.length === 0 ? b.zeroVector(r) : b.product(at2.map(mapAt), r);
+  });
+  return { shape, width: r, steps };
+}
+function overlapConv(b, src, layer, shape, r, g, shared) {
+  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
+  if (!plans3) return void 0;
+  const steps = eachIndex(shape).map((j, o) => {
+    const perAxis2 = j.map((jj, a) => {
+      const args = [jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a].left];
+      const at2 = windowTaps(...args);
+      const taps = windowTapIndices(...args);
+      return at2.map((p, x) => ({ p, t: taps[x] }));
+    });
+    const terms = product2(perAxis2).map((pair) => {
+      const t = flat(pair.map((x) => x.t), layer.kernel);
+      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
+      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pair.map((x) => x.p), src.shape)] };
+    });
+    return b.mapSum(terms, r);
+  });
+  return { shape, width: r, steps };
+}
+function convTranspose2(b, src, layer, shape, g, shared, surrogate) {
+  const r = layer.channels;
+  const steps = eachIndex(shape).map((j, o) => {
+    if (surrogate === "tree") {
+      const per = j.map((jj, a) => treeTransposeSource(jj, src.shape[a], layer.stride[a]));
+      const u = flat(per.map((x) => x[1]), layer.stride);
+      const name = shared ? `L${layer.index}o${u}` : `L${layer.index}@${o}`;
+      return b.mapSum([{ map: b.map(name, r, src.width, g), src: src.steps[flat(per.map((x) => x[0]), src.shape)] }], r);
+    }
+    const perAxis2 = j.map((jj, a) => transposeSources(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]));
+    const terms = product2(perAxis2).map((pairs) => {
+      const t = flat(pairs.map((x) => x[1]), layer.kernel);
+      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
+      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pairs.map((x) => x[0]), src.shape)] };
+    });
+    return b.mapSum(terms, r);
+  });
+  return { shape, width: r, steps };
+}
+
+// src/cut/probe/certified-probe.ts
+var PROBE_METHOD = "certified probe";
+var PROBE_BUDGET = 1e7;
+var PROBE_SEED = 1;
+var PROBE_SCHEME = 1;
+var MAX_PROBES = 1024;
+var FIRST_PROBES = 8;
+var MAX_BUFFER = 4e6;
+function certifiedProbe(model, shapes, reading, surrogate, budget = PROBE_BUDGET) {
+  if (budget <= 0) return void 0;
+  const estimate = estimateCost(model, shapes, surrogate);
+  if (estimate.cost * 2 * FIRST_PROBES > budget || estimate.buffer > MAX_BUFFER) return void 0;
+  let program = null;
+  return (side, lower, upper) => {
+    if (program === null) program = surrogateProgram(model, shapes, reading, surrogate, PROBE_SEED);
+    if (!program) return void 0;
+    const limit = upper < BigInt(MAX_PROBES) ? Number(upper) : MAX_PROBES;
+    if (BigInt(limit) <= lower) return void 0;
+    const found2 = probeRank(program, side, lower, limit, budget);
+    if (!found2 || BigInt(found2.minor.rows.length) <= lower) return void 0;
+    const rank = BigInt(found2.minor.rows.length);
+    const certificate = {
+      scheme: PROBE_SCHEME,
+      prime: PROBE_PRIME,
+      seed: PROBE_SEED,
+      probes: found2.probes,
+      rows: found2.minor.rows,
+      cols: found2.minor.cols,
+      determinant: found2.minor.determinant
+    };
+    return { rank, log2: log2Big(rank), method: PROBE_METHOD, cut: [], certificate };
+  };
+}
+function probeInputName(side, index, position) {
+  return `${side}${index}@${position}`;
+}
+var CONSTANT = 0;
+var SIDE_A = 1;
+var SIDE_B = 2;
+var MIXED = 3;
+function probeRank(program, side, lower, most, budget) {
+  let limit = most;
+  const { steps, positions, m } = program;
+  const cls = new Uint8Array(steps.length);
+  for (let s = 0; s < steps.length; s++) {
+    if (s < positions) cls[s] = side[s] === 1 ? SIDE_A : SIDE_B;
+    else {
+      let c = CONSTANT;
+      for (const r of steps[s].reads) c |= cls[r];
+      cls[s] = c;
+    }
+  }
+  if (cls[program.output] !== MIXED) return void 0;
+  const lists = [[], [], [], []];
+  const cost = [0, 0, 0, 0];
+  for (let s = positions; s < steps.length; s++) {
+    lists[cls[s]].push(s);
+    cost[cls[s]] += steps[s].cost + 1;
+  }
+  const frontier = [[], [], [], []];
+  const seen = new Uint8Array(steps.length);
+  for (const s of lists[MIXED]) {
+    for (const r of steps[s].reads) {
+      if (cls[r] !== MIXED && cls[r] !== CONSTANT && !seen[r]) {
+        seen[r] = 1;
+        frontier[cls[r]].push(r);
+      }
+    }
+  }
+  const spans2 = frontier.map((list3) => Int32Array.from(list3.flatMap((s) => [steps[s].offset, steps[s].length])));
+  const width = (which2) => frontier[which2].reduce((a, s) => a + steps[s].length, 0);
+  const frontierA = width(SIDE_A);
+  const frontierB = width(SIDE_B);
+  const rowCost = cost[SIDE_A] + frontierA + m * positions;
+  const colCost = cost[SIDE_B] + frontierB + m * positions;
+  const entryCost = cost[MIXED] + frontierB;
+  const buf = new Float64Array(program.bufferSize);
+  const runAll = (list3) => {
+    for (const s of list3) steps[s].run(buf);
+  };
+  runAll(lists[CONSTANT]);
+  const sideOf = (which2) => {
+    const at2 = [];
+    for (let p = 0; p < positions; p++) if (cls[p] === which2) at2.push(p);
+    return at2;
+  };
+  const positionsA = sideOf(SIDE_A);
+  const positionsB = sideOf(SIDE_B);
+  const sideValues = (which2, index) => {
+    const name = which2 === SIDE_A ? "a" : "b";
+    for (const p of which2 === SIDE_A ? positionsA : positionsB) {
+      const at3 = steps[p].offset;
+      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
+      if (!program.tokens) buf.set(drawn, at3);
+      else {
+        buf.fill(0, at3, at3 + m);
+        buf[at3 + drawn[0] % m] = 1;
+      }
+    }
+    runAll(lists[which2]);
+    const saved = new Float64Array(which2 === SIDE_A ? frontierA : frontierB);
+    const at2 = spans2[which2];
+    for (let x = 0, o = 0; x < at2.length; x += 2) for (let k2 = 0; k2 < at2[x + 1]; k2++) saved[o++] = buf[at2[x] + k2];
+    return saved;
+  };
+  const restore = (which2, saved) => {
+    const at2 = spans2[which2];
+    for (let x = 0, o = 0; x < at2.length; x += 2) for (let k2 = 0; k2 < at2[x + 1]; k2++) buf[at2[x] + k2] = saved[o++];
+  };
+  const mixed = lists[MIXED];
+  const out = steps[program.output].offset;
+  const rows = [];
+  const cols = [];
+  const entries2 = [];
+  let spent = 0;
+  let best;
+  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
+  let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
+  const stepCost = (from, to) => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + to * to * to / 3;
+  for (; ; ) {
+    const before = rows.length;
+    if (spent + stepCost(before, k) > budget) {
+      let lo = before;
+      let hi = k;
+      while (hi - lo > 1) {
+        const mid = Math.floor((lo + hi) / 2);
+        if (spent + stepCost(before, mid) <= budget) lo = mid;
+        else hi = mid;
+      }
+      if (lo <= Math.max(before, known, best?.minor.rows.length ?? 0)) break;
+      k = lo;
+      limit = k;
+    }
+    spent += stepCost(before, k);
+    while (cols.length < k) cols.push(sideValues(SIDE_B, cols.length));
+    while (rows.length < k) {
+      rows.push(sideValues(SIDE_A, rows.length));
+      entries2.push(new Float64Array(limit));
+    }
+    for (let i = 0; i < k; i++) {
+      restore(SIDE_A, rows[i]);
+      for (let j = i < before ? before : 0; j < k; j++) {
+        restore(SIDE_B, cols[j]);
+        runAll(mixed);
+        entries2[i][j] = buf[out];
+      }
+    }
+    const matrix = new Float64Array(k * k);
+    for (let i = 0; i < k; i++) matrix.set(entries2[i].subarray(0, k), i * k);
+    const minor = certifyingMinor(matrix, k, k);
+    if (!best || minor.rows.length > best.minor.rows.length) best = { probes: k, minor };
+    if (minor.rows.length < k || k >= limit) break;
+    k = Math.min(limit, 2 * k);
+  }
+  return best;
+}
+function nextPowerOfTwo(x) {
+  let p = 1;
+  while (p < x) p *= 2;
+  return p;
+}
+function estimateCost(model, shapes, surrogate) {
+  const m = shapes.representation;
+  let cost = 0;
+  let buffer = positionCount(model.input.shape) * m;
+  for (const layer of model.layers) {
+    const src = layer.inputs[0] < 0 ? { shape: model.input.shape, width: m } : shapes.layers[layer.inputs[0]];
+    const out = shapes.layers[layer.index];
+    const pin = positionCount(src.shape);
+    const pout = positionCount(out.shape);
+    const d = src.width;
+    const r = out.width;
+    const g = shapes.groups[layer.index];
+    const taps = (k) => k.reduce((a, x) => a * x, 1);
+    let c;
+    switch (layer.kind) {
+      case "pointwise":
+        c = pout * r;
+        break;
+      case "flatten":
+        c = pin * d;
+        break;
+      case "dense":
+        c = shapes.denseReading[layer.index] === "per-position" ? pout * r * d : r * d * pin + d * pin;
+        break;
+      case "merge":
+        c = pout * r * layer.inputs.length;
+        break;
+      case "embedding":
+        c = pout * r * d;
+        break;
+      case "recurrent": {
+        const dirs = layer.bidirectional ? 2 : 1;
+        c = pin * layer.depth * dirs * (layer.hidden * (layer.hidden + Math.max(d, dirs * layer.hidden) + 2));
+        break;
+      }
+      case "position":
+        c = pout * r;
+        break;
+      case "class-token":
+        c = r;
+        break;
+      case "attention": {
+        const a = shapes.headDims[layer.index];
+        const blockWidth = layer.heads * a * a;
+        const sums = pin * (Math.ceil(Math.log2(Math.max(pin, 2))) + 4) * blockWidth;
+        c = pin * layer.heads * (3 * a * d + a * a) + sums + pout * layer.heads * (a * a + r * a);
+        buffer += pin * layer.heads * a + sums;
+        break;
+      }
+      case "pool":
+        c = layer.global ? pin * d : pout * taps(layer.window) * d;
+        break;
+      case "upsample":
+        c = pout * 4 * d;
+        break;
+      case "conv":
+        c = surrogate === "overlap" ? pout * taps(layer.kernel) * r * (d / g) : pin * r * (d / g) + pout * taps(layer.stride) * r;
+        break;
+      case "conv-transpose":
+        c = pout * taps(layer.kernel) * r * (d / g);
+        break;
+      default:
+        return { cost: Infinity, buffer: Infinity };
+    }
+    cost += c;
+    buffer += layer.kind === "recurrent" ? pin * layer.depth * (layer.bidirectional ? 2 : 1) * layer.hidden * 4 : (pout + pin) * r;
+  }
+  return { cost, buffer };
+}
+
+// src/cut/probe/explicit-probe.ts
+var MAX_FACTOR = 1 << 22;
+function explicitTensorName(name) {
+  return `tensor:${name}`;
+}
+function sizeOf(vars, dims) {
+  let s = 1;
+  for (const v of vars) s *= dims[v];
+  return s;
+}
+function productSum(fs4, keep, sum2, dims) {
+  const all = sum2 === null ? keep : [...keep, sum2];
+  const size = sizeOf(keep, dims);
+  const out = new Float64Array(size);
+  const at2 = new Int32Array(dims.length);
+  const strides = fs4.map((f2) => {
+    const s = new Float64Array(all.length);
+    let stride = 1;
+    for (let k = f2.vars.length - 1; k >= 0; k--) {
+      const v = f2.vars[k];
+      s[all.indexOf(v)] = stride;
+      stride *= dims[v];
+    }
+    return s;
+  });
+  const total = sizeOf(all, dims);
+  const inner = sum2 === null ? 1 : dims[sum2];
+  for (let flat2 = 0; flat2 < total; flat2++) {
+    let rest = flat2;
+    for (let k = all.length - 1; k >= 0; k--) {
+      const d = dims[all[k]];
+      at2[k] = rest % d;
+      rest = Math.floor(rest / d);
+    }
+    let value = 1;
+    for (let i = 0; i < fs4.length; i++) {
+      let o = 0;
+      const s = strides[i];
+      for (let k = 0; k < all.length; k++) o += s[k] * at2[k];
+      value = mulAddMod(value, fs4[i].data[o], 0);
+    }
+    const target = Math.floor(flat2 / inner);
+    out[target] = (out[target] + value) % PROBE_PRIME;
+  }
+  return { vars: keep, data: out };
+}
+function planElimination(factorVars, bonds, dims) {
+  let groups = factorVars.map((v) => new Set(v));
+  const left = new Set(bonds);
+  const order = [];
+  let cost = 0;
+  while (left.size > 0) {
+    let best;
+    for (const v of left) {
+      const union = /* @__PURE__ */ new Set();
+      let count = 0;
+      for (const g of groups) {
+        if (!g.has(v)) continue;
+        count++;
+        for (const x of g) union.add(x);
+      }
+      const work = sizeOf(union, dims) * Math.max(count, 1);
+      union.delete(v);
+      const size = sizeOf(union, dims);
+      if (!best || size < best.size || size === best.size && work < best.work) best = { v, size, work };
+    }
+    if (best.size > MAX_FACTOR) return void 0;
+    cost += best.work;
+    order.push(best.v);
+    left.delete(best.v);
+    const merged = /* @__PURE__ */ new Set();
+    const kept = [];
+    for (const g of groups) {
+      if (g.has(best.v)) for (const x of g) merged.add(x);
+      else kept.push(g);
+    }
+    merged.delete(best.v);
+    groups = [...kept, merged];
+  }
+  return { order, cost };
+}
+function explicitProbe(model, side, lower, budget = PROBE_BUDGET) {
+  if (budget <= 0) return void 0;
+  const dims = [];
+  const fresh = (d) => {
+    dims.push(d);
+    return dims.length - 1;
+  };
+  const bondVars = model.bonds.map((b) => fresh(b.dim));
+  const rows = [];
+  const cols = [];
+  const tensorVars = [];
+  for (const t of model.tensors) {
+    const vars = [];
+    for (const leg of t.legs) {
+      const v = fresh(leg.dim);
+      vars.push(v);
+      (side[leg.position] === 1 ? rows : cols).push(v);
+    }
+    for (let i = 0; i < model.bonds.length; i++) {
+      const times = model.bonds[i].tensors.filter((n) => n === t.name).length;
+      if (times > 1) return void 0;
+      if (times === 1) vars.push(bondVars[i]);
+    }
+    tensorVars.push(vars);
+  }
+  const r = sizeOf(rows, dims);
+  const c = sizeOf(cols, dims);
+  if (rows.length === 0 || cols.length === 0 || r * c > MAX_FACTOR) return void 0;
+  if (BigInt(Math.min(r, c)) <= lower) return void 0;
+  const plan = planElimination(tensorVars, bondVars, dims);
+  if (!plan) return void 0;
+  const elimination = r * c * Math.min(r, c) / 3;
+  if (plan.cost + r * c * model.tensors.length + elimination > budget) return void 0;
+  let factors = model.tensors.map((t, i) => ({ vars: tensorVars[i], data: drawValues(PROBE_SEED, explicitTensorName(t.name), sizeOf(tensorVars[i], dims)) }));
+  for (const v of plan.order) {
+    const touching = factors.filter((f2) => f2.vars.includes(v));
+    if (touching.length === 0) continue;
+    const keep = [...new Set(touching.flatMap((f2) => f2.vars))].filter((x) => x !== v);
+    factors = [...factors.filter((f2) => !f2.vars.includes(v)), productSum(touching, keep, v, dims)];
+  }
+  const matrix = productSum(factors, [...rows, ...cols], null, dims).data;
+  const minor = certifyingMinor(matrix, r, c);
+  const rank = BigInt(minor.rows.length);
+  if (rank <= lower) return void 0;
+  const certificate = {
+    scheme: PROBE_SCHEME,
+    prime: PROBE_PRIME,
+    seed: PROBE_SEED,
+    matricisation: [r, c],
+    rows: minor.rows,
+    cols: minor.cols,
+    determinant: minor.determinant
+  };
+  return { rank, log2: log2Big(rank), method: PROBE_METHOD, cut: [], certificate };
+}
+
 // src/cut/top-window-lower.ts
 function topWindowLower(c, side) {
   let top = c.top;
@@ -41827,7 +42729,7 @@ function onlyCoordinatewiseUntilWeighted(layers, consumers, from) {
 // src/cut/attention-lower.ts
 var ZERO2 = 0;
 var BEFORE = 1;
-var MIXED = 2;
+var MIXED2 = 2;
 function perPositionMap(l, shapes) {
   return l.kind === "embedding" || l.kind === "dense" && shapes.denseReading[l.index] !== "input" || l.kind === "conv" && l.groups === 1 && l.kernel.every((k) => k === 1) && l.stride.every((s) => s === 1);
 }
@@ -41854,7 +42756,7 @@ function attentionOnInput(model, shapes, reading) {
       const d = l.inputs[0] < 0 ? shapes.representation : shapes.layers[l.inputs[0]].width;
       const s2 = l.heads * shapes.headDims[l.index];
       found2 = { k: Math.min(s2, d, m), causal: l.causal, window: l.window };
-      state.push(MIXED);
+      state.push(MIXED2);
       continue;
     }
     if (l.kind === "pointwise" && reading.squared.has(l.index)) return void 0;
@@ -41866,7 +42768,7 @@ function attentionOnInput(model, shapes, reading) {
     if (!found2) m = Math.min(m, shapes.layers[l.index].width);
     state.push(s);
   }
-  if (!found2 || state[state.length - 1] !== MIXED) return void 0;
+  if (!found2 || state[state.length - 1] !== MIXED2) return void 0;
   const last = shapes.layers[shapes.layers.length - 1].shape;
   if (last.length !== model.input.shape.length || last.some((n, i) => n !== model.input.shape[i])) return void 0;
   let output = 0;
@@ -41894,775 +42796,19 @@ function attentionLower(on2, p, oneDimensional) {
   return { rank, log2: log2Big(rank), method: "one attention layer, the rest passed through", cut: [] };
 }
 
-// src/cut/probe/modular.ts
-var PROBE_PRIME = 67108859;
-var INVERSE = 1 / PROBE_PRIME;
-function mulAddMod(a, b, c) {
-  const x = a * b + c;
-  const r = x - Math.floor(x * INVERSE) * PROBE_PRIME;
-  return r < 0 ? r + PROBE_PRIME : r >= PROBE_PRIME ? r - PROBE_PRIME : r;
-}
-function inverseMod(a) {
-  if (a === 0) throw new RangeError("0 has no inverse modulo the probe prime");
-  let result2 = 1;
-  let base = a;
-  for (let e = PROBE_PRIME - 2; e > 0; e = Math.floor(e / 2)) {
-    if (e % 2 === 1) result2 = mulAddMod(result2, base, 0);
-    base = mulAddMod(base, base, 0);
-  }
-  return result2;
-}
-function certifyingMinor(m, rows, cols) {
-  const origin = Array.from({ length: rows }, (_, i) => i);
-  const pivotRows = [];
-  const pivotCols = [];
-  let det = 1;
-  let rank = 0;
-  for (let c = 0; c < cols && rank < rows; c++) {
-    let pivot = rank;
-    while (pivot < rows && m[pivot * cols + c] === 0) pivot++;
-    if (pivot === rows) continue;
-    if (pivot !== rank) {
-      for (let k = c; k < cols; k++) {
-        const t = m[pivot * cols + k];
-        m[pivot * cols + k] = m[rank * cols + k];
-        m[rank * cols + k] = t;
-      }
-      const o = origin[pivot];
-      origin[pivot] = origin[rank];
-      origin[rank] = o;
-    }
-    const head = m[rank * cols + c];
-    det = mulAddMod(det, head, 0);
-    const scale = inverseMod(head);
-    for (let r = rank + 1; r < rows; r++) {
-      const f2 = m[r * cols + c];
-      if (f2 === 0) continue;
-      const factor = PROBE_PRIME - mulAddMod(f2, scale, 0);
-      const ro = r * cols;
-      const po = rank * cols;
-      for (let k = c; k < cols; k++) {
-        const x = factor * m[po + k] + m[ro + k];
-        const y = x - Math.floor(x * INVERSE) * PROBE_PRIME;
-        m[ro + k] = y < 0 ? y + PROBE_PRIME : y >= PROBE_PRIME ? y - PROBE_PRIME : y;
-      }
-    }
-    pivotRows.push(origin[rank]);
-    pivotCols.push(c);
-    rank++;
-  }
-  let inversions = 0;
-  for (let i = 0; i < pivotRows.length; i++) for (let j = i + 1; j < pivotRows.length; j++) if (pivotRows[i] > pivotRows[j]) inversions++;
-  if (inversions % 2 === 1 && det !== 0) det = PROBE_PRIME - det;
-  return { rows: [...pivotRows].sort((a, b) => a - b), cols: pivotCols, determinant: det };
-}
-
-// src/cut/probe/draw.ts
-function fnv1a(name) {
-  let h = 2166136261;
-  for (let i = 0; i < name.length; i++) h = Math.imul(h ^ name.charCodeAt(i), 16777619) >>> 0;
-  return h;
-}
-function mix(x) {
-  x = Math.imul(x ^ x >>> 16, 2246822507) >>> 0;
-  x = Math.imul(x ^ x >>> 13, 3266489909) >>> 0;
-  return (x ^ x >>> 16) >>> 0;
-}
-function drawValues(seed, name, length) {
-  const base = mix((seed ^ fnv1a(name)) >>> 0);
-  const out = new Float64Array(length);
-  for (let i = 0; i < length; i++) out[i] = mix(base + Math.imul(i + 1, 2654435769) >>> 0) % PROBE_PRIME;
-  return out;
-}
-
-// src/cut/probe/surrogate-program.ts
-var mulAddMod2 = mulAddMod;
-function applyMap(map, buf, vo, oo, accumulate) {
-  const { w, r, d, g } = map;
-  const dg = d / g;
-  const rg = r / g;
-  for (let k = 0; k < r; k++) {
-    let acc = accumulate ? buf[oo + k] : 0;
-    const from = vo + Math.floor(k / rg) * dg;
-    const row3 = k * dg;
-    for (let c = 0; c < dg; c++) acc = mulAddMod2(w[row3 + c], buf[from + c], acc);
-    buf[oo + k] = acc;
-  }
-}
-var ProgramBuilder = class {
-  constructor(seed) {
-    this.seed = seed;
-  }
-  seed;
-  steps = [];
-  size = 0;
-  weights = /* @__PURE__ */ new Map();
-  zeros = /* @__PURE__ */ new Map();
-  add(length, reads, cost, make) {
-    const offset = this.size;
-    this.steps.push({ offset, length, reads, cost, run: make ? make(offset) : null });
-    this.size += length;
-    return this.steps.length - 1;
-  }
-  off(s) {
-    return this.steps[s].offset;
-  }
-  len(s) {
-    return this.steps[s].length;
-  }
-  weight(name, length) {
-    let w = this.weights.get(name);
-    if (!w) {
-      w = drawValues(this.seed, name, length);
-      this.weights.set(name, w);
-    }
-    return w;
-  }
-  map(name, r, d, g) {
-    return { w: this.weight(name, r * (d / g)), r, d, g };
-  }
-  /** A vector that is zero for every weight (a window of padding only). */
-  zeroVector(width) {
-    let z2 = this.zeros.get(width);
-    if (z2 === void 0) {
-      z2 = this.add(width, [], 0, (oo) => (buf) => buf.fill(0, oo, oo + width));
-      this.zeros.set(width, z2);
-    }
-    return z2;
-  }
-  /** Σ_i W_i v_i over (map, step) terms; the zero vector without terms. */
-  mapSum(terms, r) {
-    if (terms.length === 0) return this.zeroVector(r);
-    const parts = terms.map((t) => ({ map: t.map, vo: this.off(t.src) }));
-    const cost = terms.reduce((a, t) => a + t.map.r * (t.map.d / t.map.g), 0);
-    return this.add(r, [...new Set(terms.map((t) => t.src))], cost, (oo) => (buf) => {
-      parts.forEach((p, i) => applyMap(p.map, buf, p.vo, oo, i > 0));
-    });
-  }
-  /** The elementwise product of the vectors (one vector: itself). */
-  product(srcs, width) {
-    if (srcs.length === 1) return srcs[0];
-    const offs = srcs.map((s) => this.off(s));
-    return this.add(width, [...new Set(srcs)], width * (srcs.length - 1), (oo) => (buf) => {
-      for (let k = 0; k < width; k++) {
-        let acc = buf[offs[0] + k];
-        for (let i = 1; i < offs.length; i++) acc = mulAddMod2(acc, buf[offs[i] + k], 0);
-        buf[oo + k] = acc;
-      }
-    });
-  }
-  /** Σ_i c_i v_i with fixed coefficients (residues). */
-  combination(srcs, coefficients, width) {
-    if (srcs.length === 1 && coefficients[0] === 1) return srcs[0];
-    const offs = srcs.map((s) => this.off(s));
-    return this.add(width, [...new Set(srcs)], width * srcs.length, (oo) => (buf) => {
-      for (let k = 0; k < width; k++) {
-        let acc = 0;
-        for (let i = 0; i < offs.length; i++) acc = mulAddMod2(coefficients[i], buf[offs[i] + k], acc);
-        buf[oo + k] = acc;
-      }
-    });
-  }
-  concat(srcs) {
-    if (srcs.length === 1) return srcs[0];
-    const parts = srcs.map((s) => ({ off: this.off(s), len: this.len(s) }));
-    const total = parts.reduce((a, p) => a + p.len, 0);
-    return this.add(total, [...new Set(srcs)], total, (oo) => (buf) => {
-      let o = oo;
-      for (const p of parts) {
-        buf.copyWithin(o, p.off, p.off + p.len);
-        o += p.len;
-      }
-    });
-  }
-};
-function flat(at2, shape) {
-  return shape.length === 1 ? at2[0] : at2[0] * shape[1] + at2[1];
-}
-function eachIndex(shape) {
-  if (shape.length === 1) return Array.from({ length: shape[0] }, (_, j) => [j]);
-  const out = [];
-  for (let i = 0; i < shape[0]; i++) for (let j = 0; j < shape[1]; j++) out.push([i, j]);
-  return out;
-}
-function product2(lists) {
-  if (lists.length === 1) return lists[0].map((x) => [x]);
-  const out = [];
-  for (const a of lists[0]) for (const b of lists[1]) out.push([a, b]);
-  return out;
-}
-function surrogateProgram(model, shapes, reading, surrogate, seed) {
-  const b = new ProgramBuilder(seed);
-  const m = shapes.representation;
-  const n = positionCount(model.input.shape);
-  const input = { shape: model.input.shape, width: m, steps: Array.from({ length: n }, () => b.add(m, [], 0, null)) };
-  const grids = [];
-  const gridOf = (i) => i === INPUT ? input : grids[i];
-  for (const layer of model.layers) {
-    const src = gridOf(layer.inputs[0]);
-    const out = shapes.layers[layer.index];
-    const groups = shapes.groups[layer.index];
-    const i = layer.index;
-    let grid;
-    switch (layer.kind) {
-      case "pointwise":
-        grid = reading.squared.has(i) ? { ...src, steps: src.steps.map((s) => b.product([s, s], src.width)) } : src;
-        break;
-      case "flatten":
-        grid = { shape: out.shape, width: src.width * src.steps.length, steps: [b.concat(src.steps)] };
-        break;
-      case "dense": {
-        const u = layer.units;
-        if (shapes.denseReading[i] === "per-position") {
-          const steps = src.steps.map((s, p) => b.mapSum([{ map: b.map(model.weightSharing ? `L${i}` : `L${i}@${p}`, u, src.width, 1), src: s }], u));
-          grid = { shape: out.shape, width: u, steps };
-        } else {
-          const whole = b.concat(src.steps);
-          grid = { shape: out.shape, width: u, steps: [b.mapSum([{ map: b.map(`L${i}`, u, b.len(whole), 1), src: whole }], u)] };
-        }
-        break;
-      }
-      case "embedding": {
-        const steps = src.steps.map((s) => b.mapSum([{ map: b.map(`L${i}`, layer.dim, src.width, 1), src: s }], layer.dim));
-        grid = { shape: out.shape, width: layer.dim, steps };
-        break;
-      }
-      case "merge": {
-        const ins = layer.inputs.map(gridOf);
-        const steps = src.steps.map((_, p) => {
-          const at2 = ins.map((g) => g.steps[p]);
-          return layer.mode === "sum" ? b.combination(at2, at2.map(() => 1), out.width) : b.concat(at2);
-        });
-        grid = { shape: out.shape, width: out.width, steps };
-        break;
-      }
-      case "recurrent":
-        grid = recurrent2(b, src, layer);
-        break;
-      case "position": {
-        if (layer.mode !== "learned") return void 0;
-        const w = src.width;
-        const steps = src.steps.map((s, p) => {
-          const pv = b.weight(`L${i}@${p}`, w);
-          const so = b.off(s);
-          return b.add(w, [s], w, (oo) => (buf) => {
-            for (let k = 0; k < w; k++) buf[oo + k] = (buf[so + k] + pv[k]) % PROBE_PRIME;
-          });
-        });
-        grid = { shape: out.shape, width: w, steps };
-        break;
-      }
-      case "class-token": {
-        const cv = b.weight(`L${i}`, src.width);
-        const token = b.add(src.width, [], 0, (oo) => (buf) => buf.set(cv, oo));
-        grid = { shape: out.shape, width: src.width, steps: [token, ...src.steps] };
-        break;
-      }
-      case "attention":
-        grid = attention2(b, src, layer, shapes.headDims[i]);
-        break;
-      case "pool":
-        grid = pool2(b, src, layer, out.shape);
-        break;
-      case "upsample":
-        if (layer.mode === "linear" && layer.factor.some((f2) => 2 * f2 % PROBE_PRIME === 0)) return void 0;
-        grid = upsample2(b, src, layer, out.shape);
-        break;
-      case "conv":
-        grid = surrogate === "tree" ? treeConv(b, src, layer, out.shape, out.width, groups, model.weightSharing) : overlapConv(b, src, layer, out.shape, out.width, groups, model.weightSharing);
-        break;
-      case "conv-transpose":
-        grid = convTranspose2(b, src, layer, out.shape, groups, model.weightSharing, surrogate);
-        break;
-      default:
-        return void 0;
-    }
-    if (!grid || grid.steps.length !== positionCount(out.shape) || grid.width !== out.width) return void 0;
-    grids.push(grid);
-  }
-  const last = grids[grids.length - 1];
-  const top = last.steps[flat(shapes.output.position, last.shape)];
-  const head = b.weight("head", last.width);
-  const to = b.off(top);
-  const width = last.width;
-  const output = b.add(1, [top], width, (oo) => (buf) => {
-    let acc = 0;
-    for (let k = 0; k < width; k++) acc = mulAddMod2(head[k], buf[to + k], acc);
-    buf[oo] = acc;
-  });
-  return { steps: b.steps, bufferSize: b.size, positions: n, m, tokens: model.input.vocabulary !== void 0, output };
-}
-function chain(b, names, hidden, xs, width, order) {
-  const wh = b.map(names.h, hidden, hidden, 1);
-  const wi = b.map(names.i, hidden, width, 1);
-  const h0 = b.weight(names.h0, hidden);
-  let state = b.add(hidden, [], 0, (oo) => (buf) => buf.set(h0, oo));
-  const states = new Array(xs.length);
-  for (const t of order) {
-    state = b.product([b.mapSum([{ map: wh, src: state }], hidden), b.mapSum([{ map: wi, src: xs[t] }], hidden)], hidden);
-    states[t] = state;
-  }
-  return states;
-}
-function recurrent2(b, src, layer) {
-  const { index: i, hidden, depth } = layer;
-  const T2 = src.steps.length;
-  const forward = Array.from({ length: T2 }, (_, t) => t);
-  const backward = forward.slice().reverse();
-  const join11 = (f2, g) => layer.merge === "concat" ? b.concat([f2, g]) : b.combination([f2, g], [1, 1], hidden);
-  let below2 = src.steps;
-  let width = src.width;
-  let last = [];
-  for (let l = 1; l <= depth; l++) {
-    const f2 = chain(b, { h: `L${i}:H${l}`, i: `L${i}:I${l}`, h0: `L${i}:h0_${l}` }, hidden, below2, width, forward);
-    if (!layer.bidirectional) {
-      below2 = f2;
-      width = hidden;
-      last = [f2[T2 - 1]];
-      continue;
-    }
-    const g = chain(b, { h: `L${i}:UH${l}`, i: `L${i}:UI${l}`, h0: `L${i}:b0_${l}` }, hidden, below2, width, backward);
-    below2 = f2.map((ft2, t) => join11(ft2, g[t]));
-    width = layer.merge === "concat" ? 2 * hidden : hidden;
-    last = [f2[T2 - 1], g[0]];
-  }
-  if (layer.sequence) return { shape: src.shape, width, steps: below2 };
-  return { shape: [1], width, steps: [last.length === 1 ? last[0] : join11(last[0], last[1])] };
-}
-function attention2(b, src, layer, a) {
-  const n = src.steps.length;
-  const D2 = src.width;
-  const H2 = layer.heads;
-  if (a <= 0 || layer.window !== void 0 && src.shape.length !== 1) return void 0;
-  const i = layer.index;
-  const heads = Array.from({ length: H2 }, (_, h) => ({
-    q: b.weight(`L${i}:Q${h}`, a * D2),
-    k: b.weight(`L${i}:K${h}`, a * D2),
-    v: b.weight(`L${i}:V${h}`, a * D2),
-    o: b.weight(`L${i}:O${h}`, D2 * a)
-  }));
-  const block2 = a * a;
-  const kvWidth = H2 * block2;
-  const rowDot = (w, r, buf, vo) => {
-    let acc = 0;
-    for (let c = 0; c < D2; c++) acc = mulAddMod2(w[r * D2 + c], buf[vo + c], acc);
-    return acc;
-  };
-  const queries = src.steps.map((s) => {
-    const vo = b.off(s);
-    return b.add(H2 * a, [s], H2 * a * D2, (oo) => (buf) => {
-      heads.forEach((hd, h) => {
-        for (let r = 0; r < a; r++) buf[oo + h * a + r] = rowDot(hd.q, r, buf, vo);
-      });
-    });
-  });
-  const blocks = src.steps.map((s) => {
-    const vo = b.off(s);
-    const kk = new Float64Array(a);
-    const vv = new Float64Array(a);
-    return b.add(kvWidth, [s], H2 * (2 * a * D2 + block2), (oo) => (buf) => {
-      heads.forEach((hd, h) => {
-        for (let r = 0; r < a; r++) {
-          kk[r] = rowDot(hd.k, r, buf, vo);
-          vv[r] = rowDot(hd.v, r, buf, vo);
-        }
-        for (let r = 0; r < a; r++) for (let c = 0; c < a; c++) buf[oo + h * block2 + r * a + c] = mulAddMod2(vv[r], kk[c], 0);
-      });
-    });
-  });
-  const nodes = /* @__PURE__ */ new Map();
-  const node = (lo, hi) => {
-    if (hi - lo === 1) return blocks[lo];
-    const key = `${lo}:${hi}`;
-    let s = nodes.get(key);
-    if (s === void 0) {
-      const mid = lo + hi >> 1;
-      s = b.combination([node(lo, mid), node(mid, hi)], [1, 1], kvWidth);
-      nodes.set(key, s);
-    }
-    return s;
-  };
-  const cover = (from, to, lo, hi, into) => {
-    if (to <= lo || hi <= from) return;
-    if (from <= lo && hi <= to) {
-      into.push(node(lo, hi));
-      return;
-    }
-    const mid = lo + hi >> 1;
-    cover(from, to, lo, mid, into);
-    cover(from, to, mid, hi, into);
-  };
-  const fields = /* @__PURE__ */ new Map();
-  const steps = src.steps.map((_, t) => {
-    let lo = 0;
-    let hi = n - 1;
-    if (layer.causal) hi = t;
-    if (layer.window !== void 0) {
-      lo = Math.max(lo, t - layer.window);
-      hi = Math.min(hi, t + layer.window);
-    }
-    const key = `${lo}:${hi}`;
-    let field2 = fields.get(key);
-    if (field2 === void 0) {
-      const parts = [];
-      cover(lo, hi + 1, 0, n, parts);
-      field2 = b.combination(parts, parts.map(() => 1), kvWidth);
-      fields.set(key, field2);
-    }
-    const so = b.off(field2);
-    const qo = b.off(queries[t]);
-    const sq = new Float64Array(a);
-    return b.add(D2, [field2, queries[t]], H2 * (block2 + D2 * a), (oo) => (buf) => {
-      buf.fill(0, oo, oo + D2);
-      heads.forEach((hd, h) => {
-        for (let r = 0; r < a; r++) {
-          let acc = 0;
-          for (let c = 0; c < a; c++) acc = mulAddMod2(buf[so + h * block2 + r * a + c], buf[qo + h * a + c], acc);
-          sq[r] = acc;
-        }
-        for (let k = 0; k < D2; k++) {
-          let acc = buf[oo + k];
-          for (let r = 0; r < a; r++) acc = mulAddMod2(hd.o[k * a + r], sq[r], acc);
-          buf[oo + k] = acc;
-        }
-      });
-    });
-  });
-  return { shape: src.shape, width: D2, steps };
-}
-function axisPlans(src, k, s, d, layer) {
-  const plans3 = src.shape.map((n, a) => windowAxis(n, k[a], s[a], d[a], layer.padding, a));
-  return plans3.every((p) => typeof p !== "string") ? plans3 : void 0;
-}
-function pool2(b, src, layer, shape) {
-  if (layer.global) return { shape, width: src.width, steps: [b.product(src.steps, src.width)] };
-  const plans3 = axisPlans(src, layer.window, layer.stride, layer.window.map(() => 1), layer);
-  if (!plans3) return void 0;
-  const steps = [];
-  for (const j of eachIndex(shape)) {
-    const lists = j.map((jj, a) => windowTaps(jj, src.shape[a], layer.window[a], layer.stride[a], 1, plans3[a].left));
-    const at2 = product2(lists).map((p) => src.steps[flat(p, src.shape)]);
-    if (at2.length === 0) return void 0;
-    steps.push(b.product(at2, src.width));
-  }
-  return { shape, width: src.width, steps };
-}
-function upsample2(b, src, layer, shape) {
-  const steps = eachIndex(shape).map((j) => {
-    if (layer.mode === "nearest") return src.steps[flat(j.map((jj, a) => Math.floor(jj / layer.factor[a])), src.shape)];
-    const perAxis2 = j.map((jj, a) => {
-      const s = linearSources(jj, src.shape[a], layer.factor[a]);
-      const lambda = mulAddMod2(s.num, inverseMod(s.den), 0);
-      return [
-        { i: s.i0, w: (1 - lambda + PROBE_PRIME) % PROBE_PRIME },
-        { i: s.i1, w: lambda }
-      ];
-    });
-    const bySource = /* @__PURE__ */ new Map();
-    for (const combo of product2(perAxis2)) {
-      const step = src.steps[flat(combo.map((t) => t.i), src.shape)];
-      const w = combo.reduce((acc, t) => mulAddMod2(acc, t.w, 0), 1);
-      bySource.set(step, ((bySource.get(step) ?? 0) + w) % PROBE_PRIME);
-    }
-    const terms = [...bySource].filter(([, w]) => w !== 0);
-    return b.combination(terms.map(([s]) => s), terms.map(([, w]) => w), src.width);
-  });
-  return { shape, width: src.width, steps };
-}
-function treeConv(b, src, layer, shape, r, g, shared) {
-  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
-  if (!plans3) return void 0;
-  const causal = layer.padding.mode === "causal";
-  const mapped = /* @__PURE__ */ new Map();
-  const mapAt = (p) => {
-    let s = mapped.get(p);
-    if (s === void 0) {
-      s = b.mapSum([{ map: b.map(shared ? `L${layer.index}` : `L${layer.index}@${p}`, r, src.width, g), src: src.steps[p] }], r);
-      mapped.set(p, s);
-    }
-    return s;
-  };
-  const steps = eachIndex(shape).map((j) => {
-    const lists = j.map((jj, a) => treeConvPositions(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a], causal));
-    const at2 = product2(lists).map((p) => flat(p, src.shape));
-    return at2.length === 0 ? b.zeroVector(r) : b.product(at2.map(mapAt), r);
-  });
-  return { shape, width: r, steps };
-}
-function overlapConv(b, src, layer, shape, r, g, shared) {
-  const plans3 = axisPlans(src, layer.kernel, layer.stride, layer.dilation, layer);
-  if (!plans3) return void 0;
-  const steps = eachIndex(shape).map((j, o) => {
-    const perAxis2 = j.map((jj, a) => {
-      const args = [jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], plans3[a].left];
-      const at2 = windowTaps(...args);
-      const taps = windowTapIndices(...args);
-      return at2.map((p, x) => ({ p, t: taps[x] }));
-    });
-    const terms = product2(perAxis2).map((pair) => {
-      const t = flat(pair.map((x) => x.t), layer.kernel);
-      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
-      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pair.map((x) => x.p), src.shape)] };
-    });
-    return b.mapSum(terms, r);
-  });
-  return { shape, width: r, steps };
-}
-function convTranspose2(b, src, layer, shape, g, shared, surrogate) {
-  const r = layer.channels;
-  const steps = eachIndex(shape).map((j, o) => {
-    if (surrogate === "tree") {
-      const per = j.map((jj, a) => treeTransposeSource(jj, src.shape[a], layer.stride[a]));
-      const u = flat(per.map((x) => x[1]), layer.stride);
-      const name = shared ? `L${layer.index}o${u}` : `L${layer.index}@${o}`;
-      return b.mapSum([{ map: b.map(name, r, src.width, g), src: src.steps[flat(per.map((x) => x[0]), src.shape)] }], r);
-    }
-    const perAxis2 = j.map((jj, a) => transposeSources(jj, src.shape[a], layer.kernel[a], layer.stride[a], layer.dilation[a], layer.padding[a]));
-    const terms = product2(perAxis2).map((pairs) => {
-      const t = flat(pairs.map((x) => x[1]), layer.kernel);
-      const name = shared ? `L${layer.index}t${t}` : `L${layer.index}@${o}t${t}`;
-      return { map: b.map(name, r, src.width, g), src: src.steps[flat(pairs.map((x) => x[0]), src.shape)] };
-    });
-    return b.mapSum(terms, r);
-  });
-  return { shape, width: r, steps };
-}
-
-// src/cut/probe/certified-probe.ts
-var PROBE_METHOD = "certified probe";
-var PROBE_BUDGET = 1e7;
-var PROBE_SEED = 1;
-var PROBE_SCHEME = 1;
-var MAX_PROBES = 1024;
-var FIRST_PROBES = 8;
-var MAX_BUFFER = 4e6;
-function certifiedProbe(model, shapes, reading, surrogate, budget = PROBE_BUDGET) {
-  if (budget <= 0) return void 0;
-  const estimate = estimateCost(model, shapes, surrogate);
-  if (estimate.cost * 2 * FIRST_PROBES > budget || estimate.buffer > MAX_BUFFER) return void 0;
-  let program = null;
-  return (side, lower, upper) => {
-    if (program === null) program = surrogateProgram(model, shapes, reading, surrogate, PROBE_SEED);
-    if (!program) return void 0;
-    const limit = upper < BigInt(MAX_PROBES) ? Number(upper) : MAX_PROBES;
-    if (BigInt(limit) <= lower) return void 0;
-    const found2 = probeRank(program, side, lower, limit, budget);
-    if (!found2 || BigInt(found2.minor.rows.length) <= lower) return void 0;
-    const rank = BigInt(found2.minor.rows.length);
-    const certificate = {
-      scheme: PROBE_SCHEME,
-      prime: PROBE_PRIME,
-      seed: PROBE_SEED,
-      probes: found2.probes,
-      rows: found2.minor.rows,
-      cols: found2.minor.cols,
-      determinant: found2.minor.determinant
-    };
-    return { rank, log2: log2Big(rank), method: PROBE_METHOD, cut: [], certificate };
-  };
-}
-function probeInputName(side, index, position) {
-  return `${side}${index}@${position}`;
-}
-var CONSTANT = 0;
-var SIDE_A = 1;
-var SIDE_B = 2;
-var MIXED2 = 3;
-function probeRank(program, side, lower, most, budget) {
-  let limit = most;
-  const { steps, positions, m } = program;
-  const cls = new Uint8Array(steps.length);
-  for (let s = 0; s < steps.length; s++) {
-    if (s < positions) cls[s] = side[s] === 1 ? SIDE_A : SIDE_B;
-    else {
-      let c = CONSTANT;
-      for (const r of steps[s].reads) c |= cls[r];
-      cls[s] = c;
-    }
-  }
-  if (cls[program.output] !== MIXED2) return void 0;
-  const lists = [[], [], [], []];
-  const cost = [0, 0, 0, 0];
-  for (let s = positions; s < steps.length; s++) {
-    lists[cls[s]].push(s);
-    cost[cls[s]] += steps[s].cost + 1;
-  }
-  const frontier = [[], [], [], []];
-  const seen = new Uint8Array(steps.length);
-  for (const s of lists[MIXED2]) {
-    for (const r of steps[s].reads) {
-      if (cls[r] !== MIXED2 && cls[r] !== CONSTANT && !seen[r]) {
-        seen[r] = 1;
-        frontier[cls[r]].push(r);
-      }
-    }
-  }
-  const spans2 = frontier.map((list3) => Int32Array.from(list3.flatMap((s) => [steps[s].offset, steps[s].length])));
-  const width = (which2) => frontier[which2].reduce((a, s) => a + steps[s].length, 0);
-  const frontierA = width(SIDE_A);
-  const frontierB = width(SIDE_B);
-  const rowCost = cost[SIDE_A] + frontierA + m * positions;
-  const colCost = cost[SIDE_B] + frontierB + m * positions;
-  const entryCost = cost[MIXED2] + frontierB;
-  const buf = new Float64Array(program.bufferSize);
-  const runAll = (list3) => {
-    for (const s of list3) steps[s].run(buf);
-  };
-  runAll(lists[CONSTANT]);
-  const sideOf = (which2) => {
-    const at2 = [];
-    for (let p = 0; p < positions; p++) if (cls[p] === which2) at2.push(p);
-    return at2;
-  };
-  const positionsA = sideOf(SIDE_A);
-  const positionsB = sideOf(SIDE_B);
-  const sideValues = (which2, index) => {
-    const name = which2 === SIDE_A ? "a" : "b";
-    for (const p of which2 === SIDE_A ? positionsA : positionsB) {
-      const at3 = steps[p].offset;
-      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
-      if (!program.tokens) buf.set(drawn, at3);
-      else {
-        buf.fill(0, at3, at3 + m);
-        buf[at3 + drawn[0] % m] = 1;
-      }
-    }
-    runAll(lists[which2]);
-    const saved = new Float64Array(which2 === SIDE_A ? frontierA : frontierB);
-    const at2 = spans2[which2];
-    for (let x = 0, o = 0; x < at2.length; x += 2) for (let k2 = 0; k2 < at2[x + 1]; k2++) saved[o++] = buf[at2[x] + k2];
-    return saved;
-  };
-  const restore = (which2, saved) => {
-    const at2 = spans2[which2];
-    for (let x = 0, o = 0; x < at2.length; x += 2) for (let k2 = 0; k2 < at2[x + 1]; k2++) buf[at2[x] + k2] = saved[o++];
-  };
-  const mixed = lists[MIXED2];
-  const out = steps[program.output].offset;
-  const rows = [];
-  const cols = [];
-  const entries2 = [];
-  let spent = 0;
-  let best;
-  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
-  let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
-  const stepCost = (from, to) => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + to * to * to / 3;
-  for (; ; ) {
-    const before = rows.length;
-    if (spent + stepCost(before, k) > budget) {
-      let lo = before;
-      let hi = k;
-      while (hi - lo > 1) {
-        const mid = Math.floor((lo + hi) / 2);
-        if (spent + stepCost(before, mid) <= budget) lo = mid;
-        else hi = mid;
-      }
-      if (lo <= Math.max(before, known, best?.minor.rows.length ?? 0)) break;
-      k = lo;
-      limit = k;
-    }
-    spent += stepCost(before, k);
-    while (cols.length < k) cols.push(sideValues(SIDE_B, cols.length));
-    while (rows.length < k) {
-      rows.push(sideValues(SIDE_A, rows.length));
-      entries2.push(new Float64Array(limit));
-    }
-    for (let i = 0; i < k; i++) {
-      restore(SIDE_A, rows[i]);
-      for (let j = i < before ? before : 0; j < k; j++) {
-        restore(SIDE_B, cols[j]);
-        runAll(mixed);
-        entries2[i][j] = buf[out];
-      }
-    }
-    const matrix = new Float64Array(k * k);
-    for (let i = 0; i < k; i++) matrix.set(entries2[i].subarray(0, k), i * k);
-    const minor = certifyingMinor(matrix, k, k);
-    if (!best || minor.rows.length > best.minor.rows.length) best = { probes: k, minor };
-    if (minor.rows.length < k || k >= limit) break;
-    k = Math.min(limit, 2 * k);
-  }
-  return best;
-}
-function nextPowerOfTwo(x) {
-  let p = 1;
-  while (p < x) p *= 2;
-  return p;
-}
-function estimateCost(model, shapes, surrogate) {
-  const m = shapes.representation;
-  let cost = 0;
-  let buffer = positionCount(model.input.shape) * m;
-  for (const layer of model.layers) {
-    const src = layer.inputs[0] < 0 ? { shape: model.input.shape, width: m } : shapes.layers[layer.inputs[0]];
-    const out = shapes.layers[layer.index];
-    const pin = positionCount(src.shape);
-    const pout = positionCount(out.shape);
-    const d = src.width;
-    const r = out.width;
-    const g = shapes.groups[layer.index];
-    const taps = (k) => k.reduce((a, x) => a * x, 1);
-    let c;
-    switch (layer.kind) {
-      case "pointwise":
-        c = pout * r;
-        break;
-      case "flatten":
-        c = pin * d;
-        break;
-      case "dense":
-        c = shapes.denseReading[layer.index] === "per-position" ? pout * r * d : r * d * pin + d * pin;
-        break;
-      case "merge":
-        c = pout * r * layer.inputs.length;
-        break;
-      case "embedding":
-        c = pout * r * d;
-        break;
-      case "recurrent": {
-        const dirs = layer.bidirectional ? 2 : 1;
-        c = pin * layer.depth * dirs * (layer.hidden * (layer.hidden + Math.max(d, dirs * layer.hidden) + 2));
-        break;
-      }
-      case "position":
-        c = pout * r;
-        break;
-      case "class-token":
-        c = r;
-        break;
-      case "attention": {
-        const a = shapes.headDims[layer.index];
-        const blockWidth = layer.heads * a * a;
-        const sums = pin * (Math.ceil(Math.log2(Math.max(pin, 2))) + 4) * blockWidth;
-        c = pin * layer.heads * (3 * a * d + a * a) + sums + pout * layer.heads * (a * a + r * a);
-        buffer += pin * layer.heads * a + sums;
-        break;
-      }
-      case "pool":
-        c = layer.global ? pin * d : pout * taps(layer.window) * d;
-        break;
-      case "upsample":
-        c = pout * 4 * d;
-        break;
-      case "conv":
-        c = surrogate === "overlap" ? pout * taps(layer.kernel) * r * (d / g) : pin * r * (d / g) + pout * taps(layer.stride) * r;
-        break;
-      case "conv-transpose":
-        c = pout * taps(layer.kernel) * r * (d / g);
-        break;
-      default:
-        return { cost: Infinity, buffer: Infinity };
-    }
-    cost += c;
-    buffer += layer.kind === "recurrent" ? pin * layer.depth * (layer.bidirectional ? 2 : 1) * layer.hidden * 4 : (pout + pin) * r;
-  }
-  return { cost, buffer };
-}
-
 // src/cut/bounds.ts
+function withExplicitProbe(model, p, found2, options, target) {
+  const known = found2.lower?.rank ?? 0n;
+  if (target === null || known >= found2.upper.rank) return found2;
+  if (target !== void 0 && (known >= target || target > found2.upper.rank)) return found2;
+  const probed = explicitProbe(model, p.side, known, options.probeBudget);
+  if (!probed) return found2;
+  if (probed.rank > found2.upper.rank) throw new Error(`explicit bounds: probe ${probed.rank} exceeds upper ${found2.upper.rank} (bug)`);
+  return { upper: found2.upper, lower: probed };
+}
 function computeBounds(model, partitions, options) {
   if (model.kind === "explicit") {
-    const results2 = partitions.map((p) => finish(p.label, explicitBounds(model, p)));
+    const results2 = partitions.map((p, i) => finish(p.label, withExplicitProbe(model, p, explicitBounds(model, p), options, options.probeTargets?.[i])));
     const notes = ["an explicit tensor network is analysed as given: the surrogate setting does not apply to it"];
     return { ok: true, result: { file: model.file, surrogate: options.surrogate, notes, partitions: results2 } };
   }
@@ -42742,10 +42888,13 @@ function analyseLayered(model, options) {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
     const recurrent3 = recurrentOnInput(model, built.shapes);
-    const published = recurrent3 && publishedRecurrentLower(model, recurrent3, p);
-    if (published) lowers.push(published);
-    const shallow = recurrent3 && shallowRecurrentLower(recurrent3, p);
-    if (shallow) lowers.push(shallow);
+    for (const chain2 of recurrent3?.chains ?? []) {
+      const side = chainSide(p.side, chain2);
+      const published = publishedRecurrentLower(recurrent3, chain2, side);
+      if (published) lowers.push(published);
+      const shallow = shallowRecurrentLower(recurrent3, chain2, side);
+      if (shallow) lowers.push(shallow);
+    }
     const attention3 = attentionModel && attentionLower(attentionModel, p, model.input.shape.length === 1);
     if (attention3) lowers.push(attention3);
     let lower = null;
@@ -42876,32 +43025,38 @@ function diagonalLower(c, side) {
   const rank = sides === 3 ? BigInt(q2) : 1n;
   return { rank, log2: log2Big(rank), method: "diagonal", cut: [] };
 }
-function publishedRecurrentLower(model, on2, p) {
+function publishedRecurrentLower(on2, chain2, side) {
   const first = on2.layer;
   if (first.depth < 2) return void 0;
-  if (model.input.shape.length !== 1) return void 0;
-  const t = model.input.shape[0];
+  const t = side.length;
   if (t % 2 !== 0) return void 0;
-  const startEnd = resolvePartition("start-end", model.input.shape);
-  if (!startEnd.ok || !sameMask(startEnd.partition.side, p.side)) return void 0;
+  const startEnd = resolvePartition("start-end", [t]);
+  if (!startEnd.ok || !sameMask(startEnd.partition.side, side)) return void 0;
   const m = Math.min(on2.m, first.hidden);
   const rank = binomial(m + t / 2 - 1, t / 2);
   const method = first.depth === 2 ? "published depth-2 recurrent" : "published depth-2 recurrent, lower levels passed through";
-  return { rank, log2: log2Big(rank), method, cut: [] };
+  return { rank, log2: log2Big(rank), method: chainMethod(method, on2, chain2), cut: [] };
 }
-function shallowRecurrentLower(on2, p) {
+function shallowRecurrentLower(on2, chain2, side) {
   const first = on2.layer;
   if (first.depth < 1) return void 0;
-  let a = 0;
-  for (const x of p.side) a += x;
-  const b = p.side.length - a;
+  const [a, b] = sideSizes(side);
   if (a === 0 || b === 0) return void 0;
   const r = BigInt(first.hidden);
   const m = first.depth === 1 ? on2.m : Math.min(on2.m, first.hidden);
   const bound = sylvesterPowerSpan(m, a, b, r);
   if (bound <= 1n) return void 0;
   const method = first.depth === 1 ? "shallow recurrent span" : "recurrent span, lower levels passed through";
-  return { rank: bound, log2: log2Big(bound), method, cut: [] };
+  return { rank: bound, log2: log2Big(bound), method: chainMethod(method, on2, chain2), cut: [] };
+}
+function chainMethod(method, on2, chain2) {
+  const steps = chain2.from === 0 && chain2.to === on2.steps - 1 ? "" : `, steps ${chain2.from}-${chain2.to}`;
+  if (!on2.layer.bidirectional) return `${method}${steps}`;
+  return `${method}, ${chain2.backward ? "forward" : "backward"} chains zeroed${steps}`;
+}
+function chainSide(side, chain2) {
+  const out = side.slice(chain2.from, chain2.to + 1);
+  return chain2.backward ? out.reverse() : out;
 }
 function recurrentOnInput(model, shapes) {
   let m = shapes.representation;
@@ -42911,7 +43066,6 @@ function recurrentOnInput(model, shapes) {
     if (l.kind === "pointwise") continue;
     if (!recurrent3) {
       if (l.kind === "recurrent") {
-        if (l.bidirectional) return void 0;
         recurrent3 = l;
         continue;
       }
@@ -42922,10 +43076,13 @@ function recurrentOnInput(model, shapes) {
     }
     if (l.kind !== "dense") return void 0;
   }
-  if (!recurrent3) return void 0;
-  const last = shapes.layers[shapes.layers.length - 1].shape;
-  if (recurrent3.sequence && shapes.output.position[0] !== last[0] - 1) return void 0;
-  return { layer: recurrent3, m };
+  if (!recurrent3 || model.input.shape.length !== 1) return void 0;
+  const steps = model.input.shape[0];
+  if (recurrent3.sequence && shapes.layers[shapes.layers.length - 1].shape[0] !== steps) return void 0;
+  const o = recurrent3.sequence ? shapes.output.position[0] : steps - 1;
+  const chains = [{ from: 0, to: o, backward: false }];
+  if (recurrent3.bidirectional) chains.push({ from: recurrent3.sequence ? o : 0, to: steps - 1, backward: true });
+  return { layer: recurrent3, m, steps, chains };
 }
 function sideSizes(side) {
   let a = 0;
@@ -48786,7 +48943,8 @@ function boundJson(b) {
   };
 }
 function certificateJson(c) {
-  return { scheme: c.scheme, prime: c.prime, seed: c.seed, probes: c.probes, rows: indexRanges(c.rows), cols: indexRanges(c.cols), determinant: c.determinant };
+  const size = "probes" in c ? { probes: c.probes } : { matricisation: [c.matricisation[0], c.matricisation[1]] };
+  return { scheme: c.scheme, prime: c.prime, seed: c.seed, ...size, rows: indexRanges(c.rows), cols: indexRanges(c.cols), determinant: c.determinant };
 }
 function indexRanges(list3) {
   const parts = [];
