@@ -68,16 +68,36 @@ function determinant(m: Float64Array, k: number): number {
 /** The certificate's minor, re-evaluated: [its rank, its determinant]. */
 function recheck(model: LayeredModel, surrogate: SurrogateKind, side: Uint8Array, c: ProbeCertificate): [number, number] {
   const ev = compile(model, surrogate, new DrawnWeights(c.seed));
+  if (!('probes' in c)) throw new Error('not a layered certificate');
   const tokens = model.input.vocabulary !== undefined;
+  const V = ev.features;
+  // A token input: probe inputs 0, 1, 2, … of a side in turn take, at attempt t = 0, 1, 2, …, the
+  // token value(seed, name, t) mod V at every position, until the assignment is a new one.
+  const assignments = (which: 'a' | 'b', upTo: number): number[][] => {
+    const at = [...side.keys()].filter((p) => (side[p] === 1) === (which === 'a'));
+    const seen = new Set<string>();
+    const out: number[][] = [];
+    for (let index = 0; index <= upTo; index++) {
+      for (let t = 0; ; t++) {
+        const x = at.map((p) => draw(c.seed, `${which}${index}@${p}`, t + 1)[t]! % V);
+        if (seen.has(x.join(','))) continue;
+        seen.add(x.join(','));
+        out.push(x);
+        break;
+      }
+    }
+    return out;
+  };
+  const chosen = tokens ? { a: assignments('a', Math.max(...c.rows)), b: assignments('b', Math.max(...c.cols)) } : undefined;
   const inputs = (which: 'a' | 'b', index: number): Float64Array => {
     const parts: number[] = [];
+    let k = 0;
     for (let p = 0; p < ev.positions; p++) {
       if ((side[p] === 1) !== (which === 'a')) continue;
-      if (!tokens) parts.push(...draw(c.seed, `${which}${index}@${p}`, ev.features));
+      if (!chosen) parts.push(...draw(c.seed, `${which}${index}@${p}`, V));
       else {
-        // A token input: the indicator of token value(seed, name, 0) mod V.
-        const x = new Array<number>(ev.features).fill(0);
-        x[draw(c.seed, `${which}${index}@${p}`, 1)[0]! % ev.features] = 1;
+        const x = new Array<number>(V).fill(0);
+        x[chosen[which][index]![k++]!] = 1;
         parts.push(...x);
       }
     }

@@ -32,7 +32,7 @@ export const PROBE_BUDGET = 10_000_000;
 export const PROBE_SEED = 1;
 
 /** Version of the naming and drawing scheme (draw.ts, surrogate-program.ts) a certificate follows. */
-export const PROBE_SCHEME = 1;
+export const PROBE_SCHEME = 2;
 
 /** Largest probe matrix side: the probe never proves more than this. */
 export const MAX_PROBES = 1024;
@@ -146,18 +146,27 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
   };
   const positionsA = sideOf(SIDE_A);
   const positionsB = sideOf(SIDE_B);
+  // Token inputs: a side has V^|side| distinct assignments, and no probe matrix larger than that.
+  if (program.tokens) limit = Math.min(limit, m ** positionsA.length, m ** positionsB.length);
+  if (limit <= Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES))) return undefined;
+  // Token assignments already used per side: a repeated row or column would prove nothing.
+  const usedTokens = [new Set<string>(), new Set<string>(), new Set<string>()];
   /** Sets the inputs of one side, runs that side's steps and returns the values mixed steps read. */
   const sideValues = (which: number, index: number): Float64Array => {
     const name = which === SIDE_A ? 'a' : 'b';
-    for (const p of which === SIDE_A ? positionsA : positionsB) {
-      const at = steps[p]!.offset;
-      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
-      if (!program.tokens) buf.set(drawn, at);
-      else {
-        // A token input takes only indicator vectors: the token drawn, modulo V = M.
-        buf.fill(0, at, at + m);
-        buf[at + (drawn[0]! % m)] = 1;
-      }
+    const inputs = which === SIDE_A ? positionsA : positionsB;
+    if (!program.tokens) {
+      for (const p of inputs) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p]!.offset);
+    } else {
+      // A token input takes only indicator vectors: the tokens of the first attempt whose
+      // assignment the side has not used yet (the probe never asks for more rows than the side
+      // has assignments: the token count bounds the rank from above).
+      const tokens = distinctTokens(inputs.map((p) => probeInputName(name, index, p)), m, usedTokens[which]!);
+      inputs.forEach((p, k) => {
+        const o = steps[p]!.offset;
+        buf.fill(0, o, o + m);
+        buf[o + tokens[k]!] = 1;
+      });
     }
     runAll(lists[which]!);
     const saved = new Float64Array(which === SIDE_A ? frontierA : frontierB);
@@ -218,6 +227,25 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
     k = Math.min(limit, 2 * k);
   }
   return best;
+}
+
+/**
+ * The tokens of one probe input over a side's positions: attempt t draws token
+ * value(seed, name_p, t) mod V at every position p, and the first attempt whose assignment is not
+ * in `used` is taken (and added to it).
+ */
+export function distinctTokens(names: readonly string[], vocabulary: number, used: Set<string>): number[] {
+  for (let length = 8; ; length *= 2) {
+    const draws = names.map((n) => drawValues(PROBE_SEED, n, length));
+    for (let t = length === 8 ? 0 : length / 2; t < length; t++) {
+      const tokens = draws.map((d) => d[t]! % vocabulary);
+      const key = tokens.join(',');
+      if (!used.has(key)) {
+        used.add(key);
+        return tokens;
+      }
+    }
+  }
 }
 
 function nextPowerOfTwo(x: number): number {
