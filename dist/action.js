@@ -41102,7 +41102,7 @@ function convTranspose2(b, src, layer, shape, g, shared, surrogate) {
 var PROBE_METHOD = "certified probe";
 var PROBE_BUDGET = 1e7;
 var PROBE_SEED = 1;
-var PROBE_SCHEME = 1;
+var PROBE_SCHEME = 2;
 var MAX_PROBES = 1024;
 var FIRST_PROBES = 8;
 var MAX_BUFFER = 4e6;
@@ -41186,16 +41186,21 @@ function probeRank(program, side, lower, most, budget) {
   };
   const positionsA = sideOf(SIDE_A);
   const positionsB = sideOf(SIDE_B);
+  if (program.tokens) limit = Math.min(limit, m ** positionsA.length, m ** positionsB.length);
+  if (limit <= Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES))) return void 0;
+  const usedTokens = [/* @__PURE__ */ new Set(), /* @__PURE__ */ new Set(), /* @__PURE__ */ new Set()];
   const sideValues = (which2, index) => {
     const name = which2 === SIDE_A ? "a" : "b";
-    for (const p of which2 === SIDE_A ? positionsA : positionsB) {
-      const at3 = steps[p].offset;
-      const drawn = drawValues(PROBE_SEED, probeInputName(name, index, p), program.tokens ? 1 : m);
-      if (!program.tokens) buf.set(drawn, at3);
-      else {
-        buf.fill(0, at3, at3 + m);
-        buf[at3 + drawn[0] % m] = 1;
-      }
+    const inputs = which2 === SIDE_A ? positionsA : positionsB;
+    if (!program.tokens) {
+      for (const p of inputs) buf.set(drawValues(PROBE_SEED, probeInputName(name, index, p), m), steps[p].offset);
+    } else {
+      const tokens = distinctTokens(inputs.map((p) => probeInputName(name, index, p)), m, usedTokens[which2]);
+      inputs.forEach((p, k2) => {
+        const o = steps[p].offset;
+        buf.fill(0, o, o + m);
+        buf[o + tokens[k2]] = 1;
+      });
     }
     runAll(lists[which2]);
     const saved = new Float64Array(which2 === SIDE_A ? frontierA : frontierB);
@@ -41253,6 +41258,19 @@ function probeRank(program, side, lower, most, budget) {
     k = Math.min(limit, 2 * k);
   }
   return best;
+}
+function distinctTokens(names, vocabulary, used) {
+  for (let length = 8; ; length *= 2) {
+    const draws = names.map((n) => drawValues(PROBE_SEED, n, length));
+    for (let t = length === 8 ? 0 : length / 2; t < length; t++) {
+      const tokens = draws.map((d) => d[t] % vocabulary);
+      const key = tokens.join(",");
+      if (!used.has(key)) {
+        used.add(key);
+        return tokens;
+      }
+    }
+  }
 }
 function nextPowerOfTwo(x) {
   let p = 1;
