@@ -91,6 +91,18 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
  * they are not among them; empty when the side reaches nothing.
  */
 export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
+  // The graded and partner-ideal rules read the same frontiers: made once per partition.
+  let bySide = frontierLists.get(reach);
+  if (!bySide) frontierLists.set(reach, (bySide = new Map()));
+  const key = count * 4 + mask;
+  let found = bySide.get(key);
+  if (!found) bySide.set(key, (found = chooseFrontiers(c, reach, mask, count)));
+  return found;
+}
+
+const frontierLists = new WeakMap<SideReach, Map<number, Map<number, number>[]>>();
+
+function chooseFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
   const steps = sweepOf(c, reach, mask).steps;
   const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
   for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
