@@ -31,7 +31,7 @@ export interface PartnerIdealBound {
   readonly counts: Map<number, Map<number, number>>;
 }
 
-/** Frontiers tried per side: the degree rule's best by its count, then the side's inputs and whole pure region. */
+/** Frontiers tried per side: the degree rule's best by its count (the recurrences' cuts are among them). */
 const FRONTIERS = 4;
 /** Nodes visited below the products, per partition and per product: the rule is for the few nodes at a cut. */
 const MAX_VISITS = 10_000;
@@ -44,7 +44,7 @@ export function partnerIdealBound(c: Circuit, reach: SideReach): PartnerIdealBou
   // A side none of whose pure nodes has an exact degree has no frontier the rule reads.
   const sides = [1, 2]
     .filter((mask) => hasExactPure(c, reach, mask))
-    .map((mask) => ({ mask, frontiers: sideFrontiers(c, reach, mask, FRONTIERS) }))
+    .map((mask) => ({ mask, frontiers: sideFrontiers(c, reach, mask, FRONTIERS, false) }))
     .filter((s) => s.frontiers.length > 0);
   if (sides.length === 0) return null;
   // The degree rule's count of each side's best frontier: a candidate that cannot go below the
