@@ -13,6 +13,7 @@ import { headCone } from '../network/head-cone.js';
 import { treeMinCut, type CutCounts } from './tree-min-cut.js';
 import { degreeBound, binomial, sideReach, sylvesterPowerSpan } from './degree-bound.js';
 import { gradedDegreeBound, totalDegrees } from './graded-degree.js';
+import { partnerIdealBound } from './partner-ideal.js';
 import { floorLog, powerCandidates } from './power-rounding.js';
 import { explicitBounds, type ExplicitBounds } from './explicit-bounds.js';
 import { explicitProbe } from './probe/explicit-probe.js';
@@ -108,17 +109,18 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     const deg = reach && degreeBound(circuit, p.side, reach);
     const graded = reach && gradedDegreeBound(circuit, reach, (degrees ??= totalDegrees(circuit)));
     const gradedLog2 = graded ? log2Big(graded.rank) : Infinity;
+    const ideal = reach && partnerIdealBound(circuit, reach);
     const prop = circuit.sums && cut.value > 0 ? rankPropagation(circuit, p.side, built.circuit) : null;
     // Token inputs: the function lives on V^N sequences, so its matrix has V^|A| rows and V^|B|
     // columns, whatever the network does with them (reuse included).
     const vocabulary = model.input.vocabulary;
     const tokenSide = vocabulary === undefined ? 0 : Math.min(...sideSizes(p.side));
     const tokens = vocabulary === undefined ? Infinity : tokenSide * Math.log2(vocabulary);
-    const best = Math.min(cut.value, deg?.log2 ?? Infinity, gradedLog2, prop?.log2 ?? Infinity, tokens);
+    const best = Math.min(cut.value, deg?.log2 ?? Infinity, gradedLog2, ideal?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
       // A result, not an error: the log2 of the smallest bound, reported as more than the limit.
-      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : best === deg?.log2 ? 'degree' : best === gradedLog2 ? 'graded degree' : 'token count';
-      const counts = method === 'min-cut' ? cut.counts : method === 'rank propagation' ? prop!.counts : method === 'degree' ? deg!.counts : method === 'graded degree' ? graded!.counts : new Map();
+      const method = best === cut.value ? 'min-cut' : best === prop?.log2 ? 'rank propagation' : best === deg?.log2 ? 'degree' : best === gradedLog2 ? 'graded degree' : best === ideal?.log2 ? 'partner ideal' : 'token count';
+      const counts = method === 'min-cut' ? cut.counts : method === 'rank propagation' ? prop!.counts : method === 'degree' ? deg!.counts : method === 'graded degree' ? graded!.counts : method === 'partner ideal' ? ideal!.counts : new Map();
       const upper: Bound = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === 'min-cut' ? augment : 0) };
       return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
     }
@@ -129,6 +131,7 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     ];
     if (deg) candidates.push({ log2: deg.log2, make: () => makeBound(deg.rank(), 'degree', circuit, deg.counts, 0) });
     if (graded) candidates.push({ log2: gradedLog2, make: () => makeBound(graded.rank, 'graded degree', circuit, graded.counts, 0) });
+    if (ideal) candidates.push({ log2: ideal.log2, make: () => makeBound(ideal.rank(), 'partner ideal', circuit, ideal.counts, 0) });
     if (vocabulary !== undefined) {
       candidates.push({
         log2: tokens,

@@ -86,15 +86,60 @@ export function sideReach(c: Circuit, side: Uint8Array): SideReach | null {
 
 /**
  * Frontiers of one side (mask 1 = A, 2 = B), node → its degree d_v: the `count` with the smallest
- * ungraded bounds among the sweep's steps, best first, then the earliest one (the side's inputs,
- * which come first in topological order) and the latest one (the side's whole pure region) when
- * they are not among them; empty when the side reaches nothing.
+ * ungraded bounds among the sweep's steps, best first, then (with `ends`) the earliest one (the
+ * side's inputs, which come first in topological order) and the latest one (the side's whole
+ * pure region) when they are not among them; empty when the side reaches nothing.
  */
-export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number): Map<number, number>[] {
+export function sideFrontiers(c: Circuit, reach: SideReach, mask: number, count: number, ends = true): Map<number, number>[] {
   const steps = sweepOf(c, reach, mask).steps;
-  const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
-  for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
-  return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+  const chosen = smallest(steps, count);
+  if (ends) for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
+  // The graded and partner-ideal rules read the same frontiers: each is made once per partition.
+  let bySide = frontierCache.get(reach);
+  if (!bySide) frontierCache.set(reach, (bySide = [new Map(), new Map(), new Map()]));
+  const made = bySide[mask]!;
+  const missing = chosen.map((s) => s.step).filter((step) => !made.has(step));
+  if (missing.length > 0) for (const [step, f] of frontiersAt(c, reach.dep, reach.paths, mask, missing)) made.set(step, f);
+  return chosen.map((s) => made.get(s.step)!);
+}
+
+/** The `count` steps of smallest log2 bound, smallest first, the earlier of equal ones first (a stable sort's prefix). */
+function smallest(steps: SweepResult[], count: number): SweepResult[] {
+  const out: SweepResult[] = [];
+  if (count <= 0) return out;
+  for (const s of steps) {
+    if (out.length === count && s.log >= out[count - 1]!.log) continue;
+    let i = out.length;
+    while (i > 0 && out[i - 1]!.log > s.log) i--;
+    out.splice(i, 0, s);
+    if (out.length > count) out.pop();
+  }
+  return out;
+}
+
+const frontierCache = new WeakMap<SideReach, Map<number, Map<number, number>>[]>();
+
+/** `frontierAt` for several steps in one pass of the sweep, read off at each step asked for. */
+function frontiersAt(c: Circuit, dep: Uint8Array, paths: Float64Array, mask: number, steps: number[]): Map<number, Map<number, number>> {
+  const { childStart, childList } = c;
+  const wanted = [...new Set(steps)].sort((x, y) => x - y);
+  const out = new Map<number, Map<number, number>>();
+  const d = new Float64Array(c.size);
+  let next = 0;
+  for (let v = 0; v < c.size && next < wanted.length; v++) {
+    if (dep[v] === mask && paths[v] !== 0) {
+      for (let i = childStart[v]!; i < childStart[v + 1]!; i++) {
+        const ch = childList[i]!;
+        if (d[ch]! > 0) d[ch] = d[ch]! - paths[v]!;
+      }
+      d[v] = paths[v]!;
+    }
+    if (wanted[next] !== v) continue;
+    const degrees = new Map<number, number>();
+    for (let u = 0; u <= v; u++) if (d[u]! > 0) degrees.set(u, d[u]!);
+    out.set(wanted[next++]!, degrees);
+  }
+  return out;
 }
 
 /** The frontier as cut entries: tag → node dim → number of frontier nodes. */
