@@ -8564,11 +8564,52 @@ function sideReach(c, side) {
   for (let v = 0; v < n; v++) exact2[v] = paths[v] > 0 && sumAbove[v] === 0 ? 1 : 0;
   return { dep, paths, exact: exact2 };
 }
-function sideFrontiers(c, reach, mask, count) {
+function sideFrontiers(c, reach, mask, count, ends = true) {
   const steps = sweepOf(c, reach, mask).steps;
-  const chosen = [...steps].sort((x, y) => x.log - y.log).slice(0, count);
-  for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
-  return chosen.map((s) => frontierAt(c, reach.dep, reach.paths, mask, s.step));
+  const chosen = smallest(steps, count);
+  if (ends) {
+    for (const end of [steps[0], steps[steps.length - 1]]) if (end && !chosen.includes(end)) chosen.push(end);
+  }
+  let bySide = frontierCache.get(reach);
+  if (!bySide) frontierCache.set(reach, bySide = [/* @__PURE__ */ new Map(), /* @__PURE__ */ new Map(), /* @__PURE__ */ new Map()]);
+  const made = bySide[mask];
+  const missing = chosen.map((s) => s.step).filter((step) => !made.has(step));
+  if (missing.length > 0) for (const [step, f2] of frontiersAt(c, reach.dep, reach.paths, mask, missing)) made.set(step, f2);
+  return chosen.map((s) => made.get(s.step));
+}
+function smallest(steps, count) {
+  const out = [];
+  if (count <= 0) return out;
+  for (const s of steps) {
+    if (out.length === count && s.log >= out[count - 1].log) continue;
+    let i = out.length;
+    while (i > 0 && out[i - 1].log > s.log) i--;
+    out.splice(i, 0, s);
+    if (out.length > count) out.pop();
+  }
+  return out;
+}
+var frontierCache = /* @__PURE__ */ new WeakMap();
+function frontiersAt(c, dep, paths, mask, steps) {
+  const { childStart, childList } = c;
+  const wanted = [...new Set(steps)].sort((x, y) => x - y);
+  const out = /* @__PURE__ */ new Map();
+  const d = new Float64Array(c.size);
+  let next = 0;
+  for (let v = 0; v < c.size && next < wanted.length; v++) {
+    if (dep[v] === mask && paths[v] !== 0) {
+      for (let i = childStart[v]; i < childStart[v + 1]; i++) {
+        const ch = childList[i];
+        if (d[ch] > 0) d[ch] = d[ch] - paths[v];
+      }
+      d[v] = paths[v];
+    }
+    if (wanted[next] !== v) continue;
+    const degrees = /* @__PURE__ */ new Map();
+    for (let u = 0; u <= v; u++) if (d[u] > 0) degrees.set(u, d[u]);
+    out.set(wanted[next++], degrees);
+  }
+  return out;
 }
 function frontierCounts(c, degrees) {
   const counts = /* @__PURE__ */ new Map();
@@ -8987,6 +9028,189 @@ function gradeCounts(c, frontier, deg, n, exact2) {
 }
 var EXACT = 2 ** 53;
 
+// src/cut/types.ts
+var MAX_RANK_BITS = 4e6;
+var HUGE_RANK = 1n << BigInt(MAX_RANK_BITS);
+function boundsMeet(lower, upper) {
+  return !lower.huge && !upper.huge && lower.rank === upper.rank;
+}
+function log2Big(x) {
+  if (x <= 0n) throw new RangeError("log2Big needs a positive integer");
+  const bits = x.toString(2).length;
+  if (bits <= 52) return Math.log2(Number(x));
+  const shift = BigInt(bits - 52);
+  return Math.log2(Number(x >> shift)) + Number(shift);
+}
+
+// src/cut/partner-ideal.ts
+var FRONTIERS2 = 4;
+var MAX_VISITS = 1e4;
+var MAX_CONE = 2048;
+function partnerIdealBound(c, reach) {
+  const scratch = () => scratchOf(c);
+  const budget = { visits: MAX_VISITS };
+  const sides = [1, 2].filter((mask) => hasExactPure(c, reach, mask)).map((mask) => ({ mask, frontiers: sideFrontiers(c, reach, mask, FRONTIERS2, false) })).filter((s) => s.frontiers.length > 0);
+  if (sides.length === 0) return null;
+  const degreeLog = (f2) => {
+    let sum = 0;
+    for (const [v, d] of f2) sum += log2Binomial(c.dim[v] + d - reach.exact[v], d);
+    return sum;
+  };
+  const logs = sides.map((s) => degreeLog(s.frontiers[0]));
+  if (logs.length === 2 && logs[1] < logs[0]) sides.reverse();
+  let best = null;
+  for (const { mask, frontiers } of sides) {
+    for (const frontier2 of frontiers) {
+      const found = frontierBound(c, reach, frontier2, mask, scratch, budget, Math.min(best?.log2 ?? Infinity, ...logs));
+      if (found && (!best || found.log2 < best.log2)) best = found;
+      if (budget.visits <= 0) break;
+    }
+  }
+  if (!best) return null;
+  const { frontier, factor, others } = best;
+  const rank = () => factor * productTree([...frontier].filter(([f2]) => !others.has(f2)).map(([f2, d]) => forms(c.dim[f2], d)));
+  return { log2: best.log2, rank, counts: frontierCounts(c, frontier) };
+}
+function hasExactPure(c, reach, mask) {
+  for (let v = 0; v < c.size; v++) if (reach.dep[v] === mask && reach.exact[v]) return true;
+  return false;
+}
+function frontierBound(c, reach, frontier, mask, scratchFor, budget, threshold) {
+  const { op, dim } = c;
+  for (const [f2] of frontier) if (!reach.exact[f2]) return null;
+  const logForms = (f2, d) => log2Binomial(dim[f2] + d - 1, d);
+  let logAll;
+  let best = null;
+  for (const [w, dw] of frontier) {
+    if (dw !== 1 || budget.visits <= 0) continue;
+    const scratch = scratchFor();
+    const { parent } = scratch;
+    let v = w;
+    while (parent[v] >= 0 && op[parent[v]] === OP_LINEAR) v = parent[v];
+    const q = parent[v];
+    if (q < 0 || op[q] !== OP_PRODUCT) continue;
+    const partner = partnerOf(c, reach, frontier, mask, q, v, scratch, budget);
+    if (!partner || partner.e.size === 0 || partner.e.has(w)) continue;
+    let logFull = 0;
+    let logOnce = 0;
+    for (const [f2, e] of partner.e) {
+      const d = frontier.get(f2);
+      logFull += logForms(f2, d);
+      logOnce += logForms(f2, d - e);
+    }
+    logAll ??= [...frontier].reduce((sum, [f2, d]) => sum + logForms(f2, d), 0);
+    const logRest = logAll - logForms(w, 1) - logFull;
+    const floor2 = Math.min(Math.log2(dim[q]) + logOnce, Math.log2(dim[w]) + logFull) + logRest;
+    if (floor2 >= Math.min(threshold, best?.log2 ?? Infinity) - 1e-9) continue;
+    let full = 1n;
+    let once = 1n;
+    let twice = 1n;
+    for (const [f2, e] of partner.e) {
+      const d = frontier.get(f2);
+      full *= forms(dim[f2], d);
+      once *= forms(dim[f2], d - e);
+      twice *= forms(dim[f2], d - 2 * e);
+    }
+    const m = partner.m;
+    let ideal;
+    const single = partner.e.size === 1 ? [...partner.e][0] : void 0;
+    if (single && single[1] === 1) {
+      const f2 = single[0];
+      const k = m < BigInt(dim[f2]) ? Number(m) : dim[f2];
+      ideal = full - forms(dim[f2] - k, frontier.get(f2));
+    } else if (m === 1n) {
+      ideal = once;
+    } else {
+      ideal = 2n * once - twice + (m - 2n) * once;
+    }
+    if (ideal > full) ideal = full;
+    const factor = BigInt(dim[q]) * ideal;
+    const plain = BigInt(dim[w]) * full;
+    if (factor >= plain) continue;
+    const log2 = log2Big(factor) + logRest;
+    if (!best || log2 < best.log2) best = { log2, frontier, factor, others: /* @__PURE__ */ new Set([w, ...partner.e.keys()]) };
+  }
+  return best;
+}
+function partnerOf(c, reach, frontier, mask, q, via, scratch, budget) {
+  const { op, childStart, childList } = c;
+  const { dep } = reach;
+  const { mark, paths, span } = scratch;
+  const far = 3 - mask;
+  const stamp = ++scratch.stamp;
+  const cone = [];
+  const stack = [];
+  const leaf = (v) => frontier.has(v) || dep[v] === 0 || dep[v] === far;
+  let skipped = false;
+  for (let i = childStart[q]; i < childStart[q + 1]; i++) {
+    const ch = childList[i];
+    if (ch === via && !skipped) {
+      skipped = true;
+      continue;
+    }
+    if (mark[ch] !== stamp) {
+      mark[ch] = stamp;
+      paths[ch] = 0;
+      stack.push(ch);
+    }
+    paths[ch] = paths[ch] + 1;
+  }
+  while (stack.length > 0) {
+    const v = stack.pop();
+    if (--budget.visits < 0 || cone.length >= MAX_CONE) return null;
+    cone.push(v);
+    if (leaf(v)) continue;
+    if (op[v] === OP_INPUT || op[v] === OP_SUM) return null;
+    for (let i = childStart[v]; i < childStart[v + 1]; i++) {
+      const ch = childList[i];
+      if (mark[ch] !== stamp) {
+        mark[ch] = stamp;
+        paths[ch] = 0;
+        stack.push(ch);
+      }
+    }
+  }
+  cone.sort((a, b) => b - a);
+  const e = /* @__PURE__ */ new Map();
+  let m = 1n;
+  for (const v of cone) {
+    const p = paths[v];
+    if (frontier.has(v)) e.set(v, p);
+    else if (dep[v] === far) m *= forms(span[v], p);
+    else if (dep[v] !== 0) {
+      for (let i = childStart[v]; i < childStart[v + 1]; i++) paths[childList[i]] = paths[childList[i]] + p;
+    }
+  }
+  return { e, m };
+}
+function forms(D, d) {
+  if (d < 0) return 0n;
+  if (d === 0) return 1n;
+  return binomial(D + d - 1, d);
+}
+var scratches = /* @__PURE__ */ new WeakMap();
+function scratchOf(c) {
+  let s = scratches.get(c);
+  if (s) return s;
+  const parent = new Int32Array(c.size).fill(-1);
+  const seen = new Uint8Array(c.size);
+  const span = new Float64Array(c.size);
+  for (let v = 0; v < c.size; v++) {
+    const kind = c.op[v];
+    let x = kind === OP_INPUT ? c.dim[v] : kind === OP_CONST ? 1 : kind === OP_PRODUCT ? 1 : 0;
+    for (let i = c.childStart[v]; i < c.childStart[v + 1]; i++) {
+      const ch = c.childList[i];
+      parent[ch] = seen[ch] ? -1 : v;
+      seen[ch] = 1;
+      x = kind === OP_PRODUCT ? x * span[ch] : x + span[ch];
+    }
+    span[v] = Math.min(x, c.dim[v]);
+  }
+  s = { parent, span, mark: new Int32Array(c.size), paths: new Float64Array(c.size), stamp: 0 };
+  scratches.set(c, s);
+  return s;
+}
+
 // src/cut/power-rounding.ts
 var MAX_CANDIDATES = 64;
 function floorLog(d, q) {
@@ -9234,20 +9458,6 @@ function checkNode(v, nodeCount) {
   if (!Number.isInteger(v) || v < 0 || v >= nodeCount) {
     throw new RangeError(`node ${v} is outside 0..${nodeCount - 1}`);
   }
-}
-
-// src/cut/types.ts
-var MAX_RANK_BITS = 4e6;
-var HUGE_RANK = 1n << BigInt(MAX_RANK_BITS);
-function boundsMeet(lower, upper) {
-  return !lower.huge && !upper.huge && lower.rank === upper.rank;
-}
-function log2Big(x) {
-  if (x <= 0n) throw new RangeError("log2Big needs a positive integer");
-  const bits = x.toString(2).length;
-  if (bits <= 52) return Math.log2(Number(x));
-  const shift = BigInt(bits - 52);
-  return Math.log2(Number(x >> shift)) + Number(shift);
 }
 
 // src/cut/explicit-bounds.ts
@@ -11667,14 +11877,15 @@ function analyseLayered(model, options) {
     const deg = reach && degreeBound(circuit, p.side, reach);
     const graded = reach && gradedDegreeBound(circuit, reach, degrees ??= totalDegrees(circuit));
     const gradedLog2 = graded ? log2Big(graded.rank) : Infinity;
+    const ideal = reach && partnerIdealBound(circuit, reach);
     const prop = circuit.sums && cut2.value > 0 ? rankPropagation(circuit, p.side, built.circuit) : null;
     const vocabulary = model.input.vocabulary;
     const tokenSide = vocabulary === void 0 ? 0 : Math.min(...sideSizes(p.side));
     const tokens = vocabulary === void 0 ? Infinity : tokenSide * Math.log2(vocabulary);
-    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, gradedLog2, prop?.log2 ?? Infinity, tokens);
+    const best = Math.min(cut2.value, deg?.log2 ?? Infinity, gradedLog2, ideal?.log2 ?? Infinity, prop?.log2 ?? Infinity, tokens);
     if (best > MAX_RANK_BITS) {
-      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : best === gradedLog2 ? "graded degree" : "token count";
-      const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : method === "graded degree" ? graded.counts : /* @__PURE__ */ new Map();
+      const method = best === cut2.value ? "min-cut" : best === prop?.log2 ? "rank propagation" : best === deg?.log2 ? "degree" : best === gradedLog2 ? "graded degree" : best === ideal?.log2 ? "partner ideal" : "token count";
+      const counts = method === "min-cut" ? cut2.counts : method === "rank propagation" ? prop.counts : method === "degree" ? deg.counts : method === "graded degree" ? graded.counts : method === "partner ideal" ? ideal.counts : /* @__PURE__ */ new Map();
       const upper2 = { rank: HUGE_RANK, log2: best, huge: true, method, cut: cutEntries(circuit, counts, method === "min-cut" ? augment : 0) };
       return finish(p.label, { upper: upper2, lower: bestLower(p, upper2, probeTarget) });
     }
@@ -11683,6 +11894,7 @@ function analyseLayered(model, options) {
     ];
     if (deg) candidates2.push({ log2: deg.log2, make: () => makeBound(deg.rank(), "degree", circuit, deg.counts, 0) });
     if (graded) candidates2.push({ log2: gradedLog2, make: () => makeBound(graded.rank, "graded degree", circuit, graded.counts, 0) });
+    if (ideal) candidates2.push({ log2: ideal.log2, make: () => makeBound(ideal.rank(), "partner ideal", circuit, ideal.counts, 0) });
     if (vocabulary !== void 0) {
       candidates2.push({
         log2: tokens,
@@ -12187,12 +12399,12 @@ function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers, 
       const b = judge(cand.apply(model, v), false);
       return b !== void 0 && b.upper.rank >= minRank;
     };
-    const ceiling = reaches(cand.from) ? cand.from : smallest(cand.from, cand.max, reaches);
+    const ceiling = reaches(cand.from) ? cand.from : smallest2(cand.from, cand.max, reaches);
     if (ceiling === void 0) continue;
     let to = ceiling;
     let found = judge(cand.apply(model, to), true);
     if (unproven === "fail" && !(found && restores(found, minRank, "fail"))) {
-      const proven = smallest(ceiling, cand.max, (v) => {
+      const proven = smallest2(ceiling, cand.max, (v) => {
         const b = judge(cand.apply(model, v), true);
         return b !== void 0 && restores(b, minRank, "fail");
       });
@@ -12221,7 +12433,7 @@ function searchFixes(model, partition, minRank, unproven, surrogate, cutLayers, 
 function cheapestFirst(fixes) {
   return [...fixes].sort((a, b) => a.addedParameters < b.addedParameters ? -1 : a.addedParameters > b.addedParameters ? 1 : a.line - b.line);
 }
-function smallest(from, max, ok) {
+function smallest2(from, max, ok) {
   let lo = from;
   let hi = Math.min(max, Math.max(from + 1, from * 2));
   for (; ; ) {
