@@ -431,10 +431,10 @@ interface RecurrentOnInput {
  * and their widths. The output the head reads is the final state, or with per-step outputs the
  * state at the analysed step o: that is the final state of the same layer over steps 0 … o, and
  * the steps after o do not enter it (their side does not change the rank). A bidirectional layer
- * is read with one direction zeroed (DEVELOPERS.md, "Bidirectional layers"): with its backward
- * chains zeroed it is the unidirectional layer over steps 0 … o (final state: all steps); with
- * its forward chains zeroed, the unidirectional layer over steps T−1 down to o (final state b_1:
- * all steps, reversed).
+ * is read with one direction zeroed (DEVELOPERS.md, "Bidirectional layers and per-step
+ * outputs"): with its backward chains zeroed it is the unidirectional layer over steps 0 … o
+ * (final state: all steps); with its forward chains zeroed, the unidirectional layer over steps
+ * T−1 down to o (final state b_1: all steps, reversed).
  */
 function recurrentOnInput(model: LayeredModel, shapes: ModelShapes): RecurrentOnInput | undefined {
   let m = shapes.representation;
