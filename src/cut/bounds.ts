@@ -227,10 +227,18 @@ function lowerCircuits(model: LayeredModel, options: BoundsOptions, shapes: Mode
   return out;
 }
 
+/**
+ * Rank 1 is proven for every model the engine accepts: a layered model whose analysed output is
+ * zero for every choice of weights is refused, and an explicit network of generic tensors is not
+ * zero. So an upper bound of 1 is exact.
+ */
+const NOT_ZERO: Bound = { rank: 1n, log2: 0, method: 'the output is not zero', cut: [] };
+
 function finish(label: string, b: { upper: Bound; lower: Bound | null }): PartitionBounds {
   const upper = b.upper;
   // A lower bound beyond the bit limit is reported like a huge upper bound: by its log2.
-  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const found = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const lower = !found && !upper.huge && upper.rank === 1n ? NOT_ZERO : found;
   const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
   const shown = (x: Bound): string => (x.huge ? `2^${x.log2}` : String(x.rank));
   if (above) throw new Error(`unsound bounds for '${label}': lower ${shown(lower)} (${lower.method}) > upper ${shown(upper)} (${upper.method})`);
