@@ -43166,9 +43166,11 @@ function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
   }
   return out;
 }
+var NOT_ZERO = { rank: 1n, log2: 0, method: "the output is not zero", cut: [] };
 function finish(label, b) {
   const upper = b.upper;
-  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const found2 = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const lower = !found2 && !upper.huge && upper.rank === 1n ? NOT_ZERO : found2;
   const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
   const shown2 = (x) => x.huge ? `2^${x.log2}` : String(x.rank);
   if (above) throw new Error(`unsound bounds for '${label}': lower ${shown2(lower)} (${lower.method}) > upper ${shown2(upper)} (${upper.method})`);

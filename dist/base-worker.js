@@ -11971,9 +11971,11 @@ function lowerCircuits(model, options, shapes, reading, hasRecurrent) {
   }
   return out;
 }
+var NOT_ZERO = { rank: 1n, log2: 0, method: "the output is not zero", cut: [] };
 function finish(label, b) {
   const upper = b.upper;
-  const lower = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const found = b.lower && !b.lower.huge && b.lower.log2 > MAX_RANK_BITS ? { ...b.lower, rank: HUGE_RANK, huge: true } : b.lower;
+  const lower = !found && !upper.huge && upper.rank === 1n ? NOT_ZERO : found;
   const above = lower && (lower.huge || upper.huge ? lower.log2 > upper.log2 + 1e-9 * upper.log2 : lower.rank > upper.rank);
   const shown = (x) => x.huge ? `2^${x.log2}` : String(x.rank);
   if (above) throw new Error(`unsound bounds for '${label}': lower ${shown(lower)} (${lower.method}) > upper ${shown(upper)} (${upper.method})`);
