@@ -25,7 +25,7 @@ import { surrogateProgram, type SurrogateProgram } from './surrogate-program.js'
 
 export const PROBE_METHOD = 'certified probe';
 
-/** Multiply-adds mod p one partition may spend (about a quarter of a second on a CI runner). */
+/** Multiply-adds mod p one partition may spend (0.1–0.4 s on a CI runner, see DEVELOPERS.md). */
 export const PROBE_BUDGET = 10_000_000;
 
 /** The seed of every probe; a certificate states it. */
