@@ -156,10 +156,10 @@ export function analyseLayered(model: LayeredModel, options: BoundsOptions): Lay
     return finish(p.label, { upper: upper!, lower: bestLower(p, upper!, probeTarget) });
   };
   const attentionModel = attentionOnInput(model, built.shapes, built.pointwise);
+  const recurrent = recurrentOnInput(model, built.shapes);
   const bestLower = (p: Partition, upper: Bound, probeTarget: bigint | null | undefined): Bound | null => {
     const lowers: Bound[] = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
-    const recurrent = recurrentOnInput(model, built.shapes);
     for (const chain of recurrent?.chains ?? []) {
       const side = chainSide(p.side, chain);
       const published = publishedRecurrentLower(recurrent!, chain, side);

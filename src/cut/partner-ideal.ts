@@ -150,7 +150,8 @@ function frontierBound(
     } else if (m === 1n) {
       ideal = once;
     } else {
-      ideal = 2n * once - twice + (m - 2n) * once;
+      // Two forms span at most 2·once − twice (their Koszul syzygy); each further one adds once.
+      ideal = m * once - twice;
     }
     if (ideal > full) ideal = full;
     const factor = BigInt(dim[q]!) * ideal;

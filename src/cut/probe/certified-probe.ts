@@ -19,7 +19,7 @@ import type { ModelShapes } from '../../config/model-shapes.js';
 import type { PointwiseReading } from '../../network/square-rule.js';
 import type { Bound, ProbeCertificate, Surrogate } from '../types.js';
 import { log2Big } from '../types.js';
-import { drawValues } from './draw.js';
+import { drawValue, drawValues } from './draw.js';
 import { PROBE_PRIME, certifyingMinor, type CertifyingMinor } from './modular.js';
 import { surrogateProgram, type SurrogateProgram } from './surrogate-program.js';
 
@@ -146,11 +146,13 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
   };
   const positionsA = sideOf(SIDE_A);
   const positionsB = sideOf(SIDE_B);
+  // Start just above the best lower bound so far: a smaller probe could not improve on it.
+  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
   // Token inputs: a side has V^|side| distinct assignments, and no probe matrix larger than that.
   if (program.tokens) limit = Math.min(limit, m ** positionsA.length, m ** positionsB.length);
-  if (limit <= Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES))) return undefined;
+  if (limit <= known) return undefined;
   // Token assignments already used per side: a repeated row or column would prove nothing.
-  const usedTokens = [new Set<string>(), new Set<string>(), new Set<string>()];
+  const usedTokens: Record<number, Set<string>> = { [SIDE_A]: new Set(), [SIDE_B]: new Set() };
   /** Sets the inputs of one side, runs that side's steps and returns the values mixed steps read. */
   const sideValues = (which: number, index: number): Float64Array => {
     const name = which === SIDE_A ? 'a' : 'b';
@@ -186,8 +188,6 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
   const entries: Float64Array[] = [];
   let spent = 0;
   let best: Reading | undefined;
-  // Start just above the best lower bound so far: a smaller probe could not improve on it.
-  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
   let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
   const stepCost = (from: number, to: number): number => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + (to * to * to) / 3;
   for (;;) {
@@ -235,15 +235,12 @@ function probeRank(program: SurrogateProgram, side: Uint8Array, lower: bigint, m
  * in `used` is taken (and added to it).
  */
 export function distinctTokens(names: readonly string[], vocabulary: number, used: Set<string>): number[] {
-  for (let length = 8; ; length *= 2) {
-    const draws = names.map((n) => drawValues(PROBE_SEED, n, length));
-    for (let t = length === 8 ? 0 : length / 2; t < length; t++) {
-      const tokens = draws.map((d) => d[t]! % vocabulary);
-      const key = tokens.join(',');
-      if (!used.has(key)) {
-        used.add(key);
-        return tokens;
-      }
+  for (let t = 0; ; t++) {
+    const tokens = names.map((n) => drawValue(PROBE_SEED, n, t) % vocabulary);
+    const key = tokens.join(',');
+    if (!used.has(key)) {
+      used.add(key);
+      return tokens;
     }
   }
 }

@@ -29,6 +29,15 @@ function mix(x: number): number {
 export function drawValues(seed: number, name: string, length: number): Float64Array {
   const base = mix((seed ^ fnv1a(name)) >>> 0);
   const out = new Float64Array(length);
-  for (let i = 0; i < length; i++) out[i] = mix((base + Math.imul(i + 1, 0x9e3779b9)) >>> 0) % PROBE_PRIME;
+  for (let i = 0; i < length; i++) out[i] = valueAt(base, i);
   return out;
+}
+
+/** Number i named `name` under `seed`: drawValues(seed, name, i + 1)[i]. */
+export function drawValue(seed: number, name: string, i: number): number {
+  return valueAt(mix((seed ^ fnv1a(name)) >>> 0), i);
+}
+
+function valueAt(base: number, i: number): number {
+  return mix((base + Math.imul(i + 1, 0x9e3779b9)) >>> 0) % PROBE_PRIME;
 }

@@ -33,7 +33,7 @@ interface Factor {
   readonly data: Float64Array;
 }
 
-/** A factor's variables as a mask-free sorted list; sizes from `dims`. */
+/** The number of entries of a factor over these variables. */
 function sizeOf(vars: Iterable<number>, dims: readonly number[]): number {
   let s = 1;
   for (const v of vars) s *= dims[v]!;
