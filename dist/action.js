@@ -40316,7 +40316,7 @@ function frontierBound(c, reach, frontier, mask, scratchFor, budget, threshold) 
     } else if (m === 1n) {
       ideal = once;
     } else {
-      ideal = 2n * once - twice + (m - 2n) * once;
+      ideal = m * once - twice;
     }
     if (ideal > full) ideal = full;
     const factor = BigInt(dim[q2]) * ideal;
@@ -40851,8 +40851,14 @@ function mix(x) {
 function drawValues(seed, name, length) {
   const base = mix((seed ^ fnv1a(name)) >>> 0);
   const out = new Float64Array(length);
-  for (let i = 0; i < length; i++) out[i] = mix(base + Math.imul(i + 1, 2654435769) >>> 0) % PROBE_PRIME;
+  for (let i = 0; i < length; i++) out[i] = valueAt(base, i);
   return out;
+}
+function drawValue(seed, name, i) {
+  return valueAt(mix((seed ^ fnv1a(name)) >>> 0), i);
+}
+function valueAt(base, i) {
+  return mix(base + Math.imul(i + 1, 2654435769) >>> 0) % PROBE_PRIME;
 }
 
 // src/cut/probe/surrogate-program.ts
@@ -41396,9 +41402,10 @@ function probeRank(program, side, lower, most, budget) {
   };
   const positionsA = sideOf(SIDE_A);
   const positionsB = sideOf(SIDE_B);
+  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
   if (program.tokens) limit = Math.min(limit, m ** positionsA.length, m ** positionsB.length);
-  if (limit <= Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES))) return void 0;
-  const usedTokens = [/* @__PURE__ */ new Set(), /* @__PURE__ */ new Set(), /* @__PURE__ */ new Set()];
+  if (limit <= known) return void 0;
+  const usedTokens = { [SIDE_A]: /* @__PURE__ */ new Set(), [SIDE_B]: /* @__PURE__ */ new Set() };
   const sideValues = (which2, index) => {
     const name = which2 === SIDE_A ? "a" : "b";
     const inputs = which2 === SIDE_A ? positionsA : positionsB;
@@ -41429,7 +41436,6 @@ function probeRank(program, side, lower, most, budget) {
   const entries2 = [];
   let spent = 0;
   let best;
-  const known = Number(lower < BigInt(MAX_PROBES) ? lower : BigInt(MAX_PROBES));
   let k = Math.min(limit, Math.max(FIRST_PROBES, nextPowerOfTwo(known + 1)));
   const stepCost = (from, to) => (to - from) * (rowCost + colCost) + (to * to - from * from) * entryCost + to * to * to / 3;
   for (; ; ) {
@@ -41470,15 +41476,12 @@ function probeRank(program, side, lower, most, budget) {
   return best;
 }
 function distinctTokens(names, vocabulary, used) {
-  for (let length = 8; ; length *= 2) {
-    const draws = names.map((n) => drawValues(PROBE_SEED, n, length));
-    for (let t = length === 8 ? 0 : length / 2; t < length; t++) {
-      const tokens = draws.map((d) => d[t] % vocabulary);
-      const key = tokens.join(",");
-      if (!used.has(key)) {
-        used.add(key);
-        return tokens;
-      }
+  for (let t = 0; ; t++) {
+    const tokens = names.map((n) => drawValue(PROBE_SEED, n, t) % vocabulary);
+    const key = tokens.join(",");
+    if (!used.has(key)) {
+      used.add(key);
+      return tokens;
     }
   }
 }
@@ -42541,7 +42544,7 @@ function propagateExact(c, plan, small, large) {
     lamNoA: new Array(m),
     lamNoB: new Array(m)
   };
-  const at2 = (doubles, exact2, v) => valueAt(doubles, exact2, slot, v);
+  const at2 = (doubles, exact2, v) => valueAt2(doubles, exact2, slot, v);
   const parts = new AdditiveParts(c.size, INT_ARITH, small.parts);
   const sum2 = { a: 0, b: 0, l: 0, noA: 0, noB: 0 };
   for (let i = 0; i < m; i++) {
@@ -42612,16 +42615,16 @@ function propagateExact(c, plan, small, large) {
   }
   return at2(small.lam, ex.lam, c.top);
 }
-function valueAt(doubles, exact2, slot, v) {
+function valueAt2(doubles, exact2, slot, v) {
   const i = slot[v];
   return i >= 0 ? exact2[i] : doubles[v];
 }
 function termExact(plan, t, doubles, exact2, slot) {
   const { childOf, mStart, members } = plan;
-  const node = valueAt(doubles, exact2, slot, childOf[t]);
+  const node = valueAt2(doubles, exact2, slot, childOf[t]);
   if (mStart[t + 1] === mStart[t]) return node;
-  let sum2 = valueAt(doubles, exact2, slot, members[mStart[t]]);
-  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum2 = addInt(sum2, valueAt(doubles, exact2, slot, members[i]));
+  let sum2 = valueAt2(doubles, exact2, slot, members[mStart[t]]);
+  for (let i = mStart[t] + 1; i < mStart[t + 1]; i++) sum2 = addInt(sum2, valueAt2(doubles, exact2, slot, members[i]));
   return minInt(node, sum2);
 }
 function sumExact(plan, v, D2, dep, small, ex, out) {
@@ -43114,10 +43117,10 @@ function analyseLayered(model, options) {
     return finish(p.label, { upper, lower: bestLower(p, upper, probeTarget) });
   };
   const attentionModel = attentionOnInput(model, built.shapes, built.pointwise);
+  const recurrent3 = recurrentOnInput(model, built.shapes);
   const bestLower = (p, upper, probeTarget) => {
     const lowers = [];
     for (const net of lowerNetworks) lowers.push(...net.lower(p.side));
-    const recurrent3 = recurrentOnInput(model, built.shapes);
     for (const chain2 of recurrent3?.chains ?? []) {
       const side = chainSide(p.side, chain2);
       const published = publishedRecurrentLower(recurrent3, chain2, side);
